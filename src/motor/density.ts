@@ -21,6 +21,8 @@ export function currentDensity(current: number, paths: number, strands: number, 
  * ρ resistivity of the copper at the winding's temperature (Ω·m), L the length of one strand
  * along one path between the brushes (m). Follows from I_stall = (V − V_b)/R with
  * R = ρ·L/(a·k·A): the wire size cancels, so the stall density is set by the wire's length only.
+ * Each path sees the same V − V_b, so with paths of unequal length (an odd number of coils split
+ * ⌊C/2⌋ and ⌈C/2⌉) give each path's own length: the shorter path runs at the higher density.
  * REPORT ONLY, never a limit: a stall lasts seconds and no choice of wire size changes it.
  * Source: derived from Ohm's law and the definition above (DESIGN.md).
  */
