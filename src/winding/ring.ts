@@ -1,0 +1,419 @@
+/**
+ * The commutator ring as a resistor network: bars are nodes, each live coil an edge from its
+ * start bar to its end bar, fitted equalizers ideal (0 Ω) links between the bars of a group.
+ * Effective resistances come from the nodal equations (Kirchhoff's current law on the weighted
+ * graph Laplacian, a dense solve; C up to a few hundred).
+ *
+ * Units: resistances in Ω; bar numbers 1 … C.
+ */
+import { inputError } from "../errors.js";
+import type { WindingLayout } from "./types.js";
+
+const mod1 = (n: number, m: number) => ((((n - 1) % m) + m) % m) + 1;
+
+// ---------------------------------------------------------------------------------------------
+// closed forms for equal coils (DESIGN.md "The models": any DC-machine text on armature
+// resistance; the ring formula is the parallel combination of the two arcs of the ring)
+
+/**
+ * Bar-to-bar resistance (Ω) of a closed ring of C equal coils of R Ω (tooth and simplex lap):
+ * one coil in parallel with the other C − 1: R·(C − 1)/C.
+ */
+export function ringBarToBar(coilOhm: number, bars: number): number {
+  return (coilOhm * (bars - 1)) / bars;
+}
+
+/**
+ * Bar-to-bar resistance (Ω) of a simplex wave of C equal coils of R Ω on P = 2p poles: p coils lie
+ * in series between adjacent bars, in parallel with the other C − p: R·p·(C − p)/C.
+ */
+export function waveBarToBar(coilOhm: number, bars: number, polePairs: number): number {
+  return (coilOhm * polePairs * (bars - polePairs)) / bars;
+}
+
+/** Resistance (Ω) between two brushes that split a ring of C equal coils of R Ω into m and C − m coils: R·m·(C − m)/C. */
+export function ringSplit(coilOhm: number, bars: number, m: number): number {
+  return (coilOhm * m * (bars - m)) / bars;
+}
+
+/** Terminal resistance (Ω) of a simplex lap of C equal coils on P poles with P brushes (P | C): P paths of C/P coils in parallel, R·C/P². */
+export function lapBrushesResistance(coilOhm: number, bars: number, poles: number): number {
+  return (coilOhm * bars) / (poles * poles);
+}
+
+/**
+ * Bar-to-bar resistance (Ω) of a simplex lap of C equal coils on P = 2p poles with every equalizer
+ * group fitted (ideal links): the ring folds into n = C/p nodes, p coils in parallel between
+ * neighbours, so (R/p)·(n − 1)/n. (Derived here from the ring formula; independent nodal check in the tests.)
+ */
+export function equalizedLapBarToBar(coilOhm: number, bars: number, polePairs: number): number {
+  const n = bars / polePairs;
+  return ((coilOhm / polePairs) * (n - 1)) / n;
+}
+
+// ---------------------------------------------------------------------------------------------
+// linear algebra
+
+/** Solve A x = b in place by Gaussian elimination with partial pivoting; null when A is singular. */
+function solveDense(A: number[][], b: number[]): number[] | null {
+  const n = b.length;
+  for (let c = 0; c < n; c++) {
+    let piv = c;
+    for (let r = c + 1; r < n; r++) if (Math.abs(A[r][c]) > Math.abs(A[piv][c])) piv = r;
+    if (!(Math.abs(A[piv][c]) > 1e-300)) return null;
+    if (piv !== c) {
+      [A[piv], A[c]] = [A[c], A[piv]];
+      [b[piv], b[c]] = [b[c], b[piv]];
+    }
+    const d = A[c][c];
+    for (let r = c + 1; r < n; r++) {
+      const f = A[r][c] / d;
+      if (f === 0) continue;
+      const Ar = A[r];
+      const Ac = A[c];
+      for (let k = c; k < n; k++) Ar[k] -= f * Ac[k];
+      b[r] -= f * b[c];
+    }
+  }
+  const x = new Array<number>(n).fill(0);
+  for (let r = n - 1; r >= 0; r--) {
+    let s = b[r];
+    for (let k = r + 1; k < n; k++) s -= A[r][k] * x[k];
+    x[r] = s / A[r][r];
+  }
+  return x;
+}
+
+/** Inverse of A (n×n) by Gauss–Jordan with partial pivoting; null when singular. */
+function invertDense(M: number[][]): number[][] | null {
+  const n = M.length;
+  const A = M.map((row, i) => [...row, ...Array.from({ length: n }, (_, j) => (i === j ? 1 : 0))]);
+  for (let c = 0; c < n; c++) {
+    let piv = c;
+    for (let r = c + 1; r < n; r++) if (Math.abs(A[r][c]) > Math.abs(A[piv][c])) piv = r;
+    if (!(Math.abs(A[piv][c]) > 1e-300)) return null;
+    [A[piv], A[c]] = [A[c], A[piv]];
+    const d = A[c][c];
+    for (let k = 0; k < 2 * n; k++) A[c][k] /= d;
+    for (let r = 0; r < n; r++) {
+      if (r === c) continue;
+      const f = A[r][c];
+      if (f === 0) continue;
+      for (let k = 0; k < 2 * n; k++) A[r][k] -= f * A[c][k];
+    }
+  }
+  return A.map((row) => row.slice(n));
+}
+
+// ---------------------------------------------------------------------------------------------
+// the network
+
+/** One resistor between two bars (Ω; 0 an ideal link, Infinity an open coil). */
+export interface RingEdge {
+  a: number;
+  b: number;
+  ohm: number;
+  /** The coil it stands for, or null for an equalizer link. */
+  coil: number | null;
+}
+
+/**
+ * The bar graph of a layout: each live coil an edge start_bar–end_bar of `coilOhm[index − 1]` Ω,
+ * and, when equalizers are fitted, 0 Ω links joining the bars of each equalizer group.
+ * `coilOhm` is in coil index order, one entry per coil (a dead coil's entry is ignored).
+ */
+export function ringEdges(layout: WindingLayout, coilOhm: number[]): RingEdge[] {
+  if (coilOhm.length !== layout.coils.length) {
+    throw inputError("coil_ohm_count", "coil_ohm", `${coilOhm.length} coil resistances given for ${layout.coils.length} coils`);
+  }
+  const edges: RingEdge[] = [];
+  layout.coils.forEach((c, i) => {
+    if (c.dead || c.start_bar === null || c.end_bar === null) return;
+    const r = coilOhm[i];
+    if (!(r >= 0)) throw inputError("coil_ohm_invalid", `coil_ohm[${i}]`, `coil ${c.index} resistance must be 0 Ω or more (got ${r})`);
+    edges.push({ a: c.start_bar, b: c.end_bar, ohm: r, coil: c.index });
+  });
+  if (layout.equalizers) {
+    for (const g of layout.equalizer_groups) for (let j = 1; j < g.length; j++) edges.push({ a: g[0], b: g[j], ohm: 0, coil: null });
+  }
+  return edges;
+}
+
+/**
+ * A resistor network on nodes 1 … n. Ideal (0 Ω) edges merge nodes; open (∞ Ω) edges are left
+ * out. When the rest is connected, the grounded Laplacian is inverted once and every query is a
+ * small system over the brush nodes; otherwise each query is solved directly.
+ */
+export class Network {
+  private readonly n: number;
+  private readonly parent: number[];
+  /** Finite, positive edges between merged classes (class ids 0 … m−1). */
+  private readonly edges: { a: number; b: number; g: number }[] = [];
+  private readonly cls: number[];
+  private readonly m: number;
+  private G: number[][] | null = null;
+  private connected = false;
+
+  constructor(n: number, edges: { a: number; b: number; ohm: number }[]) {
+    this.n = n;
+    this.parent = Array.from({ length: n + 1 }, (_, i) => i);
+    for (const e of edges) if (e.ohm === 0) this.union(e.a, e.b);
+    const id = new Map<number, number>();
+    this.cls = new Array<number>(n + 1).fill(-1);
+    for (let v = 1; v <= n; v++) {
+      const r = this.find(v);
+      if (!id.has(r)) id.set(r, id.size);
+      this.cls[v] = id.get(r)!;
+    }
+    this.m = id.size;
+    for (const e of edges) {
+      if (e.ohm === 0 || !Number.isFinite(e.ohm)) continue;
+      const a = this.cls[e.a];
+      const b = this.cls[e.b];
+      if (a !== b) this.edges.push({ a, b, g: 1 / e.ohm });
+    }
+    this.connected = this.components(this.m, this.edges).every((c) => c === 0);
+    if (this.connected && this.m > 1) {
+      const L = this.laplacian(this.m, this.edges);
+      const red = L.slice(1).map((row) => row.slice(1));
+      const inv = invertDense(red);
+      if (inv) {
+        this.G = Array.from({ length: this.m }, (_, i) => Array.from({ length: this.m }, (_, j) => (i === 0 || j === 0 ? 0 : inv[i - 1][j - 1])));
+      } else this.connected = false;
+    }
+  }
+
+  private find(v: number): number {
+    while (this.parent[v] !== v) {
+      this.parent[v] = this.parent[this.parent[v]];
+      v = this.parent[v];
+    }
+    return v;
+  }
+  private union(a: number, b: number) {
+    const ra = this.find(a);
+    const rb = this.find(b);
+    if (ra !== rb) this.parent[ra] = rb;
+  }
+
+  private laplacian(m: number, edges: { a: number; b: number; g: number }[]): number[][] {
+    const L = Array.from({ length: m }, () => new Array<number>(m).fill(0));
+    for (const { a, b, g } of edges) {
+      L[a][a] += g;
+      L[b][b] += g;
+      L[a][b] -= g;
+      L[b][a] -= g;
+    }
+    return L;
+  }
+
+  private components(m: number, edges: { a: number; b: number }[]): number[] {
+    const adj: number[][] = Array.from({ length: m }, () => []);
+    for (const e of edges) {
+      adj[e.a].push(e.b);
+      adj[e.b].push(e.a);
+    }
+    const comp = new Array<number>(m).fill(-1);
+    let c = 0;
+    for (let s = 0; s < m; s++) {
+      if (comp[s] >= 0) continue;
+      const stack = [s];
+      comp[s] = c;
+      while (stack.length) {
+        const v = stack.pop()!;
+        for (const w of adj[v]) if (comp[w] < 0) {
+          comp[w] = c;
+          stack.push(w);
+        }
+      }
+      c++;
+    }
+    return comp;
+  }
+
+  /**
+   * Effective resistance (Ω) between the node set `plus` (all joined, as one brush) and the set
+   * `minus`: 0 when they touch or are linked by ideal links, Infinity when no path joins them.
+   */
+  between(plus: number[], minus: number[]): number {
+    const A = [...new Set(plus.map((v) => this.cls[v]))];
+    const B = [...new Set(minus.map((v) => this.cls[v]))];
+    if (A.some((a) => B.includes(a))) return 0;
+    if (this.G) return this.viaInverse(A, B);
+    return this.direct(A, B);
+  }
+
+  private viaInverse(A: number[], B: number[]): number {
+    const G = this.G!;
+    const s = A.length;
+    const t = B.length;
+    const nodes = [...A, ...B];
+    const N = s + t + 2;
+    const M = Array.from({ length: N }, () => new Array<number>(N).fill(0));
+    const rhs = new Array<number>(N).fill(0);
+    // potentials: v_x = Σ G[x][y] I_y ; v at A nodes = vA (unknown s+t), at B nodes = vB (unknown s+t+1)
+    for (let i = 0; i < s + t; i++) {
+      for (let j = 0; j < s + t; j++) M[i][j] = G[nodes[i]][nodes[j]];
+      M[i][i < s ? s + t : s + t + 1] = -1;
+    }
+    for (let j = 0; j < s; j++) M[s + t][j] = 1;
+    rhs[s + t] = 1;
+    for (let j = s; j < s + t; j++) M[s + t + 1][j] = 1;
+    rhs[s + t + 1] = -1;
+    const x = solveDense(M, rhs);
+    if (!x) return this.direct(A, B);
+    return x[s + t] - x[s + t + 1];
+  }
+
+  private direct(A: number[], B: number[]): number {
+    // merge A into one node and B into another, ground B, solve the nodal equations on A's component
+    const map = new Array<number>(this.m).fill(-1);
+    let k = 2;
+    for (let c = 0; c < this.m; c++) map[c] = A.includes(c) ? 0 : B.includes(c) ? 1 : k++;
+    const edges = this.edges.map((e) => ({ a: map[e.a], b: map[e.b], g: e.g })).filter((e) => e.a !== e.b);
+    const comp = this.components(k, edges);
+    if (comp[0] !== comp[1]) return Infinity;
+    const keep: number[] = [];
+    for (let v = 0; v < k; v++) if (comp[v] === comp[0] && v !== 1) keep.push(v);
+    const idx = new Map<number, number>(keep.map((v, i) => [v, i]));
+    const L = this.laplacian(k, edges);
+    const red = keep.map((r) => keep.map((c) => L[r][c]));
+    const rhs = keep.map((v) => (v === 0 ? 1 : 0));
+    const x = solveDense(red, rhs);
+    if (!x) return Infinity;
+    return x[idx.get(0)!];
+  }
+
+  get nodes(): number {
+    return this.n;
+  }
+}
+
+/** The network of a layout with the given coil resistances (Ω, coil index order). */
+export function ringNetwork(layout: WindingLayout, coilOhm: number[]): Network {
+  return new Network(layout.bars, ringEdges(layout, coilOhm));
+}
+
+/** Effective resistance (Ω) between two bars of a layout's ring. */
+export function resistanceBetweenBars(layout: WindingLayout, coilOhm: number[], a: number, b: number): number {
+  return ringNetwork(layout, coilOhm).between([a], [b]);
+}
+
+/**
+ * Bar-to-bar readings r1 … rC (Ω) of the network (brushes lifted): r_i between bar i and bar i+1,
+ * rC between bar C and bar 1 (DESIGN.md numbering). Equal coils give the closed forms above.
+ */
+export function barToBar(layout: WindingLayout, coilOhm: number[]): number[] {
+  const net = ringNetwork(layout, coilOhm);
+  const C = layout.bars;
+  const out: number[] = [];
+  for (let i = 1; i <= C; i++) out.push(net.between([i], [mod1(i + 1, C)]));
+  return out;
+}
+
+export interface TerminalResistance {
+  /** Each brush on a single bar, the ring split ⌊C/2⌋ / ⌈C/2⌉ coils (P brushes on a lap: P arcs in parallel), Ω. */
+  single: number;
+  /** Every brush bridging two adjacent bars, Ω. */
+  bridged: number;
+  /** Least and greatest over a turn of the rotor in half-bar steps, brushes of the spec's width, Ω. */
+  min: number;
+  max: number;
+  /** How the brushes were placed, and when the closed forms do not hold. */
+  validity: string;
+}
+
+/** Bars (1 … C) that a brush of width w bars centred at position c (bar n centred at n, bars 1 wide, gaps ignored) touches. */
+export function barsUnderBrush(C: number, centre: number, width: number): number[] {
+  const lo = centre - width / 2;
+  const hi = centre + width / 2;
+  const out = new Set<number>();
+  for (let n = Math.floor(lo) - 1; n <= Math.ceil(hi) + 1; n++) {
+    const overlap = Math.min(hi, n + 0.5) - Math.max(lo, n - 0.5);
+    if (overlap > 1e-9) out.add(mod1(n, C));
+  }
+  return [...out];
+}
+
+/**
+ * Terminal resistance between the brush leads (Ω), brushes excluded.
+ *
+ * Brush placement (DESIGN.md "The `plan --json` output"; neutral-axis placement, from memory of
+ * any DC-machine text): brushes alternate + and − and sit 180° electrical apart, i.e. C/P bars
+ * apart on the commutator (any odd multiple is an equivalent position).
+ *  - `single`: tooth and lap: brush j on bar 1 + ⌊j·C/P⌋ (2 brushes on 2 poles: bars 1 and
+ *    1 + ⌊C/2⌋, the ring split ⌊C/2⌋ / ⌈C/2⌉ coils; P brushes on a lap: P arcs in parallel).
+ *    Wave: + on bar 1, − on the bar ⌊C/2⌋ coils on along the circuit (the two paths of a wave
+ *    split ⌊C/2⌋ / ⌈C/2⌉); extra brushes on a wave share the current but add no path and are left out.
+ *  - `bridged`: the same brushes each on its bar and the next one.
+ *  - `min`/`max`: the rotor turned in half-bar steps, brush j centred C/P·j bars from the first,
+ *    each touching every bar it overlaps for the spec's `width_bars`.
+ */
+export function terminalResistance(layout: WindingLayout, coilOhm: number[]): TerminalResistance {
+  const net = ringNetwork(layout, coilOhm);
+  const C = layout.bars;
+  const P = layout.spec.poles;
+  const count = layout.spec.brushes.count;
+  const w = layout.spec.brushes.width_bars;
+  const validity: string[] = [];
+
+  const measure = (brushes: number[][]) => {
+    const plus: number[] = [];
+    const minus: number[] = [];
+    brushes.forEach((bars, j) => (j % 2 === 0 ? plus : minus).push(...bars));
+    return net.between(plus, minus);
+  };
+
+  let single: number;
+  let bridged: number;
+  if (layout.spec.style === "wave") {
+    const chainBars = layout.circuit_order.map((k) => layout.coils[k - 1].start_bar!);
+    const live = chainBars.length;
+    const b2 = chainBars[Math.floor(live / 2)];
+    single = measure([[1], [b2]]);
+    bridged = measure([
+      [1, 2],
+      [b2, mod1(b2 + 1, C)],
+    ]);
+    validity.push(`wave: single/bridged with + on bar 1 and − on bar ${b2}, ⌊C/2⌋ coils on along the circuit; min/max with ${count} brushes ${fmtBars(C / P)} bars apart`);
+    if (!Number.isInteger(C / P)) {
+      validity.push(`C/P = ${fmtBars(C / P)} is not whole: turning the rotor, the brushes are never both on single bars, so max may be below single`);
+    }
+  } else {
+    const pos = (j: number) => 1 + Math.floor((j * C) / P);
+    const brushesSingle: number[][] = [];
+    const brushesBridged: number[][] = [];
+    for (let j = 0; j < count; j++) {
+      brushesSingle.push([pos(j)]);
+      brushesBridged.push([pos(j), mod1(pos(j) + 1, C)]);
+    }
+    single = measure(brushesSingle);
+    bridged = measure(brushesBridged);
+    validity.push(`${count} brushes on bars ${brushesSingle.map((b) => b[0]).join(", ")} (+ and − alternately), ${fmtBars(C / P)} bars apart`);
+    if (count === 2 && P === 2 && C % 2 === 1) {
+      validity.push("odd C: brushes 180° apart cannot both bridge at once, so `bridged` is below the least reading over a turn (min)");
+    }
+  }
+  let min = Infinity;
+  let max = -Infinity;
+  for (let x2 = 0; x2 < 2 * C; x2++) {
+    const x = x2 / 2;
+    const brushes: number[][] = [];
+    for (let j = 0; j < count; j++) brushes.push(barsUnderBrush(C, 1 + x + (j * C) / P, w));
+    const r = measure(brushes);
+    if (r < min) min = r;
+    if (r > max) max = r;
+  }
+  if (layout.equalizers) {
+    validity.push("equalizers fitted: the ring closed forms R·(C−1)/C and R·m·(C−m)/C do not apply (values from the network with ideal equalizer links)");
+  } else if (layout.spec.style === "lap" && P > 2 && count < P) {
+    validity.push(`${count} brushes on a ${P}-pole lap without equalizers: the ring splits into unequal arcs, not ${P} paths`);
+  } else {
+    validity.push("equal coils follow the closed forms (ring R·(C−1)/C, wave R·p·(C−p)/C, split R·m·(C−m)/C)");
+  }
+  return { single, bridged, min, max, validity: validity.join("; ") };
+}
+
+function fmtBars(x: number): string {
+  return Number.isInteger(x) ? String(x) : x.toFixed(2);
+}
