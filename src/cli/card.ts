@@ -1,0 +1,54 @@
+/** `armwind card JOB [-o DIR] [--paper a4|letter]`: the PDF job card for the winding jig. */
+import type { Argv } from "yargs";
+import { join, relative, resolve } from "node:path";
+import { renderCard } from "../card/render.js";
+import { guarded, type Io } from "./io.js";
+import { planFromFile, planStatus, type Where } from "./plan.js";
+import { planJson } from "./plan-json.js";
+import { VERSION } from "./version.js";
+import { writeAtomic } from "./write.js";
+
+export function today(io: Io): string {
+  // SOURCE_DATE_EPOCH (reproducible-builds.org) fixes the date for reproducible cards and tests
+  const epoch = io.env.SOURCE_DATE_EPOCH;
+  const d = epoch && /^\d+$/.test(epoch) ? new Date(Number(epoch) * 1000) : new Date();
+  return d.toISOString().slice(0, 10);
+}
+
+export function cardCommand(yargs: Argv, io: Io, setStatus: (n: number) => void) {
+  return yargs.command(
+    "card <job>",
+    "Print the PDF job card for the winding jig: cut list, coil steps, diagram, bench checks, curves, cautions",
+    (y) =>
+      y
+        .positional("job", { type: "string", demandOption: true, describe: "job file (YAML), or - for standard input" })
+        .option("output", { alias: "o", type: "string", default: "output", describe: "folder for the card (created if missing)" })
+        .option("paper", { choices: ["a4", "letter"] as const, default: "a4" as const, describe: "paper size" })
+        .option("json", { type: "boolean", default: false, describe: "print { ok, card, plan } as JSON" })
+        .option("logbook", { type: "string", describe: "logbook folder" }),
+    async (argv) => {
+      const where: Where = {};
+      setStatus(
+        await guarded(
+          io,
+          argv.json,
+          async () => {
+            const plan = planFromFile(io, argv.job, where, { logbook: argv.logbook });
+            const pdf = await renderCard(plan, { paper: argv.paper, date: today(io), version: VERSION });
+            const file = join(resolve(io.cwd, argv.output), `${plan.job.id}.pdf`);
+            await writeAtomic(file, pdf);
+            const shown = relative(io.cwd, file) || file;
+            if (argv.json) io.out(JSON.stringify({ ok: true, card: file, feasible: plan.feasible, plan: planJson(plan) }, null, 2));
+            else {
+              io.out(`card written: ${shown}`);
+              io.out(`  ${plan.design.turns} turns of ${plan.design.wire.label}${plan.design.strands > 1 ? ` ×${plan.design.strands}` : ""}; cut ${plan.wire.cut.toFixed(1)} m; ${plan.feasible ? "meets the goal" : "does NOT meet the goal (closest winding shown)"}`);
+              for (const w of plan.warnings) io.out(`  ! ${w.path ? w.path + ": " : ""}${w.message} [${w.code}]`);
+            }
+            return planStatus(plan);
+          },
+          where,
+        ),
+      );
+    },
+  );
+}

@@ -1,0 +1,102 @@
+/**
+ * The shell's edges: reading job files (or standard input as "-"), printing problems, exit
+ * statuses, and the `--json` error shape of DESIGN.md.
+ */
+import { readFileSync } from "node:fs";
+import { ArmwindError, formatProblem, type Problem } from "../errors.js";
+import { loadYaml } from "../job/load.js";
+import { jobSchema, type Job } from "../job/schema.js";
+import type { z } from "zod";
+
+export interface Io {
+  out: (s: string) => void;
+  err: (s: string) => void;
+  /** Standard input, read whole, for "-". */
+  stdin: () => string;
+  env: NodeJS.ProcessEnv;
+  cwd: string;
+}
+
+export const processIo = (): Io => ({
+  out: (s) => process.stdout.write(s.endsWith("\n") ? s : s + "\n"),
+  err: (s) => process.stderr.write(s.endsWith("\n") ? s : s + "\n"),
+  stdin: () => readFileSync(0, "utf8"),
+  env: process.env,
+  cwd: process.cwd(),
+});
+
+/** Read a file's text, or standard input for "-"; a missing file is a located problem. */
+export function readText(io: Io, file: string, path = ""): string {
+  if (file === "-") return io.stdin();
+  try {
+    return readFileSync(file, "utf8");
+  } catch (e) {
+    const code = (e as NodeJS.ErrnoException).code;
+    const what = code === "ENOENT" ? "no such file" : code === "EISDIR" ? "is a folder, not a file" : code === "EACCES" ? "cannot be read (permission denied)" : `cannot be read (${code ?? "error"})`;
+    throw new ArmwindError({ code: "file_unreadable", message: `${what}`, path, file });
+  }
+}
+
+export function loadFile<S extends z.ZodType>(io: Io, file: string, schema: S) {
+  const text = readText(io, file);
+  return loadYaml(text, file === "-" ? "<stdin>" : file, schema);
+}
+
+export function loadJob(io: Io, file: string): { job: Job; file: string; locate: (path: (string | number)[]) => { line: number; column: number } } {
+  const r = loadFile(io, file, jobSchema);
+  return { job: r.value, file: file === "-" ? "<stdin>" : file, locate: r.locate };
+}
+
+/** Attach file, line and column to problems that carry only a field path (thrown by the core). */
+export function locateProblems(problems: Problem[], file: string | undefined, locate?: (path: (string | number)[]) => { line: number; column: number }): Problem[] {
+  return problems.map((p) => {
+    if (p.file || !file) return p;
+    const parts: (string | number)[] = [];
+    for (const m of p.path.matchAll(/([^.[\]]+)|\[(\d+)\]/g)) parts.push(m[2] !== undefined ? Number(m[2]) : m[1]);
+    const at = locate ? locate(parts) : { line: 1, column: 1 };
+    return { ...p, file, ...at };
+  });
+}
+
+export interface Outcome {
+  status: 0 | 1 | 2 | 3 | 4;
+}
+
+/** Print an ArmwindError as one line per problem (stderr), and the `--json` error object (stdout) when asked. */
+export function reportError(io: Io, e: ArmwindError, json: boolean): number {
+  for (const p of e.problems) io.err(formatProblem(p));
+  if (json) {
+    io.out(
+      JSON.stringify(
+        {
+          ok: false,
+          errors: e.problems.map((p) => ({ code: p.code, message: p.message, file: p.file ?? null, line: p.line ?? null, column: p.column ?? null, path: p.path })),
+        },
+        null,
+        2,
+      ),
+    );
+  }
+  return e.status;
+}
+
+/** Run a command body, turning every error into a line and an exit status; never a stack trace. */
+export async function guarded(io: Io, json: boolean, body: () => Promise<number> | number, where?: { file?: string; locate?: (p: (string | number)[]) => { line: number; column: number } }): Promise<number> {
+  try {
+    return await body();
+  } catch (e) {
+    if (e instanceof ArmwindError) {
+      const located = new ArmwindError(locateProblems(e.problems, where?.file, where?.locate), e.status);
+      return reportError(io, located, json);
+    }
+    const msg = e instanceof Error ? e.message : String(e);
+    io.err(`armwind: internal error: ${msg} (this is a fault in armwind, not in your file; please report it with the job file)`);
+    if (json) io.out(JSON.stringify({ ok: false, errors: [{ code: "internal_error", message: msg, file: null, line: null, column: null, path: "" }] }, null, 2));
+    return 70;
+  }
+}
+
+/** Whether to colour terminal output: never when NO_COLOR is set (no-color.org) or output is not a terminal. */
+export function useColour(io: Io): boolean {
+  return !io.env.NO_COLOR && Boolean(process.stdout.isTTY);
+}

@@ -1,0 +1,47 @@
+#!/usr/bin/env node
+/** armwind: the command line. Each command lives in its own file; this one only wires them up. */
+import yargs from "yargs";
+import { hideBin } from "yargs/helpers";
+import { processIo } from "./io.js";
+import { planCommand } from "./plan.js";
+import { wiresCommand } from "./wires-command.js";
+import { cardCommand } from "./card.js";
+import { VERSION } from "./version.js";
+
+export async function main(args: string[], io = processIo()): Promise<number> {
+  let status = 0;
+  const setStatus = (n: number) => {
+    status = n;
+  };
+  let y = yargs(args)
+    .scriptName("armwind")
+    .usage("armwind <command> [options]\n\nPlan the rewind of a brushed DC or universal motor armature, print its job card, keep the logbook.")
+    .version(VERSION)
+    .strict()
+    .demandCommand(1, "give a command: plan, card, check, wires … (armwind --help lists them)")
+    .recommendCommands()
+    .wrap(Math.min(100, process.stdout.columns || 100))
+    .fail((msg, err) => {
+      if (err) throw err;
+      io.err(`armwind: ${msg} (armwind --help lists commands and options)`);
+      status = 1;
+    });
+  y = planCommand(y, io, setStatus);
+  y = cardCommand(y, io, setStatus);
+  y = wiresCommand(y, io, setStatus);
+  await y.parseAsync();
+  return status;
+}
+
+const isMain = process.argv[1] && /main\.(js|ts)$|armwind(\.mjs)?$/.test(process.argv[1]);
+if (isMain) {
+  main(hideBin(process.argv)).then(
+    (code) => {
+      process.exitCode = code;
+    },
+    (e: unknown) => {
+      process.stderr.write(`armwind: internal error: ${e instanceof Error ? e.message : String(e)}\n`);
+      process.exitCode = 70;
+    },
+  );
+}

@@ -1,0 +1,208 @@
+/**
+ * The `plan --json` output: DESIGN.md's contract. Keys snake_case, units as the last part of each
+ * key, numbers unrounded, unknowable figures null (never absent).
+ */
+import type { Candidate, MotorReport, Plan } from "../design/types.js";
+import { supplyOf } from "../design/plan.js";
+
+const RPM = 60 / (2 * Math.PI);
+const n = (x: number | null | undefined): number | null => (x === null || x === undefined || !Number.isFinite(x) ? null : x);
+const mm = (m: number | null | undefined) => (m === null || m === undefined ? null : m * 1e3);
+const rpm = (w: number | null | undefined) => (w === null || w === undefined ? null : n(w * RPM));
+
+export function wireJson(w: Candidate["wire"]) {
+  return {
+    label: w.label,
+    bare_diameter_mm: w.bare_diameter * 1e3,
+    overall_diameter_mm: mm(w.overall_diameter),
+    source: w.overall_source,
+    system: w.system,
+    insulation: w.insulation,
+    area_mm2: w.area * 1e6,
+    ohm_per_m: w.ohm_per_m,
+  };
+}
+
+function motorJson(m: MotorReport, calibration: string) {
+  return {
+    ke_v_s_per_rad: n(m.ke),
+    kt_n_m_per_a: n(m.kt),
+    kv_rpm_per_v: n(m.kv),
+    terminal_hot_ohm: n(m.resistance),
+    no_load_speed_rpm: rpm(m.noLoadSpeed),
+    no_load_current_a: n(m.noLoadCurrent),
+    stall_current_a: n(m.stallCurrent),
+    stall_current_cold_a: n(m.stallCurrentCold),
+    stall_torque_n_m: n(m.stallTorque),
+    peak_efficiency: n(m.peakEfficiency),
+    peak_efficiency_current_a: n(m.peakEfficiencyCurrent),
+    max_output_w: n(m.maxOutputW),
+    calibration,
+  };
+}
+
+function candidateJson(c: Candidate) {
+  return {
+    turns_per_coil: c.turns,
+    wire: c.wire.label,
+    strands_in_hand: c.strands,
+    copper_fill: c.copper_fill,
+    space_fill: n(c.space_fill),
+    terminal_ohm: c.terminal_ohm,
+    kv_rpm_per_v: c.ke === null ? null : 60 / (2 * Math.PI * c.ke),
+    achieved_value: c.achieved,
+    error_fraction: n(c.error),
+    stall_current_hot_a: n(c.stall_current_hot),
+    current_density_a_per_mm2: c.current_density === null ? null : c.current_density / 1e6,
+    copper_mass_g: c.copper_mass * 1e3,
+    meets_goal: c.meets_goal,
+    rejected_because: c.rejected_because,
+  };
+}
+
+export function planJson(plan: Plan) {
+  const d = plan.design;
+  const { kind } = supplyOf(plan.job);
+  return {
+    ok: true,
+    job_id: plan.job.id,
+    title: plan.job.title,
+    feasible: plan.feasible,
+    goal: {
+      kind: plan.goal.kind,
+      unit: plan.goal.unit,
+      target_value: plan.goal.target_value,
+      achieved_value: n(plan.goal.achieved_value),
+      error_fraction: n(plan.goal.error_fraction),
+      tolerance: plan.job.target.tolerance,
+      summary: plan.goal.summary,
+    },
+    supply: { volts: plan.supply, kind, mains: plan.mains },
+    design: {
+      turns_per_coil: d.turns,
+      strands_in_hand: d.strands,
+      wire: wireJson(d.wire),
+      copper_fill: d.copper_fill,
+      copper_fill_limit: plan.fill_limit,
+      space_fill: n(d.space_fill),
+      layers: d.build ? d.build.layers : null,
+      turns_per_layer: d.build ? d.build.turnsPerLayer : null,
+      build_mm: d.build ? d.build.build * 1e3 : null,
+      build_room_mm: d.build ? d.build.room * 1e3 : null,
+      current_density_a_per_mm2: d.current_density === null ? null : d.current_density / 1e6,
+    },
+    winding: {
+      style: plan.layout.spec.style,
+      slots: plan.layout.spec.slots,
+      bars: plan.layout.bars,
+      poles: plan.layout.spec.poles,
+      span: plan.layout.spec.span,
+      coils_per_slot: plan.layout.spec.coils_per_slot,
+      progression: plan.layout.spec.progression,
+      lead_throw: plan.layout.spec.lead_throw,
+      commutator_pitch: plan.layout.commutator_pitch,
+      back_pitch: plan.layout.back_pitch,
+      front_pitch: plan.layout.front_pitch,
+      coil_sides_per_slot: plan.layout.coil_sides_per_slot,
+      equalizer_groups: plan.layout.equalizer_groups,
+      notes: plan.layout.notes,
+    },
+    slot: {
+      free_area_mm2: plan.slot.free_area * 1e6,
+      gross_area_mm2: plan.slot.gross_area * 1e6,
+      liner_area_mm2: plan.slot.liner_area * 1e6,
+      opening_mm: plan.slot.opening * 1e3,
+    },
+    coils: plan.coils.map((c) => ({
+      index: c.index,
+      go_slot: c.go_slot,
+      return_slot: c.return_slot,
+      layer: c.go_layer,
+      return_layer: c.return_layer,
+      start_bar: c.start_bar,
+      end_bar: c.end_bar,
+      turns: c.turns,
+      direction: c.direction,
+      mean_turn_length_mm: c.mlt * 1e3,
+      resistance_ohm: c.dead ? null : c.ohm,
+      dead: c.dead,
+    })),
+    paths: plan.paths,
+    resistance: {
+      coil_ohm: plan.resistance.coil_ohm,
+      bar_to_bar_ohm: plan.resistance.bar_to_bar_ohm,
+      bar_to_bar_each_ohm: plan.resistance.bar_to_bar,
+      terminal_ohm: plan.resistance.terminal_ohm,
+      terminal_min_ohm: plan.resistance.terminal_min_ohm,
+      terminal_max_ohm: plan.resistance.terminal_max_ohm,
+      terminal_hot_ohm: plan.resistance.terminal_hot_ohm,
+      hot_temperature_c: plan.resistance.hot_temperature,
+      validity: plan.resistance.validity,
+    },
+    wire: {
+      mean_turn_length_mm: plan.wire.mlt * 1e3,
+      mean_turn_length_source: plan.wire.mlt_source,
+      per_coil_m: plan.wire.per_coil,
+      winding_m: plan.wire.winding,
+      leads_m: plan.wire.leads,
+      cut_m: plan.wire.cut,
+      cut_per_strand_m: plan.wire.cut_per_strand,
+      copper_mass_g: plan.wire.copper_mass * 1e3,
+      spare_margin: plan.wire.spare_margin,
+    },
+    motor: motorJson(plan.motor, plan.calibration.source),
+    original_motor: motorJson(plan.original_motor, plan.calibration.source),
+    original: {
+      turns_per_coil: plan.original.turns,
+      strands_in_hand: plan.original.strands,
+      wire: wireJson(plan.original.wire),
+      copper_fill: plan.original.copper_fill,
+      mean_turn_length_mm: plan.original.mlt * 1e3,
+      terminal_ohm: plan.original.terminal_ohm,
+      terminal_measured: plan.original.terminal_measured,
+    },
+    calibration: {
+      source: plan.calibration.source,
+      ke_v_s_per_rad: n(plan.calibration.ke),
+      uncertainty_fraction: n(plan.calibration.uncertainty),
+      basis: plan.calibration.basis,
+      loss_torque_n_m: plan.calibration.loss.tc,
+      loss_viscous_n_m_s_per_rad: plan.calibration.loss.b,
+      loss_basis: plan.calibration.loss_basis,
+      generator_no_load_disagreement_fraction: n(plan.calibration.disagreement),
+      brush_drop_v: plan.calibration.brush_drop,
+      brush_drop_basis: plan.calibration.brush_drop_basis,
+    },
+    duty: plan.duty
+      ? {
+          torque_n_m: plan.duty.torque,
+          target_speed_rpm: plan.duty.target_speed * RPM,
+          current_a: n(plan.duty.current),
+          speed_rpm: plan.duty.speed * RPM,
+          efficiency: n(plan.duty.efficiency),
+          input_w: n(plan.duty.input_w),
+          output_w: n(plan.duty.output_w),
+          current_density_a_per_mm2: plan.duty.current_density === null ? null : plan.duty.current_density / 1e6,
+        }
+      : null,
+    candidates: plan.candidates.map(candidateJson),
+    candidates_total: plan.candidates_total,
+    rejections: plan.rejections,
+    binding: plan.binding,
+    sensitivity: plan.sensitivity.map((s) => ({
+      change: s.label,
+      turns_per_coil: s.turns,
+      wire: s.wire,
+      strands_in_hand: s.strands,
+      terminal_ohm: s.terminal_ohm,
+      copper_fill: s.copper_fill,
+      achieved_value: s.achieved,
+      meets_goal: s.meets_goal,
+      rejected_because: s.rejected_because,
+    })),
+    learning: plan.learning
+      ? { records: plan.learning.records, moves: plan.learning.moves }
+      : null,
+    warnings: plan.warnings.map((w) => ({ code: w.code, message: w.message, path: w.path })),
+  };
+}

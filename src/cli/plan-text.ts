@@ -1,0 +1,102 @@
+/** The plan for the terminal: the chosen winding first, then what it will read and do, then the rest. */
+import type { Plan } from "../design/types.js";
+import { reasonText } from "../design/plan.js";
+import { mm, ohm, pct, rpm, sig, table } from "./format.js";
+
+export function planText(plan: Plan): string {
+  const j = plan.job;
+  const d = plan.design;
+  const L: string[] = [];
+  L.push(`${j.id}: ${j.title}`);
+  const sp = plan.layout.spec;
+  L.push(
+    `${sp.style} winding, ${sp.slots} slots, ${plan.layout.bars} bars, ${sp.poles} poles` +
+      (sp.style !== "tooth" ? `, span ${sp.span} (slot 1 to ${1 + sp.span}), ${sp.coils_per_slot} coil${sp.coils_per_slot > 1 ? "s" : ""} per slot, ${sp.progression}` : "") +
+      `, ${plan.paths} parallel paths`,
+  );
+  L.push("");
+  L.push(`${plan.feasible ? "WIND" : "CLOSEST (does not meet the goal)"}: ${d.turns} turns per coil of ${d.wire.label}${d.strands > 1 ? `, ${d.strands} strands in hand` : ""}`);
+  L.push(`  goal ${plan.goal.kind.replace(/_/g, " ")}: ${plan.goal.summary}`);
+  if (plan.binding) L.push(`  ${plan.binding}`);
+  L.push(
+    `  copper fill ${pct(d.copper_fill)} (limit ${pct(plan.fill_limit)}), space fill ${pct(d.space_fill)}` +
+      (d.build ? `, ${d.build.layers} layers of ${d.build.turnsPerLayer}, build ${mm(d.build.build)} of ${mm(d.build.room)} mm` : ""),
+  );
+  L.push("");
+  L.push("Cut list");
+  L.push(`  mean turn ${mm(plan.wire.mlt)} mm (${plan.wire.mlt_source.replace(/_/g, " ")}); one coil ${sig(plan.wire.per_coil)} m; winding ${sig(plan.wire.winding)} m`);
+  L.push(
+    `  CUT ${sig(plan.wire.cut)} m${d.strands > 1 ? ` in all (${sig(plan.wire.cut_per_strand)} m from each of ${d.strands} spools)` : ""} with ${sig(plan.wire.lead_allowance * 1e3)} mm leads and ${pct(plan.wire.spare_margin)} spare; copper ${sig(plan.wire.copper_mass * 1e3)} g`,
+  );
+  L.push("");
+  L.push("Expected readings at 20 °C");
+  L.push(`  coil ${ohm(plan.resistance.coil_ohm)} Ω, bar to bar ${ohm(plan.resistance.bar_to_bar_ohm)} Ω`);
+  L.push(
+    `  terminal ${ohm(plan.resistance.terminal_ohm)} Ω (${ohm(plan.resistance.terminal_min_ohm)} to ${ohm(plan.resistance.terminal_max_ohm)} Ω as the rotor turns), ${ohm(plan.resistance.terminal_hot_ohm)} Ω at ${sig(plan.resistance.hot_temperature)} °C`,
+  );
+  for (const v of plan.resistance.validity) L.push(`  note: ${v}`);
+  L.push("");
+  L.push(`Motor at ${sig(plan.supply)} V ${plan.supply_kind.toUpperCase()} (Ke from ${plan.calibration.source.replace(/_/g, "-")}${plan.calibration.uncertainty !== null ? `, ±${sig(plan.calibration.uncertainty * 100, 2)} %` : ""})`);
+  const m = plan.motor;
+  const o = plan.original_motor;
+  const rows: [string, string, string][] = [
+    ["turns × wire", `${plan.original.turns} × ${plan.original.wire.label}${plan.original.strands > 1 ? ` ×${plan.original.strands}` : ""}`, `${d.turns} × ${d.wire.label}${d.strands > 1 ? ` ×${d.strands}` : ""}`],
+    ["terminal Ω (20 °C)", ohm(plan.original.terminal_ohm) + (plan.original.terminal_measured ? " meas." : ""), ohm(plan.resistance.terminal_ohm)],
+    ["Kv rpm/V", sig(o.kv), sig(m.kv)],
+    ["no-load speed rpm", rpm(o.noLoadSpeed), rpm(m.noLoadSpeed)],
+    ["no-load current A", sig(o.noLoadCurrent), sig(m.noLoadCurrent)],
+    ["stall current A (hot)", sig(o.stallCurrent), sig(m.stallCurrent)],
+    ["stall current A (cold)", sig(o.stallCurrentCold), sig(m.stallCurrentCold)],
+    ["stall torque mN·m", o.stallTorque === null ? "—" : sig(o.stallTorque * 1e3), m.stallTorque === null ? "—" : sig(m.stallTorque * 1e3)],
+    ["peak efficiency", pct(o.peakEfficiency), pct(m.peakEfficiency)],
+    ["max output W", sig(o.maxOutputW), sig(m.maxOutputW)],
+  ];
+  if (plan.duty && plan.original_duty) {
+    rows.push([`at ${sig(plan.duty.torque * 1e3)} mN·m: speed rpm`, rpm(plan.original_duty.speed), rpm(plan.duty.speed)]);
+    rows.push(["  current A", sig(plan.original_duty.current), sig(plan.duty.current)]);
+    rows.push(["  efficiency", pct(plan.original_duty.efficiency), pct(plan.duty.efficiency)]);
+  }
+  L.push(
+    table(
+      ["", "original", "new"],
+      rows.map((r) => [...r]),
+    )
+      .split("\n")
+      .map((s) => "  " + s)
+      .join("\n"),
+  );
+  L.push("");
+  L.push(`Candidates: ${plan.candidates_total} looked at; best and nearest misses:`);
+  const crow = plan.candidates.slice(0, 12).map((c) => [
+    String(c.turns),
+    c.wire.label,
+    String(c.strands),
+    pct(c.copper_fill),
+    ohm(c.terminal_ohm),
+    c.achieved === null ? "—" : sig(plan.goal.unit === "mm2" ? c.achieved * 1e6 : plan.goal.unit === "A" ? c.achieved : (c.achieved * 60) / (2 * Math.PI)),
+    c.meets_goal ? "meets" : c.rejected_because.length ? c.rejected_because.join(",") : "misses goal",
+  ]);
+  L.push(
+    table(["turns", "wire", "k", "Cu fill", "R Ω", plan.goal.unit, "verdict"], crow, [true, false, true, true, true, true, false])
+      .split("\n")
+      .map((s) => "  " + s)
+      .join("\n"),
+  );
+  const rej = Object.entries(plan.rejections);
+  if (rej.length) L.push(`  rejected: ${rej.map(([k, v]) => `${k} ${v}`).join(", ")}`);
+  if (plan.sensitivity.length) {
+    L.push("Sensitivity:");
+    for (const s of plan.sensitivity)
+      L.push(`  ${s.label.padEnd(15)} ${String(s.turns).padStart(5)} × ${s.wire}: R ${ohm(s.terminal_ohm)} Ω, ${plan.goal.unit} ${sig(s.achieved)}, fill ${pct(s.copper_fill)}${s.rejected_because.length ? ` (${s.rejected_because.map(reasonText).join("; ")})` : ""}`);
+  }
+  if (plan.learning) {
+    L.push(`Logbook: ${plan.learning.records} record(s) of family ${j.armature.family} corrected this plan`);
+    for (const mv of plan.learning.moves) L.push(`  ${mv.figure}: ${sig(mv.from)} → ${sig(mv.to)} ${mv.unit}`);
+  }
+  if (plan.warnings.length) {
+    L.push("");
+    L.push("Warnings:");
+    for (const w of plan.warnings) L.push(`  ! ${w.path ? w.path + ": " : ""}${w.message} [${w.code}]`);
+  }
+  return L.join("\n");
+}

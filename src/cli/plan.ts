@@ -1,0 +1,85 @@
+/** `armwind plan JOB [--json]`: the chosen winding and what it will do. Also `armwind check JOB`. */
+import type { Argv } from "yargs";
+import { planJob, type PlanOptions } from "../design/plan.js";
+import type { Plan } from "../design/types.js";
+import { guarded, loadJob, type Io } from "./io.js";
+import { planJson } from "./plan-json.js";
+import { planText } from "./plan-text.js";
+import { logbookOptionsFor } from "./learning.js";
+
+export interface Where {
+  file?: string;
+  locate?: (p: (string | number)[]) => { line: number; column: number };
+}
+
+/** Load a job and plan it; `where` is filled in as soon as the file is known, so later problems are located. */
+export function planFromFile(io: Io, file: string, where: Where, opts: { logbook?: string; learn?: boolean } = {}): Plan {
+  const { job, file: name, locate } = loadJob(io, file);
+  where.file = name;
+  where.locate = locate;
+  const options: PlanOptions = opts.learn === false ? {} : logbookOptionsFor(io, job, opts.logbook);
+  return planJob(job, options);
+}
+
+/** Exit status of a plan: 0, or 2 when no winding meets the goal within the limits. */
+export function planStatus(plan: Plan): 0 | 2 {
+  return plan.feasible ? 0 : 2;
+}
+
+export function planCommand(yargs: Argv, io: Io, setStatus: (n: number) => void) {
+  return yargs
+    .command(
+      "plan <job>",
+      "Work out the winding: turns, wire, fill, resistances, cut list, and the motor old and new",
+      (y) =>
+        y
+          .positional("job", { type: "string", demandOption: true, describe: "job file (YAML), or - for standard input" })
+          .option("json", { type: "boolean", default: false, describe: "print the plan as JSON (the keys of DESIGN.md)" })
+          .option("logbook", { type: "string", describe: "logbook folder (default $ARMWIND_LOGBOOK, else jobs/logbook)" })
+          .option("learn", { type: "boolean", default: true, describe: "use finished rewinds of the same armature family from the logbook (--no-learn to plan without)" }),
+      async (argv) => {
+        const where: Where = {};
+        setStatus(
+          await guarded(
+            io,
+            argv.json,
+            () => {
+              const plan = planFromFile(io, argv.job, where, { logbook: argv.logbook, learn: argv.learn });
+              io.out(argv.json ? JSON.stringify(planJson(plan), null, 2) : planText(plan));
+              return planStatus(plan);
+            },
+            where,
+          ),
+        );
+      },
+    )
+    .command(
+      "check <job>",
+      "Validate a job file and print its warnings (exits as plan would)",
+      (y) =>
+        y
+          .positional("job", { type: "string", demandOption: true, describe: "job file (YAML), or - for standard input" })
+          .option("json", { type: "boolean", default: false, describe: "print { ok, feasible, warnings } as JSON" })
+          .option("logbook", { type: "string", describe: "logbook folder" }),
+      async (argv) => {
+        const where: Where = {};
+        setStatus(
+          await guarded(
+            io,
+            argv.json,
+            () => {
+              const plan = planFromFile(io, argv.job, where, { logbook: argv.logbook });
+              if (argv.json) {
+                io.out(JSON.stringify({ ok: true, job_id: plan.job.id, feasible: plan.feasible, warnings: plan.warnings }, null, 2));
+              } else {
+                io.out(`${where.file}: ${plan.job.id} is a valid job file; ${plan.feasible ? "a winding meets the goal" : "no winding meets the goal within the limits"}.`);
+                for (const w of plan.warnings) io.out(`  ! ${w.path ? w.path + ": " : ""}${w.message} [${w.code}]`);
+              }
+              return planStatus(plan);
+            },
+            where,
+          ),
+        );
+      },
+    );
+}

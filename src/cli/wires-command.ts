@@ -1,0 +1,23 @@
+/** yargs shell of `armwind wires` (the pure part is wires.ts). */
+import type { Argv } from "yargs";
+import type { Io } from "./io.js";
+import { runWires } from "./wires.js";
+
+export function wiresCommand(yargs: Argv, io: Io, setStatus: (n: number) => void) {
+  return yargs.command(
+    "wires",
+    "List the wire catalogue: AWG, SWG and IEC 60317 metric sizes with bare and overall diameters, Ω/m and g/m",
+    (y) =>
+      y
+        .option("system", { type: "string", describe: "only one system: awg, swg or metric" })
+        .option("min", { type: "string", describe: 'smallest bare diameter, e.g. "0.1 mm" (bare number: mm)' })
+        .option("max", { type: "string", describe: 'largest bare diameter, e.g. "0.02 in"' })
+        .option("json", { type: "boolean", default: false, describe: "print the catalogue as JSON" }),
+    (argv) => {
+      const r = runWires({ system: argv.system, min: argv.min, max: argv.max, json: argv.json });
+      if (r.stdout) io.out(r.stdout);
+      if (r.stderr) io.err(r.stderr);
+      setStatus(r.status);
+    },
+  );
+}

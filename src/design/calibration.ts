@@ -1,0 +1,99 @@
+/**
+ * Calibrate the motor from the original winding (DESIGN.md "Calibration of Ke"): gather what the
+ * job recorded, correct resistances to each test's temperature, and hand it to `motor/calibrate`.
+ */
+import type { Job } from "../job/schema.js";
+import { brushDrop as brushDropFor, type BrushMaterial } from "../motor/brush.js";
+import { calibrate, type CalibrationInputs } from "../motor/calibrate.js";
+import { activeConductors, fluxFromGap, pitchFactor } from "../motor/emf.js";
+import { copperFactor } from "../wire/copper.js";
+import type { Warning } from "../errors.js";
+import type { ArmatureContext } from "./context.js";
+import type { Calibration } from "./types.js";
+
+/** Default brush material when the job does not say: metal for small permanent-magnet motors (rotor under 30 mm), else carbon (common practice, no published source). */
+export function defaultBrushMaterial(job: Job): BrushMaterial {
+  return job.armature.field === "permanent_magnet" && job.armature.rotor_diameter < 0.03 ? "metal" : "carbon";
+}
+
+export interface LogbookCalibration {
+  /** Ke scaled to the original's turns, V·s/rad. */
+  ke?: number;
+  loss?: { tc: number; b: number };
+  records: number;
+}
+
+export function calibrateOriginal(ctx: ArmatureContext, logbook?: LogbookCalibration): { calibration: Calibration; warnings: Warning[] } {
+  const job = ctx.job;
+  const warnings: Warning[] = [];
+  const material = job.winding.brushes.material ?? defaultBrushMaterial(job);
+  const bd = brushDropFor(material, job.winding.brush_drop);
+  if (job.winding.brushes.material === undefined && job.winding.brush_drop === undefined) {
+    warnings.push({
+      code: "brush_assumed",
+      path: "winding.brushes.material",
+      message: `brush material not given: taken as ${material} (${bd.volts} V drop in total); say carbon or metal for better figures`,
+    });
+  }
+  const o = job.original;
+  const r20 = ctx.original.terminal20;
+  const inputs: CalibrationInputs = { brushDrop: bd.volts, field: job.armature.field };
+  if (o.generator) inputs.generator = { speed: o.generator.speed, volts: o.generator.volts };
+  if (o.tests && o.tests.length > 0) {
+    inputs.noLoad = o.tests.map((t) => ({
+      supply: t.supply,
+      current: t.no_load_current,
+      speed: t.no_load_speed,
+      fieldCurrent: t.field_current,
+      terminalOhm: r20 * copperFactor(t.temperature ?? 20),
+    }));
+  }
+  if (logbook?.ke !== undefined) inputs.logbook = { ke: logbook.ke, records: logbook.records, loss: logbook.loss };
+  if (o.nameplate) {
+    inputs.nameplate = {
+      supply: o.nameplate.supply,
+      current: o.nameplate.current,
+      speed: o.nameplate.speed,
+      hotOhm: r20 * copperFactor(job.target.hot_temperature),
+    };
+  }
+  const m = job.armature.magnet;
+  if (m) {
+    const flux = m.flux_per_pole ?? fluxFromGap(m.gap_flux_density!, m.pole_arc ?? 0.7, job.armature.rotor_diameter, job.armature.stack_length, job.armature.field_poles);
+    inputs.magnet = {
+      poles: job.armature.field_poles,
+      conductors: activeConductors(o.turns, ctx.liveCoils),
+      paths: ctx.layout.paths,
+      fluxPerPole: flux,
+      pitchFactor: pitchFactor(ctx.layout.spec.span, job.armature.slots, job.armature.field_poles),
+    };
+    if (m.flux_per_pole === undefined && m.pole_arc === undefined) {
+      warnings.push({ code: "pole_arc_assumed", path: "armature.magnet.pole_arc", message: "pole arc not given: taken as 0.7 of the pole pitch (common practice)" });
+    }
+  }
+  const c = calibrate(inputs);
+  warnings.push(...c.warnings);
+  if (c.loss === null && c.ke !== null && !(logbook?.loss)) {
+    warnings.push({
+      code: "loss_unknown",
+      path: "original.tests",
+      message: "no no-load test: the loss torque is unknown and taken as zero, so no-load speeds read high and no-load currents read zero",
+    });
+  }
+  let disagreementValue: number | null = null;
+  if (c.fits.generator && c.fits.noLoad) disagreementValue = Math.abs(c.fits.generator.value - c.fits.noLoad.value) / c.fits.generator.value;
+  return {
+    calibration: {
+      source: c.source,
+      ke: c.ke,
+      uncertainty: c.uncertainty,
+      basis: [c.basis, ...c.reasons].join("; "),
+      loss: c.loss ?? logbook?.loss ?? { tc: 0, b: 0 },
+      loss_basis: c.lossBasis ?? "unknown: taken as zero",
+      disagreement: disagreementValue,
+      brush_drop: bd.volts,
+      brush_drop_basis: bd.basis,
+    },
+    warnings,
+  };
+}

@@ -1,0 +1,203 @@
+/** The plan: everything the core computes for one job, in SI. The CLI and the card only format it. */
+import type { Warning } from "../errors.js";
+import type { Job } from "../job/schema.js";
+import type { Wire } from "../wire/types.js";
+import type { Coil, WindingLayout } from "../winding/types.js";
+import type { SlotGeometry } from "../armature/slot.js";
+import type { LayerBuild } from "../armature/build.js";
+import type { MotorModel, MotorSummary, OperatingPoint } from "../motor/model.js";
+
+export type GoalKind = Job["target"]["goal"];
+
+/** Reasons a candidate is rejected: stable codes, listed in the README. */
+export type RejectCode =
+  | "copper_fill"
+  | "space_fill"
+  | "layer_build"
+  | "slot_opening"
+  | "overall_unknown"
+  | "current_density"
+  | "hot_stall_current"
+  | "below_original_copper";
+
+export interface Candidate {
+  turns: number;
+  strands: number;
+  wire: Wire;
+  copper_fill: number;
+  space_fill: number | null;
+  build: LayerBuild | null;
+  /** Mean turn length over all coils, m. */
+  mlt: number;
+  /** Mean coil resistance at 20 °C, Ω. */
+  coil_ohm: number;
+  /** Terminal resistance at 20 °C (brushes each on one bar), Ω. */
+  terminal_ohm: number;
+  terminal_hot_ohm: number;
+  /** V·s/rad; null when nothing calibrates Ke. */
+  ke: number | null;
+  /** Goal figure in SI (rad/s, rad/s/V, A, W or copper area m²), null when unknowable. */
+  achieved: number | null;
+  /** (achieved − target)/target, signed; null when unknowable. */
+  error: number | null;
+  meets_goal: boolean;
+  rejected_because: RejectCode[];
+  /** Copper mass of the whole winding (no leads), kg. */
+  copper_mass: number;
+  /** Current density in each strand at the duty point or the rated current, A/m²; null when neither is given. */
+  current_density: number | null;
+  /** Hot stall current at the supply, A; null for series motors or without Ke. */
+  stall_current_hot: number | null;
+  stall_current_cold: number | null;
+  /** Input power at the duty point, W (duty goal). */
+  duty_input_w: number | null;
+}
+
+export interface GoalReport {
+  kind: GoalKind;
+  /** Unit the target and achieved values are reported in: "rpm", "rpm/V", "A", "W", "mm2". */
+  unit: string;
+  target_value: number;
+  achieved_value: number | null;
+  error_fraction: number | null;
+  /** One sentence on how close it comes. */
+  summary: string;
+}
+
+export interface CoilPlan extends Coil {
+  turns: number;
+  /** This coil's mean turn length, m. */
+  mlt: number;
+  /** Coil resistance at 20 °C, Ω. */
+  ohm: number;
+}
+
+export interface ResistancePlan {
+  /** Mean coil resistance at 20 °C, Ω. */
+  coil_ohm: number;
+  /** Expected reading of each adjacent bar pair r1 … rC at 20 °C, Ω. */
+  bar_to_bar: number[];
+  /** Their mean, Ω. */
+  bar_to_bar_ohm: number;
+  terminal_ohm: number;
+  terminal_min_ohm: number;
+  terminal_max_ohm: number;
+  terminal_hot_ohm: number;
+  /** Hot temperature, °C. */
+  hot_temperature: number;
+  /** Sentences on where these figures stop being valid (equalizers …). */
+  validity: string[];
+}
+
+export interface WirePlan {
+  /** Mean turn length over all coils, m. */
+  mlt: number;
+  /** How the turn length was found. */
+  mlt_source: "measured" | "wire_length" | "wire_mass" | "terminal_resistance" | "logbook" | "model";
+  /** One coil, all strands, m. */
+  per_coil: number;
+  /** The whole winding, all strands, m. */
+  winding: number;
+  /** Leads for the whole winding (two per coil, all strands), m. */
+  leads: number;
+  /** Everything to cut, all strands, leads and spare margin, m. */
+  cut: number;
+  /** Per strand spool: what to cut from each spool when strands come off separate spools, m. */
+  cut_per_strand: number;
+  /** Copper mass of the cut, kg. */
+  copper_mass: number;
+  spare_margin: number;
+  lead_allowance: number;
+}
+
+export type CalibrationSource = "generator" | "no_load" | "nameplate" | "logbook" | "magnet" | "none";
+
+export interface Calibration {
+  source: CalibrationSource;
+  /** Ke of the original winding, V·s/rad; null when nothing calibrates it. */
+  ke: number | null;
+  /** Rough relative uncertainty of Ke (fraction), null when unknown. */
+  uncertainty: number | null;
+  basis: string;
+  loss: { tc: number; b: number };
+  loss_basis: string;
+  /** Generator against no-load Ke disagreement (fraction), when both exist. */
+  disagreement: number | null;
+  brush_drop: number;
+  brush_drop_basis: string;
+}
+
+export interface MotorReport extends MotorSummary {
+  /** Cold stall current (winding at 20 °C), A. */
+  stallCurrentCold: number | null;
+  model: MotorModel | null;
+  curve: OperatingPoint[];
+}
+
+export interface DutyReport {
+  torque: number;
+  target_speed: number;
+  current: number;
+  speed: number;
+  efficiency: number;
+  input_w: number;
+  output_w: number;
+  current_density: number | null;
+}
+
+export interface Sensitivity {
+  label: string;
+  turns: number;
+  wire: string;
+  strands: number;
+  terminal_ohm: number;
+  copper_fill: number;
+  achieved: number | null;
+  meets_goal: boolean;
+  rejected_because: RejectCode[];
+}
+
+export interface Plan {
+  job: Job;
+  feasible: boolean;
+  goal: GoalReport;
+  layout: WindingLayout;
+  slot: SlotGeometry;
+  design: Candidate;
+  /** Copper fill limit in force (restore: the larger of the limit and the original's own). */
+  fill_limit: number;
+  coils: CoilPlan[];
+  paths: number;
+  resistance: ResistancePlan;
+  wire: WirePlan;
+  calibration: Calibration;
+  motor: MotorReport;
+  original_motor: MotorReport;
+  original: {
+    wire: Wire;
+    turns: number;
+    strands: number;
+    copper_fill: number;
+    mlt: number;
+    terminal_ohm: number;
+    terminal_measured: boolean;
+  };
+  duty: DutyReport | null;
+  original_duty: DutyReport | null;
+  /** The best candidates and the nearest misses, best first. */
+  candidates: Candidate[];
+  candidates_total: number;
+  /** Counts of rejection reasons over the whole sweep. */
+  rejections: Partial<Record<RejectCode, number>>;
+  /** What binds when nothing meets the goal. */
+  binding: string | null;
+  sensitivity: Sensitivity[];
+  /** Supply voltage, V (DC, or AC r.m.s.). */
+  supply: number;
+  supply_kind: "dc" | "ac";
+  /** Above extra-low voltage (IEC 60449 band I). */
+  mains: boolean;
+  warnings: Warning[];
+  /** Records from the logbook that corrected this plan. */
+  learning: { records: number; moves: { figure: string; from: number; to: number; unit: string }[] } | null;
+}

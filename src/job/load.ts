@@ -1,0 +1,310 @@
+/**
+ * YAML in, validated data out, or problems that each name file:line:column and a field path.
+ * Used for job files and for measured files (any zod schema). The only I/O-free part of reading a
+ * file: the CLI reads the text and hands it here.
+ */
+import { LineCounter, parseDocument, isMap, isSeq, isScalar, isPair, type Node, type Document } from "yaml";
+import { z } from "zod";
+import { ArmwindError, type Problem } from "../errors.js";
+import { formatPath, nearest, type PathPart } from "./paths.js";
+
+export interface Located<T> {
+  value: T;
+  /** Line and column (1-based) of the node at a field path, or of its nearest existing parent. */
+  locate: (path: readonly PathPart[]) => { line: number; column: number };
+  /** The raw parsed YAML (plain JS), before validation. */
+  raw: unknown;
+}
+
+/** Parse YAML text and validate it with `schema`; throws ArmwindError (status 1) with every problem located. */
+export function loadYaml<S extends z.ZodType>(text: string, file: string, schema: S): Located<z.output<S>> {
+  const lc = new LineCounter();
+  const doc = parseDocument(text, { lineCounter: lc, prettyErrors: false, uniqueKeys: true, strict: true });
+  const pos = (offset: number) => {
+    const p = lc.linePos(offset);
+    return { line: p.line, column: p.col };
+  };
+  if (doc.errors.length > 0) {
+    throw new ArmwindError(
+      doc.errors.slice(0, 5).map((e) => {
+        const at = pos(e.pos[0]);
+        return {
+          code: "bad_yaml",
+          message: yamlMessage(e.message),
+          path: "",
+          file,
+          ...at,
+        };
+      }),
+    );
+  }
+  const raw: unknown = doc.toJS({ maxAliasCount: 100 });
+  const locate = (path: readonly PathPart[]) => locateIn(doc, path, pos);
+  if (raw === null || raw === undefined || typeof raw !== "object" || Array.isArray(raw)) {
+    throw new ArmwindError({
+      code: "bad_yaml",
+      message: `the file must be a YAML mapping of keys (version: 1, id: …), got ${raw === null || raw === undefined ? "nothing" : Array.isArray(raw) ? "a list" : "a single value"}`,
+      path: "",
+      file,
+      line: 1,
+      column: 1,
+    });
+  }
+  const result = schema.safeParse(raw);
+  if (!result.success) {
+    const problems = issuesToProblems(result.error.issues, schema, raw).map((p) => {
+      const parts = p.parts;
+      const at = p.keyNode ? locateKey(doc, parts, pos) : locate(parts);
+      return { code: p.code, message: p.message, path: formatPath(parts), file, ...at } satisfies Problem;
+    });
+    // one line per field; stable order by position in the file
+    problems.sort((a, b) => a.line - b.line || a.column - b.column);
+    throw new ArmwindError(dedupe(problems));
+  }
+  return { value: result.data, locate, raw };
+}
+
+function dedupe(ps: Problem[]): Problem[] {
+  const seen = new Set<string>();
+  return ps.filter((p) => {
+    const k = `${p.path}|${p.message}`;
+    if (seen.has(k)) return false;
+    seen.add(k);
+    return true;
+  });
+}
+
+function yamlMessage(m: string): string {
+  const first = m.split("\n")[0].replace(/ at line \d+, column \d+:?$/, "");
+  return `not valid YAML: ${first.charAt(0).toLowerCase()}${first.slice(1)}`;
+}
+
+function nodeAt(doc: Document, path: readonly PathPart[]): { node: Node | null; depth: number } {
+  let node: unknown = doc.contents;
+  let depth = 0;
+  for (const part of path) {
+    if (isMap(node)) {
+      const pair = node.items.find((it) => isScalar(it.key) && String(it.key.value) === String(part));
+      if (!pair) break;
+      node = pair.value;
+    } else if (isSeq(node) && typeof part === "number") {
+      if (part >= node.items.length) break;
+      node = node.items[part];
+    } else break;
+    depth++;
+  }
+  return { node: (node as Node | null) ?? null, depth };
+}
+
+function locateIn(doc: Document, path: readonly PathPart[], pos: (o: number) => { line: number; column: number }) {
+  // walk as deep as the file goes, remembering the last node that has a position
+  let node: unknown = doc.contents;
+  let best: Node | null = (doc.contents as Node | null) ?? null;
+  for (const part of path) {
+    let next: unknown;
+    if (isMap(node)) {
+      const pair = node.items.find((it) => isScalar(it.key) && String(it.key.value) === String(part));
+      if (!pair) break;
+      next = pair.value ?? pair.key;
+      if (pair.value === null && isScalar(pair.key)) best = pair.key as Node;
+    } else if (isSeq(node) && typeof part === "number") {
+      next = node.items[part];
+    } else break;
+    if (next === undefined || next === null) break;
+    node = next;
+    if ((node as Node).range) best = node as Node;
+  }
+  const off = best?.range?.[0] ?? 0;
+  return pos(off);
+}
+
+function locateKey(doc: Document, path: readonly PathPart[], pos: (o: number) => { line: number; column: number }) {
+  const parent = nodeAt(doc, path.slice(0, -1));
+  const key = path[path.length - 1];
+  if (parent.depth === path.length - 1 && isMap(parent.node)) {
+    const pair = parent.node.items.find((it) => isPair(it) && isScalar(it.key) && String(it.key.value) === String(key));
+    const k = pair?.key as Node | undefined;
+    if (k?.range) return pos(k.range[0]);
+  }
+  return locateIn(doc, path, pos);
+}
+
+interface RawProblem {
+  code: string;
+  message: string;
+  parts: PathPart[];
+  keyNode?: boolean;
+}
+
+type Issue = z.core.$ZodIssue;
+
+function valueAt(raw: unknown, parts: readonly PathPart[]): unknown {
+  let v: unknown = raw;
+  for (const p of parts) {
+    if (v === null || typeof v !== "object") return undefined;
+    v = (v as Record<string, unknown>)[p as string];
+  }
+  return v;
+}
+
+function describe(v: unknown): string {
+  if (v === undefined) return "nothing";
+  if (v === null) return "an empty value";
+  if (Array.isArray(v)) return "a list";
+  if (typeof v === "object") return "a mapping";
+  if (typeof v === "string") return `the text "${v}"`;
+  return `${typeof v} ${String(v)}`;
+}
+
+/** Walk a zod schema down a path to find the object shape there, for "did you mean". */
+export function shapeAt(schema: z.ZodType, parts: readonly PathPart[]): string[] {
+  let s: z.ZodType | undefined = schema;
+  const unwrap = (x: z.ZodType): z.ZodType => {
+    for (let i = 0; i < 20; i++) {
+      const def = (x as unknown as { def: Record<string, unknown> }).def;
+      if (def.type === "optional" || def.type === "default" || def.type === "prefault" || def.type === "nullable" || def.type === "readonly")
+        x = def.innerType as z.ZodType;
+      else if (def.type === "pipe") x = def.in as z.ZodType;
+      else break;
+    }
+    return x;
+  };
+  for (const p of parts) {
+    if (!s) return [];
+    s = unwrap(s);
+    const def = (s as unknown as { def: Record<string, unknown> }).def;
+    if (def.type === "object") s = (def.shape as Record<string, z.ZodType>)[p as string];
+    else if (def.type === "array") s = def.element as z.ZodType;
+    else if (def.type === "union") {
+      const opts = (def.options as z.ZodType[]).map(unwrap).filter((o) => (o as unknown as { def: { type: string } }).def.type === "object");
+      s = opts.length ? (opts[0] as unknown as { def: { shape: Record<string, z.ZodType> } }).def.shape[p as string] : undefined;
+    } else return [];
+  }
+  if (!s) return [];
+  s = unwrap(s);
+  const def = (s as unknown as { def: Record<string, unknown> }).def;
+  if (def.type === "object") return Object.keys(def.shape as object);
+  if (def.type === "union") {
+    for (const o of def.options as z.ZodType[]) {
+      const d = (unwrap(o) as unknown as { def: Record<string, unknown> }).def;
+      if (d.type === "object") return Object.keys(d.shape as object);
+    }
+  }
+  return [];
+}
+
+function issuesToProblems(issues: readonly Issue[], schema: z.ZodType, raw: unknown): RawProblem[] {
+  const out: RawProblem[] = [];
+  for (const issue of issues) {
+    const parts = issue.path.map((p) => (typeof p === "symbol" ? String(p) : p)) as PathPart[];
+    const value = valueAt(raw, parts);
+    switch (issue.code) {
+      case "unrecognized_keys": {
+        const known = shapeAt(schema, parts);
+        for (const key of issue.keys) {
+          const near = nearest(key, known);
+          out.push({
+            code: "unknown_key",
+            parts: [...parts, key],
+            keyNode: true,
+            message: `unknown key "${key}"${near ? `; did you mean "${near}"?` : known.length ? `; known keys here: ${known.filter((k) => k !== "$schema").join(", ")}` : ""}`,
+          });
+        }
+        break;
+      }
+      case "invalid_type": {
+        if (value === undefined) {
+          out.push({ code: "missing_field", parts, message: `missing; ${expectedText(issue.expected, schema, parts)} is required here` });
+        } else {
+          out.push({ code: "wrong_type", parts, message: `expected ${expectedText(issue.expected, schema, parts)}, got ${describe(value)}` });
+        }
+        break;
+      }
+      case "invalid_value": {
+        const opts = issue.values.map((v) => String(v));
+        const near = typeof value === "string" ? nearest(value, opts) : undefined;
+        out.push({
+          code: "bad_choice",
+          parts,
+          message:
+            value === undefined
+              ? `missing; one of ${opts.join(", ")} is required here`
+              : `${describe(value)} is not allowed; use ${opts.length === 1 ? opts[0] : `one of ${opts.join(", ")}`}${near ? ` (did you mean "${near}"?)` : ""}`,
+        });
+        break;
+      }
+      case "too_small":
+      case "too_big": {
+        const isCount = issue.origin === "number" || issue.origin === "int";
+        const bound = (issue as { minimum?: unknown; maximum?: unknown }).minimum ?? (issue as { maximum?: unknown }).maximum;
+        if (issue.origin === "array" && issue.code === "too_small") {
+          out.push({ code: "out_of_range", parts, message: `the list is empty; give at least ${String(bound)} item, or leave the key out` });
+        } else if (isCount) {
+          out.push({
+            code: "out_of_range",
+            parts,
+            message: `${describe(value)} is ${issue.code === "too_small" ? "too small" : "too large"}; it must be ${issue.code === "too_small" ? "at least" : "at most"} ${String(bound)}`,
+          });
+        } else {
+          out.push({ code: "out_of_range", parts, message: issue.message });
+        }
+        break;
+      }
+      case "invalid_format": {
+        out.push({ code: "bad_format", parts, message: `${describe(value)}: ${issue.message}` });
+        break;
+      }
+      case "custom": {
+        const code = (issue.params as { code?: string } | undefined)?.code ?? "invalid";
+        out.push({ code, parts, message: issue.message });
+        break;
+      }
+      case "invalid_union": {
+        // our unions are "number or text" quantities and wires: find a custom message inside, else say what is expected
+        const inner = issue.errors.flat().find((e) => e.code === "custom");
+        if (inner) {
+          out.push({ code: (inner.params as { code?: string } | undefined)?.code ?? "invalid", parts, message: inner.message });
+        } else if (value === undefined) {
+          out.push({ code: "missing_field", parts, message: "missing; a value is required here" });
+        } else {
+          const objectBranch = issue.errors.find((errs) => errs.every((e) => e.path.length > 0));
+          if (objectBranch && value !== null && typeof value === "object" && !Array.isArray(value)) {
+            out.push(...issuesToProblems(objectBranch.map((e) => ({ ...e, path: [...issue.path, ...e.path] })), schema, raw));
+          } else {
+            out.push({ code: "wrong_type", parts, message: `${describe(value)} is not a valid value here; ${unionHint(parts)}` });
+          }
+        }
+        break;
+      }
+      default:
+        out.push({ code: "invalid", parts, message: issue.message });
+    }
+  }
+  return out;
+}
+
+function unionHint(parts: readonly PathPart[]): string {
+  const last = String(parts[parts.length - 1] ?? "");
+  if (last === "wire" || parts.includes("wire_stock")) return 'write a wire like "0.25 mm grade 2", "33 AWG heavy", "36 SWG" or { bare: 0.25 mm, overall: 0.282 mm }';
+  if (last === "supply") return 'write a supply like "12 V" or { value: 230 V, kind: ac, frequency: 50 Hz }';
+  return 'write a number with a unit, like "12 mm"';
+}
+
+function expectedText(expected: string, schema: z.ZodType, parts: readonly PathPart[]): string {
+  switch (expected) {
+    case "object":
+      return "a mapping of keys" + (shapeAt(schema, parts).length ? ` (${shapeAt(schema, parts).slice(0, 6).join(", ")}…)` : "");
+    case "array":
+      return "a list";
+    case "string":
+      return "a text";
+    case "number":
+      return "a number";
+    case "int":
+      return "a whole number";
+    case "boolean":
+      return "true or false";
+    default:
+      return expected;
+  }
+}
