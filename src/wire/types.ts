@@ -7,7 +7,7 @@ export type OverallSource = "published" | "interpolated" | "from memory" | "meas
 /** A wire as the job file names it, before it is looked up. */
 export interface WireSpec {
   system: WireSystem;
-  /** The size as written: "33" (AWG), "36" (SWG), "0.25" (mm, metric), "" for measured. */
+  /** The size, canonical as parseWireSpec gives it: "33" or "4/0" (AWG), "36" or "7/0" (SWG), "0.250" (mm, metric, three decimals), "" for measured. */
   size: string;
   /** AWG film build, when given or assumed. */
   build?: FilmBuild;
