@@ -22,11 +22,17 @@ interface QtyOptions {
   minText?: string;
 }
 
+/** "a length", "an area", "a speed per volt": the kind as a noun with its article. */
+function kindNoun(kind: QuantityKind): string {
+  const noun = kind.replace(/_/g, " ");
+  return `${/^[aeiou]/.test(noun) ? "an" : "a"} ${noun}`;
+}
+
 /** A quantity of a kind: `"12 mm"` or a bare number in the kind's default unit → SI. */
 export function qty(kind: QuantityKind, opts: QtyOptions = {}) {
   return z
     .union([z.number(), z.string()])
-    .meta({ description: `a ${kind.replace("_", " ")}: a number with a unit such as "${example(kind)}", or a bare number in ${defaultUnit(kind)}` })
+    .meta({ description: `${kindNoun(kind)}: a number with a unit such as "${example(kind)}", or a bare number in ${defaultUnit(kind)}` })
     .transform((v, ctx) => {
       const r = parseQuantity(v, kind);
       if (!r.ok) {
