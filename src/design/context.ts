@@ -126,7 +126,9 @@ export function buildContext(job: Job): ArmatureContext {
     });
   }
   let toothWidth = a.tooth_width;
-  if (toothWidth === undefined) {
+  if (toothWidth === undefined && job.winding.style !== "tooth") {
+    toothWidth = 0; // the lap and wave end-turn model does not use the tooth width
+  } else if (toothWidth === undefined) {
     const meanSlotWidth = slot.width_top !== null && slot.width_bottom !== null ? (slot.width_top + slot.width_bottom) / 2 : slot.gross_area / depth;
     toothWidth = Math.max((Math.PI * (a.rotor_diameter - depth)) / a.slots - meanSlotWidth, 0.2 * (Math.PI * a.rotor_diameter) / a.slots);
     warnings.push({

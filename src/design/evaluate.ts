@@ -6,8 +6,6 @@
 import { HEX_PACKING, copperFill, spaceFill } from "../armature/fill.js";
 import { passesOpening, slotLayerBuild, toothLayerBuild, type LayerBuild } from "../armature/build.js";
 import { bundleThickness, meanTurnLength, ridingIncrement } from "../armature/turn.js";
-import { noLoad, stall, type MotorModel } from "../motor/model.js";
-import { kvFromKe } from "../motor/emf.js";
 import { copperFactor, COPPER_DENSITY } from "../wire/copper.js";
 import type { Wire } from "../wire/types.js";
 import { terminalResistance } from "../winding/ring.js";
@@ -72,13 +70,19 @@ export function makeEvaluator(ctx: ArmatureContext, cal: Calibration, supply: nu
       break;
   }
 
+  // the riding increment is linear in the bundle thickness b (below its cap): precompute its mean factor
+  let ridingPerBundle = 0;
+  for (const r of rides) ridingPerBundle += ridingIncrement(r, spec.coils_per_slot, spec.span, 1);
+  ridingPerBundle /= rides.length;
+  const brushDrop = cal.brush_drop;
+  const Vd = Math.max(0, supply - brushDrop);
+  const tc = cal.loss.tc;
+  const bLoss = cal.loss.b;
+
   function meanMlt(turns: number, strands: number, overall: number): number {
-    const b = bundleThickness(turns, strands, overall, ctx.along);
-    let riding = 0;
-    for (const r of rides) riding += ridingIncrement(r, spec.coils_per_slot, spec.span, b);
-    riding /= rides.length;
     if (ctx.mltMeasured !== null) return ctx.mltMeasured;
-    return meanTurnLength(spec.style, ctx.core, spec.span, b, ctx.mltFactor) + riding;
+    const b = bundleThickness(turns, strands, overall, ctx.along);
+    return meanTurnLength(spec.style, ctx.core, spec.span, b, ctx.mltFactor) + ridingPerBundle * b;
   }
 
   function evaluate(turns: number, wire: Wire, strands: number): Candidate {
@@ -116,14 +120,11 @@ export function makeEvaluator(ctx: ArmatureContext, cal: Calibration, supply: nu
     let density: number | null = null;
     let dutyInput: number | null = null;
     if (keOrig !== null) ke = (keOrig * turns) / nOrig;
-    const model = (r: number): MotorModel => ({ ke: ke!, resistance: r, brushDrop: cal.brush_drop, loss: cal.loss, field: series ? "series" : "constant" });
-    if (ke !== null && !series) {
-      stallHot = stall(model(terminalHot), supply).current;
-      stallCold = stall(model(terminal), supply).current;
-    } else if (ke !== null || series) {
-      // series: the armature alone sets a lower bound on the stall current (field resistance adds to R)
-      stallHot = Math.max(0, supply - cal.brush_drop) / terminalHot;
-      stallCold = Math.max(0, supply - cal.brush_drop) / terminal;
+    // steady state of the linear model (DESIGN.md; motor/model.ts): stall I = (V − V_b)/R;
+    // no load: V_d = Ke·ω + I·R with Kt·I = T_c + B·ω  →  ω0 = (Ke·V_d − R·T_c)/(Ke² + R·B)
+    if (ke !== null || series) {
+      stallHot = Vd / terminalHot;
+      stallCold = Vd / terminal;
     }
     let dutyCurrent: number | null = null;
     switch (goal) {
@@ -131,10 +132,10 @@ export function makeEvaluator(ctx: ArmatureContext, cal: Calibration, supply: nu
         achieved = strands * wire.area;
         break;
       case "no_load_speed":
-        if (ke !== null && !series) achieved = noLoad(model(terminal), supply).speed;
+        if (ke !== null && !series) achieved = Math.max(0, (ke * Vd - terminal * tc) / (ke * ke + terminal * bLoss));
         break;
       case "kv":
-        if (ke !== null) achieved = (kvFromKe(ke) * 2 * Math.PI) / 60;
+        if (ke !== null) achieved = 1 / ke; // Kv in rad/s per volt (60/(2π·Ke) rpm/V)
         break;
       case "stall_current":
         achieved = stallCold;
@@ -142,13 +143,10 @@ export function makeEvaluator(ctx: ArmatureContext, cal: Calibration, supply: nu
       case "duty": {
         if (ke !== null && !series) {
           const T = t.duty!.torque;
-          const m = model(terminalHot);
-          const Vd = Math.max(0, supply - cal.brush_drop);
-          // steady state at load torque T: Kt·I = T + Tc + B·ω and V_d = Ke·ω + I·R (linear; DESIGN.md)
-          const denom = ke * ke + m.resistance * cal.loss.b;
-          const speed = (ke * Vd - m.resistance * (T + cal.loss.tc)) / denom;
+          // at load torque T: Kt·I = T + T_c + B·ω and V_d = Ke·ω + I·R_hot
+          const speed = (ke * Vd - terminalHot * (T + tc)) / (ke * ke + terminalHot * bLoss);
           if (speed > 0) {
-            const current = (T + cal.loss.tc + cal.loss.b * speed) / ke;
+            const current = (T + tc + bLoss * speed) / ke;
             achieved = speed;
             dutyCurrent = current;
             dutyInput = supply * current;

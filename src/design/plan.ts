@@ -206,6 +206,13 @@ export function planJob(job: Job, options: PlanOptions = {}): Plan {
   const newKe = cal.ke === null ? null : (cal.ke * chosen.turns) / ctx.original.turns;
   const motor = motorReport(newKe, term.single, hotFactor, cal, series, supply);
   const original_motor = motorReport(cal.ke, ctx.original.terminal20, hotFactor, cal, series, supply);
+  if (series && !warnings.some((w) => w.code === "series_field")) {
+    warnings.push({
+      code: "series_field",
+      path: "armature.field",
+      message: "series (universal) motor: no constant field, so only what the armature alone determines is predicted (resistance, Ke scaled by turns); never run a series motor unloaded, it races until it bursts",
+    });
+  }
   for (const w of [...motor.warnings]) if (!warnings.some((x) => x.code === w.code)) warnings.push(w);
   const densityNew = (i: number) => i / (ctx.layout.paths * chosen.strands * chosen.wire.area);
   const densityOld = (i: number) => i / (ctx.layout.paths * ctx.original.strands * ctx.original.wire.area);

@@ -59,12 +59,31 @@ export function compareMissing(a: Candidate, b: Candidate): number {
   return a.terminal_ohm - b.terminal_ohm;
 }
 
+/** A best-first list of at most `size` items under `cmp`, kept by insertion (the sweep keeps only what it shows). */
+class TopList<T> {
+  readonly items: T[] = [];
+  constructor(
+    private readonly size: number,
+    private readonly cmp: (a: T, b: T) => number,
+  ) {}
+  offer(x: T): void {
+    const items = this.items;
+    if (items.length >= this.size && this.cmp(x, items[items.length - 1]) >= 0) return;
+    let i = items.length;
+    while (i > 0 && this.cmp(x, items[i - 1]) < 0) i--;
+    items.splice(i, 0, x);
+    if (items.length > this.size) items.pop();
+  }
+}
+
 export function sweep(ev: Evaluator, opts: SweepOptions, keep = 20): SweepResult {
-  const meeting: Candidate[] = [];
-  const missing: Candidate[] = [];
+  const meeting = new TopList<Candidate>(keep, (a, b) => compareMeeting(ev.goal, a, b));
+  const nearest = new TopList<Candidate>(keep, compareMissing);
+  const nearFit = new TopList<Candidate>(5, compareMissing);
+  const nearOver = new TopList<Candidate>(5, compareMissing);
   const rejections: Partial<Record<RejectCode, number>> = {};
   let total = 0;
-  let worstMeeting = 0;
+  let meetingCount = 0;
   for (const wire of opts.wires) {
     for (let k = 1; k <= opts.maxInHand; k++) {
       let lo = 1;
@@ -80,20 +99,18 @@ export function sweep(ev: Evaluator, opts: SweepOptions, keep = 20): SweepResult
         total++;
         for (const r of c.rejected_because) rejections[r] = (rejections[r] ?? 0) + 1;
         if (c.meets_goal) {
-          meeting.push(c);
-          worstMeeting++;
-        } else missing.push(c);
+          meeting.offer(c);
+          meetingCount++;
+        } else {
+          nearest.offer(c);
+          (c.rejected_because.length === 0 ? nearFit : nearOver).offer(c);
+        }
       }
     }
   }
-  meeting.sort((a, b) => compareMeeting(ev.goal, a, b));
-  // nearest misses: those that fit first, nearest to the goal; and the nearest over a limit
-  missing.sort(compareMissing);
-  const nearFit = missing.filter((c) => c.rejected_because.length === 0).slice(0, 5);
-  const nearOver = missing.filter((c) => c.rejected_because.length > 0).slice(0, 5);
-  const best = meeting[0] ?? missing[0] ?? null;
-  const shown = [...meeting.slice(0, keep), ...(meeting.length === 0 ? missing.slice(0, keep) : [...nearFit, ...nearOver])];
-  return { best, shown: dedupe(shown), total, rejections, meeting: worstMeeting };
+  const best = meeting.items[0] ?? nearest.items[0] ?? null;
+  const shown = meetingCount === 0 ? nearest.items : [...meeting.items, ...nearFit.items, ...nearOver.items];
+  return { best, shown: dedupe(shown), total, rejections, meeting: meetingCount };
 }
 
 function dedupe(cs: Candidate[]): Candidate[] {
