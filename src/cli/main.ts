@@ -6,6 +6,7 @@ import { processIo } from "./io.js";
 import { planCommand } from "./plan.js";
 import { wiresCommand } from "./wires-command.js";
 import { cardCommand } from "./card.js";
+import { schemaCommand } from "./schema.js";
 import { VERSION } from "./version.js";
 
 export async function main(args: string[], io = processIo()): Promise<number> {
@@ -29,6 +30,7 @@ export async function main(args: string[], io = processIo()): Promise<number> {
   y = planCommand(y, io, setStatus);
   y = cardCommand(y, io, setStatus);
   y = wiresCommand(y, io, setStatus);
+  y = schemaCommand(y, io, setStatus);
   await y.parseAsync();
   return status;
 }

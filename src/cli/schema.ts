@@ -1,0 +1,30 @@
+/** `armwind schema [-o FILE]`: the job file's JSON Schema, for editors (printed, or written atomically). */
+import type { Argv } from "yargs";
+import { relative, resolve } from "node:path";
+import { jobJsonSchemaText } from "../job/json-schema.js";
+import { guarded, type Io } from "./io.js";
+import { writeAtomic } from "./write.js";
+
+/** Print the schema, or write it to `output` (temporary file, then renamed); returns the exit status. */
+export async function runSchema(io: Io, output?: string): Promise<number> {
+  const text = jobJsonSchemaText();
+  if (output === undefined || output === "-") {
+    io.out(text);
+    return 0;
+  }
+  const file = resolve(io.cwd, output);
+  await writeAtomic(file, text);
+  io.out(`schema written: ${relative(io.cwd, file) || file}`);
+  return 0;
+}
+
+export function schemaCommand(yargs: Argv, io: Io, setStatus: (n: number) => void) {
+  return yargs.command(
+    "schema",
+    "Print the JSON Schema of the job file, for editors (the YAML language server reads it)",
+    (y) => y.option("output", { alias: "o", type: "string", describe: "write it to this file instead (replaced whole, never half-written)" }),
+    async (argv) => {
+      setStatus(await guarded(io, false, () => runSchema(io, argv.output)));
+    },
+  );
+}
