@@ -316,12 +316,15 @@ export interface TerminalResistance {
   single: number;
   /** Every brush bridging two adjacent bars, Ω. */
   bridged: number;
-  /** Least and greatest over a turn of the rotor in half-bar steps, brushes of the spec's width, Ω. */
+  /** Least and greatest over a turn of the rotor (steps of 1/8 bar), brushes of the spec's width, Ω. */
   min: number;
   max: number;
   /** How the brushes were placed, and when the closed forms do not hold. */
   validity: string;
 }
+
+/** Rotor positions per bar pitch for the min/max search. */
+export const ROTOR_STEPS_PER_BAR = 8;
 
 /** Bars (1 … C) that a brush of width w bars centred at position c (bar n centred at n, bars 1 wide, gaps ignored) touches. */
 export function barsUnderBrush(C: number, centre: number, width: number): number[] {
@@ -346,8 +349,12 @@ export function barsUnderBrush(C: number, centre: number, width: number): number
  *    Wave: + on bar 1, − on the bar ⌊C/2⌋ coils on along the circuit (the two paths of a wave
  *    split ⌊C/2⌋ / ⌈C/2⌉); extra brushes on a wave share the current but add no path and are left out.
  *  - `bridged`: the same brushes each on its bar and the next one.
- *  - `min`/`max`: the rotor turned in half-bar steps, brush j centred C/P·j bars from the first,
- *    each touching every bar it overlaps for the spec's `width_bars`.
+ *  - `min`/`max`: the rotor turned a full turn in steps of 1/8 bar (so the half-bar positions and,
+ *    for brushes narrower than a bar, the positions where every brush sits on one bar are met),
+ *    brush j centred j·C/P bars from the first, each touching every bar it overlaps for the spec's
+ *    `width_bars` (bars one bar pitch wide, the mica gaps ignored). A brush a bar wide or wider
+ *    sits on a single bar only at exact alignment; on an odd C it is then the other brush that
+ *    bridges, so `max` is below `single` there.
  */
 export function terminalResistance(layout: WindingLayout, coilOhm: number[]): TerminalResistance {
   const net = ringNetwork(layout, coilOhm);
@@ -391,13 +398,13 @@ export function terminalResistance(layout: WindingLayout, coilOhm: number[]): Te
     bridged = measure(brushesBridged);
     validity.push(`${count} brushes on bars ${brushesSingle.map((b) => b[0]).join(", ")} (+ and − alternately), ${fmtBars(C / P)} bars apart`);
     if (count === 2 && P === 2 && C % 2 === 1) {
-      validity.push("odd C: brushes 180° apart cannot both bridge at once, so `bridged` is below the least reading over a turn (min)");
+      validity.push("odd C: brushes 180° apart are both on single bars only when narrower than about half a bar, and both bridge only when at least about half a bar wide; min/max are what this brush width gives over a turn, so `single` may lie above max and `bridged` below min");
     }
   }
   let min = Infinity;
   let max = -Infinity;
-  for (let x2 = 0; x2 < 2 * C; x2++) {
-    const x = x2 / 2;
+  for (let x8 = 0; x8 < ROTOR_STEPS_PER_BAR * C; x8++) {
+    const x = x8 / ROTOR_STEPS_PER_BAR;
     const brushes: number[][] = [];
     for (let j = 0; j < count; j++) brushes.push(barsUnderBrush(C, 1 + x + (j * C) / P, w));
     const r = measure(brushes);
