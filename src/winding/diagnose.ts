@@ -156,7 +156,9 @@ function leastSquares(A: number[][], b: number[], n: number): number[] | null {
  * solvable). Slightly inconsistent readings (noise) still solve: negative coils are clamped to 0
  * and the residual reported. A reading near 0 gives a coil near 0 (bars bridged); an infinite
  * reading, or one as large as all the others together, is an open coil (Infinity), the others then
- * read directly. Lap windings with equalizers fitted cannot be inverted coil by coil: an
+ * read directly. Limit: a ring (p = 1) lets one coil hold more than half the ring (upper root); a
+ * wave's chains are all taken on the lower root, so a chain of p coils holding more than half the
+ * ring (only a nearly open coil does that) is treated as an open coil, with its residual reported. Lap windings with equalizers fitted cannot be inverted coil by coil: an
  * `ArmwindError` (code `inversion_not_possible`) says so.
  */
 export function solveCoils(layout: WindingLayout, readings: number[]): CoilSolution {
