@@ -123,7 +123,7 @@ describe("closed forms against the network (equal coils)", () => {
 
   it("two brushes splitting the ring: R·m·(C−m)/C, single/bridged on even and odd C", () => {
     // even C = 12, brushes on bars 1 and 7: 6/6; bridged (1,2) and (7,8): 5/5 with two coils shorted
-    const even = layoutWinding(spec());
+    const even = layoutWinding(spec({}));
     const t = terminalResistance(even, new Array(12).fill(1));
     close(t.single, ringSplit(1, 12, 6));
     close(t.bridged, ringSplit(1, 10, 5));
