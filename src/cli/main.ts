@@ -7,6 +7,7 @@ import { planCommand } from "./plan.js";
 import { wiresCommand } from "./wires-command.js";
 import { cardCommand } from "./card.js";
 import { schemaCommand } from "./schema.js";
+import { newCommand } from "./new.js";
 import { VERSION } from "./version.js";
 
 export async function main(args: string[], io = processIo()): Promise<number> {
@@ -30,7 +31,9 @@ export async function main(args: string[], io = processIo()): Promise<number> {
   y = planCommand(y, io, setStatus);
   y = cardCommand(y, io, setStatus);
   y = wiresCommand(y, io, setStatus);
+  y = (await import("./log.js")).logCommand(y, io, setStatus);
   y = schemaCommand(y, io, setStatus);
+  y = newCommand(y, io, setStatus);
   await y.parseAsync();
   return status;
 }
