@@ -1,0 +1,112 @@
+/**
+ * Learning from the logbook: finished rewinds of the same armature family correct the next plan.
+ * Pure: records in (as read by the store), the plan's logbook options out.
+ *
+ *  - Turn length: each sound record's effective mean turn length (from its measured bar-to-bar
+ *    readings, corrected to 20 °C) fits the end-turn factor of the turn-length model for the build
+ *    it had, f = (MLT − riding − 2L) / end-turn model (src/armature/turn.ts `fitEndTurnFactor`); the
+ *    mean factor carries to the new build (DESIGN.md "Mean length of turn").
+ *  - Ke: each record's Ke from its no-load reading, scaled by turns to the job's original turns,
+ *    Ke_orig = Ke_rec · N_orig / N_rec (DESIGN.md "Calibration of Ke"); the mean.
+ *  - Loss torque: each record's T_c = Kt · I0 (Kt = Ke); the mean, as a Coulomb torque (DESIGN.md
+ *    "No-load loss torque": T_c alone from one test per record).
+ * Each figure is used by the plan as DESIGN.md orders its sources (a generator or no-load test of
+ * the job itself still wins for Ke and the losses); `moves` lists only the figures that moved.
+ */
+import type { Job } from "../job/schema.js";
+import type { PlanOptions } from "../design/plan.js";
+import { calibrateOriginal } from "../design/calibration.js";
+import { coilTurnLengths, meanOf, OLD_WIRE_OVERALL_RATIO, type ArmatureContext } from "../design/context.js";
+import { bundleThickness, fitEndTurnFactor, ridingIncrement } from "../armature/turn.js";
+import { contextFor } from "./predict.js";
+import type { LogRecord } from "./record.js";
+
+export type LogbookOptions = NonNullable<PlanOptions["logbook"]>;
+
+export interface Learned {
+  /** What the plan takes (undefined when no record of the family helps). */
+  options: LogbookOptions | undefined;
+  /** Records of the family, and how many of them gave each figure. */
+  family: string | null;
+  used: { records: number; turn_length: number; ke: number; loss: number };
+  /** Records of the family set aside, and why. */
+  skipped: { file?: string; why: string }[];
+}
+
+const mean = (xs: number[]) => xs.reduce((s, x) => s + x, 0) / xs.length;
+
+/** The end-turn factor a record's effective turn length implies on this armature (null when it implies none). */
+export function recordEndTurnFactor(ctx: ArmatureContext, r: Pick<LogRecord, "winding" | "derived">): number | null {
+  const spec = ctx.layout.spec;
+  const overall = (r.winding.wire.overall_diameter_mm ?? r.winding.wire.bare_diameter_mm * OLD_WIRE_OVERALL_RATIO) / 1e3;
+  const b = bundleThickness(r.winding.turns, r.winding.strands, overall, ctx.along);
+  const riding = meanOf(
+    ctx.layout.coils.map((c) => (c.dead ? 0 : ridingIncrement(c.rides_over, spec.coils_per_slot, spec.span, b))),
+    ctx.layout,
+  );
+  const f = fitEndTurnFactor(r.derived.mean_turn_length_mm / 1e3 - riding, spec.style, ctx.core, spec.span, b);
+  return Number.isFinite(f) && f > 0 ? f : null;
+}
+
+/** Turn a family's records into the plan's logbook options for `job`. */
+export function learnFromRecords(job: Job, records: { file?: string; record: LogRecord }[]): Learned {
+  const family = job.armature.family ?? null;
+  const used = { records: 0, turn_length: 0, ke: 0, loss: 0 };
+  const skipped: Learned["skipped"] = [];
+  if (family === null) return { options: undefined, family, used, skipped };
+  const same = records.filter(({ record: r }) => r.job.family === family);
+  if (same.length === 0) return { options: undefined, family, used, skipped };
+  const ctx = contextFor(job);
+  const factors: number[] = [];
+  const kes: number[] = [];
+  const losses: number[] = [];
+  for (const { file, record: r } of same) {
+    if (r.job.slots !== job.armature.slots || r.job.bars !== job.armature.bars || r.job.style !== job.winding.style) {
+      skipped.push({ file, why: `family ${family} but ${r.job.style} ${r.job.slots} slots / ${r.job.bars} bars, not ${job.winding.style} ${job.armature.slots} / ${job.armature.bars}` });
+      continue;
+    }
+    let any = false;
+    if (r.derived.readings_sound) {
+      const f = recordEndTurnFactor(ctx, r);
+      if (f !== null) {
+        factors.push(f);
+        any = true;
+      }
+    } else skipped.push({ file, why: "its bar-to-bar readings point to a fault: not used for the turn length" });
+    if (r.derived.ke_v_s_per_rad !== null && r.derived.ke_v_s_per_rad > 0) {
+      kes.push((r.derived.ke_v_s_per_rad * job.original.turns) / r.winding.turns);
+      any = true;
+    }
+    if (r.derived.loss_torque_n_m !== null && r.derived.loss_torque_n_m >= 0) {
+      losses.push(r.derived.loss_torque_n_m);
+      any = true;
+    }
+    if (any) used.records++;
+  }
+  used.turn_length = factors.length;
+  used.ke = kes.length;
+  used.loss = losses.length;
+  if (used.records === 0) return { options: undefined, family, used, skipped };
+
+  const options: LogbookOptions = { records: used.records, moves: [] };
+  const moves = options.moves!;
+  if (factors.length && ctx.mltSource !== "measured") {
+    const f = mean(factors);
+    options.mltFactor = f;
+    const o = ctx.original;
+    const oOverall = o.wire.overall_diameter ?? o.wire.bare_diameter * OLD_WIRE_OVERALL_RATIO;
+    const after = meanOf(coilTurnLengths({ ...ctx, mltFactor: f }, o.turns, o.strands, oOverall), ctx.layout);
+    moves.push({ figure: "mean turn length (original build)", from: o.mlt * 1e3, to: after * 1e3, unit: "mm" });
+  }
+  if (kes.length) options.ke = mean(kes);
+  if (losses.length) options.loss = { tc: mean(losses), b: 0 };
+  // what the plan's calibration does with them (a bench test of the job itself wins)
+  const before = calibrateOriginal(ctx).calibration;
+  const ctx1 = options.mltFactor !== undefined ? { ...ctx, mltFactor: options.mltFactor } : ctx;
+  const after = calibrateOriginal(ctx1, options).calibration;
+  if (after.ke !== null && after.ke !== before.ke) moves.push({ figure: "Ke (original winding)", from: before.ke ?? NaN, to: after.ke, unit: "V·s/rad" });
+  if (after.loss.tc !== before.loss.tc) moves.push({ figure: "loss torque", from: before.loss.tc * 1e3, to: after.loss.tc * 1e3, unit: "mN·m" });
+  if (after.loss.b !== before.loss.b) moves.push({ figure: "viscous loss", from: before.loss.b, to: after.loss.b, unit: "N·m·s/rad" });
+  return { options, family, used, skipped };
+}
+
