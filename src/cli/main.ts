@@ -31,6 +31,7 @@ export async function main(args: string[], io = processIo()): Promise<number> {
   y = planCommand(y, io, setStatus);
   y = cardCommand(y, io, setStatus);
   y = wiresCommand(y, io, setStatus);
+  y = (await import("./log.js")).logCommand(y, io, setStatus);
   y = schemaCommand(y, io, setStatus);
   y = newCommand(y, io, setStatus);
   await y.parseAsync();
