@@ -27,7 +27,8 @@ export const processIo = (): Io => ({
 
 /** Read a file's text, or standard input for "-"; a missing file is a located problem. */
 export function readText(io: Io, file: string, path = ""): string {
-  if (file === "-") return io.stdin();
+  // yargs hands a lone "-" over as an empty string
+  if (file === "-" || file === "") return io.stdin();
   try {
     return readFileSync(file, "utf8");
   } catch (e) {
@@ -37,14 +38,16 @@ export function readText(io: Io, file: string, path = ""): string {
   }
 }
 
+export const isStdin = (file: string): boolean => file === "-" || file === "";
+
 export function loadFile<S extends z.ZodType>(io: Io, file: string, schema: S) {
   const text = readText(io, file);
-  return loadYaml(text, file === "-" ? "<stdin>" : file, schema);
+  return loadYaml(text, isStdin(file) ? "<stdin>" : file, schema);
 }
 
 export function loadJob(io: Io, file: string): { job: Job; file: string; locate: (path: (string | number)[]) => { line: number; column: number } } {
   const r = loadFile(io, file, jobSchema);
-  return { job: r.value, file: file === "-" ? "<stdin>" : file, locate: r.locate };
+  return { job: r.value, file: isStdin(file) ? "<stdin>" : file, locate: r.locate };
 }
 
 /** Attach file, line and column to problems that carry only a field path (thrown by the core). */

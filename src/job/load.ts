@@ -26,7 +26,7 @@ export function loadYaml<S extends z.ZodType>(text: string, file: string, schema
   };
   if (doc.errors.length > 0) {
     throw new ArmwindError(
-      doc.errors.slice(0, 5).map((e) => {
+      doc.errors.slice(0, 1).map((e) => {
         const at = pos(e.pos[0]);
         return {
           code: "bad_yaml",

@@ -1,0 +1,136 @@
+/**
+ * The command line as a user meets it: the demo jobs, the `--json` contract of DESIGN.md, the
+ * PDF read back, and bad input giving one located line, exit status 1 and nothing written.
+ */
+import { describe, expect, it } from "vitest";
+import { existsSync, mkdtempSync, readdirSync, readFileSync, writeFileSync } from "node:fs";
+import { tmpdir } from "node:os";
+import { join } from "node:path";
+import { ROOT, demoJobFiles, runCli } from "./helpers/cli.js";
+
+const BLIND = join(ROOT, "jobs/blind-motor-0031.yaml");
+const blindText = readFileSync(BLIND, "utf8");
+
+function tmp(): string {
+  return mkdtempSync(join(tmpdir(), "armwind-cli-"));
+}
+
+async function pdfText(file: string): Promise<string> {
+  const pdfjs = await import("pdfjs-dist/legacy/build/pdf.mjs");
+  const doc = await pdfjs.getDocument({ data: new Uint8Array(readFileSync(file)), useSystemFonts: false }).promise;
+  let text = "";
+  for (let i = 1; i <= doc.numPages; i++) {
+    const page = await doc.getPage(i);
+    const c = await page.getTextContent();
+    text += c.items.map((it) => ("str" in it ? it.str : "")).join(" ") + "\n";
+  }
+  return text;
+}
+
+describe("plan --json (DESIGN.md contract)", () => {
+  for (const file of demoJobFiles()) {
+    it(`has the contract's keys for ${file.split("/").pop()}`, () => {
+      const r = runCli(["plan", file, "--json"]);
+      expect([0, 2]).toContain(r.status);
+      const j = JSON.parse(r.stdout);
+      expect(j.ok).toBe(true);
+      for (const k of ["job_id", "feasible", "goal", "design", "coils", "paths", "resistance", "wire", "motor", "original_motor", "duty", "candidates", "candidates_total", "warnings"]) expect(j, k).toHaveProperty(k);
+      for (const k of ["kind", "unit", "target_value", "achieved_value", "error_fraction"]) expect(j.goal).toHaveProperty(k);
+      for (const k of ["turns_per_coil", "strands_in_hand", "copper_fill", "space_fill", "layers"]) expect(j.design).toHaveProperty(k);
+      for (const k of ["label", "bare_diameter_mm", "overall_diameter_mm", "source"]) expect(j.design.wire).toHaveProperty(k);
+      for (const k of ["index", "go_slot", "return_slot", "layer", "start_bar", "end_bar", "turns", "direction", "mean_turn_length_mm", "dead"]) expect(j.coils[0]).toHaveProperty(k);
+      for (const k of ["coil_ohm", "bar_to_bar_ohm", "terminal_ohm", "terminal_min_ohm", "terminal_max_ohm", "terminal_hot_ohm"]) expect(j.resistance).toHaveProperty(k);
+      for (const k of ["mean_turn_length_mm", "per_coil_m", "winding_m", "cut_m", "copper_mass_g"]) expect(j.wire).toHaveProperty(k);
+      for (const m of [j.motor, j.original_motor])
+        for (const k of ["ke_v_s_per_rad", "kt_n_m_per_a", "kv_rpm_per_v", "no_load_speed_rpm", "no_load_current_a", "stall_current_a", "stall_torque_n_m", "peak_efficiency", "peak_efficiency_current_a", "max_output_w", "calibration"])
+          expect(m, k).toHaveProperty(k);
+      for (const k of ["turns_per_coil", "wire", "strands_in_hand", "copper_fill", "terminal_ohm", "kv_rpm_per_v", "meets_goal", "rejected_because"]) expect(j.candidates[0]).toHaveProperty(k);
+      expect(Number.isInteger(j.paths)).toBe(true);
+      expect(j.coils.length).toBeGreaterThanOrEqual(j.winding.slots);
+    });
+  }
+});
+
+describe("card", () => {
+  it("writes output/<id>.pdf whose text carries the turn count, the cut length and the expected bar-to-bar reading", async () => {
+    const out = tmp();
+    const r = runCli(["card", BLIND, "-o", out], { env: { SOURCE_DATE_EPOCH: "1796083200" } });
+    expect(r.stderr).toBe("");
+    expect(r.status).toBe(0);
+    const pdf = join(out, "blind-motor-0031.pdf");
+    expect(existsSync(pdf)).toBe(true);
+    const j = JSON.parse(runCli(["plan", BLIND, "--json"]).stdout);
+    const text = await pdfText(pdf);
+    const { sig, ohm } = await import("../src/cli/format.js");
+    expect(text).toContain(String(j.design.turns_per_coil));
+    expect(text).toContain(sig(j.wire.cut_m));
+    expect(text).toContain(ohm(j.resistance.bar_to_bar_ohm));
+    expect(text).toContain("Ω");
+    expect(readdirSync(out)).toEqual(["blind-motor-0031.pdf"]);
+  });
+});
+
+describe("bad input: one located line, exit 1, no stack trace, nothing written", () => {
+  const cases: [string, (s: string) => string, RegExp][] = [
+    ["malformed YAML", (s) => s.replace("slots: 5", "slots: [5"), /blind\.yaml:\d+:\d+: .*not valid YAML/],
+    ["an unknown key, with the nearest known one", (s) => s.replace("stack_length:", "stak_length:"), /blind\.yaml:\d+:\d+: armature\.stak_length: unknown key "stak_length"; did you mean "stack_length"\?/],
+    ["a missing field", (s) => s.replace(/  rotor_diameter: .*\n/, ""), /blind\.yaml:\d+:\d+: armature\.rotor_diameter: missing/],
+    ["a value without a sensible unit", (s) => s.replace("stack_length: 12 mm", "stack_length: 12 V"), /armature\.stack_length: unknown unit "V" for a length \("V" is a unit of voltage\)/],
+    ["a value out of physical range", (s) => s.replace("stack_length: 12 mm", "stack_length: -12 mm"), /armature\.stack_length: must be greater than zero/],
+    ["bars that do not suit the slots", (s) => s.replace("bars: 5", "bars: 7"), /blind\.yaml:\d+:\d+: (armature|winding)\.\w+: /],
+  ];
+  for (const [name, edit, pattern] of cases) {
+    it(name, () => {
+      const dir = tmp();
+      const job = join(dir, "blind.yaml");
+      writeFileSync(job, edit(blindText));
+      const out = join(dir, "out");
+      const r = runCli(["card", job, "-o", out]);
+      expect(r.status).toBe(1);
+      expect(r.stderr).toMatch(pattern);
+      expect(r.stderr).not.toMatch(/\n\s+at /);
+      expect(r.stderr.trim().split("\n").length).toBeLessThanOrEqual(3);
+      expect(existsSync(out)).toBe(false);
+      const j = runCli(["plan", job, "--json"]);
+      expect(j.status).toBe(1);
+      const body = JSON.parse(j.stdout);
+      expect(body.ok).toBe(false);
+      for (const e of body.errors) for (const k of ["code", "message", "file", "line", "column", "path"]) expect(e).toHaveProperty(k);
+    });
+  }
+});
+
+describe("exit statuses", () => {
+  it("2 when no winding meets the goal, with the closest candidate and feasible false", () => {
+    const dir = tmp();
+    const job = join(dir, "fast.yaml");
+    writeFileSync(job, blindText.replace("no_load_speed: 9000 rpm", "no_load_speed: 90000 rpm"));
+    const r = runCli(["plan", job, "--json"]);
+    expect(r.status).toBe(2);
+    const j = JSON.parse(r.stdout);
+    expect(j.feasible).toBe(false);
+    expect(j.design.turns_per_coil).toBeGreaterThan(0);
+    expect(runCli(["check", job]).status).toBe(2);
+  });
+  it("0 for check on a good job; the job may come on standard input as -", () => {
+    expect(runCli(["check", BLIND]).status).toBe(0);
+    const r = runCli(["plan", "-", "--json"], { input: blindText });
+    expect(r.status).toBe(0);
+    expect(JSON.parse(r.stdout).job_id).toBe("blind-motor-0031");
+  });
+  it("3 when the card cannot be written, with a clear line", () => {
+    const dir = tmp();
+    const blocker = join(dir, "file");
+    writeFileSync(blocker, "x");
+    const r = runCli(["card", BLIND, "-o", join(blocker, "sub")]);
+    expect(r.status).toBe(3);
+    expect(r.stderr).toMatch(/cannot write .*blind-motor-0031\.pdf/);
+  });
+  it("every command has --help", () => {
+    for (const c of ["plan", "check", "card", "wires"]) {
+      const r = runCli([c, "--help"]);
+      expect(r.status, c).toBe(0);
+      expect(r.stdout).toMatch(/Options/);
+    }
+  });
+});

@@ -1,0 +1,132 @@
+/**
+ * The plan's physics against published sources and DESIGN.md's agreeing demo figures.
+ */
+import { describe, expect, it } from "vitest";
+import { readFileSync } from "node:fs";
+import { join } from "node:path";
+import { planJob } from "../src/design/plan.js";
+import { ArmwindError } from "../src/errors.js";
+import { trapezoidArea, trapezoidPerimeter, freeArea } from "../src/armature/slot.js";
+import { copperFill, HEX_PACKING, SQUARE_PACKING } from "../src/armature/fill.js";
+import { lengthFromMass, mltFromWireLength } from "../src/armature/turn.js";
+import { toothLayerBuild, passesOpening } from "../src/armature/build.js";
+import { coilResistance } from "../src/design/context.js";
+import { ROOT, loadJobFile, loadJobText } from "./helpers/cli.js";
+
+const BLIND = join(ROOT, "jobs/blind-motor-0031.yaml");
+const blindText = readFileSync(BLIND, "utf8");
+const blind = () => loadJobFile(BLIND);
+
+describe("DESIGN.md's agreeing demo figures (invented values that agree with each other)", () => {
+  it("60 turns of 0.22 mm on a 48 mm turn give 1.306 Ω a coil and 1.57 Ω across the brushes at 21 °C", () => {
+    const area = (Math.PI / 4) * 0.22e-3 ** 2;
+    const coil = coilResistance(60, 0.048, 1, area);
+    expect(coil).toBeCloseTo(1.306, 3);
+    // tooth ring of 5 coils, brushes splitting it 2/3: R·2·3/5 (DESIGN.md ring formula); 21 °C by IEC 60028
+    expect(((coil * 2 * 3) / 5) * (1 + 0.00393 * 1)).toBeCloseTo(1.57, 2);
+  });
+  it("14.4 m and 4.87 g of old wire mean a 48 mm turn (IEC 60028 density 8.89 g/cm³)", () => {
+    expect(mltFromWireLength(14.4, 1, 60, 5)).toBeCloseTo(0.048, 6);
+    expect(lengthFromMass(4.87e-3, 0.22e-3)).toBeCloseTo(14.41, 1);
+  });
+  it("the original's copper fill is 0.386 of the 11.8 mm² left after the liner", () => {
+    const free = freeArea(13.5e-6, 14e-3, 0.12e-3);
+    expect(free * 1e6).toBeCloseTo(11.82, 2);
+    expect(copperFill(2 * 60, (Math.PI / 4) * 0.22e-3 ** 2, free)).toBeCloseTo(0.386, 3);
+  });
+  it("the plan of the demo reproduces them for the original winding", () => {
+    const p = planJob(blind());
+    expect(p.original.copper_fill).toBeCloseTo(0.386, 3);
+    expect(p.original.mlt * 1e3).toBeCloseTo(48, 1);
+    expect(p.slot.free_area * 1e6).toBeCloseTo(11.82, 2);
+    // Ke from the generator test 3.52 V at 3000 rpm (DESIGN.md: 0.0112 V·s/rad, repeated by the no-load test)
+    expect(p.calibration.source).toBe("generator");
+    expect(p.calibration.ke!).toBeCloseTo(0.0112, 4);
+    expect(p.calibration.disagreement!).toBeLessThan(0.01);
+  });
+});
+
+describe("geometry (plane geometry)", () => {
+  it("trapezoid slot area and liner perimeter", () => {
+    expect(trapezoidArea(4e-3, 2e-3, 5e-3)).toBeCloseTo(15e-6, 12);
+    expect(trapezoidPerimeter(4e-3, 2e-3, 5e-3)).toBeCloseTo(2e-3 + 2 * Math.hypot(5e-3, 1e-3), 12);
+  });
+  it("packing limits of round wire: square π/4, hexagonal π/(2√3)", () => {
+    expect(SQUARE_PACKING).toBeCloseTo(0.7854, 4);
+    expect(HEX_PACKING).toBeCloseTo(0.9069, 4);
+  });
+  it("layer build: turns per layer along the tooth and layers against half the root width (common practice)", () => {
+    const b = toothLayerBuild(45, 1, 0.3e-3, 4.2e-3, 2.5e-3, 0.1e-3);
+    expect(b.turnsPerLayer).toBe(Math.floor(4.0e-3 / 0.3e-3));
+    expect(b.layers).toBe(Math.ceil(45 / 13));
+    expect(b.fits).toBe(b.layers * 0.3e-3 <= 1.25e-3 - 0.1e-3);
+    expect(passesOpening(0.3e-3, 3, 1.0e-3)).toBe(true);
+    expect(passesOpening(0.3e-3, 4, 1.0e-3)).toBe(false);
+  });
+});
+
+describe("the plan", () => {
+  it("bar-to-bar of a tooth ring of C equal coils is R·(C−1)/C (textbook ring formula)", () => {
+    const p = planJob(blind());
+    const R = p.resistance.coil_ohm;
+    for (const r of p.resistance.bar_to_bar) expect(r).toBeCloseTo((R * 4) / 5, 9);
+    expect(p.resistance.terminal_ohm).toBeCloseTo((R * 2 * 3) / 5, 9);
+    expect(p.resistance.terminal_hot_ohm).toBeCloseTo(p.resistance.terminal_ohm * (1 + 0.00393 * 60), 9);
+  });
+  it("Ke scales with turns at the same layout (EMF equation, Z = 2NC)", () => {
+    const p = planJob(blind());
+    expect(p.motor.ke).toBeCloseTo((p.calibration.ke! * p.design.turns) / p.original.turns, 12);
+    expect(p.motor.kv).toBeCloseTo(60 / (2 * Math.PI * p.motor.ke), 9);
+  });
+  it("the chosen candidate meets the goal and no shown candidate that meets it has less resistance (DESIGN.md ranking)", () => {
+    const p = planJob(blind());
+    expect(p.feasible).toBe(true);
+    expect(Math.abs(p.goal.error_fraction!)).toBeLessThanOrEqual(p.job.target.tolerance);
+    for (const c of p.candidates.filter((c) => c.meets_goal)) expect(c.terminal_ohm).toBeGreaterThanOrEqual(p.design.terminal_ohm - 1e-12);
+    expect(p.design.copper_fill).toBeLessThanOrEqual(p.fill_limit + 1e-12);
+  });
+  it("cut length is the winding plus two leads a coil, plus the spare margin", () => {
+    const p = planJob(blind());
+    const w = p.wire;
+    expect(w.cut).toBeCloseTo((w.winding + 2 * 0.05 * 5 * p.design.strands) * 1.1, 9);
+    expect(w.copper_mass).toBeCloseTo(8890 * p.design.wire.area * w.cut, 12);
+  });
+  it("restore keeps the original turns and takes the copper area closest to the original's, not below 97 %", () => {
+    const p = planJob(loadJobFile(join(ROOT, "jobs/drill-lap-0112.yaml")));
+    expect(p.design.turns).toBe(p.original.turns);
+    const ratio = (p.design.strands * p.design.wire.area) / (p.original.strands * p.original.wire.area);
+    expect(ratio).toBeGreaterThanOrEqual(0.97);
+    expect(p.warnings.some((w) => w.code === "series_field")).toBe(true);
+    expect(p.motor.noLoadSpeed).toBeNull();
+    expect(p.mains).toBe(true);
+  });
+  it("a goal the armature cannot reach is not an error: the closest winding, feasible false, and what binds", () => {
+    const p = planJob(loadJobText(blindText.replace("no_load_speed: 9000 rpm", "no_load_speed: 90000 rpm")));
+    expect(p.feasible).toBe(false);
+    expect(p.binding).toMatch(/limit|tolerance/);
+    expect(p.warnings.some((w) => w.code === "goal_not_met")).toBe(true);
+  });
+  it("no stock wire passing the slot opening leaves no feasible winding and names the opening", () => {
+    const p = planJob(loadJobText(blindText.replace("opening: 1.2 mm", "opening: 0.1 mm")));
+    expect(p.feasible).toBe(false);
+    expect(p.design.rejected_because).toContain("slot_opening");
+  });
+  it("a no-load test that implies negative back-EMF is named with its numbers", () => {
+    const bad = blindText.replace("no_load_current: 0.18 A", "no_load_current: 9 A").replace(/  generator:.*\n/, "");
+    try {
+      planJob(loadJobText(bad));
+      expect.unreachable();
+    } catch (e) {
+      expect(e).toBeInstanceOf(ArmwindError);
+      const p = (e as ArmwindError).problems[0];
+      expect(p.code).toBe("inconsistent_tests");
+      expect(p.message).toMatch(/9/);
+    }
+  });
+  it("every demo job plans and meets its goal", () => {
+    for (const f of ["blind-motor-0031", "drill-lap-0112", "chair-wave-0045", "robot-3slot-0007", "boat-7slot-0020"]) {
+      const p = planJob(loadJobFile(join(ROOT, `jobs/${f}.yaml`)));
+      expect(p.feasible, f).toBe(true);
+    }
+  });
+});
