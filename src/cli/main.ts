@@ -33,6 +33,7 @@ export async function main(args: string[], io = processIo()): Promise<number> {
   y = wiresCommand(y, io, setStatus);
   y = (await import("./log.js")).logCommand(y, io, setStatus);
   y = (await import("./diagnose.js")).diagnoseCommand(y, io, setStatus);
+  y = (await import("./history.js")).historyCommand(y, io, setStatus);
   y = schemaCommand(y, io, setStatus);
   y = newCommand(y, io, setStatus);
   await y.parseAsync();

@@ -1,0 +1,86 @@
+/**
+ * `armwind history [--family F] [--json] [--csv] [--plot FILE.svg|FILE.pdf] [--logbook DIR]`:
+ * the finished rewinds, predicted against measured. Damaged records are warnings naming the file
+ * (stderr, and `warnings` in the JSON); the rest still list.
+ */
+import type { Argv } from "yargs";
+import { extname, relative, resolve } from "node:path";
+import { guarded, type Io } from "./io.js";
+import { logbookDir } from "./learning.js";
+import { readLogbook, type Logbook } from "../logbook/store.js";
+import { drawingSvg, historyCsv, historyDrawing, historyRows, type HistoryRow } from "../logbook/history.js";
+import { drawingPdf } from "../logbook/history-pdf.js";
+import { writeAtomic } from "./write.js";
+import { inputError } from "../errors.js";
+import { ohm, sig, table } from "./format.js";
+
+const pair = (p: number | null, m: number | null, f: (x: number | null) => string) => (p === null && m === null ? "—" : `${f(p)} / ${f(m)}`);
+
+export function historyText(rows: HistoryRow[], book: Logbook, family?: string): string {
+  const where = book.dir;
+  if (rows.length === 0) {
+    return book.exists ? `No finished rewinds${family ? ` of family ${family}` : ""} in ${where}.` : `No logbook at ${where} yet (armwind log JOB --measured FILE starts it).`;
+  }
+  const body = rows.map((r) => [
+    r.job_id,
+    r.date,
+    `${r.family ?? "—"}, ${r.style} ${r.slots}/${r.bars}`,
+    `${r.turns_per_coil} × ${r.wire}${r.strands_in_hand > 1 ? ` × ${r.strands_in_hand}` : ""}`,
+    pair(r.terminal_predicted_ohm, r.terminal_measured_ohm, ohm),
+    pair(r.no_load_current_predicted_a, r.no_load_current_measured_a, (x) => sig(x)),
+    pair(r.no_load_speed_predicted_rpm, r.no_load_speed_measured_rpm, (x) => (x === null ? "—" : String(Math.round(x)))),
+    r.checks_ok ? "ok" : `OUT: ${r.checks_failed.join(", ")}`,
+  ]);
+  return [
+    `${rows.length} finished rewind${rows.length === 1 ? "" : "s"}${family ? ` of family ${family}` : ""} in ${where} (predicted / measured; resistance at 20 °C)`,
+    "",
+    table(["job", "date", "armature (family, style slots/bars)", "winding (turns × wire)", "terminal Ω", "no-load A", "no-load rpm", "checks"], body, [false, false, false, false, true, true, true, false]),
+  ].join("\n");
+}
+
+export function historyCommand(yargs: Argv, io: Io, setStatus: (n: number) => void) {
+  return yargs.command(
+    "history",
+    "List the finished rewinds in the logbook, predicted against measured (table, CSV, JSON, or a scatter plot)",
+    (y) =>
+      y
+        .option("family", { type: "string", describe: "only this armature family" })
+        .option("logbook", { type: "string", describe: "logbook folder (default $ARMWIND_LOGBOOK, else jobs/logbook)" })
+        .option("json", { type: "boolean", default: false, describe: "print { ok, records, warnings } as JSON" })
+        .option("csv", { type: "boolean", default: false, describe: "print the table as CSV for a spreadsheet" })
+        .option("plot", { type: "string", describe: "also draw predicted against measured to FILE.svg or FILE.pdf" })
+        .check((a) => {
+          if (a.json && a.csv) throw new Error("--json and --csv: choose one");
+          return true;
+        }),
+    async (argv) => {
+      setStatus(
+        await guarded(io, argv.json, async () => {
+          if (argv.plot !== undefined && ![".svg", ".pdf"].includes(extname(argv.plot).toLowerCase())) {
+            throw inputError("bad_plot_file", "plot", `--plot ${argv.plot}: the plot is written as SVG or PDF; name the file FILE.svg or FILE.pdf`);
+          }
+          const book = readLogbook(logbookDir(io, argv.logbook));
+          for (const w of book.warnings) io.err(`armwind: warning: ${w.message} [${w.code}]`);
+          const records = argv.family === undefined ? book.records : book.records.filter((r) => r.record.job.family === argv.family);
+          const rows = historyRows(records);
+          if (argv.plot !== undefined) {
+            const file = argv.plot;
+            const title = `armwind logbook${argv.family ? `, family ${argv.family}` : ""}`;
+            const d = historyDrawing(rows, title);
+            const data = extname(file).toLowerCase() === ".pdf" ? await drawingPdf(d, { title }) : drawingSvg(d);
+            await writeAtomic(resolve(io.cwd, file), data);
+            if (!argv.json && !argv.csv) io.err(`armwind: plot written to ${relative(io.cwd, resolve(io.cwd, file)).startsWith("..") ? resolve(io.cwd, file) : relative(io.cwd, resolve(io.cwd, file))}`);
+          }
+          if (argv.json) {
+            io.out(JSON.stringify({ ok: true, logbook: book.dir, records: rows, warnings: book.warnings }, null, 2));
+          } else if (argv.csv) {
+            io.out(historyCsv(rows));
+          } else {
+            io.out(historyText(rows, book, argv.family));
+          }
+          return 0;
+        }),
+      );
+    },
+  );
+}

@@ -1,0 +1,264 @@
+/**
+ * History of finished rewinds: rows for the terminal, CSV for a spreadsheet, and the predicted
+ * against measured scatter (one panel per figure, with the y = x line) as a display list that the
+ * SVG writer here and the PDF writer (history-pdf.ts) both draw. Pure: records in, text out.
+ */
+import type { LogRecord } from "./record.js";
+import { checkOf } from "./record.js";
+
+export interface HistoryRow {
+  file: string;
+  job_id: string;
+  date: string;
+  family: string | null;
+  style: string;
+  slots: number;
+  bars: number;
+  turns_per_coil: number;
+  wire: string;
+  strands_in_hand: number;
+  /** Terminal resistance at 20 °C: predicted, and measured corrected to 20 °C (IEC 60028). */
+  terminal_predicted_ohm: number | null;
+  terminal_measured_ohm: number | null;
+  no_load_current_predicted_a: number | null;
+  no_load_current_measured_a: number | null;
+  no_load_speed_predicted_rpm: number | null;
+  no_load_speed_measured_rpm: number | null;
+  /** Every check of the record within tolerance. */
+  checks_ok: boolean;
+  /** Checks out of tolerance ("terminal_resistance", "bar_to_bar.spread" …). */
+  checks_failed: string[];
+}
+
+/** One row per record (the order given). */
+export function historyRows(records: { file: string; record: LogRecord }[]): HistoryRow[] {
+  return records.map(({ file, record: r }) => {
+    const term = checkOf(r, "terminal_resistance");
+    const cur = checkOf(r, "no_load.current");
+    const spd = checkOf(r, "no_load.speed");
+    return {
+      file,
+      job_id: r.job.id,
+      date: r.date,
+      family: r.job.family,
+      style: r.job.style,
+      slots: r.job.slots,
+      bars: r.job.bars,
+      turns_per_coil: r.winding.turns,
+      wire: r.winding.wire.label,
+      strands_in_hand: r.winding.strands,
+      terminal_predicted_ohm: term?.predicted_value ?? r.predicted.terminal_ohm ?? null,
+      terminal_measured_ohm: term?.measured_20c_value ?? null,
+      no_load_current_predicted_a: cur?.predicted_value ?? null,
+      no_load_current_measured_a: cur?.measured_value ?? null,
+      no_load_speed_predicted_rpm: spd?.predicted_value ?? null,
+      no_load_speed_measured_rpm: spd?.measured_value ?? null,
+      checks_ok: r.comparison.ok,
+      checks_failed: r.comparison.checks.filter((c) => c.verdict !== "ok" && c.verdict !== "not_checked").map((c) => c.check),
+    };
+  });
+}
+
+const CSV_COLUMNS: (keyof HistoryRow)[] = [
+  "job_id",
+  "date",
+  "family",
+  "style",
+  "slots",
+  "bars",
+  "turns_per_coil",
+  "wire",
+  "strands_in_hand",
+  "terminal_predicted_ohm",
+  "terminal_measured_ohm",
+  "no_load_current_predicted_a",
+  "no_load_current_measured_a",
+  "no_load_speed_predicted_rpm",
+  "no_load_speed_measured_rpm",
+  "checks_ok",
+  "checks_failed",
+  "file",
+];
+
+function csvCell(v: unknown): string {
+  if (v === null || v === undefined) return "";
+  const s = Array.isArray(v) ? v.join(" ") : String(v);
+  return /[",\r\n]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s;
+}
+
+/** CSV (RFC 4180: comma-separated, quoted where needed, CRLF line ends), numbers unrounded, a header row. */
+export function historyCsv(rows: HistoryRow[]): string {
+  const lines = [CSV_COLUMNS.join(","), ...rows.map((r) => CSV_COLUMNS.map((c) => csvCell(r[c])).join(","))];
+  return lines.join("\r\n") + "\r\n";
+}
+
+// ---------------------------------------------------------------------------------------------
+// the scatter plot as a display list (points, origin top left)
+
+export type Shape =
+  | { kind: "line"; x1: number; y1: number; x2: number; y2: number; width: number; grey: number; dash?: number }
+  | { kind: "circle"; cx: number; cy: number; r: number; filled: boolean }
+  | { kind: "rect"; x: number; y: number; w: number; h: number; grey: number }
+  | { kind: "text"; x: number; y: number; text: string; size: number; anchor: "start" | "middle" | "end"; bold?: boolean; rotate?: boolean };
+
+export interface Drawing {
+  width: number;
+  height: number;
+  shapes: Shape[];
+}
+
+interface Panel {
+  title: string;
+  unit: string;
+  tolerance: number;
+  points: { x: number; y: number; ok: boolean }[];
+}
+
+/** Tick values from lo to hi at 1, 2 or 5 × 10^k (the usual "nice numbers"). */
+export function niceTicks(lo: number, hi: number, target = 5): number[] {
+  if (!(hi > lo)) return [lo];
+  const raw = (hi - lo) / target;
+  const mag = Math.pow(10, Math.floor(Math.log10(raw)));
+  const step = [1, 2, 5, 10].map((m) => m * mag).find((s) => s >= raw) ?? 10 * mag;
+  const out: number[] = [];
+  for (let v = Math.ceil(lo / step) * step; v <= hi + step * 1e-9; v += step) out.push(Number(v.toPrecision(12)));
+  return out;
+}
+
+function tickText(v: number, step: number): string {
+  const decimals = Math.max(0, -Math.floor(Math.log10(step) + 1e-9));
+  return v.toFixed(decimals);
+}
+
+/** Predicted against measured, one panel per figure (terminal Ω at 20 °C, no-load current, no-load speed). */
+export function historyDrawing(rows: HistoryRow[], title: string): Drawing {
+  const panels: Panel[] = [
+    {
+      title: "Terminal resistance at 20 °C",
+      unit: "Ω",
+      tolerance: 0.1,
+      points: rows.filter((r) => r.terminal_predicted_ohm !== null && r.terminal_measured_ohm !== null).map((r) => ({ x: r.terminal_predicted_ohm!, y: r.terminal_measured_ohm!, ok: r.checks_ok })),
+    },
+    {
+      title: "No-load current",
+      unit: "A",
+      tolerance: 0.3,
+      points: rows
+        .filter((r) => r.no_load_current_predicted_a !== null && r.no_load_current_measured_a !== null)
+        .map((r) => ({ x: r.no_load_current_predicted_a!, y: r.no_load_current_measured_a!, ok: r.checks_ok })),
+    },
+    {
+      title: "No-load speed",
+      unit: "rpm",
+      tolerance: 0.1,
+      points: rows
+        .filter((r) => r.no_load_speed_predicted_rpm !== null && r.no_load_speed_measured_rpm !== null)
+        .map((r) => ({ x: r.no_load_speed_predicted_rpm!, y: r.no_load_speed_measured_rpm!, ok: r.checks_ok })),
+    },
+  ];
+  const W = 842;
+  const H = 595;
+  const shapes: Shape[] = [];
+  shapes.push({ kind: "text", x: 40, y: 40, text: title, size: 14, anchor: "start", bold: true });
+  shapes.push({
+    kind: "text",
+    x: 40,
+    y: 58,
+    text: `Predicted against measured, ${rows.length} record${rows.length === 1 ? "" : "s"}. Solid line: measured = predicted; dashed: the check's tolerance. Filled dots: every check within tolerance; open: a check out of it.`,
+    size: 8,
+    anchor: "start",
+  });
+  const size = 212;
+  const streets = 56;
+  const top = 150;
+  panels.forEach((p, i) => {
+    const left = 66 + i * (size + streets);
+    drawPanel(shapes, p, left, top, size);
+  });
+  shapes.push({
+    kind: "text",
+    x: 40,
+    y: H - 40,
+    text: "Tolerances (common practice, no published source): terminal resistance ±10 %, no-load current ±30 %, no-load speed ±10 %.",
+    size: 7,
+    anchor: "start",
+  });
+  return { width: W, height: H, shapes };
+}
+
+function drawPanel(shapes: Shape[], p: Panel, left: number, top: number, size: number) {
+  shapes.push({ kind: "text", x: left + size / 2, y: top - 14, text: `${p.title} (${p.unit})`, size: 10, anchor: "middle", bold: true });
+  shapes.push({ kind: "rect", x: left, y: top, w: size, h: size, grey: 0 });
+  if (p.points.length === 0) {
+    shapes.push({ kind: "text", x: left + size / 2, y: top + size / 2, text: "no records with this figure", size: 8, anchor: "middle" });
+    return;
+  }
+  // the same scale on both axes, wide enough to show the tolerance band round every point
+  const vals = p.points.flatMap((q) => [q.x, q.y]);
+  const lo = Math.max(0, Math.min(...vals) * (1 - 1.6 * p.tolerance));
+  const hi = Math.max(...vals) * (1 + 1.6 * p.tolerance) || 1;
+  const sx = (v: number) => left + ((v - lo) / (hi - lo)) * size;
+  const sy = (v: number) => top + size - ((v - lo) / (hi - lo)) * size;
+  const ticks = niceTicks(lo, hi);
+  const step = ticks.length > 1 ? ticks[1] - ticks[0] : hi - lo;
+  for (const t of ticks) {
+    if (t < lo || t > hi) continue;
+    shapes.push({ kind: "line", x1: sx(t), y1: top + size, x2: sx(t), y2: top + size + 4, width: 0.5, grey: 0 });
+    shapes.push({ kind: "text", x: sx(t), y: top + size + 13, text: tickText(t, step), size: 7, anchor: "middle" });
+    shapes.push({ kind: "line", x1: left - 4, y1: sy(t), x2: left, y2: sy(t), width: 0.5, grey: 0 });
+    shapes.push({ kind: "text", x: left - 6, y: sy(t) + 2.5, text: tickText(t, step), size: 7, anchor: "end" });
+    shapes.push({ kind: "line", x1: left, y1: sy(t), x2: left + size, y2: sy(t), width: 0.3, grey: 0.85 });
+    shapes.push({ kind: "line", x1: sx(t), y1: top, x2: sx(t), y2: top + size, width: 0.3, grey: 0.85 });
+  }
+  // y = x and the tolerance lines y = (1 ± tol)·x, clipped to the square
+  // y = k·x from x where k·x ≥ lo
+  const seg = (k: number, dash?: number) => {
+    const xa = Math.max(lo, lo / k);
+    const xb = Math.min(hi, hi / k);
+    if (xb <= xa) return;
+    shapes.push({ kind: "line", x1: sx(xa), y1: sy(k * xa), x2: sx(xb), y2: sy(k * xb), width: dash ? 0.5 : 0.8, grey: dash ? 0.4 : 0, dash });
+  };
+  seg(1);
+  seg(1 + p.tolerance, 3);
+  seg(1 - p.tolerance, 3);
+  for (const q of p.points) shapes.push({ kind: "circle", cx: sx(q.x), cy: sy(q.y), r: 2.6, filled: q.ok });
+  shapes.push({ kind: "text", x: left + size / 2, y: top + size + 28, text: `predicted (${p.unit})`, size: 8, anchor: "middle" });
+  shapes.push({ kind: "text", x: left - 38, y: top + size / 2, text: `measured (${p.unit})`, size: 8, anchor: "middle", rotate: true });
+}
+
+const esc = (s: string) => s.replace(/&/g, "&amp;").replace(/</g, "&lt;").replace(/>/g, "&gt;").replace(/"/g, "&quot;");
+const f2 = (x: number) => String(Math.round(x * 100) / 100);
+const hexGrey = (g: number) => {
+  const v = Math.round(g * 255)
+    .toString(16)
+    .padStart(2, "0");
+  return `#${v}${v}${v}`;
+};
+
+/** The drawing as an SVG document (text, written by hand; no native dependencies). */
+export function drawingSvg(d: Drawing): string {
+  const out: string[] = [];
+  out.push(`<?xml version="1.0" encoding="UTF-8"?>`);
+  out.push(`<svg xmlns="http://www.w3.org/2000/svg" width="${d.width}pt" height="${d.height}pt" viewBox="0 0 ${d.width} ${d.height}" font-family="DejaVu Sans, Verdana, sans-serif">`);
+  out.push(`<rect x="0" y="0" width="${d.width}" height="${d.height}" fill="#ffffff"/>`);
+  for (const s of d.shapes) {
+    switch (s.kind) {
+      case "line":
+        out.push(`<line x1="${f2(s.x1)}" y1="${f2(s.y1)}" x2="${f2(s.x2)}" y2="${f2(s.y2)}" stroke="${hexGrey(s.grey)}" stroke-width="${s.width}"${s.dash ? ` stroke-dasharray="${s.dash} ${s.dash}"` : ""}/>`);
+        break;
+      case "circle":
+        out.push(`<circle class="point" cx="${f2(s.cx)}" cy="${f2(s.cy)}" r="${s.r}" fill="${s.filled ? "#000000" : "#ffffff"}" stroke="#000000" stroke-width="0.8"/>`);
+        break;
+      case "rect":
+        out.push(`<rect x="${f2(s.x)}" y="${f2(s.y)}" width="${f2(s.w)}" height="${f2(s.h)}" fill="none" stroke="${hexGrey(s.grey)}" stroke-width="0.8"/>`);
+        break;
+      case "text":
+        out.push(
+          `<text x="${f2(s.x)}" y="${f2(s.y)}" font-size="${s.size}" text-anchor="${s.anchor}"${s.bold ? ' font-weight="bold"' : ""}${s.rotate ? ` transform="rotate(-90 ${f2(s.x)} ${f2(s.y)})"` : ""}>${esc(s.text)}</text>`,
+        );
+        break;
+    }
+  }
+  out.push(`</svg>`);
+  return out.join("\n") + "\n";
+}
