@@ -3,7 +3,7 @@
  * Used for job files and for measured files (any zod schema). The only I/O-free part of reading a
  * file: the CLI reads the text and hands it here.
  */
-import { LineCounter, parseDocument, isMap, isSeq, isScalar, isPair, type Node, type Document } from "yaml";
+import { LineCounter, parseDocument, isMap, isSeq, isScalar, isPair, visit, type Alias, type Node, type Document } from "yaml";
 import { z } from "zod";
 import { ArmwindError, type Problem } from "../errors.js";
 import { formatPath, nearest, type PathPart } from "./paths.js";
@@ -38,7 +38,14 @@ export function loadYaml<S extends z.ZodType>(text: string, file: string, schema
       }),
     );
   }
-  const raw: unknown = doc.toJS({ maxAliasCount: 100 });
+  let raw: unknown;
+  try {
+    raw = doc.toJS({ maxAliasCount: 100 });
+  } catch (e) {
+    // the yaml library throws (rather than reporting) an alias with no anchor before it, and an
+    // alias count that suggests a resource-exhaustion file: both are the file's fault
+    throw new ArmwindError(aliasProblem(doc, e, file, pos));
+  }
   const locate = (path: readonly PathPart[]) => locateIn(doc, path, pos);
   if (raw === null || raw === undefined || typeof raw !== "object" || Array.isArray(raw)) {
     throw new ArmwindError({
@@ -59,9 +66,42 @@ export function loadYaml<S extends z.ZodType>(text: string, file: string, schema
     });
     // one line per field; stable order by position in the file
     problems.sort((a, b) => a.line - b.line || a.column - b.column);
-    throw new ArmwindError(dedupe(problems));
+    throw new ArmwindError(dedupe(problems).map((p) => ({ ...p, message: oneLine(p.message) })));
   }
   return { value: result.data, locate, raw };
+}
+
+function aliasProblem(doc: Document, e: unknown, file: string, pos: (offset: number) => { line: number; column: number }): Problem {
+  const aliases: Alias[] = [];
+  visit(doc, {
+    Alias(_key, node) {
+      aliases.push(node);
+    },
+  });
+  const unresolved = aliases.find((a) => {
+    try {
+      return a.resolve(doc) === undefined;
+    } catch {
+      return true;
+    }
+  });
+  const at = unresolved ?? aliases[0];
+  const where = at?.range ? pos(at.range[0]) : { line: 1, column: 1 };
+  const message = unresolved
+    ? `not valid YAML: the alias *${unresolved.source} has no anchor &${unresolved.source} before it`
+    : aliases.length > 0
+      ? "not valid YAML: too many aliases (*name) expand here, refused as a resource-exhaustion risk; write the values out"
+      : yamlMessage(e instanceof Error ? e.message : String(e));
+  return { code: "bad_yaml", message, path: "", file, ...where };
+}
+
+/**
+ * A message is one line: values quoted from the file may hold line breaks (a block scalar) or runs
+ * of spaces; show breaks as \n, collapse the spaces, and cut a very long message short.
+ */
+export function oneLine(message: string): string {
+  const flat = message.replace(/\r\n|[\r\n\u2028\u2029]/g, "\\n").replace(/[\t\v\f ]{2,}|\t/g, " ");
+  return flat.length > 300 ? `${flat.slice(0, 297)}…` : flat;
 }
 
 function dedupe(ps: Problem[]): Problem[] {
@@ -152,7 +192,7 @@ function describe(v: unknown): string {
   if (v === null) return "an empty value";
   if (Array.isArray(v)) return "a list";
   if (typeof v === "object") return "a mapping";
-  if (typeof v === "string") return `the text "${v}"`;
+  if (typeof v === "string") return `the text "${v.length > 40 ? v.slice(0, 37) + "…" : v}"`;
   return `${typeof v} ${String(v)}`;
 }
 
