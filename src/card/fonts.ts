@@ -1,0 +1,73 @@
+/**
+ * The card's fonts: DejaVu Sans regular and bold from @fontsource/dejavu-sans (WOFF 1.0 files),
+ * unpacked once into plain TrueType (sfnt) buffers. pdfkit's font engine reads WOFF tables
+ * lazily and inflates them again on every new glyph, which made a card take seconds; the unpacked
+ * buffers give the same glyphs at once. WOFF 1.0 layout: W3C "WOFF File Format 1.0" (2012),
+ * sections 3–5 (header, table directory, zlib-compressed tables).
+ */
+import { createRequire } from "node:module";
+import { readFileSync } from "node:fs";
+import { inflateSync } from "node:zlib";
+
+const require = createRequire(import.meta.url);
+
+/** DejaVu Sans (Bitstream Vera licence) carries Ω, °, ±, ², ×, − and the arrows the card prints. */
+export const FONT_FILES = {
+  regular: require.resolve("@fontsource/dejavu-sans/files/dejavu-sans-latin-400-normal.woff"),
+  bold: require.resolve("@fontsource/dejavu-sans/files/dejavu-sans-latin-700-normal.woff"),
+};
+
+/** Unpack a WOFF 1.0 file into the sfnt (TrueType/OpenType) it wraps; anything else is returned unchanged. */
+export function woffToSfnt(woff: Buffer): Buffer {
+  if (woff.length < 44 || woff.toString("latin1", 0, 4) !== "wOFF") return woff;
+  const flavor = woff.readUInt32BE(4);
+  const numTables = woff.readUInt16BE(12);
+  const tables: { tag: string; checksum: number; data: Buffer }[] = [];
+  for (let i = 0; i < numTables; i++) {
+    const at = 44 + i * 20;
+    const tag = woff.toString("latin1", at, at + 4);
+    const offset = woff.readUInt32BE(at + 4);
+    const compLength = woff.readUInt32BE(at + 8);
+    const origLength = woff.readUInt32BE(at + 12);
+    const checksum = woff.readUInt32BE(at + 16);
+    const raw = woff.subarray(offset, offset + compLength);
+    const data = compLength < origLength ? inflateSync(raw) : Buffer.from(raw);
+    if (data.length !== origLength) throw new Error(`internal error: WOFF table ${tag} unpacks to ${data.length} bytes, not ${origLength}`);
+    tables.push({ tag, checksum, data });
+  }
+  tables.sort((a, b) => (a.tag < b.tag ? -1 : a.tag > b.tag ? 1 : 0));
+  const pad4 = (n: number) => (n + 3) & ~3;
+  const headerLen = 12 + 16 * numTables;
+  const total = headerLen + tables.reduce((s, t) => s + pad4(t.data.length), 0);
+  const out = Buffer.alloc(total);
+  let p2 = 1;
+  let log = 0;
+  while (p2 * 2 <= numTables) {
+    p2 *= 2;
+    log++;
+  }
+  out.writeUInt32BE(flavor, 0);
+  out.writeUInt16BE(numTables, 4);
+  out.writeUInt16BE(p2 * 16, 6);
+  out.writeUInt16BE(log, 8);
+  out.writeUInt16BE(numTables * 16 - p2 * 16, 10);
+  let offset = headerLen;
+  tables.forEach((t, i) => {
+    const rec = 12 + i * 16;
+    out.write(t.tag, rec, 4, "latin1");
+    out.writeUInt32BE(t.checksum, rec + 4);
+    out.writeUInt32BE(offset, rec + 8);
+    out.writeUInt32BE(t.data.length, rec + 12);
+    t.data.copy(out, offset);
+    offset += pad4(t.data.length);
+  });
+  return out;
+}
+
+let fonts: { regular: Buffer; bold: Buffer } | null = null;
+
+/** The two fonts as sfnt buffers, unpacked once per process. */
+export function cardFonts(): { regular: Buffer; bold: Buffer } {
+  if (!fonts) fonts = { regular: woffToSfnt(readFileSync(FONT_FILES.regular)), bold: woffToSfnt(readFileSync(FONT_FILES.bold)) };
+  return fonts;
+}

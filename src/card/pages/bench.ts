@@ -1,0 +1,153 @@
+/**
+ * Page 4, bench checks: the expected bar-to-bar reading of every pair with its tolerance and a
+ * blank for the reading, terminal resistance, ground, growler, polarity, no-load and brief stall
+ * checks, and the sign-off blanks.
+ */
+import type { Plan } from "../../design/types.js";
+import type { Sheet } from "../sheet.js";
+import { ohm, pct, rpm, sig } from "../text.js";
+
+/** True when a reading this small needs a four-wire / millivolt-drop method: below factor × the meter's resolution (common practice, no published source). */
+export function needsFourWire(expectedOhm: number, resolutionOhm: number, factor: number): boolean {
+  return expectedOhm < factor * resolutionOhm;
+}
+
+export function benchPage(s: Sheet, plan: Plan): void {
+  const T = s.L.type;
+  const B = s.L.bench;
+  const r = plan.resistance;
+  const C = plan.layout.bars;
+  s.newPage("Bench checks");
+  s.need(60);
+  const y0 = s.y;
+  s.blank(s.left, y0, 150, "date");
+  s.blank(s.left + 165, y0, 190, "winder");
+  s.blank(s.left + 370, y0, s.width - 370, "winding temperature", "°C");
+  s.y += s.L.blank.height + 10;
+
+  s.subheading("1. Bar to bar, brushes lifted", `expected at 20 °C; r_i is bar i to bar i+1, r${C} bar ${C} to bar 1`);
+  const tol = B.even_tolerance;
+  s.para(
+    `Tolerance ±${sig(tol * 100, 2)} % of the expected reading for an even winding (common practice, no published source). ` +
+      `A reading ${sig(B.riser_rule * 100, 2)} % or more above the average of your readings points to a poor coil-to-riser connection; one well below the average, down to near zero, to shorted turns or bars (TM 55-2210-223-34, armature bar-to-bar test). ` +
+      `Correct a reading taken at t °C to 20 °C by dividing it by 1 + 0.00393 × (t − 20) (IEC 60028 copper).`,
+    { size: T.body },
+  );
+  const minExpected = Math.min(...r.bar_to_bar);
+  if (needsFourWire(minExpected, B.meter_resolution_ohm, B.four_wire_factor)) {
+    s.framed(
+      (x, y, w) => {
+        const text = `Expected readings (${ohm(minExpected)} Ω) are below ${sig(B.four_wire_factor)} × the ${sig(B.meter_resolution_ohm)} Ω resolution of a typical meter: use a four-wire (Kelvin) or millivolt-drop reading at a known current (e.g. 1 A from a bench supply, volts across the two bars ÷ amps) — common practice.`;
+        s.at(text, x, y, { size: T.body, bold: true, width: w });
+        return s.measure(text, { size: T.body, bold: true, width: w });
+      },
+      { heavy: true, estimate: 40 },
+    );
+  }
+  const sets = Math.max(1, B.column_sets);
+  const setW = (s.width - (sets - 1) * 12) / sets;
+  const cols = [0.16, 0.2, 0.22, 0.42].map((f) => f * setW);
+  const rows = r.bar_to_bar.map((v, i) => ({ i: i + 1, bars: `${i + 1}–${i + 2 > C ? 1 : i + 2}`, v }));
+  const rh = B.row_height;
+  const header = (y: number) => {
+    for (let k = 0; k < sets; k++) {
+      const x = s.left + k * (setW + 12);
+      s.doc.save().rect(x, y, setW, 15).fill("#e6e6e6").restore();
+      const heads = ["pair", "bars", "expected Ω", `reading Ω  (±${sig(tol * 100, 2)} %)`];
+      let cx = x + 3;
+      heads.forEach((h, j) => {
+        s.at(h, cx, y + 3.5, { size: T.small, bold: true });
+        cx += cols[j];
+      });
+    }
+  };
+  let idx = 0;
+  while (idx < rows.length) {
+    s.need(15 + rh * Math.min(3, rows.length - idx));
+    const perCol = Math.max(1, Math.min(Math.floor((s.bottom - s.y - 15) / rh), Math.ceil((rows.length - idx) / sets)));
+    header(s.y);
+    const yStart = s.y + 16;
+    for (let k = 0; k < sets && idx < rows.length; k++) {
+      const x = s.left + k * (setW + 12);
+      for (let j = 0; j < perCol && idx < rows.length; j++, idx++) {
+        const row = rows[idx];
+        const y = yStart + j * rh;
+        let cx = x + 3;
+        s.at(`r${row.i}`, cx, y + 5, { size: T.table, bold: true });
+        cx += cols[0];
+        s.at(row.bars, cx, y + 5, { size: T.table });
+        cx += cols[1];
+        s.at(ohm(row.v), cx, y + 2, { size: T.table + 1, bold: true });
+        s.at(`${ohm(row.v * (1 - tol))}–${ohm(row.v * (1 + tol))}`, cx, y + 12, { size: 6.5, grey: 0.3 });
+        cx += cols[2];
+        s.doc.save().lineWidth(0.6).moveTo(cx, y + rh - 2).lineTo(x + setW - 4, y + rh - 2).stroke().restore();
+      }
+    }
+    s.y = yStart + perCol * rh + 6;
+  }
+  s.para(`Average of the expected readings: ${ohm(r.bar_to_bar_ohm)} Ω. Average of your readings: ________ Ω.`, { size: T.body });
+
+  const check = (title: string, body: string, blanks: [string, string, number][]) => {
+    const bh = s.measure(body, { size: T.body, width: s.width - 24 });
+    s.need(bh + 24 + s.L.blank.height + 10);
+    s.tickBox(s.left, s.y + 1, s.L.tick_box, true);
+    s.at(title, s.left + 24, s.y + 2, { size: T.subheading, bold: true });
+    s.y += T.subheading * 1.5;
+    s.at(body, s.left + 24, s.y, { size: T.body, width: s.width - 24 });
+    s.y += bh + 4;
+    let x = s.left + 24;
+    for (const [label, unit, w] of blanks) {
+      s.blank(x, s.y, w, label, unit);
+      x += w + 14;
+    }
+    if (blanks.length) s.y += s.L.blank.height + 10;
+    else s.y += 4;
+  };
+
+  s.subheading("2. The other checks");
+  check(
+    "Terminal resistance",
+    `Across the brushes (or bars ${1} and ${1 + Math.floor(C / 2)}): expected ${ohm(r.terminal_ohm)} Ω at 20 °C, between ${ohm(r.terminal_min_ohm)} and ${ohm(r.terminal_max_ohm)} Ω as the rotor turns; ${ohm(r.terminal_hot_ohm)} Ω at ${sig(r.hot_temperature)} °C.`,
+    [["reading", "Ω", 150], ["at", "°C", 90]],
+  );
+  check(
+    "Ground (insulation) check",
+    `Every bar to the shaft and to the core: no continuity. Test with an insulation tester at the voltage the standard your shop follows sets (e.g. IEC 60034-1); this card does not set a test voltage. Trained people only (see Cautions).`,
+    [["test voltage", "V", 130], ["insulation", "MΩ", 140], ["pass / fail", "", 110]],
+  );
+  check("Growler (shorted turns)", `Turn the armature in the growler with a hacksaw blade held over each slot: the blade buzzes over a coil with shorted turns (common practice).`, [["result", "", 260]]);
+  check(
+    "Polarity (reversed coil, wrong lead throw)",
+    `A reversed coil or a wrong lead throw still reads normal bar to bar. Feed a low DC current between two bars (or use the growler) and run a compass along the slots: the needle must reverse evenly, pole by pole, with no coil out of step (common practice).`,
+    [["result", "", 260]],
+  );
+  const series = plan.job.armature.field === "series";
+  if (series) {
+    check(
+      "No-load run: NOT for this motor",
+      `Series field (universal motor): never run it unloaded — its speed has no limit without load and it can burst. Check running only under a load, briefly.`,
+      [],
+    );
+  } else {
+    const m = plan.motor;
+    check(
+      "No-load current and speed",
+      `At ${sig(plan.supply)} V ${plan.supply_kind.toUpperCase()}, motor assembled, no load: expected ${sig(m.noLoadCurrent)} A and ${rpm(m.noLoadSpeed)} rpm. Guard the shaft.`,
+      [["supply", "V", 100], ["current", "A", 110], ["speed", "rpm", 130]],
+    );
+  }
+  const m = plan.motor;
+  check(
+    "Brief stall current",
+    `Seconds only, rotor held safely (see Cautions). Expected at ${sig(plan.supply)} V: ${sig(m.stallCurrentCold)} A cold, ${sig(m.stallCurrent)} A hot. At a reduced supply V the cold stall current is about (V − ${sig(plan.calibration.brush_drop)} V brush drop) ÷ ${ohm(r.terminal_ohm)} Ω.`,
+    [["supply", "V", 100], ["current", "A", 110]],
+  );
+  s.y += 6;
+  s.need(s.L.blank.height + 12);
+  const ys = s.y;
+  s.blank(s.left, ys, 200, "result", "");
+  s.blank(s.left + 215, ys, 150, "checked by", "");
+  s.blank(s.left + 380, ys, s.width - 380, "date", "");
+  s.y += s.L.blank.height + 8;
+  void pct;
+}

@@ -1,0 +1,302 @@
+/**
+ * Page 3, the winding diagram, drawn as vectors. Tooth windings: the end view from the commutator
+ * end (slots round the circle, bars in an inner ring placed by the lead throw with the layout's
+ * angle helpers). Lap and wave windings: the developed (unrolled) diagram, slots as pairs of
+ * conductors (top layer solid, bottom dashed), bars as a row of boxes beneath. Coil 1 is the
+ * heaviest line; the first few coils are emphasised when the whole winding is too dense.
+ */
+import type { CoilPlan, Plan } from "../../design/types.js";
+import { barAngle, slotAngle } from "../../winding/layout.js";
+import { grey, type Sheet } from "../sheet.js";
+import { isDead, sig } from "../text.js";
+
+const TAU = 2 * Math.PI;
+const num = (x: number) => (Number.isInteger(x) ? String(x).replace("-", "−") : sig(x));
+
+/**
+ * Where the brushes touch, as angles (rad, clockwise from slot 1, commutator end) with the rotor
+ * drawn at the moment coil 1 commutates: the first brush bridges bar 1 and the next bar of the
+ * circuit (bar 2 progressive, bar C retrogressive; a wave reaches it after p coils), the others
+ * follow one pole pitch (2π/P) apart.
+ */
+export function brushAngles(plan: Plan): number[] {
+  const lay = plan.layout;
+  const C = lay.bars;
+  const next = lay.spec.style === "tooth" || lay.spec.progression === "progressive" ? 2 : C;
+  const a1 = barAngle(lay, 1);
+  let a2 = barAngle(lay, next);
+  if (a2 - a1 > Math.PI) a2 -= TAU;
+  if (a1 - a2 > Math.PI) a2 += TAU;
+  const first = (a1 + a2) / 2;
+  const out: number[] = [];
+  for (let i = 0; i < lay.spec.brushes.count; i++) out.push((((first + (i * TAU) / lay.spec.poles) % TAU) + TAU) % TAU);
+  return out;
+}
+
+/** Which coils are drawn black (emphasised) and which faint: all when few, else the first few. */
+export function emphasised(plan: Plan, n: number): (c: CoilPlan) => boolean {
+  const all = plan.coils.length <= 12;
+  return (c) => all || c.index <= n;
+}
+
+export function diagramPage(s: Sheet, plan: Plan): void {
+  const sp = plan.layout.spec;
+  s.newPage(sp.style === "tooth" ? "Winding diagram — end view" : "Winding diagram — developed");
+  if (sp.style === "tooth") toothDiagram(s, plan);
+  else developedDiagram(s, plan);
+}
+
+type Pt = [number, number];
+
+function polar(cx: number, cy: number, r: number, a: number): Pt {
+  return [cx + r * Math.sin(a), cy - r * Math.cos(a)];
+}
+
+function sector(s: Sheet, cx: number, cy: number, r0: number, r1: number, a0: number, a1: number): void {
+  const n = 12;
+  const pts: Pt[] = [];
+  for (let i = 0; i <= n; i++) pts.push(polar(cx, cy, r1, a0 + ((a1 - a0) * i) / n));
+  for (let i = n; i >= 0; i--) pts.push(polar(cx, cy, r0, a0 + ((a1 - a0) * i) / n));
+  s.doc.polygon(...pts);
+}
+
+function arrowHead(s: Sheet, from: Pt, to: Pt, size: number): void {
+  const a = Math.atan2(to[1] - from[1], to[0] - from[0]);
+  const p1: Pt = [to[0] - size * Math.cos(a - 0.4), to[1] - size * Math.sin(a - 0.4)];
+  const p2: Pt = [to[0] - size * Math.cos(a + 0.4), to[1] - size * Math.sin(a + 0.4)];
+  s.doc.save().polygon(to, p1, p2).fill("#000000").restore();
+}
+
+function toothDiagram(s: Sheet, plan: Plan): void {
+  const T = s.L.type;
+  const lay = plan.layout;
+  const S = lay.spec.slots;
+  const C = lay.bars;
+  const pitch = TAU / S;
+  const size = Math.min(s.width, s.room() - 150);
+  const R = size / 2 - 34;
+  const cx = s.left + s.width / 2;
+  const cy = s.y + size / 2 + 4;
+  const d = s.doc;
+  const rootR = R * 0.66;
+  // rotor: core ring, slots cut in as white sectors
+  d.save().lineWidth(1.2).circle(cx, cy, R).fillAndStroke(grey(0.93), "#000000").restore();
+  d.save().lineWidth(0.8).circle(cx, cy, rootR * 0.82).stroke().restore();
+  for (let k = 1; k <= S; k++) {
+    const a = slotAngle(lay, k);
+    const half = Math.min(pitch * 0.2, 0.3);
+    d.save().lineWidth(0.8);
+    sector(s, cx, cy, rootR, R + 0.5, a - half, a + half);
+    d.fillAndStroke("#ffffff", "#000000").restore();
+    const [lx, ly] = polar(cx, cy, R + 16, a);
+    s.at(`S${k}`, lx - 14, ly - 5, { size: T.label, bold: true, width: 28, align: "center" });
+    const [tx, ty] = polar(cx, cy, (R + rootR) / 2, a + pitch / 2);
+    s.at(`T${k}`, tx - 14, ty - 4, { size: T.small, width: 28, align: "center", grey: 0.25 });
+  }
+  // bars
+  const rb1 = R * 0.42;
+  const rb0 = R * 0.3;
+  const bw = Math.min(Math.PI / C, 0.6) * 0.85;
+  for (let b = 1; b <= C; b++) {
+    const a = barAngle(lay, b);
+    d.save().lineWidth(0.9);
+    sector(s, cx, cy, rb0, rb1, a - bw, a + bw);
+    d.fillAndStroke("#ffffff", "#000000").restore();
+    const [lx, ly] = polar(cx, cy, (rb0 + rb1) / 2, a);
+    s.at(String(b), lx - 10, ly - 4.5, { size: T.label, bold: true, width: 20, align: "center" });
+  }
+  // brushes inside the ring
+  brushAngles(plan).forEach((a, i) => {
+    const p0 = polar(cx, cy, rb0 - 3, a);
+    const p1 = polar(cx, cy, rb0 - 22, a);
+    d.save().lineWidth(7).lineCap("butt").strokeColor(grey(0.45)).moveTo(p0[0], p0[1]).lineTo(p1[0], p1[1]).stroke().restore();
+    const [lx, ly] = polar(cx, cy, rb0 - 32, a);
+    s.at(`B${i + 1}`, lx - 10, ly - 4, { size: T.small, bold: true, width: 20, align: "center" });
+  });
+  // coils
+  const emph = emphasised(plan, s.L.diagram.emphasise_coils);
+  const order = [...plan.coils].sort((x, y) => (x.index === 1 ? 1 : y.index === 1 ? -1 : 0));
+  for (const c of order) {
+    const inset = Math.min(pitch * 0.2, 0.3) * 0.5;
+    const a0 = slotAngle(lay, c.go_slot) + inset;
+    let a1 = slotAngle(lay, c.return_slot) - inset;
+    if (a1 < a0) a1 += TAU;
+    const heavy = c.index === 1;
+    const w = heavy ? s.L.line_width.heavy + 0.6 : emph(c) ? 1.3 : 0.5;
+    const col = emph(c) ? "#000000" : grey(s.L.grey.faint);
+    d.save().lineWidth(w).strokeColor(col).lineJoin("round");
+    sector(s, cx, cy, rootR + 4, R - 3, a0, a1);
+    d.stroke().restore();
+    if (isDead(c)) continue;
+    const goIn = polar(cx, cy, rootR + 4, a0);
+    const retOut = polar(cx, cy, rootR + 4, a1);
+    const sb = polar(cx, cy, rb1, barAngle(lay, c.start_bar!));
+    const eb = polar(cx, cy, rb1, barAngle(lay, c.end_bar!));
+    d.save().lineWidth(w).strokeColor(col).moveTo(sb[0], sb[1]).lineTo(goIn[0], goIn[1]).stroke().restore();
+    d.save().lineWidth(w).strokeColor(col).dash(3, { space: 2 }).moveTo(retOut[0], retOut[1]).lineTo(eb[0], eb[1]).stroke().restore();
+    if (emph(c)) {
+      arrowHead(s, sb, goIn, heavy ? 9 : 6);
+      arrowHead(s, retOut, eb, heavy ? 9 : 6);
+      const [lx, ly] = polar(cx, cy, R - 12, (a0 + a1) / 2);
+      d.save().circle(lx, ly, 7).fillAndStroke("#ffffff", "#000000").restore();
+      s.at(String(c.index), lx - 7, ly - 4, { size: T.small, bold: true, width: 14, align: "center" });
+      const [dx, dy] = polar(cx, cy, R + 12, (a0 + a1) / 2);
+      s.at(c.direction ?? "", dx - 12, dy - 4, { size: T.small, width: 24, align: "center" });
+    }
+  }
+  s.y = cy + size / 2 + 6;
+  s.para(
+    `Seen from the commutator end, clockwise numbering: S = slot, T = tooth, numbers in the inner ring are bars. Coil k goes round tooth k from its start bar (solid lead, arrow into the slot) to its finish bar (dashed lead); coil 1 is the heavy line. ` +
+      `Sense round each tooth (cw/ccw, shown outside the tooth) is as seen looking at the tooth tip from outside. Lead throw ${num(lay.spec.lead_throw)} bars. ` +
+      `The rotor is drawn where coil 1 commutates: brush B1 bridges bars 1 and 2${lay.spec.brushes.count > 1 ? `, the other brush${lay.spec.brushes.count > 2 ? "es" : ""} one pole pitch on` : ""}.`,
+    { size: T.body },
+  );
+}
+
+function developedDiagram(s: Sheet, plan: Plan): void {
+  const T = s.L.type;
+  const lay = plan.layout;
+  const S = lay.spec.slots;
+  const C = lay.bars;
+  const u = lay.spec.coils_per_slot;
+  const d = s.doc;
+  const x0 = s.left + 6;
+  const W = s.width - 12;
+  const dx = W / S;
+  const xAt = (a: number) => x0 + dx / 2 + (a / TAU) * W;
+  const yLabel = s.y + 4;
+  const yApex = yLabel + 30;
+  const backH = Math.min(90, 18 + lay.spec.span * dx * 0.35);
+  const yTop = yApex + backH;
+  const yBot = yTop + 170;
+  const yBars = yBot + Math.min(120, 30 + W * 0.12);
+  const barH = 16;
+  const barPitch = W / C;
+  // conductor x of a coil side
+  const sideX = (slot: number, layer: string, pos: number) => {
+    const xs = xAt(slotAngle(lay, slot));
+    const half = dx * 0.36;
+    const step = half / u;
+    return layer === "top" ? xs - half + (pos - 0.5) * step : xs + (pos - 0.5) * step;
+  };
+  const nearest = (x: number, ref: number) => {
+    let best = x;
+    for (const k of [-1, 1]) if (Math.abs(x + k * W - ref) < Math.abs(best - ref)) best = x + k * W;
+    return best;
+  };
+  // slot labels, slot bodies
+  const every = Math.max(1, Math.ceil(s.L.diagram.label_every_min_pitch / dx));
+  for (let k = 1; k <= S; k++) {
+    const xs = xAt(slotAngle(lay, k));
+    d.save().rect(xs - dx * 0.42, yTop, dx * 0.84, yBot - yTop).fill(grey(0.93)).restore();
+    if ((k - 1) % every === 0) s.at(String(k), xs - 12, yLabel, { size: dx >= 14 ? T.label : T.small, bold: true, width: 24, align: "center" });
+  }
+  s.at("slots", x0, yLabel + 11, { size: T.small, grey: 0.3 });
+  // bars
+  const bevery = Math.max(1, Math.ceil(s.L.diagram.label_every_min_pitch / barPitch));
+  for (let b = 1; b <= C; b++) {
+    const xb = xAt(barAngle(lay, b));
+    {
+      const x = ((((xb - x0) % W) + W) % W) + x0;
+      d.save().lineWidth(0.7).rect(x - barPitch * 0.42, yBars, barPitch * 0.84, barH).fillAndStroke(b === 1 ? grey(0.8) : "#ffffff", "#000000").restore();
+      if ((b - 1) % bevery === 0 || b === 1)
+        s.at(String(b), x - 12, barPitch >= 11 ? yBars + 4 : yBars + barH + 2, { size: barPitch >= 14 ? T.small + 0.5 : 6.5, bold: b === 1, width: 24, align: "center" });
+    }
+  }
+  s.at("bars", x0, yBars + barH + (barPitch >= 11 ? 3 : 11), { size: T.small, grey: 0.3 });
+  // coils: polylines, drawn at −W, 0, +W under a clip so coils that wrap round show at both edges
+  const emph = emphasised(plan, s.L.diagram.emphasise_coils);
+  const paths = (c: CoilPlan) => {
+    const xg = sideX(c.go_slot, c.go_layer, c.go_position);
+    let xr = sideX(c.return_slot, c.return_layer, c.return_position);
+    while (xr < xg) xr += W;
+    const apex: Pt = [(xg + xr) / 2, yTop - backH * 0.85];
+    const front1: Pt[] = [];
+    const front2: Pt[] = [];
+    if (!isDead(c)) {
+      const xs = nearest(xAt(barAngle(lay, c.start_bar!)), xg);
+      const xe = nearest(xAt(barAngle(lay, c.end_bar!)), xr);
+      front1.push([xs, yBars], [xs, yBars - 8], [xg, yBot + 6], [xg, yBot]);
+      front2.push([xr, yBot], [xr, yBot + 6], [xe, yBars - 8], [xe, yBars]);
+    } else {
+      front1.push([xg - 4, yBot + 12], [xg, yBot]);
+      front2.push([xr, yBot], [xr + 4, yBot + 12]);
+    }
+    return { xg, xr, apex, front1, front2 };
+  };
+  const drawCoil = (c: CoilPlan, w: number, col: string) => {
+    const p = paths(c);
+    for (const off of [-W, 0, W]) {
+      const sh = (q: Pt): Pt => [q[0] + off, q[1]];
+      d.save();
+      d.rect(x0 - 2, yLabel, W + 4, yBars + barH + 4 - yLabel).clip();
+      d.lineWidth(w).strokeColor(col).lineJoin("round").lineCap("round");
+      // front end to the go conductor, up it, over the back
+      const a = p.front1.map(sh);
+      d.moveTo(a[0][0], a[0][1]);
+      for (const q of a.slice(1)) d.lineTo(q[0], q[1]);
+      d.lineTo(p.xg + off, yTop).lineTo(p.apex[0] + off, p.apex[1]).lineTo(p.xr + off, yTop).stroke();
+      // return conductor dashed (bottom layer), then the front end to the finish bar
+      d.dash(4, { space: 3 }).moveTo(p.xr + off, yTop).lineTo(p.xr + off, yBot).stroke().undash();
+      const b = p.front2.map(sh);
+      d.moveTo(b[0][0], b[0][1]);
+      for (const q of b.slice(1)) d.lineTo(q[0], q[1]);
+      d.stroke();
+      d.restore();
+    }
+    return p;
+  };
+  const few = plan.coils.length <= 12;
+  for (const c of plan.coils) if (!emph(c)) drawCoil(c, 0.35, grey(s.L.grey.faint));
+  for (const c of plan.coils) if (emph(c) && c.index !== 1) drawCoil(c, few ? 0.8 : 1.1, "#000000");
+  const p1 = drawCoil(plan.coils[0], s.L.line_width.heavy, "#000000");
+  // coil number tags on emphasised coils
+  const tagged = plan.coils.filter((c) => c.index <= s.L.diagram.emphasise_coils || (isDead(c) && emph(c)));
+  const used: number[] = [];
+  for (const c of tagged) {
+    const p = paths(c);
+    let ax = ((p.apex[0] - x0) % W + W) % W + x0;
+    while (used.some((u) => Math.abs(u - ax) < 15)) ax += 15;
+    used.push(ax);
+    d.save().circle(ax, p.apex[1] - 9, 7).fillAndStroke("#ffffff", "#000000").restore();
+    s.at(String(c.index), ax - 8, p.apex[1] - 13, { size: 6.5, bold: true, width: 16, align: "center" });
+    if (isDead(c)) s.at("dead", ax - 14, p.apex[1] - 25, { size: 6.5, bold: true, width: 28, align: "center" });
+  }
+  // coil 1's centre line and the lead throw
+  const xc = (p1.xg + p1.xr) / 2;
+  d.save().lineWidth(0.6).dash(1.5, { space: 2 }).moveTo(xc, p1.apex[1]).lineTo(xc, yBars - 2).stroke().undash().restore();
+  const xb1 = nearest(xAt(barAngle(lay, 1)), xc);
+  const yLt = yBars + barH + 24;
+  if (Math.abs(xb1 - xc) > 0.5) {
+    d.save().lineWidth(1).moveTo(xc, yLt).lineTo(xb1, yLt).stroke().restore();
+    arrowHead(s, [xc, yLt], [xb1, yLt], 6);
+  }
+  d.save().lineWidth(0.6).moveTo(xc, yBars + barH).lineTo(xc, yLt + 4).stroke().restore();
+  s.at(`lead throw ${num(lay.spec.lead_throw)} bars (coil 1 centre line → bar 1)`, Math.min(xc, xb1) - 4, yLt + 5, { size: T.small, bold: true });
+  // brushes
+  const yBr = yLt + 20;
+  brushAngles(plan).forEach((a, i) => {
+    const xb = xAt(a);
+    const x = xb > x0 + W ? xb - W : xb;
+    const bwid = Math.max(4, lay.spec.brushes.width_bars * barPitch);
+    d.save().lineWidth(0.8).rect(x - bwid / 2, yBr, bwid, 14).fillAndStroke(grey(0.55), "#000000").restore();
+    s.at(`B${i + 1}`, x - 12, yBr + 16, { size: T.small, bold: true, width: 24, align: "center" });
+  });
+  s.y = yBr + 32;
+  const legendY = s.y;
+  d.save().lineWidth(1.2).moveTo(s.left, legendY + 5).lineTo(s.left + 30, legendY + 5).stroke().restore();
+  s.at("top layer (go side)", s.left + 34, legendY, { size: T.small });
+  d.save().lineWidth(1.2).dash(4, { space: 3 }).moveTo(s.left + 150, legendY + 5).lineTo(s.left + 180, legendY + 5).stroke().undash().restore();
+  s.at("bottom layer (return side)", s.left + 184, legendY, { size: T.small });
+  d.save().lineWidth(s.L.line_width.heavy).moveTo(s.left + 320, legendY + 5).lineTo(s.left + 350, legendY + 5).stroke().restore();
+  s.at("coil 1", s.left + 354, legendY, { size: T.small });
+  s.y = legendY + 16;
+  const shown = few ? `all ${plan.coils.length} coils drawn` : `coils 1–${s.L.diagram.emphasise_coils} drawn black, the rest faint`;
+  s.para(
+    `Unrolled, seen from outside with the commutator at the bottom; slots and bars numbered left to right, which is clockwise seen from the commutator end. ` +
+      `Each coil runs from its start bar up to its go slot (top layer), over the back end to its return slot (bottom layer) and down to its finish bar; ${shown}; coil 1 is the heavy line. ` +
+      `${lay.spec.style === "wave" ? `Wave: each coil's finish goes ${sig(lay.commutator_pitch)} bars on from its start. ` : ""}` +
+      `The rotor is drawn where coil 1 commutates: brush B1 bridges bar 1 and the next bar of the circuit${lay.spec.brushes.count > 1 ? ", the others one pole pitch apart" : ""}. Bar 1 is shaded.`,
+    { size: T.body },
+  );
+}

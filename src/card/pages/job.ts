@@ -1,0 +1,209 @@
+/** Page 1, the job: who and what, THE WINDING in large type, the cut list, what it will read and do, the lead throw, warnings. */
+import type { MotorReport, Plan } from "../../design/types.js";
+import type { Sheet } from "../sheet.js";
+import { calibrationText, fieldText, goalName, mltSourceText, mm, ohm, pct, rpm, sig, strandsText, torqueUnit, wireSizes } from "../text.js";
+
+export function jobPage(s: Sheet, plan: Plan): void {
+  const j = plan.job;
+  const T = s.L.type;
+  const d = plan.design;
+  const sp = plan.layout.spec;
+  s.newPage();
+  s.at("ARMATURE REWIND — JOB CARD", s.left, s.y, { size: T.small, bold: true, grey: 0.35 });
+  s.y += T.small * 1.6;
+  s.para(j.id, { size: T.title, bold: true, after: 2 });
+  s.para(j.title, { size: T.subheading, after: 2 });
+  if (j.customer) s.para(`Customer: ${j.customer}`, { size: T.body, after: 2 });
+  if (j.notes) s.para(`Notes: ${j.notes}`, { size: T.body, grey: 0.3, after: 2 });
+  s.y += 4;
+
+  if (!plan.feasible) {
+    s.framed(
+      (x, y, w) => {
+        const h1 = s.measure("CLOSEST WINDING — DOES NOT MEET THE GOAL", { size: 15, bold: true, width: w });
+        s.at("CLOSEST WINDING — DOES NOT MEET THE GOAL", x, y, { size: 15, bold: true, width: w });
+        const why = plan.binding ?? "no candidate within the limits reaches the goal";
+        const text = `${why.charAt(0).toUpperCase()}${why.slice(1)}. Goal ${goalName(plan)}: ${plan.goal.summary}. Decide with the customer before winding.`;
+        const h2 = s.measure(text, { size: T.body, width: w });
+        s.at(text, x, y + h1 + 3, { size: T.body, width: w });
+        return h1 + 3 + h2;
+      },
+      { heavy: true, estimate: 60 },
+    );
+  }
+
+  // THE WINDING
+  s.framed(
+    (x, y, w) => {
+      s.at(plan.feasible ? "WIND" : "CLOSEST WINDING", x, y, { size: T.label, bold: true });
+      let cy = y + T.label * 1.4;
+      const big = `${d.turns} turns`;
+      s.at(big, x, cy, { size: T.hero, bold: true });
+      const bw = s.widthOf(big, { size: T.hero, bold: true });
+      s.at("per coil", x + bw + 8, cy + T.hero * 0.45, { size: T.subheading });
+      cy += T.hero * 1.25;
+      const wire = `× ${d.wire.label}${d.strands > 1 ? `   × ${d.strands} in hand` : ""}`;
+      s.at(wire, x, cy, { size: T.hero * 0.8, bold: true });
+      cy += T.hero * 0.8 * 1.3;
+      const lines = [
+        `${wireSizes(d.wire)}; ${strandsText(d.strands)}${d.strands > 1 ? " (wind them side by side as one conductor)" : ""}.`,
+        `Copper fill ${pct(d.copper_fill)} (limit ${pct(plan.fill_limit)}), space fill ${pct(d.space_fill)}` +
+          (d.build ? `; ${d.build.layers} layer${d.build.layers === 1 ? "" : "s"} of ${d.build.turnsPerLayer} turns, build ${mm(d.build.build)} of ${mm(d.build.room)} mm room.` : "; layer build not known (slot dimensions not given)."),
+        `Goal ${goalName(plan)}: ${plan.goal.summary}.`,
+      ];
+      for (const l of lines) {
+        const h = s.measure(l, { size: T.body + 1, width: w });
+        s.at(l, x, cy, { size: T.body + 1, width: w });
+        cy += h + 2;
+      }
+      return cy - y;
+    },
+    { heavy: true, pad: 10, estimate: 150 },
+  );
+
+  // lead throw: the one thing to copy from the old winding
+  if (sp.style !== "tooth" || sp.lead_throw !== 0) {
+    s.framed(
+      (x, y, w) => {
+        const head = `COPY FROM THE OLD WINDING — LEAD THROW ${String(sp.lead_throw).replace("-", "−")} BAR${Math.abs(sp.lead_throw) === 1 ? "" : "S"}`;
+        s.at(head, x, y, { size: T.subheading + 1, bold: true, width: w });
+        const hh = s.measure(head, { size: T.subheading + 1, bold: true, width: w });
+        const text =
+          `Bar 1 sits ${String(sp.lead_throw).replace("-", "−")} bar${Math.abs(sp.lead_throw) === 1 ? "" : "s"} clockwise (seen from the commutator end; negative = anticlockwise) from the bar on coil 1's centre line, midway between its slots ${plan.coils[0].go_slot} and ${plan.coils[0].return_slot}. ` +
+          `It sets the brush neutral: copy it from the old armature (slots and bars marked before stripping), never guess it. A wrong lead throw reads normal bar to bar but sparks and runs poorly.`;
+        const h = s.measure(text, { size: T.body, width: w });
+        s.at(text, x, y + hh + 3, { size: T.body, width: w });
+        return hh + 3 + h;
+      },
+      { heavy: false, estimate: 60 },
+    );
+  }
+
+  // armature and winding
+  s.subheading("Armature and winding");
+  const slotArea = `${sig(plan.slot.gross_area * 1e6)} mm² gross, ${sig(plan.slot.free_area * 1e6)} mm² free after the liner`;
+  const arm: [string, string][] = [
+    ["slots / bars / poles", `${sp.slots} / ${plan.layout.bars} / ${sp.poles}`],
+    ["field", fieldText[j.armature.field] ?? j.armature.field],
+    ["stack length", `${mm(j.armature.stack_length)} mm`],
+    ["rotor Ø", `${mm(j.armature.rotor_diameter)} mm`],
+    ["slot area", slotArea],
+    ["slot opening", `${mm(plan.slot.opening)} mm`],
+    ["liner", plan.slot.liner > 0 ? `${mm(plan.slot.liner)} mm` : "none"],
+  ];
+  const win: [string, string][] = [
+    ["style", sp.style],
+    ["span", sp.style === "tooth" ? "1 (round one tooth)" : `${sp.span} slots (slot 1 to ${1 + sp.span})`],
+  ];
+  if (sp.style !== "tooth") {
+    win.push(["coils per slot u", String(sp.coils_per_slot)]);
+    win.push(["progression", `${sp.progression}, commutator pitch ${Number.isInteger(plan.layout.commutator_pitch) ? plan.layout.commutator_pitch : sig(plan.layout.commutator_pitch)}`]);
+    if (sp.dead_coil) win.push(["dead coil", "yes (one coil wound, not connected)"]);
+  } else win.push(["direction", `${sp.direction === "cw" ? "clockwise" : "anticlockwise"} round each tooth`]);
+  win.push(["parallel paths", String(plan.paths)]);
+  win.push(["lead throw", `${String(sp.lead_throw).replace("-", "−")} bars`]);
+  win.push(["brushes", `${sp.brushes.count}, ${sig(sp.brushes.width_bars)} bar wide`]);
+  s.need(120);
+  const h1 = s.pairs(arm, s.left, s.y, s.width / 2 - 8, { keyWidth: 92 });
+  const h2 = s.pairs(win, s.left + s.width / 2 + 8, s.y, s.width / 2 - 8, { keyWidth: 92 });
+  s.y += Math.max(h1, h2) + 6;
+
+  // cut list
+  s.subheading("Cut list", "strands counted together unless said");
+  const w = plan.wire;
+  const cut: [string, string][] = [
+    ["mean turn length", `${mm(w.mlt)} mm — ${mltSourceText[w.mlt_source] ?? w.mlt_source}`],
+    ["one coil", `${sig(w.per_coil)} m`],
+    ["whole winding", `${sig(w.winding)} m`],
+    ["leads", `${sig(w.leads)} m (${mm(w.lead_allowance)} mm per coil end)`],
+    ["spare margin", pct(w.spare_margin)],
+    ["copper mass", `${sig(w.copper_mass * 1e3)} g`],
+  ];
+  s.need(110);
+  const hc = s.pairs(cut, s.left, s.y, s.width * 0.58, { keyWidth: 100 });
+  const cx = s.left + s.width * 0.6;
+  const cw = s.width * 0.4;
+  s.doc.save().lineWidth(s.L.line_width.heavy).rect(cx, s.y - 2, cw, hc + 2).stroke().restore();
+  s.at("CUT", cx + 8, s.y + 4, { size: T.label, bold: true });
+  s.at(`${sig(w.cut)} m`, cx + 8, s.y + 4 + T.label * 1.3, { size: T.hero * 0.85, bold: true });
+  if (d.strands > 1)
+    s.at(`${sig(w.cut_per_strand)} m from each of ${d.strands} spools`, cx + 8, s.y + 8 + T.label * 1.3 + T.hero, { size: T.body, bold: true, width: cw - 16 });
+  else s.at("leads and spare included", cx + 8, s.y + 8 + T.label * 1.3 + T.hero, { size: T.body, width: cw - 16 });
+  s.y += hc + 8;
+
+  // expected results
+  s.subheading("Expected results");
+  const r = plan.resistance;
+  const res: [string, string][] = [
+    ["coil", `${ohm(r.coil_ohm)} Ω at 20 °C`],
+    ["bar to bar", `${ohm(r.bar_to_bar_ohm)} Ω at 20 °C (every pair on the bench sheet)`],
+    ["terminal", `${ohm(r.terminal_ohm)} Ω at 20 °C (${ohm(r.terminal_min_ohm)} to ${ohm(r.terminal_max_ohm)} Ω as the rotor turns)`],
+    ["terminal hot", `${ohm(r.terminal_hot_ohm)} Ω at ${sig(r.hot_temperature)} °C`],
+  ];
+  s.need(60);
+  s.y += s.pairs(res, s.left, s.y, s.width, { keyWidth: 100 }) + 6;
+  for (const v of r.validity) s.para(`Note: ${v}`, { size: T.small });
+  motorTable(s, plan);
+  const c = plan.calibration;
+  s.para(
+    `Motor figures at ${sig(plan.supply)} V ${plan.supply_kind.toUpperCase()}, calibrated from the ${calibrationText[c.source] ?? c.source}` +
+      `${c.uncertainty !== null ? `, uncertainty about ±${sig(c.uncertainty * 100, 2)} % in Ke` : ", uncertainty not known"}. ${c.basis}. Brush drop: ${c.brush_drop_basis}.`,
+    { size: T.small, grey: 0.25 },
+  );
+
+  // warnings and notes
+  if (plan.warnings.length) {
+    s.subheading(`Warnings (${plan.warnings.length})`);
+    for (const wn of plan.warnings) s.para(`▲ ${wn.path ? wn.path + ": " : ""}${wn.message} [${wn.code}]`, { size: T.body, after: 3 });
+  }
+  if (plan.layout.notes.length) {
+    s.subheading("Notes on this winding");
+    for (const n of plan.layout.notes) s.para(`• ${n}`, { size: T.small + 0.5, after: 2 });
+  }
+  if (plan.learning && plan.learning.records > 0) {
+    s.para(
+      `Logbook: ${plan.learning.records} finished rewind(s) of this armature family corrected the plan: ${plan.learning.moves.map((m) => `${m.figure} ${sig(m.from)} → ${sig(m.to)} ${m.unit}`).join("; ")}.`,
+      { size: T.small },
+    );
+  }
+}
+
+function motorTable(s: Sheet, plan: Plan): void {
+  const o = plan.original_motor;
+  const m = plan.motor;
+  const maxT = Math.max(o.stallTorque ?? 0, m.stallTorque ?? 0, plan.duty?.torque ?? 0);
+  const tu = torqueUnit(maxT || 0.001);
+  const torque = (x: number | null) => (x === null ? "—" : sig(x * tu.k));
+  const row = (label: string, f: (r: MotorReport) => string): string[] => [label, f(o), f(m)];
+  const d = plan.design;
+  const rows: string[][] = [
+    ["winding", `${plan.original.turns} × ${plan.original.wire.label}${plan.original.strands > 1 ? ` × ${plan.original.strands}` : ""}`, `${d.turns} × ${d.wire.label}${d.strands > 1 ? ` × ${d.strands}` : ""}`],
+    ["terminal Ω at 20 °C", `${ohm(plan.original.terminal_ohm)}${plan.original.terminal_measured ? " (measured)" : ""}`, ohm(plan.resistance.terminal_ohm)],
+    row("Kv, rpm/V", (r) => sig(r.kv)),
+    row("no-load speed, rpm", (r) => rpm(r.noLoadSpeed)),
+    row("no-load current, A", (r) => sig(r.noLoadCurrent)),
+    row("stall current hot, A", (r) => sig(r.stallCurrent)),
+    row("stall current cold, A", (r) => sig(r.stallCurrentCold)),
+    row(`stall torque, ${tu.unit}`, (r) => torque(r.stallTorque)),
+    row("peak efficiency", (r) => pct(r.peakEfficiency)),
+    row("max output, W", (r) => sig(r.maxOutputW)),
+  ];
+  if (plan.duty) {
+    const od = plan.original_duty;
+    const du = plan.duty;
+    rows.push([`at duty ${torque(du.torque)} ${tu.unit}: speed, rpm (target ${rpm(du.target_speed)})`, rpm(od?.speed), rpm(du.speed)]);
+    rows.push(["   current, A", sig(od?.current), sig(du.current)]);
+    rows.push(["   efficiency", pct(od?.efficiency), pct(du.efficiency)]);
+    rows.push(["   input, W", sig(od?.input_w), sig(du.input_w)]);
+  }
+  const w = s.width;
+  s.table(
+    [
+      { head: "the motor", width: w * 0.44 },
+      { head: "original", width: w * 0.28, align: "right" },
+      { head: "new", width: w * 0.28, align: "right" },
+    ],
+    rows,
+    { size: s.L.type.table + 0.5, boldCols: new Set([2]), keepTogether: true },
+  );
+}

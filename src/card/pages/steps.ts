@@ -1,0 +1,106 @@
+/** Page 2, coil by coil in winding order: hook, go slot → return slot, turns with tally boxes, finish hook, a tick per coil. */
+import type { CoilPlan, Plan } from "../../design/types.js";
+import { tallyBoxes, tallyGroups } from "../layout.js";
+import type { Sheet } from "../sheet.js";
+import { DEAD_COIL, isDead, sideText } from "../text.js";
+
+/** The instruction for one coil as plain words (also what tests read back). */
+export function coilRoute(plan: Plan, c: CoilPlan): string {
+  const sp = plan.layout.spec;
+  if (sp.style === "tooth") return `round tooth ${c.go_slot}: slot ${c.go_slot} → slot ${c.return_slot}, ${c.direction ?? sp.direction}`;
+  const u = sp.coils_per_slot;
+  return `${sideText(c.go_slot, c.go_layer, c.go_position, u)} → ${sideText(c.return_slot, c.return_layer, c.return_position, u)}`;
+}
+
+/** The route on two lines for the table: what to do in large type, the detail below. */
+function routeLines(plan: Plan, c: CoilPlan): [string, string] {
+  const sp = plan.layout.spec;
+  if (sp.style === "tooth") return [`round tooth ${c.go_slot}`, `slot ${c.go_slot} → slot ${c.return_slot}, ${c.direction ?? sp.direction}`];
+  const u = sp.coils_per_slot;
+  return [`${c.go_slot} → ${c.return_slot}`, `${sideText(c.go_slot, c.go_layer, c.go_position, u)} → ${sideText(c.return_slot, c.return_layer, c.return_position, u)}`];
+}
+
+export function stepsPage(s: Sheet, plan: Plan): void {
+  const T = s.L.type;
+  const sp = plan.layout.spec;
+  s.newPage("Coil by coil");
+  const intro =
+    sp.style === "tooth"
+      ? `Wind in this order. Hook the start on the start bar, wind the turns ${sp.direction === "cw" ? "clockwise" : "anticlockwise"} round the tooth (looking at the tooth tip from outside), going in at the first slot and back through the second; hook the finish on the finish bar. Tick a tally box each time the count reaches the number under it, and the coil's box when it is hooked.`
+      : `Wind in this order. Hook the start on the start bar, lay the go side in the first slot (top layer) and the return side in the second (bottom layer), ${sp.coils_per_slot > 1 ? "at the position given when a slot holds several coils, " : ""}and hook the finish on the finish bar. Tick a tally box each time the count reaches the number under it, and the coil's box when it is hooked. Lead throw ${String(sp.lead_throw).replace("-", "−")} bars, copied from the old winding.`;
+  s.para(intro, { size: T.body });
+  s.para(`${plan.design.turns} turns per coil of ${plan.design.wire.label}${plan.design.strands > 1 ? `, ${plan.design.strands} strands in hand (count a turn of all strands as one)` : ""}.`, { size: T.body + 1, bold: true });
+
+  const cw = s.L.steps.columns;
+  const x = {
+    tick: s.left,
+    coil: s.left + cw.tick,
+    start: s.left + cw.tick + cw.coil,
+    slots: s.left + cw.tick + cw.coil + cw.start,
+    finish: s.left + cw.tick + cw.coil + cw.start + cw.slots,
+    tally: s.left + cw.tick + cw.coil + cw.start + cw.slots + cw.finish,
+  };
+  const tallyW = s.right - x.tally;
+  const tl = s.L.tally;
+  const { step, boxes } = tallyBoxes(plan.design.turns, tl);
+  const groups = tallyGroups(boxes, tl.group_size);
+  const groupW = tl.group_size * (tl.box + tl.gap) - tl.gap;
+  const groupsPerLine = Math.max(1, Math.floor((tallyW + tl.group_gap) / (groupW + tl.group_gap)));
+  const tallyLines = Math.ceil(groups.length / groupsPerLine);
+  const labelSize = 7;
+  const lineH = tl.box + labelSize + 4;
+  const rowH = Math.max(s.L.steps.row_min_height, tallyLines * lineH + 6);
+
+  const header = () => {
+    const y = s.y;
+    s.doc.save().rect(s.left, y, s.width, 16).fill("#e6e6e6").restore();
+    const o = { size: T.small, bold: true };
+    s.at("done", x.tick + 1, y + 4, o);
+    s.at("coil", x.coil, y + 4, o);
+    s.at("start bar", x.start, y + 4, o);
+    s.at(sp.style === "tooth" ? "tooth, slots, sense" : "go slot → return slot", x.slots, y + 4, o);
+    s.at("finish bar", x.finish, y + 4, o);
+    s.at(step === 1 ? "tally: 1 box = 1 turn" : `tally: 1 box = ${step} turns`, x.tally, y + 4, o);
+    s.y += 18;
+  };
+  header();
+  for (const c of plan.coils) {
+    if (s.y + rowH > s.bottom) {
+      s.need(s.bottom);
+      header();
+    }
+    const y = s.y;
+    const mid = y + rowH / 2;
+    s.tickBox(x.tick + 2, mid - s.L.tick_box / 2, s.L.tick_box, true);
+    s.at(String(c.index), x.coil, mid - T.step * 0.6, { size: T.step + 2, bold: true });
+    if (isDead(c)) {
+      s.at(`${coilRoute(plan, c)} — ${DEAD_COIL}`, x.start, mid - T.step * 0.9, { size: T.step - 1, bold: true, width: x.tally - x.start - 6 });
+    } else {
+      s.at(String(c.start_bar), x.start + 4, mid - T.step * 0.6, { size: T.step + 2, bold: true });
+      const [main, detail] = routeLines(plan, c);
+      s.at(main, x.slots, mid - T.step * (detail ? 1.1 : 0.6), { size: T.step, bold: true, width: cw.slots - 4 });
+      if (detail) s.at(detail, x.slots, mid + T.step * 0.15, { size: T.step - 2, width: cw.slots - 4 });
+      s.at(String(c.end_bar), x.finish + 4, mid - T.step * 0.6, { size: T.step + 2, bold: true });
+    }
+    // tally
+    let ty = y + 3;
+    groups.forEach((g, gi) => {
+      const line = Math.floor(gi / groupsPerLine);
+      const col = gi % groupsPerLine;
+      ty = y + 3 + line * lineH;
+      const gx = x.tally + col * (groupW + tl.group_gap);
+      g.forEach((b, bi) => {
+        const bx = gx + bi * (tl.box + tl.gap);
+        s.doc.save().lineWidth(0.8).rect(bx, ty, tl.box, tl.box).stroke().restore();
+        s.at(String(b.upTo), bx - 3, ty + tl.box + 1, { size: labelSize, width: tl.box + 6, align: "center", grey: 0.2 });
+      });
+    });
+    s.y = y + rowH;
+    s.doc.save().lineWidth(s.L.line_width.thin).strokeColor("#8c8c8c").moveTo(s.left, s.y).lineTo(s.right, s.y).stroke().restore();
+  }
+  s.y += 8;
+  s.para(
+    `${plan.coils.length} coils. When all are wound: every bar holds two leads${plan.coils.some(isDead) ? " (the dead coil none)" : ""}; check the leads against the bench sheet before soldering.`,
+    { size: T.body },
+  );
+}

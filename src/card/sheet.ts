@@ -1,0 +1,327 @@
+/**
+ * Drawing helpers shared by the card's page builders: a `Sheet` wraps the pdfkit document with a
+ * running y position, page breaks that repeat the section heading, and the workshop furniture
+ * (headings, wrapped text, key–value blocks, tables, tick boxes, blanks to write in).
+ * Black and white only: meaning never rests on colour, greys only for fills and faint guides.
+ */
+import PDFDocument from "pdfkit";
+import type { CardLayout, Paper } from "./layout.js";
+import { cardFonts } from "./fonts.js";
+/** Kept for other modules that embed the card's fonts; `cardFonts()` gives them unpacked and fast. */
+export { FONT_FILES } from "./fonts.js";
+const REG = "DejaVu";
+const BOLD = "DejaVu-Bold";
+
+export const BLACK = "#000000";
+/** A grey as a hex colour: g = 0 black … 1 white. */
+export function grey(g: number): string {
+  const v = Math.max(0, Math.min(255, Math.round(g * 255)))
+    .toString(16)
+    .padStart(2, "0");
+  return `#${v}${v}${v}`;
+}
+
+export interface TextStyle {
+  size?: number;
+  bold?: boolean;
+  /** Grey level of the text (0 black); keep ≤ 0.45 so it still prints legibly. */
+  grey?: number;
+  align?: "left" | "center" | "right";
+  width?: number;
+  x?: number;
+  /** Space after, pt (default a third of the line). */
+  after?: number;
+  lineGap?: number;
+}
+
+export class Sheet {
+  readonly doc: PDFDocument;
+  readonly L: CardLayout;
+  readonly paper: Paper;
+  y = 0;
+  /** Heading repeated (with "continued") when a section runs onto a new page. */
+  private section = "";
+  private pages = 0;
+
+  constructor(L: CardLayout, paper: Paper, info: Record<string, string | Date>) {
+    this.L = L;
+    this.paper = paper;
+    const size = L.paper[paper];
+    this.doc = new PDFDocument({
+      size: [size.width, size.height],
+      margins: L.margin,
+      autoFirstPage: false,
+      bufferPages: true,
+      info,
+      lang: "en",
+    });
+    const f = cardFonts();
+    this.doc.registerFont(REG, f.regular);
+    this.doc.registerFont(BOLD, f.bold);
+  }
+
+  get left(): number {
+    return this.L.margin.left;
+  }
+  get right(): number {
+    return this.L.paper[this.paper].width - this.L.margin.right;
+  }
+  get width(): number {
+    return this.right - this.left;
+  }
+  /** Lowest y content may reach (the footer sits below it). */
+  get bottom(): number {
+    return this.L.paper[this.paper].height - this.L.margin.bottom;
+  }
+  get top(): number {
+    return this.L.margin.top;
+  }
+  get pageCount(): number {
+    return this.pages;
+  }
+
+  /** Start a new page; with a section name, draw its heading. */
+  newPage(section?: string): void {
+    const size = this.L.paper[this.paper];
+    this.doc.addPage({ size: [size.width, size.height], margins: this.L.margin });
+    this.pages++;
+    this.y = this.top;
+    if (section !== undefined) {
+      this.section = section;
+      this.heading(section);
+    }
+  }
+
+  /** Make room for h points: a new page (with the section heading marked "continued") when the rest of this one is too short. */
+  need(h: number): void {
+    if (this.y + h > this.bottom) {
+      this.newPage();
+      if (this.section) this.heading(`${this.section} (continued)`);
+    }
+  }
+
+  room(): number {
+    return this.bottom - this.y;
+  }
+
+  font(style: TextStyle = {}): PDFDocument {
+    const d = this.doc;
+    d.font(style.bold ? BOLD : REG).fontSize(style.size ?? this.L.type.body);
+    d.fillColor(style.grey ? grey(style.grey) : BLACK);
+    return d;
+  }
+
+  /** Height a wrapped text takes at a width and style. */
+  measure(text: string, style: TextStyle = {}): number {
+    this.font(style);
+    return this.doc.heightOfString(text, { width: style.width ?? this.width, lineGap: style.lineGap ?? 1 });
+  }
+
+  widthOf(text: string, style: TextStyle = {}): number {
+    this.font(style);
+    return this.doc.widthOfString(text);
+  }
+
+  /** Wrapped text at the running y (page break first when it does not fit); returns its height. */
+  para(text: string, style: TextStyle = {}): number {
+    const width = style.width ?? this.width - ((style.x ?? this.left) - this.left);
+    const h = this.measure(text, { ...style, width });
+    this.need(h);
+    this.font(style);
+    this.doc.text(text, style.x ?? this.left, this.y, { width, align: style.align ?? "left", lineGap: style.lineGap ?? 1 });
+    this.y += h + (style.after ?? (style.size ?? this.L.type.body) / 3);
+    return h;
+  }
+
+  /** Text at a fixed place, no page logic, no wrapping unless a width is given. */
+  at(text: string, x: number, y: number, style: TextStyle = {}): void {
+    this.font(style);
+    this.doc.text(text, x, y, {
+      width: style.width,
+      align: style.align ?? "left",
+      lineBreak: style.width !== undefined,
+      lineGap: style.lineGap ?? 1,
+    });
+  }
+
+  heading(text: string): void {
+    const s = this.L.type.heading;
+    this.need(s * 2.2);
+    this.font({ size: s, bold: true });
+    this.doc.text(text.toUpperCase(), this.left, this.y, { lineBreak: false });
+    this.y += s * 1.25;
+    this.rule(this.L.line_width.heavy / 1.5);
+    this.y += s * 0.45;
+  }
+
+  subheading(text: string, note?: string): void {
+    const s = this.L.type.subheading;
+    this.need(s * 3 + 40); // never leave a subheading alone at the foot of a page
+    this.y += s * 0.3;
+    this.font({ size: s, bold: true });
+    this.doc.text(text, this.left, this.y, { lineBreak: false });
+    if (note) {
+      const w = this.doc.widthOfString(text);
+      this.at(note, this.left + w + 8, this.y + (s - this.L.type.small) * 0.8, { size: this.L.type.small, grey: 0.3 });
+    }
+    this.y += s * 1.35;
+  }
+
+  rule(width = this.L.line_width.rule, x0 = this.left, x1 = this.right): void {
+    this.doc.save().lineWidth(width).strokeColor(BLACK).moveTo(x0, this.y).lineTo(x1, this.y).stroke().restore();
+  }
+
+  /** An empty square to tick, top-left at (x, y). */
+  tickBox(x: number, y: number, size = this.L.tick_box, heavy = false): void {
+    this.doc
+      .save()
+      .lineWidth(heavy ? this.L.line_width.box * 1.6 : this.L.line_width.box)
+      .strokeColor(BLACK)
+      .rect(x, y, size, size)
+      .stroke()
+      .restore();
+  }
+
+  /** A line to write on, with an optional label before it and unit after; baseline at y + height. */
+  blank(x: number, y: number, width: number, label = "", unit = "", size = this.L.type.label): number {
+    const h = this.L.blank.height;
+    let cx = x;
+    if (label) {
+      this.at(label, cx, y + h - size * 1.05, { size });
+      cx += this.widthOf(label, { size }) + 4;
+    }
+    const uw = unit ? this.widthOf(unit, { size }) + 4 : 0;
+    const lineEnd = x + width - uw;
+    this.doc
+      .save()
+      .lineWidth(this.L.line_width.rule)
+      .strokeColor(BLACK)
+      .moveTo(cx, y + h)
+      .lineTo(lineEnd, y + h)
+      .stroke()
+      .restore();
+    if (unit) this.at(unit, lineEnd + 3, y + h - size * 1.05, { size });
+    return h;
+  }
+
+  /** A box with a border (heavy or normal) around content drawn by `body`, which gets the inner x, y and width and returns the height it used. */
+  framed(body: (x: number, y: number, w: number) => number, opts: { heavy?: boolean; pad?: number; fill?: number; estimate?: number } = {}): void {
+    const pad = opts.pad ?? 8;
+    if (opts.estimate) this.need(opts.estimate + 2 * pad);
+    const y0 = this.y;
+    const h = body(this.left + pad, y0 + pad, this.width - 2 * pad) + 2 * pad;
+    this.doc
+      .save()
+      .lineWidth(opts.heavy ? this.L.line_width.heavy : this.L.line_width.box)
+      .strokeColor(BLACK)
+      .rect(this.left, y0, this.width, h)
+      .stroke()
+      .restore();
+    this.y = y0 + h + 8;
+  }
+
+  /**
+   * A table: header row in bold on a grey band, rows with hairlines; columns get widths (pt) and
+   * alignment. Breaks across pages, repeating the header. Returns nothing; advances y.
+   */
+  table(
+    cols: { head: string; width: number; align?: "left" | "right" | "center" }[],
+    rows: string[][],
+    opts: { size?: number; rowHeight?: number; x?: number; boldRows?: Set<number>; boldCols?: Set<number>; keepTogether?: boolean } = {},
+  ): void {
+    const size = opts.size ?? this.L.type.table;
+    const x0 = opts.x ?? this.left;
+    const totalW = cols.reduce((a, c) => a + c.width, 0);
+    const pad = 3;
+    const headH = Math.max(...cols.map((c) => this.measure(c.head, { size, bold: true, width: c.width - 2 * pad }))) + 2 * pad;
+    const drawHead = () => {
+      this.doc.save().rect(x0, this.y, totalW, headH).fill(grey(this.L.grey.fill)).restore();
+      let x = x0;
+      for (const c of cols) {
+        this.at(c.head, x + pad, this.y + pad, { size, bold: true, width: c.width - 2 * pad, align: c.align ?? "left" });
+        x += c.width;
+      }
+      this.y += headH;
+    };
+    const rowHeights = rows.map((r) => Math.max(opts.rowHeight ?? 0, ...cols.map((c, i) => this.measure(r[i] ?? "", { size, width: c.width - 2 * pad }) + 2 * pad)));
+    const whole = headH + rowHeights.reduce((a, b) => a + b, 0);
+    this.need(opts.keepTogether && whole < this.bottom - this.top - 40 ? whole : headH + rowHeights.slice(0, 2).reduce((a, b) => a + b, 0));
+    drawHead();
+    rows.forEach((r, ri) => {
+      const h = rowHeights[ri];
+      if (this.y + h > this.bottom) {
+        this.need(this.bottom); // forces a page
+        drawHead();
+      }
+      let x = x0;
+      cols.forEach((c, i) => {
+        const bold = opts.boldRows?.has(ri) || opts.boldCols?.has(i);
+        this.at(r[i] ?? "", x + pad, this.y + pad, { size, bold, width: c.width - 2 * pad, align: c.align ?? "left" });
+        x += c.width;
+      });
+      this.y += h;
+      this.doc
+        .save()
+        .lineWidth(this.L.line_width.thin)
+        .strokeColor(grey(this.L.grey.rule))
+        .moveTo(x0, this.y)
+        .lineTo(x0 + totalW, this.y)
+        .stroke()
+        .restore();
+    });
+    this.y += 6;
+  }
+
+  /** Key–value lines in columns: [[key, value], …] laid out in `columns` side by side. Returns the height used. */
+  pairs(items: [string, string][], x: number, y: number, width: number, opts: { size?: number; keyWidth?: number; columns?: number } = {}): number {
+    const size = opts.size ?? this.L.type.body;
+    const cols = opts.columns ?? 1;
+    const colW = width / cols;
+    const keyW = opts.keyWidth ?? colW * 0.42;
+    const perCol = Math.ceil(items.length / cols);
+    let maxH = 0;
+    for (let c = 0; c < cols; c++) {
+      let cy = y;
+      for (const [k, v] of items.slice(c * perCol, (c + 1) * perCol)) {
+        const cx = x + c * colW;
+        const hv = this.measure(v, { size, width: colW - keyW - 6 });
+        const hk = this.measure(k, { size, width: keyW - 4 });
+        this.at(k, cx, cy, { size, grey: 0.3, width: keyW - 4 });
+        this.at(v, cx + keyW, cy, { size, width: colW - keyW - 6 });
+        cy += Math.max(hv, hk) + 2;
+      }
+      maxH = Math.max(maxH, cy - y);
+    }
+    return maxH;
+  }
+
+  /** Footers on every page: job id, "page x of y", date, "armwind <version>". */
+  footers(jobId: string, date: string, version: string): void {
+    const range = this.doc.bufferedPageRange();
+    const total = range.count;
+    const size = this.L.footer.size;
+    for (let i = 0; i < total; i++) {
+      this.doc.switchToPage(range.start + i);
+      const page = this.doc.page;
+      const saved = page.margins.bottom;
+      page.margins.bottom = 0; // writing below the bottom margin must not open a page
+      const y = page.height - this.L.footer.offset;
+      this.doc.save().lineWidth(this.L.line_width.thin).strokeColor(BLACK).moveTo(this.left, y - 4).lineTo(this.right, y - 4).stroke().restore();
+      this.at(jobId, this.left, y, { size, bold: true });
+      this.at(`page ${i + 1} of ${total}`, this.left, y, { size, bold: true, width: this.width, align: "center" });
+      this.at(`${date}  ·  armwind ${version}`, this.left, y, { size, width: this.width, align: "right" });
+      page.margins.bottom = saved;
+    }
+  }
+
+  /** The finished PDF. */
+  finish(): Promise<Buffer> {
+    return new Promise((resolve, reject) => {
+      const chunks: Buffer[] = [];
+      this.doc.on("data", (c) => chunks.push(c));
+      this.doc.on("end", () => resolve(Buffer.concat(chunks)));
+      this.doc.on("error", reject);
+      this.doc.end();
+    });
+  }
+}

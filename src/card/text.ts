@@ -1,0 +1,86 @@
+/** Wording shared by the card's pages: numbers as the card prints them, and the phrases for slots, bars and the winding. */
+import type { CoilPlan, Plan } from "../design/types.js";
+import type { Wire } from "../wire/types.js";
+import { mm, ohm, pct, rpm, sig } from "../cli/format.js";
+
+export { mm, ohm, pct, rpm, sig };
+
+const RPM = 60 / (2 * Math.PI);
+
+/** "0.202 mm bare, 0.234 mm overall (from memory)". */
+export function wireSizes(w: Wire): string {
+  const overall = w.overall_diameter === null ? "overall not known" : `${mm(w.overall_diameter)} mm overall (${w.overall_source})`;
+  return `${mm(w.bare_diameter)} mm bare, ${overall}`;
+}
+
+export const strandsText = (k: number) => (k === 1 ? "1 strand (single wire)" : `${k} strands in hand`);
+
+/** Turns × wire × strands, as the winder reads it. */
+export function windingLine(turns: number, wire: Wire | string, strands: number): string {
+  const label = typeof wire === "string" ? wire : wire.label;
+  return `${turns} × ${label}${strands > 1 ? ` × ${strands} in hand` : ""}`;
+}
+
+/** Slot side of a coil: "slot 3 top", "slot 3 (cw half)". */
+export function sideText(slot: number, layer: string, position: number, u: number): string {
+  const pos = u > 1 ? ` pos ${position}` : "";
+  if (layer === "right") return `slot ${slot} (cw half)`;
+  if (layer === "left") return `slot ${slot} (ccw half)`;
+  return `slot ${slot} ${layer}${pos}`;
+}
+
+/** The goal figure of a candidate in the goal's unit, as printed. */
+export function goalFigure(plan: Plan, achieved: number | null): string {
+  if (achieved === null) return "—";
+  switch (plan.goal.unit) {
+    case "mm2":
+      return sig(achieved * 1e6);
+    case "A":
+    case "W":
+      return sig(achieved);
+    case "rpm/V":
+      return sig(achieved * RPM);
+    default:
+      return sig(achieved * RPM);
+  }
+}
+
+export function goalUnit(plan: Plan): string {
+  return plan.goal.unit === "mm2" ? "mm²" : plan.goal.unit;
+}
+
+export const goalName = (plan: Plan) => plan.goal.kind.replace(/_/g, " ");
+
+/** Torque in the unit that keeps the numbers readable: mN·m below 1 N·m. */
+export function torqueUnit(maxNm: number): { unit: string; k: number } {
+  return maxNm < 1 ? { unit: "mN·m", k: 1e3 } : { unit: "N·m", k: 1 };
+}
+
+export const fieldText: Record<string, string> = {
+  permanent_magnet: "permanent magnet",
+  shunt: "shunt (separate field winding)",
+  series: "series (universal motor)",
+};
+
+export const mltSourceText: Record<string, string> = {
+  measured: "measured on an old turn",
+  wire_length: "from the length of the old wire",
+  wire_mass: "from the mass of the old wire",
+  terminal_resistance: "from the old terminal resistance",
+  logbook: "corrected from the logbook",
+  model: "end-turn model alone (no measurement)",
+};
+
+export const calibrationText: Record<string, string> = {
+  generator: "generator test (open-circuit volts at a known speed)",
+  no_load: "no-load test of the old winding",
+  nameplate: "nameplate (rough)",
+  logbook: "finished rewinds in the logbook",
+  magnet: "magnet estimate (rough)",
+  none: "nothing: speed and torque figures unknown",
+};
+
+/** A dead coil's instruction, as the trade does it. */
+export const DEAD_COIL = "dead coil: wind, cut and insulate both ends, hook to nothing";
+
+export const isDead = (c: CoilPlan) => c.dead || c.start_bar === null || c.end_bar === null;
