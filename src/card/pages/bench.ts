@@ -5,7 +5,10 @@
  */
 import type { Plan } from "../../design/types.js";
 import type { Sheet } from "../sheet.js";
-import { ohm, pct, rpm, sig } from "../text.js";
+import { ohm, rpm, sig } from "../text.js";
+
+/** A plain number without padding zeros (5, 0.01, 10) for rules and limits. */
+const plain = (x: number) => String(Number(x.toPrecision(4)));
 
 /** True when a reading this small needs a four-wire / millivolt-drop method: below factor × the meter's resolution (common practice, no published source). */
 export function needsFourWire(expectedOhm: number, resolutionOhm: number, factor: number): boolean {
@@ -28,8 +31,8 @@ export function benchPage(s: Sheet, plan: Plan): void {
   s.subheading("1. Bar to bar, brushes lifted", `expected at 20 °C; r_i is bar i to bar i+1, r${C} bar ${C} to bar 1`);
   const tol = B.even_tolerance;
   s.para(
-    `Tolerance ±${sig(tol * 100, 2)} % of the expected reading for an even winding (common practice, no published source). ` +
-      `A reading ${sig(B.riser_rule * 100, 2)} % or more above the average of your readings points to a poor coil-to-riser connection; one well below the average, down to near zero, to shorted turns or bars (TM 55-2210-223-34, armature bar-to-bar test). ` +
+    `Tolerance ±${plain(tol * 100)} % of the expected reading for an even winding (common practice, no published source). ` +
+      `A reading ${plain(B.riser_rule * 100)} % or more above the average of your readings points to a poor coil-to-riser connection; one well below the average, down to near zero, to shorted turns or bars (TM 55-2210-223-34, armature bar-to-bar test). ` +
       `Correct a reading taken at t °C to 20 °C by dividing it by 1 + 0.00393 × (t − 20) (IEC 60028 copper).`,
     { size: T.body },
   );
@@ -37,7 +40,7 @@ export function benchPage(s: Sheet, plan: Plan): void {
   if (needsFourWire(minExpected, B.meter_resolution_ohm, B.four_wire_factor)) {
     s.framed(
       (x, y, w) => {
-        const text = `Expected readings (${ohm(minExpected)} Ω) are below ${sig(B.four_wire_factor)} × the ${sig(B.meter_resolution_ohm)} Ω resolution of a typical meter: use a four-wire (Kelvin) or millivolt-drop reading at a known current (e.g. 1 A from a bench supply, volts across the two bars ÷ amps) — common practice.`;
+        const text = `Expected readings (${ohm(minExpected)} Ω) are below ${plain(B.four_wire_factor)} × the ${plain(B.meter_resolution_ohm)} Ω resolution of a typical meter: use a four-wire (Kelvin) or millivolt-drop reading at a known current (e.g. 1 A from a bench supply, volts across the two bars ÷ amps) — common practice.`;
         s.at(text, x, y, { size: T.body, bold: true, width: w });
         return s.measure(text, { size: T.body, bold: true, width: w });
       },
@@ -46,14 +49,14 @@ export function benchPage(s: Sheet, plan: Plan): void {
   }
   const sets = Math.max(1, B.column_sets);
   const setW = (s.width - (sets - 1) * 12) / sets;
-  const cols = [0.16, 0.2, 0.22, 0.42].map((f) => f * setW);
+  const cols = [0.12, 0.16, 0.34, 0.38].map((f) => f * setW);
   const rows = r.bar_to_bar.map((v, i) => ({ i: i + 1, bars: `${i + 1}–${i + 2 > C ? 1 : i + 2}`, v }));
   const rh = B.row_height;
   const header = (y: number) => {
     for (let k = 0; k < sets; k++) {
       const x = s.left + k * (setW + 12);
       s.doc.save().rect(x, y, setW, 15).fill("#e6e6e6").restore();
-      const heads = ["pair", "bars", "expected Ω", `reading Ω  (±${sig(tol * 100, 2)} %)`];
+      const heads = ["pair", "bars", "expected Ω", `reading Ω  (±${plain(tol * 100)} %)`];
       let cx = x + 3;
       heads.forEach((h, j) => {
         s.at(h, cx, y + 3.5, { size: T.small, bold: true });
@@ -149,5 +152,4 @@ export function benchPage(s: Sheet, plan: Plan): void {
   s.blank(s.left + 215, ys, 150, "checked by", "");
   s.blank(s.left + 380, ys, s.width - 380, "date", "");
   s.y += s.L.blank.height + 8;
-  void pct;
 }

@@ -1,0 +1,78 @@
+/** The card's pure helpers: tally grouping from the layout file, the WOFF unpacker, brush angles, axis ticks. */
+import { describe, expect, it } from "vitest";
+import fc from "fast-check";
+import { readFileSync } from "node:fs";
+import { createRequire } from "node:module";
+import { cardLayout, layoutProblems, tallyBoxes, tallyGroups } from "../src/card/layout.js";
+import { FONT_FILES, woffToSfnt } from "../src/card/fonts.js";
+import { niceTicks } from "../src/card/pages/curves.js";
+import { needsFourWire } from "../src/card/pages/bench.js";
+
+const L = cardLayout();
+
+describe("tally boxes", () => {
+  it("the shipped layout file is usable", () => {
+    expect(layoutProblems(L)).toEqual([]);
+  });
+  it("one box per turn up to 30 turns, one per 10 turns above (the brief's grouping)", () => {
+    expect(tallyBoxes(30, L.tally).step).toBe(1);
+    expect(tallyBoxes(30, L.tally).boxes).toHaveLength(30);
+    const t64 = tallyBoxes(64, L.tally);
+    expect(t64.step).toBe(10);
+    expect(t64.boxes.map((b) => b.upTo)).toEqual([10, 20, 30, 40, 50, 60, 64]);
+    expect(t64.boxes[6].turns).toBe(4);
+  });
+  it("for any turn count: boxes add up to the turns, counts rise to it, at most max_boxes when a step allows", () => {
+    fc.assert(
+      fc.property(fc.integer({ min: 1, max: 20000 }), (n) => {
+        const { step, boxes } = tallyBoxes(n, L.tally);
+        expect(boxes.reduce((a, b) => a + b.turns, 0)).toBe(n);
+        expect(boxes[boxes.length - 1].upTo).toBe(n);
+        boxes.forEach((b, i) => {
+          expect(b.turns).toBeGreaterThan(0);
+          expect(b.turns).toBeLessThanOrEqual(step);
+          if (i < boxes.length - 1) expect(b.turns).toBe(step);
+        });
+        const largest = L.tally.turns_per_box[L.tally.turns_per_box.length - 1];
+        if (Math.ceil(n / largest) <= L.tally.max_boxes) expect(boxes.length).toBeLessThanOrEqual(L.tally.max_boxes);
+        const groups = tallyGroups(boxes, L.tally.group_size);
+        expect(groups.flat()).toEqual(boxes);
+        expect(groups.every((g) => g.length <= L.tally.group_size)).toBe(true);
+      }),
+    );
+  });
+});
+
+describe("fonts", () => {
+  it("unpacks the DejaVu WOFF into an sfnt that keeps every table (W3C WOFF 1.0)", () => {
+    const woff = readFileSync(FONT_FILES.regular);
+    const sfnt = woffToSfnt(woff);
+    const n = woff.readUInt16BE(12);
+    expect(sfnt.readUInt16BE(4)).toBe(n);
+    expect(sfnt.readUInt32BE(0)).toBe(woff.readUInt32BE(4)); // flavour
+    expect(sfnt.length).toBe(woff.readUInt32BE(16)); // totalSfntSize in the WOFF header
+    // fontkit reads it and finds the glyphs the card needs
+    const fontkit = createRequire(import.meta.url)("fontkit");
+    const font = fontkit.create(sfnt);
+    for (const ch of "Ω°±²×−→") expect(font.hasGlyphForCodePoint(ch.codePointAt(0)!)).toBe(true);
+  });
+});
+
+describe("small rules", () => {
+  it("axis ticks cover the maximum in steps of 1, 2, 2.5 or 5 × 10^n", () => {
+    expect(niceTicks(9817)).toEqual([0, 2000, 4000, 6000, 8000, 10000]);
+    fc.assert(
+      fc.property(fc.double({ min: 1e-4, max: 1e6, noNaN: true }), (m) => {
+        const t = niceTicks(m);
+        expect(t[0]).toBe(0);
+        expect(t[t.length - 1]).toBeGreaterThanOrEqual(m * (1 - 1e-9));
+        expect(t.length).toBeLessThanOrEqual(12);
+      }),
+    );
+  });
+  it("four-wire advice below ten times the meter resolution (common practice, no published source)", () => {
+    expect(needsFourWire(0.0196, 0.01, 10)).toBe(true);
+    expect(needsFourWire(1.329, 0.01, 10)).toBe(false);
+    expect(needsFourWire(0.1, 0.01, 10)).toBe(false);
+  });
+});
