@@ -67,16 +67,17 @@ export function logText(record: LogRecord, file: string, jobFile = `${record.job
   L.push("");
   const rows = cmp.checks.map((c) => [
     checkName(c),
-    c.check === "insulation" ? "" : value(c, c.predicted_value),
-    c.unit === "ohm" ? value(c, c.measured_20c_value) : value(c, c.measured_value),
+    c.check === "insulation" || c.check === "bar_to_bar.spread" ? "" : value(c, c.predicted_value),
+    c.check === "insulation" && c.unit === "" ? (c.verdict === "ok" ? "passed" : c.verdict === "fail" ? "failed" : "—") : c.unit === "ohm" ? value(c, c.measured_20c_value) : value(c, c.measured_value),
     c.deviation_fraction === null || c.unit === "fraction" ? "" : `${c.deviation_fraction >= 0 ? "+" : "−"}${sig(Math.abs(c.deviation_fraction) * 100)} %`,
     c.check === "insulation" && c.unit === "Mohm" ? `≥ ${value(c, c.predicted_value)}` : c.tolerance_fraction === null ? "" : `±${sig(c.tolerance_fraction * 100)} %`,
-    c.verdict === "not_checked" ? `not checked${c.note ? `: ${c.note}` : ""}` : c.verdict.toUpperCase() === "OK" ? "ok" : c.verdict.toUpperCase(),
+    c.verdict === "not_checked" ? "not checked" : c.verdict === "ok" ? "ok" : c.verdict.toUpperCase(),
   ]);
   L.push(table(["check", "predicted", "measured (20 °C)", "deviation", "tolerance", "verdict"], rows, [false, true, true, true, true, false]));
   const spread = cmp.checks.find((c) => c.check === "bar_to_bar.spread");
   if (spread?.note) L.push(`  spread: ${spread.note}`);
   for (const c of cmp.checks) if (c.note && c.verdict !== "not_checked" && c.check !== "bar_to_bar.spread" && c.verdict !== "ok") L.push(`  ${checkName(c)}: ${c.note}`);
+  for (const c of cmp.checks) if (c.verdict === "not_checked" && c.note) L.push(`  ${checkName(c)} not checked: ${c.note}`);
   for (const n of cmp.notes) L.push(`  · ${n}`);
   L.push("");
   L.push("Tolerances:");
