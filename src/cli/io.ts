@@ -4,7 +4,7 @@
  */
 import { readFileSync } from "node:fs";
 import { ArmwindError, formatProblem, type Problem } from "../errors.js";
-import { loadYaml } from "../job/load.js";
+import { loadYaml, oneLine } from "../job/load.js";
 import { jobSchema, type Job } from "../job/schema.js";
 import type { z } from "zod";
 
@@ -67,13 +67,15 @@ export interface Outcome {
 
 /** Print an ArmwindError as one line per problem (stderr), and the `--json` error object (stdout) when asked. */
 export function reportError(io: Io, e: ArmwindError, json: boolean): number {
-  for (const p of e.problems) io.err(formatProblem(p));
+  // one line each, whatever the thrower quoted from the file
+  const problems = e.problems.map((p) => ({ ...p, message: oneLine(p.message) }));
+  for (const p of problems) io.err(formatProblem(p));
   if (json) {
     io.out(
       JSON.stringify(
         {
           ok: false,
-          errors: e.problems.map((p) => ({ code: p.code, message: p.message, file: p.file ?? null, line: p.line ?? null, column: p.column ?? null, path: p.path })),
+          errors: problems.map((p) => ({ code: p.code, message: p.message, file: p.file ?? null, line: p.line ?? null, column: p.column ?? null, path: p.path })),
         },
         null,
         2,
@@ -92,7 +94,7 @@ export async function guarded(io: Io, json: boolean, body: () => Promise<number>
       const located = new ArmwindError(locateProblems(e.problems, where?.file, where?.locate), e.status);
       return reportError(io, located, json);
     }
-    const msg = e instanceof Error ? e.message : String(e);
+    const msg = oneLine(e instanceof Error ? e.message : String(e));
     io.err(`armwind: internal error: ${msg} (this is a fault in armwind, not in your file; please report it with the job file)`);
     if (json) io.out(JSON.stringify({ ok: false, errors: [{ code: "internal_error", message: msg, file: null, line: null, column: null, path: "" }] }, null, 2));
     return 70;
