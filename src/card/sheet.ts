@@ -243,7 +243,9 @@ export class Sheet {
       }
       this.y += headH;
     };
-    const rowHeights = rows.map((r) => Math.max(opts.rowHeight ?? 0, ...cols.map((c, i) => this.measure(r[i] ?? "", { size, width: c.width - 2 * pad }) + 2 * pad)));
+    const rowHeights = rows.map((r, ri) =>
+      Math.max(opts.rowHeight ?? 0, ...cols.map((c, i) => this.measure(r[i] ?? "", { size, bold: opts.boldRows?.has(ri) || opts.boldCols?.has(i), width: c.width - 2 * pad }) + 2 * pad)),
+    );
     const whole = headH + rowHeights.reduce((a, b) => a + b, 0);
     this.need(opts.keepTogether && whole < this.bottom - this.top - 40 ? whole : headH + rowHeights.slice(0, 2).reduce((a, b) => a + b, 0));
     drawHead();

@@ -211,7 +211,7 @@ export function candidatesPage(s: Sheet, plan: Plan): void {
         `${x.turns} × ${x.wire}${x.strands > 1 ? ` × ${x.strands}` : ""}`,
         ohm(x.terminal_ohm),
         pct(x.copper_fill),
-        goalFigure(plan, x.achieved),
+        sig(x.achieved), // sensitivity figures come in the goal's unit already (as the terminal prints them)
         x.rejected_because.length ? x.rejected_because.map(reasonText).join("; ") : x.meets_goal ? "meets the goal" : "",
       ]),
       { size: T.table },
