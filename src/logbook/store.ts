@@ -153,7 +153,7 @@ export function readLogbook(dir: string): Logbook {
     names = readdirSync(dir);
   } catch (e) {
     const code = (e as NodeJS.ErrnoException).code;
-    if (code === "ENOENT") return { dir, exists: false, records: [], warnings: [] };
+    if (code === "ENOENT" || code === "ENOTDIR") return { dir, exists: false, records: [], warnings: [] };
     throw new ArmwindError({ code: "file_unreadable", message: `the logbook folder ${dir} cannot be read (${code ?? "error"})`, path: "", file: dir });
   }
   const records: { file: string; record: ReadRecord }[] = [];
