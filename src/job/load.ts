@@ -59,7 +59,10 @@ export function loadYaml<S extends z.ZodType>(text: string, file: string, schema
   }
   const result = schema.safeParse(raw);
   if (!result.success) {
-    const problems = issuesToProblems(result.error.issues, schema, raw).map((p) => {
+    const raws = issuesToProblems(result.error.issues, schema, raw);
+    // a misspelt required key is also missing under its right name: the "did you mean" line says both
+    const misspelt = new Set(raws.filter((p) => p.suggests).map((p) => formatPath([...p.parts.slice(0, -1), p.suggests as string])));
+    const problems = raws.filter((p) => !(p.code === "missing_field" && misspelt.has(formatPath(p.parts)))).map((p) => {
       const parts = p.parts;
       const at = p.keyNode ? locateKey(doc, parts, pos) : locate(parts);
       return { code: p.code, message: p.message, path: formatPath(parts), file, ...at } satisfies Problem;
@@ -174,6 +177,8 @@ interface RawProblem {
   message: string;
   parts: PathPart[];
   keyNode?: boolean;
+  /** For an unknown key: the known key it is probably a slip for. */
+  suggests?: string;
 }
 
 type Issue = z.core.$ZodIssue;
@@ -247,6 +252,7 @@ function issuesToProblems(issues: readonly Issue[], schema: z.ZodType, raw: unkn
             code: "unknown_key",
             parts: [...parts, key],
             keyNode: true,
+            suggests: near,
             message: `unknown key "${key}"${near ? `; did you mean "${near}"?` : known.length ? `; known keys here: ${known.filter((k) => k !== "$schema").join(", ")}` : ""}`,
           });
         }
