@@ -151,13 +151,8 @@ export function diagnoseCommand(yargs: Argv, io: Io, setStatus: (n: number) => v
         .option("tolerance", { type: "number", describe: "tolerance on each coil as a fraction (default 0.05, common practice)" })
         .option("logbook", { type: "string", describe: "logbook folder for the family's learning (default $ARMWIND_LOGBOOK, else jobs/logbook)" })
         .option("learn", { type: "boolean", default: true, describe: "expect what the plan expects with the family's records (--no-learn: without)" })
-        .option("json", { type: "boolean", default: false, describe: "print { ok, coils, suspects, … } as JSON" })
-        .check((a) => {
-          const n = [a.bars, a.measured, a.record].filter((x) => x !== undefined).length;
-          if (n !== 1) throw new Error("give the readings one way: --bars r1,r2,…, --measured FILE or --record FILE");
-          if (a.temperature !== undefined && a.bars === undefined) throw new Error("--temperature goes with --bars (measured files and records carry their own)");
-          return true;
-        }),
+        .option("json", { type: "boolean", default: false, describe: "print { ok, coils, suspects, … } as JSON" }),
+
     async (argv) => {
       const where: Where = {};
       setStatus(
@@ -165,6 +160,9 @@ export function diagnoseCommand(yargs: Argv, io: Io, setStatus: (n: number) => v
           io,
           argv.json,
           () => {
+            const ways = [argv.bars, argv.measured, argv.record].filter((x) => x !== undefined).length;
+            if (ways !== 1) throw inputError("readings_missing", "", "give the readings one way: --bars r1,r2,…, --measured FILE or --record FILE");
+            if (argv.temperature !== undefined && argv.bars === undefined) throw inputError("option_conflict", "temperature", "--temperature goes with --bars (measured files and records carry their own)");
             const { job, file, locate } = loadJob(io, argv.job);
             where.file = file;
             where.locate = locate;

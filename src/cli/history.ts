@@ -48,14 +48,12 @@ export function historyCommand(yargs: Argv, io: Io, setStatus: (n: number) => vo
         .option("logbook", { type: "string", describe: "logbook folder (default $ARMWIND_LOGBOOK, else jobs/logbook)" })
         .option("json", { type: "boolean", default: false, describe: "print { ok, records, warnings } as JSON" })
         .option("csv", { type: "boolean", default: false, describe: "print the table as CSV for a spreadsheet" })
-        .option("plot", { type: "string", describe: "also draw predicted against measured to FILE.svg or FILE.pdf" })
-        .check((a) => {
-          if (a.json && a.csv) throw new Error("--json and --csv: choose one");
-          return true;
-        }),
+        .option("plot", { type: "string", describe: "also draw predicted against measured to FILE.svg or FILE.pdf" }),
+
     async (argv) => {
       setStatus(
         await guarded(io, argv.json, async () => {
+          if (argv.json && argv.csv) throw inputError("option_conflict", "csv", "--json and --csv: choose one");
           if (argv.plot !== undefined && ![".svg", ".pdf"].includes(extname(argv.plot).toLowerCase())) {
             throw inputError("bad_plot_file", "plot", `--plot ${argv.plot}: the plot is written as SVG or PDF; name the file FILE.svg or FILE.pdf`);
           }

@@ -1,0 +1,186 @@
+/**
+ * `armwind diagnose` end to end (in process): readings made by the test's own nodal solution of
+ * the ring come back as the coils that made them; temperature correction (IEC 60028); the demo
+ * readings with coil 3 six turns short; the JSON contract and exit statuses.
+ */
+import { mkdtempSync, writeFileSync } from "node:fs";
+import { tmpdir } from "node:os";
+import { join } from "node:path";
+import { describe, expect, it } from "vitest";
+import { main } from "../src/cli/main.js";
+import type { Io } from "../src/cli/io.js";
+import { planJob } from "../src/design/plan.js";
+import { windingSpec } from "../src/design/context.js";
+import { layoutWinding } from "../src/winding/layout.js";
+import type { WindingLayout } from "../src/winding/types.js";
+import { ROOT, loadJobFile } from "./helpers/cli.js";
+
+function fakeIo(cwd = ROOT): Io & { stdout: string[]; stderr: string[] } {
+  const stdout: string[] = [];
+  const stderr: string[] = [];
+  return { out: (s) => stdout.push(s), err: (s) => stderr.push(s), stdin: () => "", env: {}, cwd, stdout, stderr };
+}
+
+/**
+ * Independent nodal solution (Kirchhoff's current law, Gaussian elimination written here): bars
+ * are nodes, each live coil a conductance between its start and end bar; 1 A into bar i, bar i+1
+ * grounded; the reading is bar i's potential. Shares no code with src/winding.
+ */
+function nodalReadings(l: WindingLayout, R: number[]): number[] {
+  const C = l.bars;
+  const out: number[] = [];
+  for (let i = 1; i <= C; i++) {
+    const g = (i % C) + 1;
+    const idx = (b: number) => (b < g ? b - 1 : b - 2); // node numbers without the ground
+    const n = C - 1;
+    const A = Array.from({ length: n }, () => new Array<number>(n).fill(0));
+    const rhs = new Array<number>(n).fill(0);
+    l.coils.forEach((c, k) => {
+      if (c.dead || c.start_bar === null || c.end_bar === null) return;
+      const y = 1 / R[k];
+      const a = c.start_bar;
+      const b = c.end_bar;
+      if (a !== g) A[idx(a)][idx(a)] += y;
+      if (b !== g) A[idx(b)][idx(b)] += y;
+      if (a !== g && b !== g) {
+        A[idx(a)][idx(b)] -= y;
+        A[idx(b)][idx(a)] -= y;
+      }
+    });
+    rhs[idx(i)] = 1;
+    for (let c = 0; c < n; c++) {
+      let p = c;
+      for (let r = c + 1; r < n; r++) if (Math.abs(A[r][c]) > Math.abs(A[p][c])) p = r;
+      [A[p], A[c]] = [A[c], A[p]];
+      [rhs[p], rhs[c]] = [rhs[c], rhs[p]];
+      for (let r = c + 1; r < n; r++) {
+        const f = A[r][c] / A[c][c];
+        for (let k = c; k < n; k++) A[r][k] -= f * A[c][k];
+        rhs[r] -= f * rhs[c];
+      }
+    }
+    const x = new Array<number>(n).fill(0);
+    for (let r = n - 1; r >= 0; r--) {
+      let s = rhs[r];
+      for (let k = r + 1; k < n; k++) s -= A[r][k] * x[k];
+      x[r] = s / A[r][r];
+    }
+    out.push(x[idx(i)]);
+  }
+  return out;
+}
+
+async function diagnoseJson(args: string[]) {
+  const io = fakeIo();
+  const status = await main(["diagnose", ...args, "--json"], io);
+  return { status, out: JSON.parse(io.stdout.join("")), stderr: io.stderr.join("\n") };
+}
+
+describe("diagnose: the inversion against an independent nodal solution", () => {
+  // tooth 5/5, wave 21/21 on 4 poles (two coils between adjacent bars), lap 12 slots / 24 bars
+  it.each(["blind-motor-0031", "chair-wave-0045", "drill-lap-0112", "robot-3slot-0007"])("%s: known coils → readings (test's own solve) → the same coils", async (id) => {
+    const file = join(ROOT, "jobs", `${id}.yaml`);
+    const job = loadJobFile(file);
+    const layout = layoutWinding(windingSpec(job));
+    const plan = planJob(job, {});
+    // each coil its own resistance: the plan's, times 0.97 … 1.03 (within tolerance)
+    const known = plan.coils.map((c, k) => c.ohm * (0.97 + ((k * 7) % 13) * 0.005));
+    const readings = nodalReadings(layout, known);
+    const r = await diagnoseJson([file, "--bars", readings.map((x) => x.toPrecision(15)).join(","), "--no-learn"]);
+    expect(r.status, r.stderr).toBe(0);
+    expect(r.out.ok).toBe(true);
+    r.out.coils.forEach((c: { index: number; resistance_ohm: number; expected_ohm: number }, k: number) => {
+      expect(c.index).toBe(k + 1);
+      expect(c.resistance_ohm / known[k] - 1).toBeCloseTo(0, 8);
+      expect(c.expected_ohm).toBeCloseTo(plan.coils[k].ohm, 12);
+    });
+  });
+
+  it("one coil 4 turns short on the lap winding is named with its bars and slots, and exit 4", async () => {
+    const file = join(ROOT, "jobs/drill-lap-0112.yaml");
+    const job = loadJobFile(file);
+    const layout = layoutWinding(windingSpec(job));
+    const plan = planJob(job, {});
+    const N = plan.design.turns;
+    const known = plan.coils.map((c) => c.ohm);
+    known[6] *= (N - 4) / N;
+    const r = await diagnoseJson([file, "--bars", nodalReadings(layout, known).map((x) => x.toPrecision(15)).join(","), "--no-learn"]);
+    expect(r.status).toBe(4);
+    expect(r.out.ok).toBe(false);
+    expect(r.out.coils[6].verdict).toBe("low");
+    const s = r.out.suspects.find((x: { coils: number[] }) => x.coils.includes(7));
+    expect(s.kind).toBe("turns_miscounted");
+    expect(s.turns_estimate).toBe(-4);
+    const coil = plan.coils[6];
+    expect(s.message).toContain(`bars ${coil.start_bar}–${coil.end_bar}, slots ${coil.go_slot}–${coil.return_slot}`);
+  });
+});
+
+describe("diagnose: temperature", () => {
+  // IEC 60028: R_T = R20·(1 + 0.00393·(T − 20)); readings taken at 35 °C (= 95 °F) of coils that are
+  // exactly as planned at 20 °C solve back to the plan's coils once corrected
+  it.each(["35 C", "95 F"])("readings at %s are corrected to 20 °C before solving", async (t) => {
+    const file = join(ROOT, "jobs/blind-motor-0031.yaml");
+    const job = loadJobFile(file);
+    const plan = planJob(job, {});
+    const k = 1 + 0.00393 * 15;
+    const readings = plan.resistance.bar_to_bar.map((r) => (r * k).toPrecision(15));
+    const r = await diagnoseJson([file, "--bars", readings.join(","), "--temperature", t, "--no-learn"]);
+    expect(r.status).toBe(0);
+    expect(r.out.temperature_c).toBeCloseTo(35, 9);
+    for (const c of r.out.coils) expect(c.deviation_fraction).toBeCloseTo(0, 9);
+    // the same readings taken as 20 °C: every coil 5.9 % high, and exit 4
+    const cold = await diagnoseJson([file, "--bars", readings.join(","), "--no-learn"]);
+    expect(cold.status).toBe(4);
+    for (const c of cold.out.coils) expect(c.deviation_fraction).toBeCloseTo(0.00393 * 15, 6);
+  });
+});
+
+describe("diagnose: inputs and the contract", () => {
+  const BLIND = join(ROOT, "jobs/blind-motor-0031.yaml");
+
+  it("the demo readings with coil 3 six turns short name coil 3 (bars 3–4) and about 6 turns", async () => {
+    const r = await diagnoseJson([BLIND, "--measured", join(ROOT, "jobs/measured/blind-motor-0031-coil3-short.yaml"), "--no-learn"]);
+    expect(r.status).toBe(4);
+    expect(Object.keys(r.out)).toEqual(expect.arrayContaining(["ok", "coils", "suspects"]));
+    for (const c of r.out.coils) expect(Object.keys(c)).toEqual(expect.arrayContaining(["index", "start_bar", "end_bar", "resistance_ohm", "expected_ohm", "deviation_fraction", "verdict"]));
+    const bad = r.out.coils.filter((c: { verdict: string }) => c.verdict !== "ok");
+    expect(bad.map((c: { index: number }) => c.index)).toEqual([3]);
+    expect([bad[0].start_bar, bad[0].end_bar]).toEqual([3, 4]);
+    expect(r.out.suspects).toHaveLength(1);
+    expect(r.out.suspects[0].turns_estimate).toBe(-6);
+    expect(r.out.notes.join(" ")).toMatch(/polarity check/);
+  });
+
+  it("a logbook record gives the readings and the winding laid", async () => {
+    const r = await diagnoseJson([BLIND, "--record", join(ROOT, "jobs/logbook/blind-motor-0031-2026-12-03-1.yaml")]);
+    expect(r.status).toBe(0);
+    expect(r.out.temperature_c).toBe(21);
+    expect(r.out.coils).toHaveLength(5);
+  });
+
+  it("a wound winding that differs sets the expected coils (measured file wound: turns)", async () => {
+    const dir = mkdtempSync(join(tmpdir(), "armwind-diag-"));
+    const job = loadJobFile(BLIND);
+    const plan = planJob(job, {});
+    const N = plan.design.turns - 4;
+    const f = join(dir, "m.yaml");
+    // readings of a winding of N turns, made by scaling with its R/(N·MLT)… simply: the diagnosis expects fewer ohms
+    writeFileSync(f, `version: 1\njob: blind-motor-0031\ndate: 2026-12-09\nwound: { turns: ${N} }\ntemperature: 20 C\nbar_to_bar: [${plan.resistance.bar_to_bar.join(", ")}]\n`);
+    const r = await diagnoseJson([BLIND, "--measured", f, "--no-learn"]);
+    expect(r.out.turns_per_coil).toBe(N);
+    for (const c of r.out.coils) expect(c.expected_ohm).toBeLessThan(plan.coils[0].ohm * (N / plan.design.turns) + 1e-12);
+  });
+
+  it("the wrong number of readings, or a reading that is not a resistance, exits 1 with a path", async () => {
+    const io = fakeIo();
+    expect(await main(["diagnose", BLIND, "--bars", "1.3,1.3,1.3,1.3"], io)).toBe(1);
+    expect(io.stderr.join("\n")).toMatch(/bars: 4 bar-to-bar readings for 5 bars.*\[readings_count\]/);
+    const io2 = fakeIo();
+    expect(await main(["diagnose", BLIND, "--bars", "1.3,1.3,1.3 V,1.3,1.3"], io2)).toBe(1);
+    expect(io2.stderr.join("\n")).toMatch(/bars\[2\]: r3 "1.3 V".*\[bad_quantity\]/);
+    const io3 = fakeIo();
+    expect(await main(["diagnose", BLIND], io3)).toBe(1);
+    expect(io3.stderr.join("\n")).toMatch(/give the readings one way/);
+  });
+});
