@@ -17,7 +17,7 @@ import { predictWound } from "../src/logbook/predict.js";
 import { compareReadings, TOLERANCES } from "../src/logbook/compare.js";
 import { buildRecord } from "../src/logbook/record.js";
 import { learnFromRecords } from "../src/logbook/learn.js";
-import { readLogbook } from "../src/logbook/store.js";
+import { parseRecordText, readLogbook } from "../src/logbook/store.js";
 import { logbookOptionsFor } from "../src/cli/learning.js";
 import { fromRpm } from "../src/job/units.js";
 import { resolveWire } from "../src/wire/catalogue.js";
@@ -253,7 +253,10 @@ describe("reading the logbook", () => {
     expect(await main(["log", BLIND, "--measured", BLIND_MEASURED, "--logbook", dir], fakeIo())).toBe(0);
     writeFileSync(join(dir, "blind-motor-0031-2026-12-04-1.yaml"), "version: 1\nkind: [unclosed\n");
     const good = readdirSync(dir).find((f) => f.endsWith("-1.yaml") && f.includes("12-03"))!;
-    writeFileSync(join(dir, "blind-motor-0031-2026-12-05-1.yaml"), readFileSync(join(dir, good), "utf8").replace(/bar_to_bar_ohm:[\s\S]*?terminal_ohm/, "terminal_ohm"));
+    // a record that lost its readings (as a careless edit would leave it)
+    const lost = parseRecordText(readFileSync(join(dir, good), "utf8")) as { measured: Record<string, unknown> };
+    delete lost.measured.bar_to_bar_ohm;
+    writeFileSync(join(dir, "blind-motor-0031-2026-12-05-1.yaml"), JSON.stringify(lost));
     const book = readLogbook(dir);
     expect(book.records.map((r) => r.file)).toEqual([good]);
     expect(book.warnings.map((w) => w.file).sort()).toEqual(["blind-motor-0031-2026-12-04-1.yaml", "blind-motor-0031-2026-12-05-1.yaml"]);

@@ -9,7 +9,6 @@ import { guarded, type Io } from "./io.js";
 import { logbookDir } from "./learning.js";
 import { readLogbook, type Logbook } from "../logbook/store.js";
 import { drawingSvg, historyCsv, historyDrawing, historyRows, type HistoryRow } from "../logbook/history.js";
-import { drawingPdf } from "../logbook/history-pdf.js";
 import { writeAtomic } from "./write.js";
 import { inputError } from "../errors.js";
 import { ohm, sig, table } from "./format.js";
@@ -65,7 +64,7 @@ export function historyCommand(yargs: Argv, io: Io, setStatus: (n: number) => vo
             const file = argv.plot;
             const title = `armwind logbook${argv.family ? `, family ${argv.family}` : ""}`;
             const d = historyDrawing(rows, title);
-            const data = extname(file).toLowerCase() === ".pdf" ? await drawingPdf(d, { title }) : drawingSvg(d);
+            const data = extname(file).toLowerCase() === ".pdf" ? await (await import("../logbook/history-pdf.js")).drawingPdf(d, { title }) : drawingSvg(d);
             await writeAtomic(resolve(io.cwd, file), data);
             if (!argv.json && !argv.csv) io.err(`armwind: plot written to ${relative(io.cwd, resolve(io.cwd, file)).startsWith("..") ? resolve(io.cwd, file) : relative(io.cwd, resolve(io.cwd, file))}`);
           }

@@ -126,6 +126,29 @@ function nextNumber(dir: string, jobId: string, date: string): number {
   return max + 1;
 }
 
+/**
+ * Parse a record's text: records are written as YAML in its JSON form under a comment header, read
+ * here by JSON.parse (fast); anything else (a record re-saved as block YAML) by the YAML parser.
+ */
+export function parseRecordText(text: string): unknown {
+  let i = 0;
+  while (i < text.length) {
+    if (text[i] === "#") {
+      const nl = text.indexOf("\n", i);
+      i = nl < 0 ? text.length : nl + 1;
+    } else if (text[i] === "\n" || text[i] === "\r" || text[i] === " " || text[i] === "\t") i++;
+    else break;
+  }
+  if (text[i] === "{") {
+    try {
+      return JSON.parse(text.slice(i));
+    } catch {
+      /* not JSON after all: the YAML parser says what is wrong */
+    }
+  }
+  return parse(text);
+}
+
 export interface LogbookWarning {
   code: "record_damaged";
   message: string;
@@ -168,7 +191,7 @@ export function readLogbook(dir: string): Logbook {
     }
     let raw: unknown;
     try {
-      raw = parse(readFileSync(file, "utf8"));
+      raw = parseRecordText(readFileSync(file, "utf8"));
     } catch (e) {
       damaged(e instanceof Error ? `not valid YAML: ${e.message.split("\n")[0]}` : "cannot be read");
       continue;
