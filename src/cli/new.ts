@@ -8,8 +8,8 @@
  * temporary name removed. An existing file is exit status 3 with one clear line.
  */
 import type { Argv } from "yargs";
-import { closeSync, linkSync, mkdirSync, openSync, readFileSync, statSync, unlinkSync, writeFileSync, writeSync } from "node:fs";
-import { basename, dirname, join, relative, resolve } from "node:path";
+import { closeSync, existsSync, linkSync, mkdirSync, openSync, readFileSync, statSync, unlinkSync, writeFileSync, writeSync } from "node:fs";
+import { basename, dirname, isAbsolute, join, relative, resolve } from "node:path";
 import { fileURLToPath } from "node:url";
 import { randomBytes } from "node:crypto";
 import { stringify } from "yaml";
@@ -48,29 +48,40 @@ export function checkId(id: string): void {
   }
 }
 
+/** The problem (exit status 3) for a file that could not be written, from the system's error code. */
+export function writeFailure(code: string | undefined, shown: string): ArmwindError {
+  if (code === "EEXIST") {
+    return new ArmwindError({ code: "file_exists", path: "", file: shown, message: `already exists; armwind new never overwrites a file: choose another name with -o FILE or --id ID` }, 3);
+  }
+  const why =
+    code === "EACCES" || code === "EPERM"
+      ? "permission denied"
+      : code === "ENOTDIR" || code === "MKDIR_EEXIST"
+        ? "a file stands where a folder is needed"
+        : code === "ENOENT"
+          ? "no file can be created in that folder"
+          : code === "EROFS"
+            ? "the file system is read-only"
+            : code === "ENOSPC"
+              ? "the disk is full"
+              : (code ?? "error");
+  return new ArmwindError({ code: "write_failed", path: "", file: shown, message: `cannot be written: ${why}; choose another place with -o FILE` }, 3);
+}
+
+/** A path as the user should see it: relative to the working folder when it lies inside it. */
+export function shownPath(cwd: string, file: string): string {
+  const rel = relative(cwd, file);
+  return rel && !rel.startsWith("..") && !isAbsolute(rel) ? rel : file;
+}
+
 /** Create `file` with `data` without ever replacing an existing file or leaving it half-written. */
 export function writeNew(file: string, data: string, shown = file): void {
   const fail = (code: string | undefined): never => {
-    if (code === "EEXIST") {
-      throw new ArmwindError({ code: "file_exists", path: "", file: shown, message: `already exists; armwind new never overwrites a file: choose another name with -o FILE or --id ID` }, 3);
-    }
-    const why =
-      code === "EACCES" || code === "EPERM"
-        ? "permission denied"
-        : code === "ENOTDIR" || code === "MKDIR_EEXIST"
-          ? "a file stands where a folder is needed"
-          : code === "ENOENT"
-            ? "no file can be created in that folder"
-            : code === "EROFS"
-              ? "the file system is read-only"
-              : code === "ENOSPC"
-                ? "the disk is full"
-                : (code ?? "error");
-    throw new ArmwindError({ code: "write_failed", path: "", file: shown, message: `cannot be written: ${why}; choose another place with -o FILE` }, 3);
+    throw writeFailure(code, shown);
   };
   const dir = dirname(file);
   try {
-    mkdirSync(dir, { recursive: true });
+    makeFolders(dir);
   } catch (e) {
     const code = (e as NodeJS.ErrnoException).code;
     fail(code === "EEXIST" ? "MKDIR_EEXIST" : code);
@@ -106,6 +117,30 @@ export function writeNew(file: string, data: string, shown = file): void {
   unlinkQuietly(tmp);
 }
 
+/**
+ * Create a folder and its missing parents, one at a time. (Node 20's `mkdirSync(…, { recursive:
+ * true })` spins for ever on a folder that cannot be made under /proc, where mkdir says ENOENT
+ * although the parent exists; made one by one, the first refusal is an error.)
+ */
+export function makeFolders(dir: string): void {
+  const missing: string[] = [];
+  let d = resolve(dir);
+  while (!existsSync(d)) {
+    missing.unshift(d);
+    const up = dirname(d);
+    if (up === d) break;
+    d = up;
+  }
+  for (const m of missing) {
+    try {
+      mkdirSync(m);
+    } catch (e) {
+      // made meanwhile by someone else: fine if it is a folder
+      if ((e as NodeJS.ErrnoException).code !== "EEXIST" || !isDir(m)) throw e;
+    }
+  }
+}
+
 function unlinkQuietly(f: string): void {
   try {
     unlinkSync(f);
@@ -136,7 +171,7 @@ export function runNew(io: Io, opts: NewOptions): number {
   let file = resolve(io.cwd, opts.output ?? `${id}.yaml`);
   // -o into a folder: the file is named after the id
   if (opts.output !== undefined && (/[\\/]$/.test(opts.output) || isDir(file))) file = join(file, `${id}.yaml`);
-  const shown = relative(io.cwd, file) || file;
+  const shown = shownPath(io.cwd, file);
   writeNew(file, templateText(opts.style, id), shown);
   if (opts.json) io.out(JSON.stringify({ ok: true, file, id, style: opts.style }, null, 2));
   else {

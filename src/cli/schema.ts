@@ -1,6 +1,7 @@
 /** `armwind schema [-o FILE]`: the job file's JSON Schema, for editors (printed, or written atomically). */
 import type { Argv } from "yargs";
-import { relative, resolve } from "node:path";
+import { dirname, resolve } from "node:path";
+import { makeFolders, shownPath, writeFailure } from "./new.js";
 import { jobJsonSchemaText } from "../job/json-schema.js";
 import { guarded, type Io } from "./io.js";
 import { writeAtomic } from "./write.js";
@@ -13,8 +14,16 @@ export async function runSchema(io: Io, output?: string): Promise<number> {
     return 0;
   }
   const file = resolve(io.cwd, output);
+  const shown = shownPath(io.cwd, file);
+  try {
+    // made here one by one: writeAtomic's recursive mkdir can spin for ever under /proc (Node 20)
+    makeFolders(dirname(file));
+  } catch (e) {
+    const code = (e as NodeJS.ErrnoException).code;
+    throw writeFailure(code === "EEXIST" ? "MKDIR_EEXIST" : code, shown);
+  }
   await writeAtomic(file, text);
-  io.out(`schema written: ${relative(io.cwd, file) || file}`);
+  io.out(`schema written: ${shown}`);
   return 0;
 }
 
