@@ -1,7 +1,6 @@
 /** `armwind card JOB [-o DIR] [--paper a4|letter]`: the PDF job card for the winding jig. */
 import type { Argv } from "yargs";
 import { join, relative, resolve } from "node:path";
-import { renderCard } from "../card/render.js";
 import { guarded, type Io } from "./io.js";
 import { planFromFile, planStatus, type Where } from "./plan.js";
 import { planJson } from "./plan-json.js";
@@ -34,6 +33,8 @@ export function cardCommand(yargs: Argv, io: Io, setStatus: (n: number) => void)
           argv.json,
           async () => {
             const plan = planFromFile(io, argv.job, where, { logbook: argv.logbook });
+            // pdfkit and the card load only when a card is asked for
+            const { renderCard } = await import("../card/render.js");
             const pdf = await renderCard(plan, { paper: argv.paper, date: today(io), version: VERSION });
             const file = join(resolve(io.cwd, argv.output), `${plan.job.id}.pdf`);
             await writeAtomic(file, pdf);
