@@ -133,7 +133,7 @@ describe("mutated job files through load and plan", () => {
     for (const f of SEED_FILES) expect(runJobText(readFileSync(f, "utf8")).kind, f).toBe("planned");
   });
 
-  it("4500 data mutations: a plan or located one-line problems, never another exception", () => {
+  it("3500 data mutations: a plan or located one-line problems, never another exception", () => {
     const seen = { planned: 0, load_error: 0, plan_error: 0 };
     fc.assert(
       fc.property(fc.nat(SEEDS.length - 1), fc.array(mutation, { minLength: 1, maxLength: 4 }), (seed, ms) => {
@@ -141,11 +141,11 @@ describe("mutated job files through load and plan", () => {
         for (const m of ms) apply(doc, m);
         seen[runJobText(stringify(doc)).kind]++;
       }),
-      { numRuns: 4500 },
+      { numRuns: 3500 },
     );
     // the mutations reach every outcome: some still plan, some fail to load, some fail in the core
-    expect(seen.planned).toBeGreaterThan(200);
-    expect(seen.load_error).toBeGreaterThan(2000);
+    expect(seen.planned).toBeGreaterThan(150);
+    expect(seen.load_error).toBeGreaterThan(1500);
     expect(seen.plan_error).toBeGreaterThan(0);
   });
 });

@@ -99,14 +99,14 @@ function applyEdit(text: string, e: Edit): string {
 }
 
 describe("damaged job texts through load and plan", () => {
-  it("4500 text edits: a plan or located one-line problems, never another exception", () => {
+  it("5500 text edits: a plan or located one-line problems, never another exception", () => {
     const seen = { planned: 0, load_error: 0, plan_error: 0 };
     fc.assert(
       fc.property(fc.nat(SEEDS.length - 1), fc.array(edit, { minLength: 1, maxLength: 4 }), (seed, edits) => {
         const text = edits.reduce(applyEdit, SEEDS[seed]);
         seen[runJobText(text).kind]++;
       }),
-      { numRuns: 4500 },
+      { numRuns: 5500 },
     );
     expect(seen.load_error).toBeGreaterThan(2000);
     expect(seen.planned).toBeGreaterThan(50); // some edits only touch comments or leave valid YAML
