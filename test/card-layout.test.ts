@@ -5,7 +5,7 @@ import { readFileSync } from "node:fs";
 import { createRequire } from "node:module";
 import { cardLayout, layoutProblems, tallyBoxes, tallyGroups } from "../src/card/layout.js";
 import { FONT_FILES, woffToSfnt } from "../src/card/fonts.js";
-import { niceTicks } from "../src/card/pages/curves.js";
+import { ticksFromZero as niceTicks } from "../src/plot/ticks.js";
 import { needsFourWire } from "../src/card/pages/bench.js";
 
 const L = cardLayout();

@@ -24,9 +24,8 @@ export async function main(args: string[], io = processIo()): Promise<number> {
     .recommendCommands()
     .wrap(Math.min(100, process.stdout.columns || 100))
     .fail((msg, err) => {
-      if (err) throw err;
-      io.err(`armwind: ${msg} (armwind --help lists commands and options)`);
-      status = 1;
+      // a bad command line stops here: the command does not run
+      throw err ?? new UsageError(msg);
     });
   y = planCommand(y, io, setStatus);
   y = cardCommand(y, io, setStatus);
@@ -36,9 +35,17 @@ export async function main(args: string[], io = processIo()): Promise<number> {
   y = (await import("./history.js")).historyCommand(y, io, setStatus);
   y = schemaCommand(y, io, setStatus);
   y = newCommand(y, io, setStatus);
-  await y.parseAsync();
+  try {
+    await y.parseAsync();
+  } catch (e) {
+    if (!(e instanceof UsageError)) throw e;
+    io.err(`armwind: ${e.message} (armwind --help lists commands and options)`);
+    return 1;
+  }
   return status;
 }
+
+class UsageError extends Error {}
 
 const isMain = process.argv[1] && /main\.(js|ts)$|armwind(\.mjs)?$/.test(process.argv[1]);
 if (isMain) {

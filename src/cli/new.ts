@@ -8,7 +8,8 @@
  * temporary name removed. An existing file is exit status 3 with one clear line.
  */
 import type { Argv } from "yargs";
-import { closeSync, existsSync, linkSync, mkdirSync, openSync, readFileSync, statSync, unlinkSync, writeFileSync, writeSync } from "node:fs";
+import { makeFolders } from "./write.js";
+import { closeSync, linkSync, openSync, readFileSync, statSync, unlinkSync, writeFileSync, writeSync } from "node:fs";
 import { basename, dirname, isAbsolute, join, relative, resolve } from "node:path";
 import { fileURLToPath } from "node:url";
 import { randomBytes } from "node:crypto";
@@ -115,30 +116,6 @@ export function writeNew(file: string, data: string, shown = file): void {
     return;
   }
   unlinkQuietly(tmp);
-}
-
-/**
- * Create a folder and its missing parents, one at a time. (Node 20's `mkdirSync(…, { recursive:
- * true })` spins for ever on a folder that cannot be made under /proc, where mkdir says ENOENT
- * although the parent exists; made one by one, the first refusal is an error.)
- */
-export function makeFolders(dir: string): void {
-  const missing: string[] = [];
-  let d = resolve(dir);
-  while (!existsSync(d)) {
-    missing.unshift(d);
-    const up = dirname(d);
-    if (up === d) break;
-    d = up;
-  }
-  for (const m of missing) {
-    try {
-      mkdirSync(m);
-    } catch (e) {
-      // made meanwhile by someone else: fine if it is a folder
-      if ((e as NodeJS.ErrnoException).code !== "EEXIST" || !isDir(m)) throw e;
-    }
-  }
 }
 
 function unlinkQuietly(f: string): void {

@@ -1,10 +1,10 @@
 /** `armwind schema [-o FILE]`: the job file's JSON Schema, for editors (printed, or written atomically). */
 import type { Argv } from "yargs";
 import { dirname, resolve } from "node:path";
-import { makeFolders, shownPath, writeFailure } from "./new.js";
+import { shownPath, writeFailure } from "./new.js";
 import { jobJsonSchemaText } from "../job/json-schema.js";
 import { guarded, type Io } from "./io.js";
-import { writeAtomic } from "./write.js";
+import { makeFolders, writeAtomic } from "./write.js";
 
 /** Print the schema, or write it to `output` (temporary file, then renamed); returns the exit status. */
 export async function runSchema(io: Io, output?: string): Promise<number> {

@@ -116,8 +116,8 @@ function dutyReport(model: MotorModel | null, supply: number, job: Job, density:
       current_density: density(p.current),
     };
   } catch {
-    // the load torque is beyond this motor's stall torque
-    return { torque: d.torque, target_speed: d.speed, current: NaN, speed: 0, efficiency: 0, input_w: NaN, output_w: 0, current_density: null };
+    // the load torque is beyond this motor's stall torque: no operating point (planJob warns)
+    return null;
   }
 }
 
@@ -218,6 +218,17 @@ export function planJob(job: Job, options: PlanOptions = {}): Plan {
   const densityOld = (i: number) => i / (ctx.layout.paths * ctx.original.strands * ctx.original.wire.area);
   const duty = dutyReport(motor.model, supply, job, densityNew);
   const original_duty = dutyReport(original_motor.model, supply, job, densityOld);
+  if (job.target.duty && !series) {
+    for (const [which, report, m] of [["new", duty, motor], ["original", original_duty, original_motor]] as const) {
+      if (report === null && m.model) {
+        warnings.push({
+          code: "duty_beyond_stall",
+          path: "target.duty.torque",
+          message: `the ${which} winding cannot carry the ${(job.target.duty.torque * 1e3).toPrecision(3)} mN·m load at ${supply} V: it is beyond its stall torque${m.stallTorque !== null ? ` (${(m.stallTorque * 1e3).toPrecision(3)} mN·m)` : ""}`,
+        });
+      }
+    }
+  }
 
   if (ev.goal === "restore" && ctx.original.copperFill > job.target.limits.copper_fill) {
     warnings.push({

@@ -222,10 +222,10 @@ export function parseQuantity(input: unknown, kind: QuantityKind): ParseResult {
   const unit = findUnit(kind, unitText);
   if (!unit) {
     const other = otherKind(unitText, kind);
-    const hint = other ? ` ("${unitText}" is a unit of ${other.replace("_", " ")})` : "";
+    const hint = other ? ` ("${unitText}" is a unit of ${other.replace(/_/g, " ")})` : "";
     return {
       ok: false,
-      message: `unknown unit "${unitText}" for a ${kind.replace("_", " ")}${hint}; use one of ${unitNames(kind).join(", ")}`,
+      message: `unknown unit "${unitText}" for a ${kind.replace(/_/g, " ")}${hint}; use one of ${unitNames(kind).join(", ")}`,
     };
   }
   const si = unit.convert ? unit.convert(value) * (Number.isNaN(unit.factor) ? 1 : unit.factor) : value * unit.factor;

@@ -5,6 +5,7 @@
  */
 import type { LogRecord } from "./record.js";
 import { checkOf } from "./record.js";
+import { niceTicks } from "../plot/ticks.js";
 
 export interface HistoryRow {
   file: string;
@@ -114,17 +115,6 @@ interface Panel {
   points: { x: number; y: number; ok: boolean }[];
 }
 
-/** Tick values from lo to hi at 1, 2 or 5 × 10^k (the usual "nice numbers"). */
-export function niceTicks(lo: number, hi: number, target = 5): number[] {
-  if (!(hi > lo)) return [lo];
-  const raw = (hi - lo) / target;
-  const mag = Math.pow(10, Math.floor(Math.log10(raw)));
-  const step = [1, 2, 5, 10].map((m) => m * mag).find((s) => s >= raw) ?? 10 * mag;
-  const out: number[] = [];
-  for (let v = Math.ceil(lo / step) * step; v <= hi + step * 1e-9; v += step) out.push(Number(v.toPrecision(12)));
-  return out;
-}
-
 function tickText(v: number, step: number): string {
   const decimals = Math.max(0, -Math.floor(Math.log10(step) + 1e-9));
   return v.toFixed(decimals);
@@ -199,7 +189,7 @@ function drawPanel(shapes: Shape[], p: Panel, left: number, top: number, size: n
   const hi = Math.max(...vals) * (1 + 1.6 * p.tolerance) || 1;
   const sx = (v: number) => left + ((v - lo) / (hi - lo)) * size;
   const sy = (v: number) => top + size - ((v - lo) / (hi - lo)) * size;
-  const ticks = niceTicks(lo, hi);
+  const ticks = niceTicks(lo, hi, 5, [1, 2, 5, 10]);
   const step = ticks.length > 1 ? ticks[1] - ticks[0] : hi - lo;
   for (const t of ticks) {
     if (t < lo || t > hi) continue;

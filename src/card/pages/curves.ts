@@ -7,22 +7,11 @@ import type { Plan } from "../../design/types.js";
 import { reasonText } from "../../design/plan.js";
 import { grey, type Sheet } from "../sheet.js";
 import { goalFigure, goalName, goalUnit, ohm, pct, sig, torqueUnit } from "../text.js";
+import { ticksFromZero } from "../../plot/ticks.js";
 
 const RPM = 60 / (2 * Math.PI);
 /** Axis labels: the tick value without trailing zeros. */
 const tick = (v: number) => String(Number(v.toPrecision(6)));
-
-/** "Nice" axis ticks from 0 to at least max: steps of 1, 2 or 5 × 10^n, about `n` of them. */
-export function niceTicks(max: number, n = 5): number[] {
-  if (!(max > 0) || !Number.isFinite(max)) return [0, 1];
-  const raw = max / n;
-  const mag = 10 ** Math.floor(Math.log10(raw));
-  const step = [1, 2, 2.5, 5, 10].map((f) => f * mag).find((st) => st >= raw) ?? 10 * mag;
-  const ticks: number[] = [];
-  for (let v = 0; v < max + step * 0.999; v += step) ticks.push(Number(v.toPrecision(12)));
-  if (ticks.length < 2) ticks.push(step);
-  return ticks;
-}
 
 type Key = "speed" | "current" | "efficiency" | "output";
 const CHART: Record<Key, { title: string; unit: string; value: (p: OperatingPoint) => number }> = {
@@ -104,8 +93,8 @@ function chart(
   const all = [...o, ...n];
   const maxT = Math.max(...all.map((p) => p.torque)) * tu.k;
   const maxV = Math.max(...all.map(def.value), key === "speed" && plan.duty ? plan.duty.target_speed * RPM : 0);
-  const xt = niceTicks(maxT);
-  const yt = niceTicks(key === "efficiency" ? Math.min(100, maxV) : maxV);
+  const xt = ticksFromZero(maxT);
+  const yt = ticksFromZero(key === "efficiency" ? Math.min(100, maxV) : maxV);
   const xMax = xt[xt.length - 1];
   const yMax = yt[yt.length - 1];
   const X = (t: number) => px + (t / xMax) * pw;
