@@ -66,7 +66,22 @@ describe("card", () => {
     expect(text).toContain(sig(j.wire.cut_m));
     expect(text).toContain(ohm(j.resistance.bar_to_bar_ohm));
     expect(text).toContain("Ω");
-    expect(readdirSync(out)).toEqual(["blind-motor-0031.pdf"]);
+    expect(readdirSync(out).sort()).toEqual(["blind-motor-0031-curves.svg", "blind-motor-0031.pdf"]);
+  });
+  it("writes the curves as an SVG image beside the card: four charts, original dashed and new solid", () => {
+    const out = tmp();
+    expect(runCli(["card", BLIND, "-o", out]).status).toBe(0);
+    const svg = readFileSync(join(out, "blind-motor-0031-curves.svg"), "utf8");
+    expect(svg.startsWith("<?xml")).toBe(true);
+    for (const t of ["Speed, rpm", "Current, A", "Efficiency, %", "Output power, W", "torque, mN·m"]) expect(svg).toContain(t);
+    const lines = svg.match(/<polyline [^>]*>/g) ?? [];
+    expect(lines.filter((l) => l.includes("stroke-dasharray")).length).toBeGreaterThanOrEqual(4 + 1);
+    expect(lines.filter((l) => !l.includes("stroke-dasharray")).length).toBeGreaterThanOrEqual(4 + 1);
+  });
+  it("writes no curves image for a series motor (no safe no-load speed)", () => {
+    const out = tmp();
+    expect(runCli(["card", join(ROOT, "jobs/drill-lap-0112.yaml"), "-o", out]).status).toBe(0);
+    expect(readdirSync(out)).toEqual(["drill-lap-0112.pdf"]);
   });
 });
 

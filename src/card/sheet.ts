@@ -7,10 +7,11 @@
 import PDFDocument from "pdfkit";
 import type { CardLayout, Paper } from "./layout.js";
 import { cardFonts } from "./fonts.js";
-/** Kept for other modules that embed the card's fonts; `cardFonts()` gives them unpacked and fast. */
-export { FONT_FILES } from "./fonts.js";
 const REG = "DejaVu";
 const BOLD = "DejaVu-Bold";
+/** Names under which the card registers its regular and bold fonts. */
+export const FONT_REGULAR = REG;
+export const FONT_BOLD = BOLD;
 
 export const BLACK = "#000000";
 /** A grey as a hex colour: g = 0 black … 1 white. */

@@ -51,10 +51,7 @@ export function goalUnit(plan: Plan): string {
 
 export const goalName = (plan: Plan) => plan.goal.kind.replace(/_/g, " ");
 
-/** Torque in the unit that keeps the numbers readable: mN·m below 1 N·m. */
-export function torqueUnit(maxNm: number): { unit: string; k: number } {
-  return maxNm < 1 ? { unit: "mN·m", k: 1e3 } : { unit: "N·m", k: 1 };
-}
+export { torqueUnit } from "../plot/curves.js";
 
 export const fieldText: Record<string, string> = {
   permanent_magnet: "permanent magnet",

@@ -6,6 +6,8 @@ import { planFromFile, planStatus, type Where } from "./plan.js";
 import { planJson } from "./plan-json.js";
 import { VERSION } from "./version.js";
 import { writeAtomic } from "./write.js";
+import { curvesDrawing, hasCurves } from "../plot/curves.js";
+import { drawingSvg } from "../plot/drawing.js";
 
 export function today(io: Io): string {
   // SOURCE_DATE_EPOCH (reproducible-builds.org) fixes the date for reproducible cards and tests
@@ -39,9 +41,16 @@ export function cardCommand(yargs: Argv, io: Io, setStatus: (n: number) => void)
             const file = join(resolve(io.cwd, argv.output), `${plan.job.id}.pdf`);
             await writeAtomic(file, pdf);
             const shown = relative(io.cwd, file) || file;
-            if (argv.json) io.out(JSON.stringify({ ok: true, card: file, feasible: plan.feasible, plan: planJson(plan) }, null, 2));
+            // the curves as an image beside the card (not for series motors or an uncalibrated motor)
+            let curves: string | null = null;
+            if (hasCurves(plan)) {
+              curves = join(resolve(io.cwd, argv.output), `${plan.job.id}-curves.svg`);
+              await writeAtomic(curves, drawingSvg(curvesDrawing(plan, { width: 720, height: 560, legend: true, size: 9 })));
+            }
+            if (argv.json) io.out(JSON.stringify({ ok: true, card: file, curves, feasible: plan.feasible, plan: planJson(plan) }, null, 2));
             else {
               io.out(`card written: ${shown}`);
+              if (curves) io.out(`curves image: ${relative(io.cwd, curves) || curves}`);
               io.out(`  ${plan.design.turns} turns of ${plan.design.wire.label}${plan.design.strands > 1 ? ` ×${plan.design.strands}` : ""}; cut ${plan.wire.cut.toFixed(1)} m; ${plan.feasible ? "meets the goal" : "does NOT meet the goal (closest winding shown)"}`);
               for (const w of plan.warnings) io.out(`  ! ${w.path ? w.path + ": " : ""}${w.message} [${w.code}]`);
             }

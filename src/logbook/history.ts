@@ -96,17 +96,9 @@ export function historyCsv(rows: HistoryRow[]): string {
 // ---------------------------------------------------------------------------------------------
 // the scatter plot as a display list (points, origin top left)
 
-export type Shape =
-  | { kind: "line"; x1: number; y1: number; x2: number; y2: number; width: number; grey: number; dash?: number }
-  | { kind: "circle"; cx: number; cy: number; r: number; filled: boolean }
-  | { kind: "rect"; x: number; y: number; w: number; h: number; grey: number }
-  | { kind: "text"; x: number; y: number; text: string; size: number; anchor: "start" | "middle" | "end"; bold?: boolean; rotate?: boolean };
-
-export interface Drawing {
-  width: number;
-  height: number;
-  shapes: Shape[];
-}
+import type { Drawing, Shape } from "../plot/drawing.js";
+export type { Drawing, Shape } from "../plot/drawing.js";
+export { drawingSvg } from "../plot/drawing.js";
 
 interface Panel {
   title: string;
@@ -216,39 +208,3 @@ function drawPanel(shapes: Shape[], p: Panel, left: number, top: number, size: n
   shapes.push({ kind: "text", x: left - 38, y: top + size / 2, text: `measured (${p.unit})`, size: 8, anchor: "middle", rotate: true });
 }
 
-const esc = (s: string) => s.replace(/&/g, "&amp;").replace(/</g, "&lt;").replace(/>/g, "&gt;").replace(/"/g, "&quot;");
-const f2 = (x: number) => String(Math.round(x * 100) / 100);
-const hexGrey = (g: number) => {
-  const v = Math.round(g * 255)
-    .toString(16)
-    .padStart(2, "0");
-  return `#${v}${v}${v}`;
-};
-
-/** The drawing as an SVG document (text, written by hand; no native dependencies). */
-export function drawingSvg(d: Drawing): string {
-  const out: string[] = [];
-  out.push(`<?xml version="1.0" encoding="UTF-8"?>`);
-  out.push(`<svg xmlns="http://www.w3.org/2000/svg" width="${d.width}pt" height="${d.height}pt" viewBox="0 0 ${d.width} ${d.height}" font-family="DejaVu Sans, Verdana, sans-serif">`);
-  out.push(`<rect x="0" y="0" width="${d.width}" height="${d.height}" fill="#ffffff"/>`);
-  for (const s of d.shapes) {
-    switch (s.kind) {
-      case "line":
-        out.push(`<line x1="${f2(s.x1)}" y1="${f2(s.y1)}" x2="${f2(s.x2)}" y2="${f2(s.y2)}" stroke="${hexGrey(s.grey)}" stroke-width="${s.width}"${s.dash ? ` stroke-dasharray="${s.dash} ${s.dash}"` : ""}/>`);
-        break;
-      case "circle":
-        out.push(`<circle class="point" cx="${f2(s.cx)}" cy="${f2(s.cy)}" r="${s.r}" fill="${s.filled ? "#000000" : "#ffffff"}" stroke="#000000" stroke-width="0.8"/>`);
-        break;
-      case "rect":
-        out.push(`<rect x="${f2(s.x)}" y="${f2(s.y)}" width="${f2(s.w)}" height="${f2(s.h)}" fill="none" stroke="${hexGrey(s.grey)}" stroke-width="0.8"/>`);
-        break;
-      case "text":
-        out.push(
-          `<text x="${f2(s.x)}" y="${f2(s.y)}" font-size="${s.size}" text-anchor="${s.anchor}"${s.bold ? ' font-weight="bold"' : ""}${s.rotate ? ` transform="rotate(-90 ${f2(s.x)} ${f2(s.y)})"` : ""}>${esc(s.text)}</text>`,
-        );
-        break;
-    }
-  }
-  out.push(`</svg>`);
-  return out.join("\n") + "\n";
-}
