@@ -1,13 +1,8 @@
 #!/usr/bin/env node
 /** armwind: the command line. Each command lives in its own file; this one only wires them up. */
-import yargs from "yargs";
+import yargs, { type Argv } from "yargs";
 import { hideBin } from "yargs/helpers";
-import { processIo } from "./io.js";
-import { planCommand } from "./plan.js";
-import { wiresCommand } from "./wires-command.js";
-import { cardCommand } from "./card.js";
-import { schemaCommand } from "./schema.js";
-import { newCommand } from "./new.js";
+import { processIo, type Io } from "./io.js";
 import { VERSION } from "./version.js";
 
 export async function main(args: string[], io = processIo()): Promise<number> {
@@ -27,14 +22,10 @@ export async function main(args: string[], io = processIo()): Promise<number> {
       // a bad command line stops here: the command does not run
       throw err ?? new UsageError(msg);
     });
-  y = planCommand(y, io, setStatus);
-  y = cardCommand(y, io, setStatus);
-  y = wiresCommand(y, io, setStatus);
-  y = (await import("./log.js")).logCommand(y, io, setStatus);
-  y = (await import("./diagnose.js")).diagnoseCommand(y, io, setStatus);
-  y = (await import("./history.js")).historyCommand(y, io, setStatus);
-  y = schemaCommand(y, io, setStatus);
-  y = newCommand(y, io, setStatus);
+  // load only the command asked for (each pulls in its own part of armwind); all of them for help,
+  // a mistyped command (so yargs can suggest the nearest) or no command at all
+  const wanted = COMMANDS.find((c) => c.names.includes(args[0] ?? ""));
+  for (const c of wanted ? [wanted] : COMMANDS) y = await c.register(y, io, setStatus);
   try {
     await y.parseAsync();
   } catch (e) {
@@ -46,6 +37,20 @@ export async function main(args: string[], io = processIo()): Promise<number> {
 }
 
 class UsageError extends Error {}
+
+type Register = (y: Argv, io: Io, setStatus: (n: number) => void) => Promise<Argv>;
+
+/** Every command, in the order --help lists them. */
+const COMMANDS: { names: string[]; register: Register }[] = [
+  { names: ["plan", "check"], register: async (y, io, s) => (await import("./plan.js")).planCommand(y, io, s) },
+  { names: ["card"], register: async (y, io, s) => (await import("./card.js")).cardCommand(y, io, s) },
+  { names: ["wires"], register: async (y, io, s) => (await import("./wires-command.js")).wiresCommand(y, io, s) },
+  { names: ["log"], register: async (y, io, s) => (await import("./log.js")).logCommand(y, io, s) },
+  { names: ["diagnose"], register: async (y, io, s) => (await import("./diagnose.js")).diagnoseCommand(y, io, s) },
+  { names: ["history"], register: async (y, io, s) => (await import("./history.js")).historyCommand(y, io, s) },
+  { names: ["schema"], register: async (y, io, s) => (await import("./schema.js")).schemaCommand(y, io, s) },
+  { names: ["new"], register: async (y, io, s) => (await import("./new.js")).newCommand(y, io, s) },
+];
 
 const isMain = process.argv[1] && /main\.(js|ts)$|armwind(\.mjs)?$/.test(process.argv[1]);
 if (isMain) {

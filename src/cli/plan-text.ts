@@ -14,6 +14,7 @@ export function planText(plan: Plan): string {
       (sp.style !== "tooth" ? `, span ${sp.span} (slot 1 to ${1 + sp.span}), ${sp.coils_per_slot} coil${sp.coils_per_slot > 1 ? "s" : ""} per slot, ${sp.progression}` : "") +
       `, ${plan.paths} parallel paths`,
   );
+  for (const n of plan.layout.notes) L.push(`  note: ${n}`);
   L.push("");
   L.push(`${plan.feasible ? "WIND" : "CLOSEST (does not meet the goal)"}: ${d.turns} turns per coil of ${d.wire.label}${d.strands > 1 ? `, ${d.strands} strands in hand` : ""}`);
   L.push(`  goal ${plan.goal.kind.replace(/_/g, " ")}: ${plan.goal.summary}`);
