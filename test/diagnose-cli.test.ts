@@ -153,7 +153,7 @@ describe("diagnose: inputs and the contract", () => {
   });
 
   it("a logbook record gives the readings and the winding laid", async () => {
-    const r = await diagnoseJson([BLIND, "--record", join(ROOT, "jobs/logbook/blind-motor-0031-2026-12-03-1.yaml")]);
+    const r = await diagnoseJson([BLIND, "--record", join(ROOT, "jobs/logbook/blind-motor-0031-2026-12-01-1.yaml")]);
     expect(r.status).toBe(0);
     expect(r.out.temperature_c).toBe(21);
     expect(r.out.coils).toHaveLength(5);

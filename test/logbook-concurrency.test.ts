@@ -63,7 +63,7 @@ describe("the logbook store", () => {
     await watcher;
     for (const r of results) expect(r.code, r.stderr).toBe(0);
     const names = readdirSync(dir).sort((a, b) => a.localeCompare(b, "en", { numeric: true }));
-    expect(names).toEqual(Array.from({ length: 20 }, (_, i) => `blind-motor-0031-2026-12-03-${i + 1}.yaml`));
+    expect(names).toEqual(Array.from({ length: 20 }, (_, i) => `blind-motor-0031-2026-12-01-${i + 1}.yaml`));
     const book = readLogbook(dir);
     expect(book.records).toHaveLength(20);
     expect(book.warnings).toEqual([]);
@@ -95,6 +95,6 @@ describe("the logbook store", () => {
     // and the next writer takes n = 1
     const next = await log(dir).done;
     expect(next.code).toBe(0);
-    expect(readdirSync(dir).filter((n) => !n.startsWith("."))).toEqual(["blind-motor-0031-2026-12-03-1.yaml"]);
+    expect(readdirSync(dir).filter((n) => !n.startsWith("."))).toEqual(["blind-motor-0031-2026-12-01-1.yaml"]);
   });
 });

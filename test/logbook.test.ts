@@ -40,7 +40,7 @@ function measured(text: string, file = "m.yaml") {
 
 const GOOD = `version: 1
 job: blind-motor-0031
-date: 2026-12-03
+date: 2026-12-01
 temperature: 21 C
 meter_resolution: 0.001 ohm
 bar_to_bar: [1.338, 1.331, 1.342, 1.329, 1.336]
@@ -103,7 +103,7 @@ describe("the measured file", () => {
   });
 
   it("a date that is no date is refused", () => {
-    expect(() => measured(GOOD.replace("2026-12-03", "2026-13-03"))).toThrow(/YYYY-MM-DD/);
+    expect(() => measured(GOOD.replace("2026-12-01", "2026-13-03"))).toThrow(/YYYY-MM-DD/);
   });
 });
 
@@ -201,7 +201,7 @@ describe("armwind log", () => {
       const io = fakeIo();
       expect(await main(["log", BLIND, "--measured", BLIND_MEASURED, "--logbook", dir], io)).toBe(0);
     }
-    expect(readdirSync(dir).sort()).toEqual(["blind-motor-0031-2026-12-03-1.yaml", "blind-motor-0031-2026-12-03-2.yaml", "blind-motor-0031-2026-12-03-3.yaml"]);
+    expect(readdirSync(dir).sort()).toEqual(["blind-motor-0031-2026-12-01-1.yaml", "blind-motor-0031-2026-12-01-2.yaml", "blind-motor-0031-2026-12-01-3.yaml"]);
     const book = readLogbook(dir);
     expect(book.records).toHaveLength(3);
     expect(book.warnings).toEqual([]);
@@ -216,7 +216,7 @@ describe("armwind log", () => {
     const out = JSON.parse(io.stdout.join(""));
     expect(out.ok).toBe(false);
     expect(out.record.comparison.checks.find((c: { check: string }) => c.check === "bar_to_bar.spread").verdict).toBe("fail");
-    expect(readdirSync(join(dir, "book"))).toEqual(["blind-motor-0031-2026-12-03-1.yaml"]);
+    expect(readdirSync(join(dir, "book"))).toEqual(["blind-motor-0031-2026-12-01-1.yaml"]);
   });
 
   it("a measured file with an error writes nothing, exits 1 and names file:line:column", async () => {
@@ -252,7 +252,7 @@ describe("reading the logbook", () => {
     const dir = tmp();
     expect(await main(["log", BLIND, "--measured", BLIND_MEASURED, "--logbook", dir], fakeIo())).toBe(0);
     writeFileSync(join(dir, "blind-motor-0031-2026-12-04-1.yaml"), "version: 1\nkind: [unclosed\n");
-    const good = readdirSync(dir).find((f) => f.endsWith("-1.yaml") && f.includes("12-03"))!;
+    const good = readdirSync(dir).find((f) => f.endsWith("-1.yaml") && f.includes("12-01"))!;
     // a record that lost its readings (as a careless edit would leave it)
     const lost = parseRecordText(readFileSync(join(dir, good), "utf8")) as { measured: Record<string, unknown> };
     delete lost.measured.bar_to_bar_ohm;
@@ -335,13 +335,13 @@ describe("learning from the family's records", () => {
 
   it("plan learns from the logbook folder and says how many records it used", () => {
     const dir = tmp();
-    copyFileSync(join(ROOT, "jobs/logbook/blind-motor-0031-2026-12-03-1.yaml"), join(dir, "blind-motor-0031-2026-12-03-1.yaml"));
+    copyFileSync(join(ROOT, "jobs/logbook/blind-motor-0031-2026-12-01-1.yaml"), join(dir, "blind-motor-0031-2026-12-01-1.yaml"));
     const job = loadJobFile(BLIND);
     const io = fakeIo(ROOT, {});
     const opts = logbookOptionsFor(io, job, dir);
     expect(opts.logbook!.records).toBe(1);
     expect(opts.logbook!.mltFactor).toBeGreaterThan(0);
-    expect(logbookOptionsFor(io, job, dir, { before: "2026-12-03" })).toEqual({});
+    expect(logbookOptionsFor(io, job, dir, { before: "2026-12-01" })).toEqual({});
   });
 });
 
