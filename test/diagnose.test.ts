@@ -4,24 +4,8 @@ import { ArmwindError } from "../src/errors.js";
 import { DEFAULT_TOLERANCE, POLARITY_NOTE, diagnose, solveCoils } from "../src/winding/diagnose.js";
 import { layoutWinding } from "../src/winding/layout.js";
 import type { WindingLayout, WindingSpec } from "../src/winding/types.js";
+import { spec } from "./helpers/winding.js";
 
-function spec(over: Partial<WindingSpec>): WindingSpec {
-  return {
-    style: "lap",
-    slots: 12,
-    bars: 12,
-    poles: 2,
-    span: 5,
-    coils_per_slot: 1,
-    dead_coil: false,
-    equalizers: false,
-    progression: "progressive",
-    lead_throw: 0,
-    direction: "cw",
-    brushes: { count: 2, width_bars: 1 },
-    ...over,
-  };
-}
 
 /**
  * The test's own bar-to-bar readings: nodal equations (Kirchhoff's current law) with 1 A into bar

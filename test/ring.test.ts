@@ -11,24 +11,8 @@ import {
   waveBarToBar,
 } from "../src/winding/ring.js";
 import type { WindingLayout, WindingSpec } from "../src/winding/types.js";
+import { spec } from "./helpers/winding.js";
 
-function spec(over: Partial<WindingSpec>): WindingSpec {
-  return {
-    style: "lap",
-    slots: 12,
-    bars: 12,
-    poles: 2,
-    span: 5,
-    coils_per_slot: 1,
-    dead_coil: false,
-    equalizers: false,
-    progression: "progressive",
-    lead_throw: 0,
-    direction: "cw",
-    brushes: { count: 2, width_bars: 1 },
-    ...over,
-  };
-}
 
 /**
  * Independent nodal solution written here (not the code under test): Kirchhoff's current law at

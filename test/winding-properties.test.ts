@@ -3,6 +3,7 @@ import { describe, expect, it } from "vitest";
 import { ArmwindError } from "../src/errors.js";
 import { checkInvariants, layoutWinding } from "../src/winding/layout.js";
 import type { WindingLayout, WindingSpec } from "../src/winding/types.js";
+import { spec } from "./helpers/winding.js";
 
 const arbSpec: fc.Arbitrary<WindingSpec> = fc
   .record({
@@ -158,20 +159,7 @@ describe("every table layoutWinding accepts holds its invariants; every refusal 
   });
 
   it("checkInvariants catches broken tables", () => {
-    const base: WindingSpec = {
-      style: "lap",
-      slots: 12,
-      bars: 12,
-      poles: 2,
-      span: 5,
-      coils_per_slot: 1,
-      dead_coil: false,
-      equalizers: false,
-      progression: "progressive",
-      lead_throw: 0,
-      direction: "cw",
-      brushes: { count: 2, width_bars: 1 },
-    };
+    const base: WindingSpec = spec();
     const l = layoutWinding(base);
     const twoInOne = structuredClone(l);
     twoInOne.coils[1].go_slot = 1; // two go sides at slot 1 top

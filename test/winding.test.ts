@@ -2,24 +2,8 @@ import { describe, expect, it } from "vitest";
 import { ArmwindError } from "../src/errors.js";
 import { barAngle, checkInvariants, diagramAngles, layoutWinding, slotAngle } from "../src/winding/layout.js";
 import type { WindingSpec } from "../src/winding/types.js";
+import { spec } from "./helpers/winding.js";
 
-function spec(over: Partial<WindingSpec>): WindingSpec {
-  return {
-    style: "lap",
-    slots: 12,
-    bars: 12,
-    poles: 2,
-    span: 5,
-    coils_per_slot: 1,
-    dead_coil: false,
-    equalizers: false,
-    progression: "progressive",
-    lead_throw: 0,
-    direction: "cw",
-    brushes: { count: 2, width_bars: 1 },
-    ...over,
-  };
-}
 
 function refusal(s: WindingSpec): { code: string; path: string; message: string } {
   try {

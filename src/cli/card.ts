@@ -28,12 +28,11 @@ export function cardCommand(yargs: Argv, io: Io, setStatus: (n: number) => void)
         .option("json", { type: "boolean", default: false, describe: "print { ok, card, plan } as JSON" })
         .option("logbook", { type: "string", describe: "logbook folder" }),
     async (argv) => {
-      const where: Where = {};
       setStatus(
         await guarded(
           io,
           argv.json,
-          async () => {
+          async (where) => {
             const plan = planFromFile(io, argv.job, where, { logbook: argv.logbook });
             // pdfkit and the card load only when a card is asked for
             const { renderCard } = await import("../card/render.js");
@@ -56,7 +55,6 @@ export function cardCommand(yargs: Argv, io: Io, setStatus: (n: number) => void)
             }
             return planStatus(plan);
           },
-          where,
         ),
       );
     },

@@ -154,12 +154,11 @@ export function diagnoseCommand(yargs: Argv, io: Io, setStatus: (n: number) => v
         .option("json", { type: "boolean", default: false, describe: "print { ok, coils, suspects, … } as JSON" }),
 
     async (argv) => {
-      const where: Where = {};
       setStatus(
         await guarded(
           io,
           argv.json,
-          () => {
+          (where) => {
             const ways = [argv.bars, argv.measured, argv.record].filter((x) => x !== undefined).length;
             if (ways !== 1) throw inputError("readings_missing", "", "give the readings one way: --bars r1,r2,…, --measured FILE or --record FILE");
             if (argv.temperature !== undefined && argv.bars === undefined) throw inputError("option_conflict", "temperature", "--temperature goes with --bars (measured files and records carry their own)");
@@ -220,7 +219,6 @@ export function diagnoseCommand(yargs: Argv, io: Io, setStatus: (n: number) => v
             io.out(argv.json ? JSON.stringify(diagnoseJson(job, input, d), null, 2) : diagnoseText(job, input, d));
             return d.ok ? 0 : 4;
           },
-          where,
         ),
       );
     },

@@ -85,13 +85,21 @@ export function reportError(io: Io, e: ArmwindError, json: boolean): number {
   return e.status;
 }
 
-/** Run a command body, turning every error into a line and an exit status; never a stack trace. */
-export async function guarded(io: Io, json: boolean, body: () => Promise<number> | number, where?: { file?: string; locate?: (p: (string | number)[]) => { line: number; column: number } }): Promise<number> {
+/** Where a command's job file is, once it is known, so that problems the core throws later are located in it. */
+export interface Where {
+  file?: string;
+  locate?: (p: (string | number)[]) => { line: number; column: number };
+}
+
+/** Run a command body, turning every error into a line and an exit status; never a stack trace.
+ * The body fills in `where` as soon as it has loaded its job file. */
+export async function guarded(io: Io, json: boolean, body: (where: Where) => Promise<number> | number): Promise<number> {
+  const where: Where = {};
   try {
-    return await body();
+    return await body(where);
   } catch (e) {
     if (e instanceof ArmwindError) {
-      const located = new ArmwindError(locateProblems(e.problems, where?.file, where?.locate), e.status);
+      const located = new ArmwindError(locateProblems(e.problems, where.file, where.locate), e.status);
       return reportError(io, located, json);
     }
     const msg = oneLine(e instanceof Error ? e.message : String(e));

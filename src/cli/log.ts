@@ -118,12 +118,11 @@ export function logCommand(yargs: Argv, io: Io, setStatus: (n: number) => void) 
         .option("learn", { type: "boolean", default: true, describe: "predict as the plan did, with the family's earlier records (--no-learn: without)" })
         .option("json", { type: "boolean", default: false, describe: "print { ok, file, record } as JSON (ok: every check within tolerance)" }),
     async (argv) => {
-      const where: Where = {};
       setStatus(
         await guarded(
           io,
           argv.json,
-          () => {
+          (where) => {
             const { job, file, locate } = loadJob(io, argv.job);
             where.file = file;
             where.locate = locate;
@@ -140,7 +139,6 @@ export function logCommand(yargs: Argv, io: Io, setStatus: (n: number) => void) 
             else io.out(logText(record, shown, file));
             return record.comparison.ok ? 0 : 4;
           },
-          where,
         ),
       );
     },

@@ -2,15 +2,12 @@
 import type { Argv } from "yargs";
 import { planJob, type PlanOptions } from "../design/plan.js";
 import type { Plan } from "../design/types.js";
-import { guarded, loadJob, type Io } from "./io.js";
+import { guarded, loadJob, type Io, type Where } from "./io.js";
 import { planJson } from "./plan-json.js";
 import { planText } from "./plan-text.js";
 import { logbookOptionsFor } from "./learning.js";
 
-export interface Where {
-  file?: string;
-  locate?: (p: (string | number)[]) => { line: number; column: number };
-}
+export type { Where } from "./io.js";
 
 /** Load a job and plan it; `where` is filled in as soon as the file is known, so later problems are located. */
 export function planFromFile(io: Io, file: string, where: Where, opts: { logbook?: string; learn?: boolean } = {}): Plan {
@@ -38,17 +35,15 @@ export function planCommand(yargs: Argv, io: Io, setStatus: (n: number) => void)
           .option("logbook", { type: "string", describe: "logbook folder (default $ARMWIND_LOGBOOK, else jobs/logbook)" })
           .option("learn", { type: "boolean", default: true, describe: "use finished rewinds of the same armature family from the logbook (--no-learn to plan without)" }),
       async (argv) => {
-        const where: Where = {};
         setStatus(
           await guarded(
             io,
             argv.json,
-            () => {
+            (where) => {
               const plan = planFromFile(io, argv.job, where, { logbook: argv.logbook, learn: argv.learn });
               io.out(argv.json ? JSON.stringify(planJson(plan), null, 2) : planText(plan));
               return planStatus(plan);
             },
-            where,
           ),
         );
       },
@@ -62,12 +57,11 @@ export function planCommand(yargs: Argv, io: Io, setStatus: (n: number) => void)
           .option("json", { type: "boolean", default: false, describe: "print { ok, feasible, warnings } as JSON" })
           .option("logbook", { type: "string", describe: "logbook folder" }),
       async (argv) => {
-        const where: Where = {};
         setStatus(
           await guarded(
             io,
             argv.json,
-            () => {
+            (where) => {
               const plan = planFromFile(io, argv.job, where, { logbook: argv.logbook });
               if (argv.json) {
                 io.out(JSON.stringify({ ok: true, job_id: plan.job.id, feasible: plan.feasible, warnings: plan.warnings }, null, 2));
@@ -77,7 +71,6 @@ export function planCommand(yargs: Argv, io: Io, setStatus: (n: number) => void)
               }
               return planStatus(plan);
             },
-            where,
           ),
         );
       },
