@@ -186,6 +186,30 @@ function fmt(x: number): string {
 }
 
 /**
+ * A lap or wave coil of a two-layer winding: its go slot is the slot of its start bar, ⌈start/u⌉,
+ * in the top layer at the start bar's position among the slot's u coils; its return side lies
+ * `span` slots on, in the bottom layer (DESIGN.md "Numbering and directions").
+ */
+function twoLayerCoil(index: number, start: number, end: number, u: number, span: number, S: number): Coil {
+  const go = Math.ceil(start / u);
+  const pos = ((start - 1) % u) + 1;
+  return {
+    index,
+    go_slot: go,
+    return_slot: mod1(go + span, S),
+    go_layer: "top",
+    return_layer: "bottom",
+    go_position: pos,
+    return_position: pos,
+    start_bar: start,
+    end_bar: end,
+    direction: null,
+    dead: false,
+    rides_over: 0,
+  };
+}
+
+/**
  * Lay out the winding: the coil table in winding order with go/return slots, layers, bars,
  * pitches, paths, equalizer groups, riding counts, notes and warnings.
  * Throws `ArmwindError` (status 1) with a code and a path under `winding.*` or `armature.*` for
@@ -231,24 +255,7 @@ export function layoutWinding(spec: WindingSpec): WindingLayout {
   } else if (style === "lap") {
     const prog = spec.progression === "progressive";
     yc = prog ? 1 : -1;
-    for (let k = 1; k <= C; k++) {
-      const go = Math.ceil(k / u);
-      const pos = ((k - 1) % u) + 1;
-      coils.push({
-        index: k,
-        go_slot: go,
-        return_slot: mod1(go + span, S),
-        go_layer: "top",
-        return_layer: "bottom",
-        go_position: pos,
-        return_position: pos,
-        start_bar: k,
-        end_bar: mod1(prog ? k + 1 : k - 1, C),
-        direction: null,
-        dead: false,
-        rides_over: 0,
-      });
-    }
+    for (let k = 1; k <= C; k++) coils.push(twoLayerCoil(k, k, mod1(prog ? k + 1 : k - 1, C), u, span, S));
     yb = 2 * u * span + 1;
     yf = prog ? yb - 2 : yb + 2;
     paths = P;
@@ -286,25 +293,7 @@ export function layoutWinding(spec: WindingSpec): WindingLayout {
     // wave
     yc = spec.progression === "progressive" ? (C + 1) / p : (C - 1) / p;
     perAdjacent = p;
-    for (let k = 1; k <= C; k++) {
-      const start = mod1(1 + (k - 1) * yc, C);
-      const go = Math.ceil(start / u);
-      const pos = ((start - 1) % u) + 1;
-      coils.push({
-        index: k,
-        go_slot: go,
-        return_slot: mod1(go + span, S),
-        go_layer: "top",
-        return_layer: "bottom",
-        go_position: pos,
-        return_position: pos,
-        start_bar: start,
-        end_bar: mod1(1 + k * yc, C),
-        direction: null,
-        dead: false,
-        rides_over: 0,
-      });
-    }
+    for (let k = 1; k <= C; k++) coils.push(twoLayerCoil(k, mod1(1 + (k - 1) * yc, C), mod1(1 + k * yc, C), u, span, S));
     if (spec.dead_coil) {
       coils.push({
         index: C + 1,
