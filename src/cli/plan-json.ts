@@ -138,6 +138,7 @@ export function planJson(plan: Plan) {
       terminal_hot_ohm: plan.resistance.terminal_hot_ohm,
       hot_temperature_c: plan.resistance.hot_temperature,
       validity: plan.resistance.validity,
+      terminal_basis: plan.resistance.terminal_basis,
     },
     wire: {
       mean_turn_length_mm: plan.wire.mlt * 1e3,

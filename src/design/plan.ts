@@ -194,7 +194,7 @@ export function planJob(job: Job, options: PlanOptions = {}): Plan {
   const hotFactor = copperFactor(job.target.hot_temperature);
   const b2b = barToBar(ctx.layout, coilOhms);
   const liveMean = meanOf(coilOhms, ctx.layout);
-  const validity: string[] = [term.validity];
+  const validity: string[] = [];
   if (job.winding.equalizers) validity.push("equalizer connections are fitted: they tie bars together, so the bar-to-bar and terminal figures from the plain ring do not hold; the figures here include the equalizers as near-zero links");
   const mltMean = meanOf(mlts, ctx.layout);
   const perCoil = chosen.turns * chosen.strands * mltMean;
@@ -286,6 +286,7 @@ export function planJob(job: Job, options: PlanOptions = {}): Plan {
       terminal_hot_ohm: term.single * hotFactor,
       hot_temperature: job.target.hot_temperature,
       validity,
+      terminal_basis: term.validity,
     },
     wire: {
       mlt: mltMean,

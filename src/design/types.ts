@@ -87,6 +87,8 @@ export interface ResistancePlan {
   hot_temperature: number;
   /** Sentences on where these figures stop being valid (equalizers …). */
   validity: string[];
+  /** How the brushes were placed for the terminal figures (technical; in the JSON, not on the card). */
+  terminal_basis: string;
 }
 
 export interface WirePlan {
