@@ -123,6 +123,16 @@ describe("the plan", () => {
       expect(p.message).toMatch(/9/);
     }
   });
+  it("a stall-current limit is never exceeded: the cold stall current lies at or below it, within the tolerance", () => {
+    const p = planJob(loadJobFile(join(ROOT, "jobs/robot-3slot-0007.yaml")), {});
+    const limit = p.job.target.stall_current!;
+    expect(p.feasible).toBe(true);
+    expect(p.motor.stallCurrentCold!).toBeLessThanOrEqual(limit + 1e-9);
+    expect(p.motor.stallCurrentCold!).toBeGreaterThanOrEqual(limit * (1 - p.job.target.tolerance));
+    // hot is lower still (IEC 60028: resistance rises with temperature)
+    expect(p.motor.stallCurrent!).toBeLessThan(p.motor.stallCurrentCold!);
+    for (const c of p.candidates.filter((c) => c.meets_goal)) expect(c.stall_current_cold!).toBeLessThanOrEqual(limit + 1e-9);
+  });
   it("every demo job plans and meets its goal", () => {
     for (const f of ["blind-motor-0031", "drill-lap-0112", "chair-wave-0045", "robot-3slot-0007", "boat-7slot-0020"]) {
       const p = planJob(loadJobFile(join(ROOT, `jobs/${f}.yaml`)));

@@ -168,7 +168,8 @@ export function makeEvaluator(ctx: ArmatureContext, cal: Calibration, supply: nu
         if (achieved! < RESTORE_MIN_AREA * target) reasons.push("below_original_copper");
         meets = achieved! >= RESTORE_MIN_AREA * target;
       } else if (goal === "stall_current") {
-        meets = error <= tol;
+        // "at most this much", hot and cold: the cold (larger) stall current within the tolerance below the limit, never above it
+        meets = error <= 1e-12 && error >= -tol;
       } else meets = Math.abs(error) <= tol;
     }
     if (error !== null && !Number.isFinite(error)) error = null;

@@ -138,9 +138,9 @@ function goalReport(ev: Evaluator, c: Candidate, tolerance: number): GoalReport 
   let summary: string;
   if (achieved === null || err === null) summary = `the ${ev.goal.replace(/_/g, " ")} cannot be predicted: nothing calibrates the motor`;
   else if (ev.goal === "restore")
-    summary = `copper area ${fmt(achieved)} mm² against the original's ${fmt(target)} mm² (${err >= 0 ? "+" : ""}${(err * 100).toFixed(1)} %)`;
+    summary = `copper area ${fmt(achieved)} mm² against the original's ${fmt(target)} mm² (${err >= 0 ? "+" : "−"}${Math.abs(err * 100).toFixed(1)} %)`;
   else
-    summary = `${fmt(achieved)} ${g.unit} against ${ev.goal === "stall_current" ? "at most " : ""}${fmt(target)} ${g.unit} (${err >= 0 ? "+" : ""}${(err * 100).toFixed(1)} %, tolerance ±${(tolerance * 100).toFixed(0)} %)`;
+    summary = `${fmt(achieved)} ${g.unit} against ${ev.goal === "stall_current" ? "at most " : ""}${fmt(target)} ${g.unit} (${err >= 0 ? "+" : "−"}${Math.abs(err * 100).toFixed(1)} %, tolerance ${ev.goal === "stall_current" ? "−" : "±"}${(tolerance * 100).toFixed(0)} %)`;
   return { kind: ev.goal, unit: g.unit, target_value: target, achieved_value: achieved, error_fraction: err, summary };
 }
 
