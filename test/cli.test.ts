@@ -142,7 +142,11 @@ describe("exit statuses", () => {
     expect(r.stderr).toMatch(/cannot write .*blind-motor-0031\.pdf/);
   });
   it("every command has --help", () => {
-    for (const c of ["plan", "check", "card", "wires"]) {
+    // every command the README's table lists
+    const readme = readFileSync(join(ROOT, "README.md"), "utf8").split("## Commands")[1].split("### Exit statuses")[0];
+    const listed = [...readme.matchAll(/^\| `(\w+)[ `]/gm)].map((m) => m[1]);
+    expect(listed).toEqual(["plan", "check", "card", "wires", "new", "schema", "log", "diagnose", "history"]);
+    for (const c of listed) {
       const r = runCli([c, "--help"]);
       expect(r.status, c).toBe(0);
       expect(r.stdout).toMatch(/Options/);
