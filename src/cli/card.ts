@@ -6,6 +6,7 @@ import { planFromFile, planStatus, type Where } from "./plan.js";
 import { planJson } from "./plan-json.js";
 import { VERSION } from "./version.js";
 import { writeAtomic } from "./write.js";
+import { withJob, withLogbook } from "./options.js";
 import { curvesDrawing, hasCurves } from "../plot/curves.js";
 import { drawingSvg } from "../plot/drawing.js";
 
@@ -21,19 +22,17 @@ export function cardCommand(yargs: Argv, io: Io, setStatus: (n: number) => void)
     "card <job>",
     "Print the PDF job card for the winding jig: cut list, coil steps, diagram, bench checks, curves, cautions",
     (y) =>
-      y
-        .positional("job", { type: "string", demandOption: true, describe: "job file (YAML), or - for standard input" })
+      withLogbook(withJob(y))
         .option("output", { alias: "o", type: "string", default: "output", describe: "folder for the card (created if missing)" })
         .option("paper", { choices: ["a4", "letter"] as const, default: "a4" as const, describe: "paper size" })
-        .option("json", { type: "boolean", default: false, describe: "print { ok, card, plan } as JSON" })
-        .option("logbook", { type: "string", describe: "logbook folder" }),
+        .option("json", { type: "boolean", default: false, describe: "print { ok, card, curves, plan } as JSON" }),
     async (argv) => {
       setStatus(
         await guarded(
           io,
           argv.json,
           async (where) => {
-            const plan = planFromFile(io, argv.job, where, { logbook: argv.logbook });
+            const plan = planFromFile(io, argv.job, where, { logbook: argv.logbook, learn: argv.learn });
             // pdfkit and the card load only when a card is asked for
             const { renderCard } = await import("../card/render.js");
             const pdf = await renderCard(plan, { paper: argv.paper, date: today(io), version: VERSION });

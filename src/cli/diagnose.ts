@@ -21,6 +21,7 @@ import { diagnose, type Diagnosis } from "../winding/diagnose.js";
 import { to20C } from "../wire/copper.js";
 import { ohm, sig, table } from "./format.js";
 import type { Job } from "../job/schema.js";
+import { withJob, withLogbook } from "./options.js";
 
 export interface DiagnoseInput {
   /** Readings r1 … rC as read, Ω. */
@@ -142,15 +143,12 @@ export function diagnoseCommand(yargs: Argv, io: Io, setStatus: (n: number) => v
     "diagnose <job>",
     "Solve the bar-to-bar readings for each coil's resistance and name the coils that stand out (exit 4 when one is out of tolerance)",
     (y) =>
-      y
-        .positional("job", { type: "string", demandOption: true, describe: "job file (YAML)" })
+      withLogbook(withJob(y, "job file (YAML)"), "expect what the plan expects with the family's records (--no-learn: without)")
         .option("bars", { type: "string", describe: "readings r1,r2,…,rC in Ω (a unit may follow each: 1.05 ohm, 1050 mohm)" })
         .option("temperature", { type: "string", describe: 'winding temperature when read with --bars, e.g. "21 C" or "70 F" (default 20 C)' })
         .option("measured", { type: "string", describe: "take the readings (and the winding laid) from a measured file" })
         .option("record", { type: "string", describe: "take the readings (and the winding laid) from a logbook record" })
         .option("tolerance", { type: "number", describe: "tolerance on each coil as a fraction (default 0.05, common practice)" })
-        .option("logbook", { type: "string", describe: "logbook folder for the family's learning (default $ARMWIND_LOGBOOK, else jobs/logbook)" })
-        .option("learn", { type: "boolean", default: true, describe: "expect what the plan expects with the family's records (--no-learn: without)" })
         .option("json", { type: "boolean", default: false, describe: "print { ok, coils, suspects, … } as JSON" }),
 
     async (argv) => {

@@ -16,6 +16,7 @@ import { ohm, sig, table } from "./format.js";
 import type { CheckRow } from "../logbook/compare.js";
 import type { Job } from "../job/schema.js";
 import { relative } from "node:path";
+import { withJob, withLogbook } from "./options.js";
 
 /** Load a measured file and check it against the job (id, bar count); problems located in the measured file. */
 export function loadMeasured(io: Io, file: string, job: Job): Measured {
@@ -111,11 +112,8 @@ export function logCommand(yargs: Argv, io: Io, setStatus: (n: number) => void) 
     "log <job>",
     "Record a finished rewind in the logbook: the bench readings beside the plan (exit 4 when a check fails)",
     (y) =>
-      y
-        .positional("job", { type: "string", demandOption: true, describe: "job file (YAML) the rewind was planned by" })
+      withLogbook(withJob(y, "job file (YAML) the rewind was planned by"), "predict as the plan did, with the family's earlier records (--no-learn: without)")
         .option("measured", { type: "string", demandOption: true, describe: "measured file (YAML): date, temperature, bar-to-bar readings, terminal, no-load, stall, insulation" })
-        .option("logbook", { type: "string", describe: "logbook folder (default $ARMWIND_LOGBOOK, else jobs/logbook)" })
-        .option("learn", { type: "boolean", default: true, describe: "predict as the plan did, with the family's earlier records (--no-learn: without)" })
         .option("json", { type: "boolean", default: false, describe: "print { ok, file, record } as JSON (ok: every check within tolerance)" }),
     async (argv) => {
       setStatus(

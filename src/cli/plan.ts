@@ -6,6 +6,7 @@ import { guarded, loadJob, type Io, type Where } from "./io.js";
 import { planJson } from "./plan-json.js";
 import { planText } from "./plan-text.js";
 import { logbookOptionsFor } from "./learning.js";
+import { withJob, withLogbook } from "./options.js";
 
 export type { Where } from "./io.js";
 
@@ -29,11 +30,7 @@ export function planCommand(yargs: Argv, io: Io, setStatus: (n: number) => void)
       "plan <job>",
       "Work out the winding: turns, wire, fill, resistances, cut list, and the motor old and new",
       (y) =>
-        y
-          .positional("job", { type: "string", demandOption: true, describe: "job file (YAML), or - for standard input" })
-          .option("json", { type: "boolean", default: false, describe: "print the plan as JSON (the keys of DESIGN.md)" })
-          .option("logbook", { type: "string", describe: "logbook folder (default $ARMWIND_LOGBOOK, else jobs/logbook)" })
-          .option("learn", { type: "boolean", default: true, describe: "use finished rewinds of the same armature family from the logbook (--no-learn to plan without)" }),
+        withLogbook(withJob(y)).option("json", { type: "boolean", default: false, describe: "print the plan as JSON (the keys of DESIGN.md)" }),
       async (argv) => {
         setStatus(
           await guarded(
@@ -52,17 +49,14 @@ export function planCommand(yargs: Argv, io: Io, setStatus: (n: number) => void)
       "check <job>",
       "Validate a job file and print its warnings (exits as plan would)",
       (y) =>
-        y
-          .positional("job", { type: "string", demandOption: true, describe: "job file (YAML), or - for standard input" })
-          .option("json", { type: "boolean", default: false, describe: "print { ok, feasible, warnings } as JSON" })
-          .option("logbook", { type: "string", describe: "logbook folder" }),
+        withLogbook(withJob(y)).option("json", { type: "boolean", default: false, describe: "print { ok, feasible, warnings } as JSON" }),
       async (argv) => {
         setStatus(
           await guarded(
             io,
             argv.json,
             (where) => {
-              const plan = planFromFile(io, argv.job, where, { logbook: argv.logbook });
+              const plan = planFromFile(io, argv.job, where, { logbook: argv.logbook, learn: argv.learn });
               if (argv.json) {
                 io.out(JSON.stringify({ ok: true, job_id: plan.job.id, feasible: plan.feasible, warnings: plan.warnings }, null, 2));
               } else {
