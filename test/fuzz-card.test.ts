@@ -76,6 +76,7 @@ describe("jobs with unusual values through plan and card", () => {
       }),
       { numRuns: 200 },
     );
-    expect(drawn).toBeGreaterThan(100);
+    // about half the variants plan (the others are refused, which the job fuzz covers); at least 60 must be drawn
+    expect(drawn).toBeGreaterThanOrEqual(60);
   });
 });
