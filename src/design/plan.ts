@@ -192,6 +192,9 @@ export function planJob(job: Job, options: PlanOptions = {}): Plan {
   const coils: CoilPlan[] = ctx.layout.coils.map((c, i) => ({ ...c, turns: c.dead ? chosen.turns : chosen.turns, mlt: mlts[i], ohm: coilOhms[i] }));
   const term = terminalResistance(ctx.layout, coilOhms);
   const hotFactor = copperFactor(job.target.hot_temperature);
+  // the sweep used the mean coil; the chosen winding's terminal figure comes from the network of its own coils
+  chosen.terminal_ohm = term.single;
+  chosen.terminal_hot_ohm = term.single * hotFactor;
   const b2b = barToBar(ctx.layout, coilOhms);
   const liveMean = meanOf(coilOhms, ctx.layout);
   const validity: string[] = [];

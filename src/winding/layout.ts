@@ -413,7 +413,7 @@ function brushNotes(spec: WindingSpec, coils: Coil[], C: number, perAdjacent: nu
   }
   const which = rel.length
     ? `the coils ${rel.join(", ")} (b the first bar under the brush)`
-    : `no single coil has both ends under it, but each pair of adjacent bars under it shorts the chain of ${perAdjacent} coils in series between them`;
+    : `the chain of ${perAdjacent} coils in series between each pair of adjacent bars under the brush (no single coil has both ends under it)`;
   out.push(
     `Brushes ${fmt(w)} bars wide touch up to ${maxBars} adjacent bars at once and short ${which} while they commutate: those coils carry no load current, the terminal resistance drops at those rotor positions (see the minimum over a turn) and sparking may rise; bar-to-bar readings, taken with the brushes lifted, are not affected.`,
   );
