@@ -14,6 +14,7 @@ import { windingSpec } from "../src/design/context.js";
 import { layoutWinding } from "../src/winding/layout.js";
 import type { WindingLayout } from "../src/winding/types.js";
 import { ROOT, loadJobFile } from "./helpers/cli.js";
+import { nodalReadings } from "./helpers/nodal.js";
 
 function fakeIo(cwd = ROOT): Io & { stdout: string[]; stderr: string[] } {
   const stdout: string[] = [];
@@ -21,54 +22,6 @@ function fakeIo(cwd = ROOT): Io & { stdout: string[]; stderr: string[] } {
   return { out: (s) => stdout.push(s), err: (s) => stderr.push(s), stdin: () => "", env: {}, cwd, stdout, stderr };
 }
 
-/**
- * Independent nodal solution (Kirchhoff's current law, Gaussian elimination written here): bars
- * are nodes, each live coil a conductance between its start and end bar; 1 A into bar i, bar i+1
- * grounded; the reading is bar i's potential. Shares no code with src/winding.
- */
-function nodalReadings(l: WindingLayout, R: number[]): number[] {
-  const C = l.bars;
-  const out: number[] = [];
-  for (let i = 1; i <= C; i++) {
-    const g = (i % C) + 1;
-    const idx = (b: number) => (b < g ? b - 1 : b - 2); // node numbers without the ground
-    const n = C - 1;
-    const A = Array.from({ length: n }, () => new Array<number>(n).fill(0));
-    const rhs = new Array<number>(n).fill(0);
-    l.coils.forEach((c, k) => {
-      if (c.dead || c.start_bar === null || c.end_bar === null) return;
-      const y = 1 / R[k];
-      const a = c.start_bar;
-      const b = c.end_bar;
-      if (a !== g) A[idx(a)][idx(a)] += y;
-      if (b !== g) A[idx(b)][idx(b)] += y;
-      if (a !== g && b !== g) {
-        A[idx(a)][idx(b)] -= y;
-        A[idx(b)][idx(a)] -= y;
-      }
-    });
-    rhs[idx(i)] = 1;
-    for (let c = 0; c < n; c++) {
-      let p = c;
-      for (let r = c + 1; r < n; r++) if (Math.abs(A[r][c]) > Math.abs(A[p][c])) p = r;
-      [A[p], A[c]] = [A[c], A[p]];
-      [rhs[p], rhs[c]] = [rhs[c], rhs[p]];
-      for (let r = c + 1; r < n; r++) {
-        const f = A[r][c] / A[c][c];
-        for (let k = c; k < n; k++) A[r][k] -= f * A[c][k];
-        rhs[r] -= f * rhs[c];
-      }
-    }
-    const x = new Array<number>(n).fill(0);
-    for (let r = n - 1; r >= 0; r--) {
-      let s = rhs[r];
-      for (let k = r + 1; k < n; k++) s -= A[r][k] * x[k];
-      x[r] = s / A[r][r];
-    }
-    out.push(x[idx(i)]);
-  }
-  return out;
-}
 
 async function diagnoseJson(args: string[]) {
   const io = fakeIo();

@@ -5,57 +5,9 @@ import { DEFAULT_TOLERANCE, POLARITY_NOTE, diagnose, solveCoils } from "../src/w
 import { layoutWinding } from "../src/winding/layout.js";
 import type { WindingLayout, WindingSpec } from "../src/winding/types.js";
 import { spec } from "./helpers/winding.js";
+import { nodalReadings } from "./helpers/nodal.js";
 
 
-/**
- * The test's own bar-to-bar readings: nodal equations (Kirchhoff's current law) with 1 A into bar
- * i, bar i+1 grounded, solved by Gaussian elimination; equalizer groups joined into one node.
- * Independent of src/winding/ring.ts.
- */
-function readingsByNodal(l: WindingLayout, R: number[]): number[] {
-  const C = l.bars;
-  const node = Array.from({ length: C + 1 }, (_, i) => i);
-  if (l.equalizers) for (const g of l.equalizer_groups) for (const b of g) node[b] = g[0];
-  const out: number[] = [];
-  for (let i = 1; i <= C; i++) {
-    const a = node[i];
-    const gnd = node[(i % C) + 1];
-    const ids = [...new Set(node.slice(1))].filter((x) => x !== gnd);
-    const at = new Map(ids.map((x, k) => [x, k]));
-    const n = ids.length;
-    const G = Array.from({ length: n }, () => new Array<number>(n + 1).fill(0));
-    G[at.get(a)!][n] = 1;
-    l.coils.forEach((c, k) => {
-      if (c.dead) return;
-      const x = at.get(node[c.start_bar!]);
-      const y = at.get(node[c.end_bar!]);
-      const g = 1 / R[k];
-      if (x !== undefined) G[x][x] += g;
-      if (y !== undefined) G[y][y] += g;
-      if (x !== undefined && y !== undefined) {
-        G[x][y] -= g;
-        G[y][x] -= g;
-      }
-    });
-    for (let c = 0; c < n; c++) {
-      let p = c;
-      for (let r = c + 1; r < n; r++) if (Math.abs(G[r][c]) > Math.abs(G[p][c])) p = r;
-      [G[p], G[c]] = [G[c], G[p]];
-      for (let r = c + 1; r < n; r++) {
-        const f = G[r][c] / G[c][c];
-        for (let k = c; k <= n; k++) G[r][k] -= f * G[c][k];
-      }
-    }
-    const v = new Array<number>(n).fill(0);
-    for (let r = n - 1; r >= 0; r--) {
-      let s = G[r][n];
-      for (let k = r + 1; k < n; k++) s -= G[r][k] * v[k];
-      v[r] = s / G[r][r];
-    }
-    out.push(v[at.get(a)!]);
-  }
-  return out;
-}
 
 const layouts: [string, WindingLayout][] = [
   ["tooth 3", layoutWinding(spec({ style: "tooth", slots: 3, bars: 3, span: 1 }))],
@@ -84,7 +36,7 @@ describe("inversion: readings from known coils give the coils back", () => {
       // solved on the lower root, which holds while no chain of p coils has half the ring's
       // resistance: a 4× spread keeps that true for these C and p
       fc.property(fc.array(l.spec.style === "wave" ? fc.double({ min: 0.5, max: 2, noNaN: true }) : fc.double({ min: 0.2, max: 5, noNaN: true }), { minLength: l.coils.length, maxLength: l.coils.length }), (R) => {
-        const r = readingsByNodal(l, R);
+        const r = nodalReadings(l, R);
         const s = solveCoils(l, r);
         l.coils.forEach((c, i) => {
           if (c.dead) expect(Number.isNaN(s.coil_ohm[i])).toBe(true);
@@ -101,7 +53,7 @@ describe("inversion: readings from known coils give the coils back", () => {
     const l = layouts[5][1];
     fc.assert(
       fc.property(fc.array(fc.double({ min: -0.02, max: 0.02, noNaN: true }), { minLength: 15, maxLength: 15 }), (noise) => {
-        const r = readingsByNodal(l, new Array(15).fill(1)).map((x, i) => x * (1 + noise[i]));
+        const r = nodalReadings(l, new Array(15).fill(1)).map((x, i) => x * (1 + noise[i]));
         const s = solveCoils(l, r);
         for (const x of s.coil_ohm) expect(x).toBeGreaterThanOrEqual(0);
         expect(Number.isFinite(s.residual_fraction)).toBe(true);
@@ -114,13 +66,13 @@ describe("inversion: readings from known coils give the coils back", () => {
     for (const [, l] of layouts) {
       const R = l.coils.map(() => 1);
       R[2] = 1e12; // open (as good as): the ring fits only with coil 3 open
-      const s = solveCoils(l, readingsByNodal(l, R));
+      const s = solveCoils(l, nodalReadings(l, R));
       expect(s.open_coils).toEqual([3]);
-      const r = readingsByNodal(l, l.coils.map(() => 1));
+      const r = nodalReadings(l, l.coils.map(() => 1));
       r[1] = Infinity;
       r[r.length - 1] = Infinity;
       expect(() => solveCoils(l, r)).not.toThrow();
-      const z = readingsByNodal(l, l.coils.map(() => 1));
+      const z = nodalReadings(l, l.coils.map(() => 1));
       z[0] = 0;
       expect(() => solveCoils(l, z)).not.toThrow();
     }
@@ -153,7 +105,7 @@ describe("diagnosis", () => {
       const R = [...E];
       const bad = l.coils.findIndex((c, i) => i >= 1 && !c.dead);
       R[bad] *= 1.1; // 4 turns too many on 40
-      const d = diagnose(l, readingsByNodal(l, R), E, 40);
+      const d = diagnose(l, nodalReadings(l, R), E, 40);
       expect(d.ok).toBe(false);
       const sus = d.suspects.filter((s) => s.kind === "turns_miscounted");
       expect(sus.length).toBe(1);
@@ -170,7 +122,7 @@ describe("diagnosis", () => {
   it("a near-zero reading is named bridged bars", () => {
     const l = layouts[2][1];
     const E = new Array(12).fill(2);
-    const r = readingsByNodal(l, E);
+    const r = nodalReadings(l, E);
     r[6] = 0.002;
     const d = diagnose(l, r, E, 30);
     const b = d.suspects.find((s) => s.kind === "bridged_bars");
@@ -181,7 +133,7 @@ describe("diagnosis", () => {
   it("a reading ≥ 10 % above the average is a poor riser connection (US Army TM 55-2210-223-34)", () => {
     const l = layouts[2][1];
     const E = new Array(12).fill(1);
-    const r = readingsByNodal(l, E);
+    const r = nodalReadings(l, E);
     r[3] *= 1.15;
     const d = diagnose(l, r, E, 30);
     expect(d.suspects.find((s) => s.kind === "poor_riser_connection")?.bars).toEqual([4, 5]);
@@ -205,14 +157,14 @@ describe("diagnosis", () => {
     const E = new Array(7).fill(1);
     const R = [...E];
     R[2] = 0.6;
-    const d = diagnose(l, readingsByNodal(l, R), E, 50);
+    const d = diagnose(l, nodalReadings(l, R), E, 50);
     expect(d.suspects.find((s) => s.kind === "shorted_turns")?.coils).toEqual([3]);
   });
 
   it("a good winding passes and says where its tolerance comes from", () => {
     const l = layouts[5][1];
     const E = new Array(15).fill(1);
-    const d = diagnose(l, readingsByNodal(l, E.map((x, i) => x * (1 + 0.01 * Math.sin(i)))), E, 20);
+    const d = diagnose(l, nodalReadings(l, E.map((x, i) => x * (1 + 0.01 * Math.sin(i)))), E, 20);
     expect(d.ok).toBe(true);
     expect(d.tolerance).toBe(DEFAULT_TOLERANCE);
     expect(d.tolerance_source).toMatch(/common practice/);
@@ -223,7 +175,7 @@ describe("diagnosis", () => {
     const E = new Array(12).fill(1);
     const R = [...E];
     R[4] = 1.5;
-    const d = diagnose(l, readingsByNodal(l, R), E, 30);
+    const d = diagnose(l, nodalReadings(l, R), E, 30);
     expect(d.coils.every((c) => c.resistance_ohm === null)).toBe(true);
     const dev = d.suspects.filter((s) => s.kind === "reading_deviates");
     expect(dev.length).toBeGreaterThan(0);
