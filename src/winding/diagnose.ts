@@ -498,11 +498,9 @@ export function diagnose(layout: WindingLayout, readings: number[], expectedCoil
         });
       } else if (R < NEAR_ZERO_FRACTION * E) {
         row.verdict = "shorted";
-        const already = suspects.some((s) => s.kind === "bridged_bars" && s.bars.includes(c.start_bar!) && s.bars.includes(c.end_bar!));
-        if (already) {
-          const s = suspects.find((s) => s.kind === "bridged_bars" && s.bars.includes(c.start_bar!) && s.bars.includes(c.end_bar!))!;
-          s.coils.push(c.index);
-        } else {
+        const already = suspects.find((s) => s.kind === "bridged_bars" && s.bars.includes(c.start_bar!) && s.bars.includes(c.end_bar!));
+        if (already) already.coils.push(c.index);
+        else {
           suspects.push({ kind: "bridged_bars", coils: [c.index], bars: [c.start_bar!, c.end_bar!], turns_estimate: null, message: `${where} reads near zero: its bars bridged or the whole coil shorted` });
         }
       } else {
