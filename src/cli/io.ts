@@ -3,10 +3,13 @@
  * statuses, and the `--json` error shape of DESIGN.md.
  */
 import { readFileSync } from "node:fs";
+import { resolve } from "node:path";
 import { ArmwindError, formatProblem, type Problem } from "../errors.js";
 import { loadYaml, oneLine } from "../job/load.js";
 import { jobSchema, type Job } from "../job/schema.js";
 import type { z } from "zod";
+import { loadShop } from "./shop.js";
+import { mergeShopIntoJob } from "../shop/merge.js";
 
 export interface Io {
   out: (s: string) => void;
@@ -15,6 +18,8 @@ export interface Io {
   stdin: () => string;
   env: NodeJS.ProcessEnv;
   cwd: string;
+  /** The shop profile named by --shop (DESIGN.md "The shop profile"), when given. */
+  shop?: string;
 }
 
 export const processIo = (): Io => ({
@@ -30,7 +35,7 @@ export function readText(io: Io, file: string, path = ""): string {
   // yargs hands a lone "-" over as an empty string
   if (file === "-" || file === "") return io.stdin();
   try {
-    return readFileSync(file, "utf8");
+    return readFileSync(resolve(io.cwd, file), "utf8");
   } catch (e) {
     const code = (e as NodeJS.ErrnoException).code;
     const what = code === "ENOENT" ? "no such file" : code === "EISDIR" ? "is a folder, not a file" : code === "EACCES" ? "cannot be read (permission denied)" : `cannot be read (${code ?? "error"})`;
@@ -46,7 +51,8 @@ export function loadFile<S extends z.ZodType>(io: Io, file: string, schema: S) {
 }
 
 export function loadJob(io: Io, file: string): { job: Job; file: string; locate: (path: (string | number)[]) => { line: number; column: number } } {
-  const r = loadFile(io, file, jobSchema);
+  const shop = loadShop(io);
+  const r = loadYaml(readText(io, file), isStdin(file) ? "<stdin>" : file, jobSchema, shop ? (raw) => mergeShopIntoJob(raw, shop.raw) : undefined);
   return { job: r.value, file: isStdin(file) ? "<stdin>" : file, locate: r.locate };
 }
 
