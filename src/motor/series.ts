@@ -485,7 +485,15 @@ export interface SeriesCalibration {
   basis: string[];
 }
 
-function inductanceOf(inp: SeriesInputs, ac: boolean): { la: number; lf: number; known: boolean; basis: string[] } {
+/**
+ * The circuit inductance parts (H) from what the job gives: both parts, one part, or a locked-rotor
+ * AC reading split by `splitInductance`; a DC locked-rotor reading checks the resistances (more than
+ * 25 % apart: `inconsistent_tests`). On AC with nothing known, zero and `known: false`.
+ */
+export function fitSeriesInductance(
+  inp: Pick<SeriesInputs, "la" | "lf" | "lockedRotor" | "brushDrop">,
+  ac: boolean,
+): { la: number; lf: number; known: boolean; basis: string[] } {
   const lr = inp.lockedRotor;
   if (lr && lr.frequency !== null) {
     const sum = fitInductanceFromLockedRotor({ volts: lr.volts, current: lr.current, frequency: lr.frequency }, lr.resistance, inp.brushDrop, lr.path);
@@ -520,7 +528,7 @@ function inductanceOf(inp: SeriesInputs, ac: boolean): { la: number; lf: number;
 export function calibrateSeries(inp: SeriesInputs): SeriesCalibration | null {
   requireNonNegative(inp.brushDrop, "brush drop", "winding.brush_drop");
   const ac = inp.readings.some((r) => r.supply.frequency > 0);
-  const ind = inductanceOf(inp, ac);
+  const ind = fitSeriesInductance(inp, ac);
   const L = ind.la + ind.lf;
   const pts: { r: SeriesReading; psi: number; outputW?: number; rated?: boolean }[] = [];
   for (const r of inp.readings) {
