@@ -76,7 +76,7 @@ function seriesExtraJson(plan: Plan) {
     no_load: sp.noLoad ? { supply_v: sp.supply.volts, current_a: sp.noLoad.current, speed_rpm: toRpm(sp.noLoad.speed) } : null,
     convert: sp.convert
       ? {
-          ratio: sp.convert.ratio,
+          turns_ratio: sp.convert.ratio,
           turns_per_coil: sp.convert.turns,
           field_turns_per_pole: sp.convert.fieldTurnsPerPole,
           field_ohm: sp.convert.fieldOhm,
