@@ -12,10 +12,9 @@ import { ArmwindError, inputError, type Problem } from "../errors.js";
 import { parseQuantity } from "../job/units.js";
 import { loadYaml } from "../job/load.js";
 import { readText, guarded, loadJob, type Io } from "./io.js";
-import type { Where } from "./plan.js";
 import { logbookOptionsFor } from "./learning.js";
 import { loadMeasured } from "./log.js";
-import { predictWound } from "../logbook/predict.js";
+import { predictWound, type WoundInput } from "../logbook/predict.js";
 import { recordSchema, type LogRecord } from "../logbook/record.js";
 import { diagnose, type Diagnosis } from "../winding/diagnose.js";
 import { to20C } from "../wire/copper.js";
@@ -178,7 +177,7 @@ export function diagnoseCommand(yargs: Argv, io: Io, setStatus: (n: number) => v
               let readings: number[];
               let temperature = 20;
               let given = false;
-              let wound;
+              let wound: WoundInput | undefined;
               let date: string | undefined;
               if (argv.measured !== undefined) {
                 const m = loadMeasured(io, argv.measured, job);
