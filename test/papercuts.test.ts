@@ -4,7 +4,7 @@ import { existsSync, mkdtempSync, readFileSync, statSync, writeFileSync } from "
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { main } from "../src/cli/main.js";
-import { ROOT, runCli } from "./helpers/cli.js";
+import { ROOT } from "./helpers/cli.js";
 import { fakeIo } from "./helpers/io.js";
 
 const BLIND = join(ROOT, "jobs/blind-motor-0031.yaml");
@@ -22,14 +22,6 @@ describe("paper cuts", () => {
     const io2 = fakeIo(dir);
     expect(await main(["card", BLIND, "--no-learn", "-o", "cards"], io2)).toBe(0);
     expect(existsSync(join(dir, "cards", "blind-motor-0031.pdf"))).toBe(true);
-  });
-  it("plan --help does not send a reader to DESIGN.md, which a clone does not hold", async () => {
-    const r = runCli(["plan", "--help"]);
-    const help = r.stdout + r.stderr;
-    expect(help).toMatch(/--json/);
-    expect(help).not.toMatch(/DESIGN\.md/);
-    // and the README holds what it points to
-    expect(readFileSync(join(ROOT, "README.md"), "utf8")).toMatch(/### The plan --json output/);
   });
   it("the README says how to run armwind as a command", () => {
     const readme = readFileSync(join(ROOT, "README.md"), "utf8");
