@@ -18,9 +18,10 @@ const BLIND = join(ROOT, "jobs/blind-motor-0031.yaml");
 const MEASURED = join(ROOT, "jobs/measured/blind-motor-0031.yaml");
 
 function log(dir: string, env: Record<string, string> = {}) {
-  const child = spawn(process.execPath, [CLI, "log", BLIND, "--measured", MEASURED, "--logbook", dir, "--no-learn"], {
+  const child = spawn(process.execPath, [CLI, "log", BLIND, "--measured", MEASURED, "--logbook", dir, "--no-learn", "--again"], {
     cwd: ROOT,
-    env: { ...process.env, NO_COLOR: "1", ...env },
+    // --again: every writer logs the same readings (the store is what is tested); one bench name
+    env: { ...process.env, NO_COLOR: "1", ARMWIND_BENCH: "race", ...env },
     stdio: ["ignore", "pipe", "pipe"],
   });
   let stderr = "";
@@ -63,7 +64,7 @@ describe("the logbook store", () => {
     await watcher;
     for (const r of results) expect(r.code, r.stderr).toBe(0);
     const names = readdirSync(dir).sort((a, b) => a.localeCompare(b, "en", { numeric: true }));
-    expect(names).toEqual(Array.from({ length: 20 }, (_, i) => `blind-motor-0031-2026-12-01-${i + 1}.yaml`));
+    expect(names).toEqual(Array.from({ length: 20 }, (_, i) => `blind-motor-0031-2026-12-01-race-${i + 1}.yaml`));
     const book = readLogbook(dir);
     expect(book.records).toHaveLength(20);
     expect(book.warnings).toEqual([]);
@@ -95,6 +96,6 @@ describe("the logbook store", () => {
     // and the next writer takes n = 1
     const next = await log(dir).done;
     expect(next.code).toBe(0);
-    expect(readdirSync(dir).filter((n) => !n.startsWith("."))).toEqual(["blind-motor-0031-2026-12-01-1.yaml"]);
+    expect(readdirSync(dir).filter((n) => !n.startsWith("."))).toEqual(["blind-motor-0031-2026-12-01-race-1.yaml"]);
   });
 });

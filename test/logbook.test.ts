@@ -27,7 +27,7 @@ import { ROOT, loadJobFile } from "./helpers/cli.js";
 const BLIND = join(ROOT, "jobs/blind-motor-0031.yaml");
 const BLIND_MEASURED = join(ROOT, "jobs/measured/blind-motor-0031.yaml");
 
-function fakeIo(cwd = ROOT, env: NodeJS.ProcessEnv = {}): Io & { stdout: string[]; stderr: string[] } {
+function fakeIo(cwd = ROOT, env: NodeJS.ProcessEnv = { ARMWIND_BENCH: "bench-t" }): Io & { stdout: string[]; stderr: string[] } {
   const stdout: string[] = [];
   const stderr: string[] = [];
   return { out: (s) => stdout.push(s), err: (s) => stderr.push(s), stdin: () => "", env, cwd, stdout, stderr };
@@ -200,16 +200,42 @@ describe("comparison", () => {
 });
 
 describe("armwind log", () => {
-  it("writes one record named <job id>-<date>-<n>.yaml, never over another", async () => {
+  it("writes one record named <job id>-<date>-<bench>-<n>.yaml; the same readings again are refused naming the record, unless --again", async () => {
     const dir = tmp();
-    for (let i = 0; i < 3; i++) {
-      const io = fakeIo();
-      expect(await main(["log", BLIND, "--measured", BLIND_MEASURED, "--logbook", dir], io)).toBe(0);
-    }
-    expect(readdirSync(dir).sort()).toEqual(["blind-motor-0031-2026-12-01-1.yaml", "blind-motor-0031-2026-12-01-2.yaml", "blind-motor-0031-2026-12-01-3.yaml"]);
+    const io1 = fakeIo();
+    expect(await main(["log", BLIND, "--measured", BLIND_MEASURED, "--logbook", dir], io1)).toBe(0);
+    const io2 = fakeIo();
+    expect(await main(["log", BLIND, "--measured", BLIND_MEASURED, "--logbook", dir, "--json"], io2)).toBe(1);
+    const out = JSON.parse(io2.stdout.join(""));
+    expect(out.errors[0].code).toBe("already_logged");
+    expect(io2.stderr.join("")).toMatch(/blind-motor-0031-2026-12-01-bench-t-1\.yaml.*already holds these readings.*--again/);
+    expect(readdirSync(dir)).toEqual(["blind-motor-0031-2026-12-01-bench-t-1.yaml"]);
+    for (let i = 0; i < 2; i++) expect(await main(["log", BLIND, "--measured", BLIND_MEASURED, "--logbook", dir, "--again"], fakeIo())).toBe(0);
+    // another bench writing the same day takes its own name: the folders merge with no collision
+    expect(await main(["log", BLIND, "--measured", BLIND_MEASURED, "--logbook", dir, "--again"], fakeIo(ROOT, { ARMWIND_BENCH: "other" }))).toBe(0);
+    expect(readdirSync(dir).sort()).toEqual([
+      "blind-motor-0031-2026-12-01-bench-t-1.yaml",
+      "blind-motor-0031-2026-12-01-bench-t-2.yaml",
+      "blind-motor-0031-2026-12-01-bench-t-3.yaml",
+      "blind-motor-0031-2026-12-01-other-1.yaml",
+    ]);
     const book = readLogbook(dir);
-    expect(book.records).toHaveLength(3);
+    expect(book.records).toHaveLength(4);
     expect(book.warnings).toEqual([]);
+    // learning counts the one rewind once
+    const learned = learnFromRecords(loadJobFile(BLIND), book.records);
+    expect(learned.used.records).toBe(1);
+  });
+
+  it("without a bench name, a random tag is made once in the user's configuration folder (never in the logbook) and kept", async () => {
+    const dir = tmp();
+    const conf = tmp();
+    const env = { XDG_CONFIG_HOME: conf };
+    expect(await main(["log", BLIND, "--measured", BLIND_MEASURED, "--logbook", dir], fakeIo(ROOT, env))).toBe(0);
+    const tag = readFileSync(join(conf, "armwind", "bench-tag"), "utf8").trim();
+    expect(tag).toMatch(/^b[0-9a-f]{6}$/);
+    expect(await main(["log", BLIND, "--measured", BLIND_MEASURED, "--logbook", dir, "--again"], fakeIo(ROOT, env))).toBe(0);
+    expect(readdirSync(dir).sort()).toEqual([`blind-motor-0031-2026-12-01-${tag}-1.yaml`, `blind-motor-0031-2026-12-01-${tag}-2.yaml`]);
   });
 
   it("a failing check exits 4 after writing the record (it is the shop's data)", async () => {
@@ -221,7 +247,7 @@ describe("armwind log", () => {
     const out = JSON.parse(io.stdout.join(""));
     expect(out.ok).toBe(false);
     expect(out.record.comparison.checks.find((c: { check: string }) => c.check === "bar_to_bar.spread").verdict).toBe("fail");
-    expect(readdirSync(join(dir, "book"))).toEqual(["blind-motor-0031-2026-12-01-1.yaml"]);
+    expect(readdirSync(join(dir, "book"))).toEqual(["blind-motor-0031-2026-12-01-bench-t-1.yaml"]);
   });
 
   it("a measured file with an error writes nothing, exits 1 and names file:line:column", async () => {

@@ -9,13 +9,15 @@ import { guarded, loadFile, loadJob, type Io } from "./io.js";
 import { logbookDir, logbookOptionsFor } from "./learning.js";
 import { checkAgainstJob, measuredSchema, type Measured } from "../logbook/measured.js";
 import { predictWound } from "../logbook/predict.js";
-import { buildRecord, type LogRecord } from "../logbook/record.js";
-import { writeRecordFile } from "../logbook/store.js";
+import { buildRecord, sameRewind, type LogRecord } from "../logbook/record.js";
+import { readLogbook, writeRecordFile } from "../logbook/store.js";
+import { ArmwindError } from "../errors.js";
+import { benchName } from "./bench-name.js";
 import { ohm, sig, table } from "./format.js";
 import type { CheckRow } from "../logbook/compare.js";
 import { checkLabel } from "../bench/rules.js";
 import type { Job } from "../job/schema.js";
-import { relative } from "node:path";
+import { join, relative } from "node:path";
 import { withJob, withLogbook } from "./options.js";
 
 /** Load a measured file and check it against the job (id, bar count); problems located in the measured file. */
@@ -113,6 +115,20 @@ export function logText(record: LogRecord, file: string, jobFile = `${record.job
   return L.join("\n");
 }
 
+/** Refuse (status 1, `already_logged`) a record whose job and readings the logbook already holds, naming that record. */
+function refuseIfLogged(dir: string, record: LogRecord): void {
+  const book = readLogbook(dir);
+  const twin = sameRewind(book.records, record)[0];
+  if (twin) {
+    throw new ArmwindError({
+      code: "already_logged",
+      path: "",
+      file: join(dir, twin.file),
+      message: `already holds these readings of ${record.job.id} (${record.date}); nothing written. To log them again anyway: armwind log … --again`,
+    });
+  }
+}
+
 export function logCommand(yargs: Argv, io: Io, setStatus: (n: number) => void) {
   return yargs.command(
     "log <job>",
@@ -120,6 +136,7 @@ export function logCommand(yargs: Argv, io: Io, setStatus: (n: number) => void) 
     (y) =>
       withLogbook(withJob(y, "job file (YAML) the rewind was planned by"), "predict as the plan did, with the family's earlier records (--no-learn: without)")
         .option("measured", { type: "string", demandOption: true, describe: "measured file (YAML): date, temperature, bar-to-bar readings, terminal, no-load, stall, insulation" })
+        .option("again", { type: "boolean", default: false, describe: "log it even when the logbook already holds these readings for this job" })
         .option("json", { type: "boolean", default: false, describe: "print { ok, file, record } as JSON (ok: every check within tolerance)" }),
     async (argv) => {
       setStatus(
@@ -137,7 +154,8 @@ export function logCommand(yargs: Argv, io: Io, setStatus: (n: number) => void) 
             const prediction = predictWound(job, plan, m.wound, options);
             const record = buildRecord(job, plan, prediction, m, new Date().toISOString());
             const hold = Number(io.env.ARMWIND_LOG_HOLD_MS ?? 0);
-            const path = writeRecordFile(dir, job.id, m.date, recordYaml(record), { holdMs: Number.isFinite(hold) ? hold : 0 });
+            if (!argv.again) refuseIfLogged(dir, record);
+            const path = writeRecordFile(dir, job.id, m.date, benchName(io), recordYaml(record), { holdMs: Number.isFinite(hold) ? hold : 0 });
             const shown = relative(io.cwd, path).startsWith("..") ? path : relative(io.cwd, path);
             if (argv.json) io.out(JSON.stringify({ ok: record.comparison.ok, file: shown, record }, null, 2));
             else io.out(logText(record, shown, file));

@@ -13,6 +13,7 @@
  * Each figure is used by the plan as DESIGN.md orders its sources (a generator or no-load test of
  * the job itself still wins for Ke and the losses); `moves` lists only the figures that moved.
  */
+import { oncePerRewind } from "./record.js";
 import type { Job } from "../job/schema.js";
 import type { PlanOptions } from "../design/plan.js";
 import { calibrateOriginal } from "../design/calibration.js";
@@ -54,7 +55,8 @@ export function learnFromRecords(job: Job, records: { file?: string; record: Log
   const used = { records: 0, turn_length: 0, ke: 0, loss: 0 };
   const skipped: Learned["skipped"] = [];
   if (family === null) return { options: undefined, family, used, skipped };
-  const same = records.filter(({ record: r }) => r.job.family === family);
+  // one rewind logged twice (the same job, date and readings) counts once
+  const same = oncePerRewind(records.filter(({ record: r }) => r.job.family === family));
   if (same.length === 0) return { options: undefined, family, used, skipped };
   const ctx = contextFor(job);
   const factors: number[] = [];

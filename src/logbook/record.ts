@@ -216,3 +216,30 @@ export function checkOf(r: Pick<LogRecord, "comparison">, check: string) {
   return r.comparison.checks.find((c) => c.check === check);
 }
 
+
+/**
+ * What makes two records the same rewind: the job, the date and the readings (temperature,
+ * bar to bar, terminal). A measured file logged twice gives two records with the same key; learning
+ * and the duplicate check count it once.
+ */
+export function rewindKey(r: Pick<LogRecord, "date" | "job" | "measured">): string {
+  const m = r.measured;
+  return JSON.stringify([r.job.id, r.date, m.temperature_c, m.bar_to_bar_ohm, m.terminal_ohm ?? null]);
+}
+
+/** The records that are the same rewind as `r` (its key), in the order given. */
+export function sameRewind<T extends { record: Pick<LogRecord, "date" | "job" | "measured"> }>(records: T[], r: Pick<LogRecord, "date" | "job" | "measured">): T[] {
+  const key = rewindKey(r);
+  return records.filter((x) => rewindKey(x.record) === key);
+}
+
+/** Records with each rewind once (the first of each key kept). */
+export function oncePerRewind<T extends { record: Pick<LogRecord, "date" | "job" | "measured"> }>(records: T[]): T[] {
+  const seen = new Set<string>();
+  return records.filter((x) => {
+    const k = rewindKey(x.record);
+    if (seen.has(k)) return false;
+    seen.add(k);
+    return true;
+  });
+}

@@ -1,5 +1,7 @@
 /**
- * The logbook folder: one YAML file per finished rewind, `<job id>-<date>-<n>.yaml`. This is the
+ * The logbook folder: one YAML file per finished rewind, `<job id>-<date>-<bench>-<n>.yaml` (DESIGN.md:
+ * the bench name makes folders written on several benches merge with no collision; records named
+ * `<job id>-<date>-<n>.yaml` by earlier versions are still read). This is the
  * logbook's shell (it touches files; the rest of src/logbook is pure).
  *
  * Writing never half-writes and never replaces: the record goes into a hidden temporary file in the
@@ -15,12 +17,16 @@ import { parse } from "yaml";
 import { ArmwindError } from "../errors.js";
 import { recordSchema, type ReadRecord } from "./record.js";
 
-/** `<job id>-<date>-<n>.yaml`. */
-export function recordFileName(jobId: string, date: string, n: number): string {
-  return `${jobId}-${date}-${n}.yaml`;
+/** `<job id>-<date>-<bench>-<n>.yaml`. */
+export function recordFileName(jobId: string, date: string, bench: string, n: number): string {
+  return `${jobId}-${date}-${bench}-${n}.yaml`;
 }
 
-const RECORD_NAME = /^[A-Za-z0-9][A-Za-z0-9._-]*-\d{4}-\d{2}-\d{2}-\d+\.yaml$/;
+/** A bench name as it may stand in a record's name: letters, digits, _ and -, at most 32. */
+export const BENCH_NAME = /^[A-Za-z0-9][A-Za-z0-9_-]{0,31}$/;
+
+/** `<job id>-<date>-<bench>-<n>.yaml`, or the older `<job id>-<date>-<n>.yaml`. */
+const RECORD_NAME = /^[A-Za-z0-9][A-Za-z0-9._-]*-\d{4}-\d{2}-\d{2}-(?:[A-Za-z0-9][A-Za-z0-9_-]*-)?\d+\.yaml$/;
 
 export interface WriteOptions {
   /** Test hook: sleep this long (ms) with half the temporary file written, so a test can kill the process mid-write. */
@@ -50,7 +56,7 @@ function sleepSync(ms: number) {
  * Create a new record file in `dir` (made if missing) holding `text`; returns its path. The first
  * free n from one past the highest already there is taken; never overwrites. Errors: exit status 3.
  */
-export function writeRecordFile(dir: string, jobId: string, date: string, text: string, opts: WriteOptions = {}): string {
+export function writeRecordFile(dir: string, jobId: string, date: string, bench: string, text: string, opts: WriteOptions = {}): string {
   try {
     mkdirSync(dir, { recursive: true });
   } catch (e) {
@@ -83,9 +89,9 @@ export function writeRecordFile(dir: string, jobId: string, date: string, text: 
     throw writeFailed(tmp, e);
   }
   try {
-    let n = nextNumber(dir, jobId, date);
+    let n = nextNumber(dir, jobId, date, bench);
     for (let tries = 0; tries < 100000; tries++, n++) {
-      const file = join(dir, recordFileName(jobId, date, n));
+      const file = join(dir, recordFileName(jobId, date, bench, n));
       try {
         linkSync(tmp, file);
         return file;
@@ -115,8 +121,8 @@ export function writeRecordFile(dir: string, jobId: string, date: string, text: 
   }
 }
 
-function nextNumber(dir: string, jobId: string, date: string): number {
-  const prefix = `${jobId}-${date}-`;
+function nextNumber(dir: string, jobId: string, date: string, bench: string): number {
+  const prefix = `${jobId}-${date}-${bench}-`;
   let max = 0;
   for (const f of readdirSync(dir)) {
     if (!f.startsWith(prefix) || !f.endsWith(".yaml")) continue;
@@ -186,7 +192,7 @@ export function readLogbook(dir: string): Logbook {
     const file = join(dir, name);
     const damaged = (why: string) => warnings.push({ code: "record_damaged", file: name, path: "", message: `${name}: damaged record, left out (${why})` });
     if (!RECORD_NAME.test(name)) {
-      damaged("the name is not <job id>-<date>-<n>.yaml");
+      damaged("the name is not <job id>-<date>-<bench>-<n>.yaml");
       continue;
     }
     let raw: unknown;
