@@ -166,6 +166,7 @@ describe("renderCard on every demo job and the variants", () => {
     const pdf = await readPdf(await renderCard(plan, { paper: "a4", ...OPTS }));
     const titles: Record<string, RegExp> = {
       job: /ARMATURE REWIND — JOB CARD/,
+      order: /ORDER OF WORK/,
       steps: /COIL BY COIL/,
       diagram: /WINDING DIAGRAM/,
       bench: /BENCH CHECKS/,
@@ -177,5 +178,22 @@ describe("renderCard on every demo job and the variants", () => {
     const order = cardLayout().sections.map((s) => firstPage(titles[s]));
     expect(order.every((i) => i >= 0)).toBe(true);
     expect([...order].sort((a, b) => a - b)).toEqual(order);
+  });
+
+  it("sets out the order of work in its real sequence, with the spool mass; a continuous winding is wound off the spool", async () => {
+    const plan = planOf(cases[0].text, cases[0].name);
+    const all = (await readPdf(await renderCard(plan, { paper: "a4", ...OPTS }))).all.replace(/\s+/g, " ");
+    const seq = ["1. Wire", "2. Wind", "3. Bench checks before varnish", "4. Varnish and cure", "5. Skim and undercut, then bar to bar again", "6. Balance", "7. The run"];
+    const at = seq.map((t) => all.indexOf(t));
+    expect(at.every((i) => i >= 0), JSON.stringify(at)).toBe(true);
+    expect([...at].sort((a, b) => a - b)).toEqual(at);
+    expect(all).toMatch(/Have at least [\d.]+ g of .* on the spool \(copper [\d.]+ g and its enamel\)/);
+    expect(all).not.toMatch(/Wind off the spool: one wire/);
+    const cont = { ...plan, job: { ...plan.job, winding: { ...plan.job.winding, continuous: true } } } as Plan;
+    const all2 = (await readPdf(await renderCard(cont, { paper: "a4", ...OPTS }))).all.replace(/\s+/g, " ");
+    expect(all2).toMatch(/Wind off the spool: one wire through all the coils, no cut per coil/);
+    // the no-load run comes after varnish, not among the checks before it
+    expect(all.lastIndexOf("No-load current and speed")).toBeGreaterThan(all.indexOf("3. After varnish"));
+    expect(all.indexOf("3. After varnish")).toBeGreaterThan(all.indexOf("2. Before varnish"));
   });
 });

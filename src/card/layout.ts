@@ -7,8 +7,8 @@ import { readFileSync } from "node:fs";
 import { fileURLToPath } from "node:url";
 
 export type Paper = "a4" | "letter";
-export type SectionName = "job" | "steps" | "diagram" | "bench" | "curves" | "candidates" | "cautions";
-export const SECTIONS: readonly SectionName[] = ["job", "steps", "diagram", "bench", "curves", "candidates", "cautions"];
+export type SectionName = "job" | "order" | "steps" | "diagram" | "bench" | "curves" | "candidates" | "cautions";
+export const SECTIONS: readonly SectionName[] = ["job", "order", "steps", "diagram", "bench", "curves", "candidates", "cautions"];
 
 export interface CardLayout {
   paper: Record<Paper, { width: number; height: number }>;

@@ -9,6 +9,7 @@ import { cardLayout, type Paper, type SectionName } from "./layout.js";
 import { Sheet, type CardContext } from "./sheet.js";
 import { jobPage } from "./pages/job.js";
 import { stepsPage } from "./pages/steps.js";
+import { orderPage } from "./pages/order.js";
 import { diagramPage } from "./pages/diagram.js";
 import { benchPage } from "./pages/bench.js";
 import { curvesPage, candidatesPage } from "./pages/curves.js";
@@ -25,6 +26,7 @@ export interface CardOptions {
 
 const BUILDERS: Record<SectionName, (s: Sheet, plan: Plan) => void> = {
   job: jobPage,
+  order: orderPage,
   steps: stepsPage,
   diagram: diagramPage,
   bench: benchPage,

@@ -104,6 +104,23 @@ export class Sheet {
     }
   }
 
+  /**
+   * Start a section: on this page when at least `needed` pt (or `share` of a page, whichever is
+   * more) is left below the heading, else on a new page. Sections flow one after another, so no
+   * page is left holding a sentence; what must stay together asks for its room here.
+   */
+  startSection(name: string, opts: { needed?: number; share?: number } = {}): void {
+    const full = this.bottom - this.top;
+    const want = Math.max(opts.needed ?? 0, (opts.share ?? 0) * full) + this.L.type.heading * 2.2;
+    if (this.pages === 0 || this.y + want + 18 > this.bottom) {
+      this.newPage(name);
+      return;
+    }
+    this.y += 18;
+    this.section = name;
+    this.heading(name);
+  }
+
   /** Make room for h points: a new page (with the section heading marked "continued") when the rest of this one is too short. */
   need(h: number): void {
     if (this.y + h > this.bottom) {

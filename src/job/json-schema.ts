@@ -81,6 +81,7 @@ export const FIELD_HELP: Record<string, string> = {
   "winding.mean_turn_length": "Measured length of one old turn: cut one turn free, straighten it, measure. Optional.",
   "winding.lead_allowance": "Extra wire per coil end for the lead to its bar (default 50 mm, common practice).",
   "winding.spare_margin": "Spare added to the total cut (default 0.10, common practice).",
+  "winding.continuous": "true: one wire through all coils, wound off the spool (no cut per coil); the card gives the spool mass to have. Default false.",
   "winding.brushes": "The brushes: count, width in bars, material.",
   "winding.brushes.count": "Number of brushes: 2, or one per pole on a lap winding with brushes at every pole.",
   "winding.brushes.width_bars": "Brush width in bars: brush width ÷ bar pitch at the commutator surface (calipers).",

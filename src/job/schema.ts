@@ -284,6 +284,7 @@ const jobShape = z.strictObject({
       mean_turn_length: qty("length", { positive: true, max: 5, maxText: "5 m" }).optional(),
       lead_allowance: qty("length", { min: 0, max: 2, maxText: "2 m" }).prefault("50 mm"),
       spare_margin: fraction({ max: 2 }).prefault(0.1),
+      continuous: z.boolean().prefault(false),
       brushes: brushesSchema.prefault({}),
       brush_drop: qty("voltage", { min: 0, max: 10, maxText: "10 V" }).optional(),
     }),

@@ -87,7 +87,7 @@ function chart(
   const def = CURVES[key];
   const padL = 40;
   const padB = 30;
-  const padT = 16;
+  const padT = Math.max(16, size * 2.2); // the title clear of the top tick label
   const px = x + padL;
   const pw = w - padL - 6;
   const py = y + padT;

@@ -21,7 +21,7 @@ export function benchPage(s: Sheet, plan: Plan): void {
   const B = s.L.bench;
   const r = plan.resistance;
   const C = plan.layout.bars;
-  s.newPage("Bench checks");
+  s.startSection("Bench checks", { share: 0.45 });
   s.need(60);
   const y0 = s.y;
   s.blank(s.left, y0, 150, "date");
@@ -64,7 +64,7 @@ export function benchPage(s: Sheet, plan: Plan): void {
     for (let k = 0; k < sets; k++) {
       const x = s.left + k * (setW + 12);
       s.doc.save().rect(x, y, setW, 15).fill("#e6e6e6").restore();
-      const heads = ["pair", "bars", "expected Ω", "median window Ω", "your reading Ω"];
+      const heads = ["pair", "bars", "expected Ω", "window Ω", "reading Ω"];
       let cx = x + 3;
       heads.forEach((h, j) => {
         s.at(h, cx, y + 3.5, { size: T.small, bold: true });
@@ -103,9 +103,12 @@ export function benchPage(s: Sheet, plan: Plan): void {
     { size: T.body },
   );
 
-  const check = (title: string, body: string, blanks: [string, string, number][]) => {
+  // each group of checks is measured whole and kept together with its heading and its sign-off
+  type Check = [title: string, body: string, blanks: [string, string, number][]];
+  const checkHeight = ([, body, blanks]: Check) => T.subheading * 1.5 + s.measure(body, { size: T.body, width: s.width - 24 }) + 4 + (blanks.length ? s.L.blank.height + 10 : 4);
+  const check = ([title, body, blanks]: Check) => {
     const bh = s.measure(body, { size: T.body, width: s.width - 24 });
-    s.need(bh + 24 + s.L.blank.height + 10);
+    s.need(checkHeight([title, body, blanks]));
     s.tickBox(s.left, s.y + 1, s.L.tick_box, true);
     s.at(title, s.left + 24, s.y + 2, { size: T.subheading, bold: true });
     s.y += T.subheading * 1.5;
@@ -119,50 +122,70 @@ export function benchPage(s: Sheet, plan: Plan): void {
     if (blanks.length) s.y += s.L.blank.height + 10;
     else s.y += 4;
   };
+  const signOff = (what: string) => {
+    s.y += 6;
+    const ys = s.y;
+    s.blank(s.left, ys, 200, what, "");
+    s.blank(s.left + 215, ys, 150, "checked by", "");
+    s.blank(s.left + 380, ys, s.width - 380, "date", "");
+    s.y += s.L.blank.height + 8;
+  };
+  const group = (heading: string, checks: Check[], sign: string) => {
+    const whole = T.subheading * 1.65 + 40 + checks.reduce((a, c) => a + checkHeight(c), 0) + s.L.blank.height + 14;
+    // the whole group on one page when a page can hold it; else at least the heading with its first check
+    s.need(whole <= s.bottom - s.top - 40 ? whole : T.subheading * 1.65 + 40 + checkHeight(checks[0]));
+    s.subheading(heading);
+    checks.forEach((c, i) => {
+      // the last check stays with the sign-off
+      if (i === checks.length - 1) s.need(checkHeight(c) + s.L.blank.height + 14);
+      check(c);
+    });
+    signOff(sign);
+  };
 
-  s.subheading("2. The other checks");
-  check(
-    "Terminal resistance",
-    `Across the brushes (or bars ${1} and ${1 + Math.floor(C / 2)}): expected ${ohm(r.terminal_ohm)} Ω at 20 °C, between ${ohm(r.terminal_min_ohm)} and ${ohm(r.terminal_max_ohm)} Ω as the rotor turns; ${ohm(r.terminal_hot_ohm)} Ω at ${sig(r.hot_temperature)} °C.`,
-    [["reading", "Ω", 150], ["at", "°C", 90]],
+  group(
+    "2. Before varnish",
+    [
+      [
+        "Terminal resistance",
+        `Across the brushes (or bars ${1} and ${1 + Math.floor(C / 2)}): expected ${ohm(r.terminal_ohm)} Ω at 20 °C, between ${ohm(r.terminal_min_ohm)} and ${ohm(r.terminal_max_ohm)} Ω as the rotor turns; ${ohm(r.terminal_hot_ohm)} Ω at ${sig(r.hot_temperature)} °C.`,
+        [["reading", "Ω", 150], ["at", "°C", 90]],
+      ],
+      [
+        "Ground (insulation) check",
+        `Every bar to the shaft and to the core: no continuity. Test with an insulation tester at the voltage the standard your shop follows sets (e.g. IEC 60034-1); this card does not set a test voltage. Trained people only (see Cautions).`,
+        [["test voltage", "V", 130], ["insulation", "MΩ", 140], ["pass / fail", "", 110]],
+      ],
+      ["Growler (shorted turns)", `Turn the armature in the growler with a hacksaw blade held over each slot: the blade buzzes over a coil with shorted turns (common practice).`, [["result", "", 260]]],
+      [
+        "Polarity (reversed coil, wrong lead throw)",
+        `A reversed coil or a wrong lead throw still reads normal bar to bar. Feed a low DC current between two bars (or use the growler) and run a compass along the slots: the needle must reverse evenly, pole by pole, with no coil out of step (common practice).`,
+        [["result", "", 260]],
+      ],
+    ],
+    "all pass: varnish",
   );
-  check(
-    "Ground (insulation) check",
-    `Every bar to the shaft and to the core: no continuity. Test with an insulation tester at the voltage the standard your shop follows sets (e.g. IEC 60034-1); this card does not set a test voltage. Trained people only (see Cautions).`,
-    [["test voltage", "V", 130], ["insulation", "MΩ", 140], ["pass / fail", "", 110]],
-  );
-  check("Growler (shorted turns)", `Turn the armature in the growler with a hacksaw blade held over each slot: the blade buzzes over a coil with shorted turns (common practice).`, [["result", "", 260]]);
-  check(
-    "Polarity (reversed coil, wrong lead throw)",
-    `A reversed coil or a wrong lead throw still reads normal bar to bar. Feed a low DC current between two bars (or use the growler) and run a compass along the slots: the needle must reverse evenly, pole by pole, with no coil out of step (common practice).`,
-    [["result", "", 260]],
-  );
-  const series = plan.job.armature.field === "series";
-  if (series) {
-    check(
-      "No-load run: NOT for this motor",
-      `Series field (universal motor): never run it unloaded — its speed has no limit without load and it can burst. Check running only under a load, briefly.`,
-      [],
-    );
-  } else {
-    const m = plan.motor;
-    check(
-      "No-load current and speed",
-      `At ${sig(plan.supply)} V ${plan.supply_kind.toUpperCase()}, motor assembled, no load: expected ${sig(m.noLoadCurrent)} A and ${rpm(m.noLoadSpeed)} rpm. Guard the shaft.`,
-      [["supply", "V", 100], ["current", "A", 110], ["speed", "rpm", 130]],
-    );
-  }
   const m = plan.motor;
-  check(
+  const run: Check[] = [
+    [
+      "Bar to bar again, after skimming and undercutting",
+      `Skimming and undercutting can leave copper between bars: read r1 … r${C} again; each within ±${plain(tol * 100)} % of your median.`,
+      [["median", "Ω", 150], ["all within", "", 120]],
+    ],
+  ];
+  if (plan.job.armature.field === "series") {
+    run.push(["No-load run: NOT for this motor", `Series field (universal motor): never run it unloaded — its speed has no limit without load and it can burst. Check running only under a load, briefly.`, []]);
+  } else {
+    run.push([
+      "No-load current and speed",
+      `At ${sig(plan.supply)} V ${plan.supply_kind.toUpperCase()}, motor assembled and balanced, no load: expected ${sig(m.noLoadCurrent)} A and ${rpm(m.noLoadSpeed)} rpm. Guard the shaft.`,
+      [["supply", "V", 100], ["current", "A", 110], ["speed", "rpm", 130]],
+    ]);
+  }
+  run.push([
     "Brief stall current",
     `Seconds only, rotor held safely (see Cautions). Expected at ${sig(plan.supply)} V: ${sig(m.stallCurrentCold)} A cold, ${sig(m.stallCurrent)} A hot. At a reduced supply V the cold stall current is about (V − ${sig(plan.calibration.brush_drop)} V brush drop) ÷ ${ohm(r.terminal_ohm)} Ω.`,
     [["supply", "V", 100], ["current", "A", 110]],
-  );
-  s.y += 6;
-  s.need(s.L.blank.height + 12);
-  const ys = s.y;
-  s.blank(s.left, ys, 200, "result", "");
-  s.blank(s.left + 215, ys, 150, "checked by", "");
-  s.blank(s.left + 380, ys, s.width - 380, "date", "");
-  s.y += s.L.blank.height + 8;
+  ]);
+  group("3. After varnish, cure, skim and balance: the run", run, "result");
 }

@@ -57,7 +57,7 @@ export const FINISHING: string[] = [
 
 export function cautionsPage(s: Sheet, plan: Plan): void {
   const T = s.L.type;
-  s.newPage("Cautions");
+  s.startSection("Cautions", { share: 0.25 });
   for (const [title, text] of cautions(plan)) {
     const mark = title.startsWith("Mains") || title.startsWith("Series") ? "▲ " : "";
     s.need(s.measure(text, { size: T.body + 0.5 }) + T.subheading * 1.6);

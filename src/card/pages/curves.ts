@@ -12,8 +12,9 @@ import { paintDrawing } from "../../plot/drawing.js";
 
 export function curvesPage(s: Sheet, plan: Plan): void {
   const T = s.L.type;
-  s.newPage("Curves");
   if (!hasCurves(plan)) {
+    // no empty curves page: the reason flows after the bench checks
+    s.startSection("Curves", { needed: 90 });
     s.framed(
       (x, y, w) => {
         const head = plan.job.armature.field === "series" ? "No curves for a series (universal) motor" : "No curves: nothing calibrates this motor";
@@ -29,6 +30,7 @@ export function curvesPage(s: Sheet, plan: Plan): void {
     );
     return;
   }
+  s.startSection("Curves", { share: 0.7 });
   s.para(
     `${sig(plan.supply)} V ${plan.supply_kind.toUpperCase()}, winding hot (${sig(plan.resistance.hot_temperature)} °C), from no load to stall. Original dashed, new solid${plan.duty ? "; ● the duty point of the new winding, ○ of the original" : ""}.`,
     { size: T.body },
@@ -44,14 +46,15 @@ export function curvesPage(s: Sheet, plan: Plan): void {
   const rows = Math.ceil(keys.length / 2);
   const gap = 22;
   const height = Math.min(s.L.curves.height * rows + gap * (rows - 1), s.room() - 10);
-  const drawing = curvesDrawing(plan, { width: s.width, height, keys, size: T.label + 1 });
+  // a little narrower than the text: the right-hand axis labels stay inside the margin
+  const drawing = curvesDrawing(plan, { width: s.width - 24, height, keys, size: T.label + 1 });
   paintDrawing(s.doc, drawing, s.left, s.y, { regular: FONT_REGULAR, bold: FONT_BOLD });
   s.y += height + gap;
 }
 
 export function candidatesPage(s: Sheet, plan: Plan): void {
   const T = s.L.type;
-  s.newPage("Candidates");
+  s.startSection("Candidates", { share: 0.3 });
   const rej = Object.entries(plan.rejections).filter(([, v]) => (v ?? 0) > 0);
   s.para(
     `${plan.candidates_total} windings looked at (turns × stock wire × strands in hand); the best and the nearest misses below, best first. Goal ${goalName(plan)}: ${goalSummary(plan.goal)}.` +

@@ -41,7 +41,7 @@ export function emphasised(plan: Plan, n: number): (c: CoilPlan) => boolean {
 
 export function diagramPage(s: Sheet, plan: Plan): void {
   const sp = plan.layout.spec;
-  s.newPage(sp.style === "tooth" ? "Winding diagram — end view" : "Winding diagram — developed");
+  s.startSection(sp.style === "tooth" ? "Winding diagram — end view" : "Winding diagram — developed", sp.style === "tooth" ? { share: 0.8 } : { needed: 500 });
   if (sp.style === "tooth") toothDiagram(s, plan);
   else developedDiagram(s, plan);
 }
@@ -168,7 +168,8 @@ function developedDiagram(s: Sheet, plan: Plan): void {
   const yApex = yLabel + 30;
   const backH = Math.min(90, 18 + lay.spec.span * dx * 0.35);
   const yTop = yApex + backH;
-  const yBot = yTop + 170;
+  // the slot bodies take what the page has left (within reason), so the diagram shares a page rather than leave one near-empty
+  const yBot = yTop + Math.max(110, Math.min(170, s.room() - (yTop - s.y) - 330));
   const yBars = yBot + Math.min(120, 30 + W * 0.12);
   const barH = 16;
   const barPitch = W / C;

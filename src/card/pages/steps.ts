@@ -81,7 +81,7 @@ function drawTally(s: Sheet, g: TallyGeometry, x0: number, y0: number): void {
 export function stepsPage(s: Sheet, plan: Plan): void {
   const T = s.L.type;
   const sp = plan.layout.spec;
-  s.newPage("Coil by coil");
+  s.startSection("Coil by coil", { share: 0.4 });
   const intro =
     sp.style === "tooth"
       ? `Wind in this order. Hook the start on the start bar, wind the turns ${sp.direction === "cw" ? "clockwise" : "anticlockwise"} round the tooth (looking at the tooth tip from outside), going in at the first slot and back through the second; hook the finish on the finish bar. Tick a tally box each time the count reaches the number under it, and the coil's box when it is hooked.`
@@ -114,14 +114,28 @@ export function stepsPage(s: Sheet, plan: Plan): void {
   };
   // a coil row is measured whole before it is placed, and never split across pages
   const rows = plan.coils.map((c) => coilRow(s, plan, c, cw.slots - 4, x.tally - x.start - 6));
+  const heights = rows.map((t) => Math.max(s.L.steps.row_min_height, tally.height + 6, t.height + 8));
+  // the rows that would end the table on a page of their own must fill a useful share of it:
+  // break early (widow control) so the last page holds at least minTail of rows and the closing line
+  const closing = 40;
+  const minTail = 0.3 * (s.bottom - s.top);
+  const tailFrom = heights.map((_, i) => heights.slice(i).reduce((a, b) => a + b, 0) + closing);
+  let onPage = 0;
   header();
   plan.coils.forEach((c, ci) => {
     const text = rows[ci];
-    const rowH = Math.max(s.L.steps.row_min_height, tally.height + 6, text.height + 8);
-    if (s.y + rowH > s.bottom) {
+    const rowH = heights[ci];
+    let fitsHere = s.y;
+    let last = ci - 1;
+    while (last + 1 < heights.length && fitsHere + heights[last + 1] <= s.bottom) fitsHere += heights[++last];
+    const breaksLater = last < heights.length - 1;
+    const widow = breaksLater && onPage > 0 && tailFrom[last + 1] < minTail && tailFrom[ci] >= minTail && tailFrom[ci + 1] < minTail;
+    if (s.y + rowH > s.bottom || widow) {
       s.need(s.bottom);
       header();
+      onPage = 0;
     }
+    onPage++;
     const y = s.y;
     const mid = y + rowH / 2;
     s.tickBox(x.tick + 2, mid - s.L.tick_box / 2, s.L.tick_box, true);
