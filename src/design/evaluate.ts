@@ -8,9 +8,14 @@ import { passesOpening, slotLayerBuild, toothLayerBuild, type LayerBuild } from 
 import { bundleThickness, meanTurnLength, ridingIncrement } from "../armature/turn.js";
 import { copperFactor, COPPER_DENSITY } from "../wire/copper.js";
 import type { Wire } from "../wire/types.js";
-import { terminalResistance } from "../winding/ring.js";
+import { resolveWire } from "../wire/catalogue.js";
+import { coilCurrentShare, terminalResistance } from "../winding/ring.js";
+import { densityLimit, type DensityLimit } from "../motor/density.js";
+import { atTorque } from "../motor/model.js";
+import type { Tolerance } from "../job/schema.js";
 import type { ArmatureContext } from "./context.js";
-import { coilResistance } from "./context.js";
+import { coilResistance, OLD_WIRE_OVERALL_RATIO } from "./context.js";
+import { withinTolerance } from "./rank.js";
 import type { Calibration, Candidate, GoalKind, RejectCode } from "./types.js";
 
 /** Share of the target copper area a restore may fall short by: 3 % (DESIGN.md, "Choosing among candidates"). */
@@ -21,8 +26,17 @@ export interface Evaluator {
   /** Copper fill limit in force. */
   fillLimit: number;
   goal: GoalKind;
-  /** Target in SI (rad/s, rad/s per V as Kv rpm/V converted, A, rad/s for duty speed, m² for restore). */
+  /** Target in SI (rad/s, rad/s per V as Kv rpm/V converted, A, rad/s for duty speed, m² for restore and fixed). */
   target: number;
+  tolerance: Tolerance;
+  /** The current-density limit in force and where it comes from. */
+  density: DensityLimit;
+  /** Share of the terminal current that heats one coil (1/a with equal paths; see `coilCurrentShare`). */
+  currentShare: number;
+  /** Checks the original winding itself fails (its space fill when above the limit; the layer model). */
+  originalFails: { space_fill: number | null; layer_build: boolean };
+  /** The space-fill limit in force (the job's, at most hexagonal packing). */
+  spaceLimit: number;
   /** Terminal resistance of a ring of equal coils of 1 Ω (brushes each on one bar). */
   ringFactor: number;
   supply: number;
@@ -34,22 +48,28 @@ export function makeEvaluator(ctx: ArmatureContext, cal: Calibration, supply: nu
   const lim = t.limits;
   const goal = t.goal;
   const fillLimit = goal === "restore" ? Math.max(lim.copper_fill, ctx.original.copperFill) : lim.copper_fill;
+  const slot = ctx.slot;
+  const trapezoid = slot.depth !== null && slot.width_top !== null && slot.width_bottom !== null;
+  // the original fitted: in a restore its own space fill and layer build count as fitting (DESIGN.md)
+  const orig = originalChecks(ctx, trapezoid);
   const spaceLimit = Math.min(lim.space_fill, HEX_PACKING);
+  // a restore at the original's turns: the space and layer checks warn (planJob), they do not reject
+  const geometryChecked = goal !== "restore";
   const spec = ctx.layout.spec;
   const layout = ctx.layout;
   const ones = layout.coils.map(() => 1);
   const ringFactor = terminalResistance(layout, ones).single;
   const rides = layout.coils.filter((c) => !c.dead).map((c) => c.rides_over);
   const hotFactor = copperFactor(t.hot_temperature);
-  const slot = ctx.slot;
-  const trapezoid = slot.depth !== null && slot.width_top !== null && slot.width_bottom !== null;
   const series = job.armature.field === "series";
   const keOrig = cal.ke;
   const nOrig = ctx.original.turns;
   const origArea = ctx.original.strands * ctx.original.wire.area;
-  const paths = layout.paths;
+  const share = coilCurrentShare(layout).rms;
   const densityCurrent = t.rated_current ?? null;
   const tol = t.tolerance;
+  const densityRule = densityLimit(lim.current_density, t.duty !== undefined || densityCurrent !== null, originalDensity(ctx, cal, supply, share));
+  const series_stall = !series; // a series motor's stall current needs its field: unknown here (DESIGN.md "Unknown is null")
 
   let target: number;
   switch (goal) {
@@ -61,6 +81,9 @@ export function makeEvaluator(ctx: ArmatureContext, cal: Calibration, supply: nu
       break;
     case "kv":
       target = t.kv!;
+      break;
+    case "fixed":
+      target = t.fixed!.strands * resolveWire(t.fixed!.wire).area;
       break;
     case "stall_current":
       target = t.stall_current!;
@@ -97,14 +120,14 @@ export function makeEvaluator(ctx: ArmatureContext, cal: Calibration, supply: nu
       reasons.push("overall_unknown");
     } else {
       sf = spaceFill(conductors, overall, slot.free_area);
-      if (sf > spaceLimit + 1e-12) reasons.push("space_fill");
+      if (sf > spaceLimit + 1e-12 && geometryChecked) reasons.push("space_fill");
       if (!passesOpening(overall, strands, slot.opening)) reasons.push("slot_opening");
       if (trapezoid) {
         build =
           spec.style === "tooth"
-            ? toothLayerBuild(turns, strands, overall, slot.depth!, slot.width_bottom!, slot.liner)
+            ? toothLayerBuild(turns, strands, overall, slot.depth!, slot.width_top!, slot.width_bottom!, slot.liner)
             : slotLayerBuild(conductors, overall, slot.depth!, slot.width_top!, slot.width_bottom!, slot.liner);
-        if (!build.fits) reasons.push("layer_build");
+        if (!build.fits && geometryChecked) reasons.push("layer_build");
       }
     }
     const mlt = meanMlt(turns, strands, overall ?? wire.bare_diameter * 1.08);
@@ -122,20 +145,23 @@ export function makeEvaluator(ctx: ArmatureContext, cal: Calibration, supply: nu
     if (keOrig !== null) ke = (keOrig * turns) / nOrig;
     // steady state of the linear model (DESIGN.md; motor/model.ts): stall I = (V − V_b)/R;
     // no load: V_d = Ke·ω + I·R with Kt·I = T_c + B·ω  →  ω0 = (Ke·V_d − R·T_c)/(Ke² + R·B)
-    if (ke !== null || series) {
+    if (ke !== null && series_stall) {
       stallHot = Vd / terminalHot;
       stallCold = Vd / terminal;
     }
     let dutyCurrent: number | null = null;
     switch (goal) {
       case "restore":
+      case "fixed":
         achieved = strands * wire.area;
         break;
       case "no_load_speed":
         if (ke !== null && !series) achieved = Math.max(0, (ke * Vd - terminal * tc) / (ke * ke + terminal * bLoss));
         break;
       case "kv":
-        if (ke !== null) achieved = 1 / ke; // Kv in rad/s per volt (60/(2π·Ke) rpm/V)
+        // Kv in rad/s per volt: the constant 1/Ke (60/(2π·Ke) rpm/V), or no-load speed ÷ supply (DESIGN.md "Kv")
+        if (ke !== null && t.kv_basis === "no_load") achieved = Math.max(0, (ke * Vd - terminal * tc) / (ke * ke + terminal * bLoss)) / supply;
+        else if (ke !== null) achieved = 1 / ke;
         break;
       case "stall_current":
         achieved = stallCold;
@@ -158,8 +184,9 @@ export function makeEvaluator(ctx: ArmatureContext, cal: Calibration, supply: nu
       }
     }
     const dc = dutyCurrent ?? densityCurrent;
-    if (dc !== null) density = dc / (paths * strands * wire.area);
-    if (lim.current_density !== undefined && density !== null && density > lim.current_density) reasons.push("current_density");
+    const densityCap = densityRule.limit;
+    if (dc !== null) density = (dc * share) / (strands * wire.area);
+    if (densityCap !== null && density !== null && density > densityCap) reasons.push("current_density");
     if (lim.hot_stall_current !== undefined && stallHot !== null && stallHot > lim.hot_stall_current) reasons.push("hot_stall_current");
     let error: number | null = achieved === null ? null : (achieved - target) / target;
     let meets = false;
@@ -167,10 +194,12 @@ export function makeEvaluator(ctx: ArmatureContext, cal: Calibration, supply: nu
       if (goal === "restore") {
         if (achieved! < RESTORE_MIN_AREA * target) reasons.push("below_original_copper");
         meets = achieved! >= RESTORE_MIN_AREA * target;
-      } else if (goal === "stall_current") {
-        // "at most this much", hot and cold: the cold (larger) stall current within the tolerance below the limit, never above it
-        meets = error <= 1e-12 && error >= -tol;
-      } else meets = Math.abs(error) <= tol;
+      } else if (goal === "fixed") {
+        meets = true; // the user chose it: a limit it breaks is a warning (planJob), not a rejection
+      } else {
+        // stall_current is a limit: its tolerance is { below: t, above: 0 } unless the job says otherwise
+        meets = withinTolerance(error, tol);
+      }
     }
     if (error !== null && !Number.isFinite(error)) error = null;
     return {
@@ -187,7 +216,7 @@ export function makeEvaluator(ctx: ArmatureContext, cal: Calibration, supply: nu
       ke,
       achieved,
       error,
-      meets_goal: meets && reasons.length === 0,
+      meets_goal: meets && (goal === "fixed" || reasons.length === 0),
       rejected_because: reasons,
       copper_mass: copperMass,
       current_density: density,
@@ -197,5 +226,49 @@ export function makeEvaluator(ctx: ArmatureContext, cal: Calibration, supply: nu
     };
   }
 
-  return { evaluate, fillLimit, goal, target, ringFactor, supply };
+  return { evaluate, fillLimit, goal, target, tolerance: tol, density: densityRule, currentShare: share, originalFails: orig, spaceLimit, ringFactor, supply };
+}
+
+/**
+ * The checks the original winding itself fails: its space fill (when above the limit, or null)
+ * and whether the layer model says its turns do not fit (trapezoid slots only). The old wire's
+ * overall diameter is its catalogue value, else the bare × OLD_WIRE_OVERALL_RATIO.
+ */
+function originalChecks(ctx: ArmatureContext, trapezoid: boolean): { space_fill: number | null; layer_build: boolean } {
+  const o = ctx.original;
+  const lim = ctx.job.target.limits;
+  const overall = o.wire.overall_diameter ?? o.wire.bare_diameter * OLD_WIRE_OVERALL_RATIO;
+  const conductors = ctx.sides * o.turns * o.strands;
+  const sf = spaceFill(conductors, overall, ctx.slot.free_area);
+  let layer = false;
+  if (trapezoid) {
+    const s = ctx.slot;
+    const b =
+      ctx.layout.spec.style === "tooth"
+        ? toothLayerBuild(o.turns, o.strands, overall, s.depth!, s.width_top!, s.width_bottom!, s.liner)
+        : slotLayerBuild(conductors, overall, s.depth!, s.width_top!, s.width_bottom!, s.liner);
+    layer = !b.fits;
+  }
+  return { space_fill: sf > Math.min(lim.space_fill, HEX_PACKING) ? sf : null, layer_build: layer };
+}
+
+/**
+ * The original winding's current density in each strand (A/m²) at the point the limit is checked:
+ * its duty current at the duty torque (hot, calibrated model), else the rated current; null when
+ * neither can be known. Source: the linear motor model and J = I·share/(k·A).
+ */
+function originalDensity(ctx: ArmatureContext, cal: Calibration, supply: number, share: number): number | null {
+  const t = ctx.job.target;
+  const o = ctx.original;
+  const area = o.strands * o.wire.area;
+  let current: number | null = t.rated_current ?? null;
+  if (t.duty && cal.ke !== null && ctx.job.armature.field !== "series") {
+    try {
+      const model = { ke: cal.ke, resistance: o.terminal20 * copperFactor(t.hot_temperature), brushDrop: cal.brush_drop, loss: cal.loss, field: "constant" as const };
+      current = atTorque(model, supply, t.duty.torque).current;
+    } catch {
+      current = null; // beyond the original's stall torque
+    }
+  }
+  return current === null ? null : (current * share) / area;
 }

@@ -13,6 +13,8 @@ import { buildContext, coilResistance, coilTurnLengths, meanOf, type ArmatureCon
 import { calibrateOriginal, type LogbookCalibration } from "./calibration.js";
 import { makeEvaluator, type Evaluator } from "./evaluate.js";
 import { sweep } from "./sweep.js";
+import { toleranceText } from "./rank.js";
+import { currentDensityByShare } from "../motor/density.js";
 import type { Calibration, Candidate, CoilPlan, DutyReport, GoalReport, MotorReport, Plan, RejectCode, Sensitivity } from "./types.js";
 
 /** Extra-low voltage limits, IEC 60449 band I: 50 V AC r.m.s., 120 V ripple-free DC. */
@@ -123,13 +125,14 @@ function dutyReport(model: MotorModel | null, supply: number, job: Job, density:
 
 const GOAL_UNITS: Record<Plan["goal"]["kind"], { unit: string; fromSi: (x: number) => number }> = {
   restore: { unit: "mm2", fromSi: (x) => x * 1e6 },
+  fixed: { unit: "mm2", fromSi: (x) => x * 1e6 },
   no_load_speed: { unit: "rpm", fromSi: (x) => (x * 60) / (2 * Math.PI) },
   kv: { unit: "rpm/V", fromSi: (x) => (x * 60) / (2 * Math.PI) },
   stall_current: { unit: "A", fromSi: (x) => x },
   duty: { unit: "rpm", fromSi: (x) => (x * 60) / (2 * Math.PI) },
 };
 
-function goalReport(ev: Evaluator, c: Candidate, tolerance: number): GoalReport {
+function goalReport(ev: Evaluator, c: Candidate): GoalReport {
   const g = GOAL_UNITS[ev.goal];
   const target = g.fromSi(ev.target);
   const achieved = c.achieved === null ? null : g.fromSi(c.achieved);
@@ -137,10 +140,12 @@ function goalReport(ev: Evaluator, c: Candidate, tolerance: number): GoalReport 
   const fmt = (x: number) => (Math.abs(x) >= 100 ? x.toFixed(0) : x.toPrecision(3));
   let summary: string;
   if (achieved === null || err === null) summary = `the ${ev.goal.replace(/_/g, " ")} cannot be predicted: nothing calibrates the motor`;
+  else if (ev.goal === "fixed")
+    summary = `the winding chosen: ${c.turns} turns of ${c.wire.label}${c.strands > 1 ? `, ${c.strands} in hand` : ""} (copper area ${fmt(achieved)} mm²)`;
   else if (ev.goal === "restore")
     summary = `copper area ${fmt(achieved)} mm² against the original's ${fmt(target)} mm² (${err >= 0 ? "+" : "−"}${Math.abs(err * 100).toFixed(1)} %)`;
   else
-    summary = `${fmt(achieved)} ${g.unit} against ${ev.goal === "stall_current" ? "at most " : ""}${fmt(target)} ${g.unit} (${err >= 0 ? "+" : "−"}${Math.abs(err * 100).toFixed(1)} %, tolerance ${ev.goal === "stall_current" ? "−" : "±"}${(tolerance * 100).toFixed(0)} %)`;
+    summary = `${fmt(achieved)} ${g.unit} against ${ev.goal === "stall_current" ? "at most " : ""}${fmt(target)} ${g.unit} (${err >= 0 ? "+" : "−"}${Math.abs(err * 100).toFixed(1)} %, tolerance ${toleranceText(ev.tolerance)})`;
   return { kind: ev.goal, unit: g.unit, target_value: target, achieved_value: achieved, error_fraction: err, summary };
 }
 
@@ -157,7 +162,7 @@ export function planJob(job: Job, options: PlanOptions = {}): Plan {
   const { volts: supply, kind: supplyKind } = supplyOf(job);
   const series = job.armature.field === "series";
   const ev = makeEvaluator(ctx, cal, supply);
-  const stock = stockWires(job);
+  const stock = fixedOrStock(job);
   warnings.push(...stock.warnings);
   if (ev.goal !== "restore" && cal.ke === null) {
     warnings.push({ code: "goal_uncalibrated", path: "target.goal", message: `the ${ev.goal.replace(/_/g, " ")} cannot be predicted without a calibrated Ke; the plan falls back to the most copper that fits` });
@@ -165,7 +170,8 @@ export function planJob(job: Job, options: PlanOptions = {}): Plan {
   const result = sweep(ev, {
     wires: stock.wires,
     maxInHand: job.max_in_hand,
-    fixedTurns: ev.goal === "restore" ? job.original.turns : undefined,
+    fixedTurns: ev.goal === "restore" ? job.original.turns : ev.goal === "fixed" ? job.target.fixed!.turns : undefined,
+    fixedStrands: ev.goal === "fixed" ? job.target.fixed!.strands : undefined,
     sides: ctx.sides,
     freeArea: ctx.slot.free_area,
   });
@@ -181,7 +187,7 @@ export function planJob(job: Job, options: PlanOptions = {}): Plan {
     const top = Object.entries(result.rejections).sort((a, b) => b[1] - a[1])[0];
     binding = reasons.length
       ? `the closest candidate is held back by: ${reasons.join("; ")}`
-      : `no candidate within the limits comes within ±${(job.target.tolerance * 100).toFixed(0)} % of the goal${top ? `; the limit that rejects most candidates: ${reasonText(top[0] as RejectCode)} (${top[1]} of ${result.total})` : ""}`;
+      : `no candidate within the limits comes within ${toleranceText(ev.tolerance)} of the goal${top ? `; the limit that rejects most candidates: ${reasonText(top[0] as RejectCode)} (${top[1]} of ${result.total})` : ""}`;
     warnings.push({ code: "goal_not_met", path: "target.goal", message: `no winding meets the goal within the limits: ${binding}` });
   }
 
@@ -217,8 +223,9 @@ export function planJob(job: Job, options: PlanOptions = {}): Plan {
     });
   }
   for (const w of [...motor.warnings]) if (!warnings.some((x) => x.code === w.code)) warnings.push(w);
-  const densityNew = (i: number) => i / (ctx.layout.paths * chosen.strands * chosen.wire.area);
-  const densityOld = (i: number) => i / (ctx.layout.paths * ctx.original.strands * ctx.original.wire.area);
+  const densityNew = (i: number) => currentDensityByShare(i, ev.currentShare, chosen.strands, chosen.wire.area);
+  const densityOld = (i: number) => currentDensityByShare(i, ev.currentShare, ctx.original.strands, ctx.original.wire.area);
+  warnings.push(...limitWarnings(ev, chosen, ctx));
   const duty = dutyReport(motor.model, supply, job, densityNew);
   const original_duty = dutyReport(original_motor.model, supply, job, densityOld);
   if (job.target.duty && !series) {
@@ -272,7 +279,7 @@ export function planJob(job: Job, options: PlanOptions = {}): Plan {
   return {
     job,
     feasible,
-    goal: goalReport(ev, chosen, job.target.tolerance),
+    goal: goalReport(ev, chosen),
     layout: ctx.layout,
     slot: ctx.slot,
     design: chosen,
@@ -328,6 +335,78 @@ export function planJob(job: Job, options: PlanOptions = {}): Plan {
     warnings: dedupeWarnings(warnings),
     learning: options.logbook ? { records: options.logbook.records, moves: options.logbook.moves ?? [] } : null,
   };
+}
+
+/** Goal `fixed`: the chosen wire alone (its build or grade said when assumed); else the stock. */
+function fixedOrStock(job: Job): { wires: Wire[]; warnings: Warning[] } {
+  const f = job.target.fixed;
+  if (job.target.goal !== "fixed" || !f) return stockWires(job);
+  const warnings: Warning[] = [];
+  if (f.wire.assumed) warnings.push({ code: "wire_assumed", path: "target.fixed.wire", message: f.wire.assumed });
+  return { wires: [resolveWire(f.wire)], warnings };
+}
+
+/** What to re-measure when a check disagrees with a winding that fitted. */
+const REMEASURE: Partial<Record<RejectCode, { path: string; what: string }>> = {
+  space_fill: { path: "armature.slot", what: "the slot's area (or its widths and depth), the liner and the old wire's overall diameter" },
+  layer_build: { path: "armature.slot", what: "the slot's depth and its widths at the top and at the root, and the liner" },
+};
+
+/**
+ * Warnings for the limits in force: the current-density default; the limits a `fixed` winding
+ * breaks (planned anyway); the checks a `restore`'s original itself fails (planned anyway, naming
+ * the geometry to re-measure). DESIGN.md "Choosing among candidates".
+ */
+function limitWarnings(ev: Evaluator, chosen: Candidate, ctx: ArmatureContext): Warning[] {
+  const out: Warning[] = [];
+  const d = ev.density;
+  if (d.basis === "default" || d.basis === "original") {
+    out.push({
+      code: "current_density_default",
+      path: "target.limits.current_density",
+      message:
+        d.basis === "default"
+          ? `no current_density limit given: ${d.limit! / 1e6} A/mm² in each strand applies (common practice for small fan-cooled motors, no published source); write current_density: none to turn it off`
+          : `no current_density limit given: the original winding's own ${(d.limit! / 1e6).toPrecision(3)} A/mm² at that point applies (above the usual 10 A/mm², and it survived); write current_density: none to turn it off`,
+    });
+  }
+  if (ev.goal === "fixed") {
+    for (const r of chosen.rejected_because) {
+      out.push({ code: "limit_broken", path: `target.limits.${r === "below_original_copper" ? "copper_fill" : r}`, message: `the winding chosen breaks a limit: ${reasonText(r)}; it is planned as given` });
+    }
+  }
+  if (ev.goal === "restore") out.push(...restoreGeometryWarnings(ev, chosen));
+  return out;
+}
+
+/**
+ * A restore is wound at the original's turns, which fitted: where the space-fill or layer check
+ * says the chosen winding (or the original itself) does not fit the slot, the slot's recorded
+ * geometry or the old wire's assumed overall diameter is what is wrong. Warn, naming what to re-measure.
+ */
+function restoreGeometryWarnings(ev: Evaluator, chosen: Candidate): Warning[] {
+  const out: Warning[] = [];
+  const o = ev.originalFails;
+  const spaceFails = chosen.space_fill !== null && chosen.space_fill > ev.spaceLimit + 1e-12;
+  if (spaceFails || o.space_fill !== null) {
+    const sf = Math.max(chosen.space_fill ?? 0, o.space_fill ?? 0);
+    const m = REMEASURE.space_fill!;
+    out.push({
+      code: "original_disagrees",
+      path: m.path,
+      message: `the wires' overall circles would fill ${(sf * 100).toFixed(1)} % of the free slot area, above the ${(ev.spaceLimit * 100).toFixed(0)} % limit, yet the original was wound at these turns: the restore is planned; re-measure ${m.what}`,
+    });
+  }
+  const layerFails = chosen.build !== null && !chosen.build.fits;
+  if (layerFails || o.layer_build) {
+    const m = REMEASURE.layer_build!;
+    out.push({
+      code: "original_disagrees",
+      path: m.path,
+      message: `the layer model says ${layerFails ? `${chosen.turns} turns of ${chosen.wire.label}` : "the original's turns"} do not fit the slot${o.layer_build ? ", nor did the original's" : ""}, yet the original was wound at these turns: the restore is planned; re-measure ${m.what}`,
+    });
+  }
+  return out;
 }
 
 function dedupeWarnings(ws: Warning[]): Warning[] {
