@@ -32,15 +32,6 @@ export function outsideBand(error: number | null, tol: Tolerance): number {
   return Math.max(0, -error - tol.below, error - tol.above);
 }
 
-/** "±3 %", "−2 % / +8 %", "−3 %, never above": a tolerance as people read it, with the digits given. */
-export function toleranceText(tol: Tolerance): string {
-  const pc = (x: number) => `${Number((x * 100).toPrecision(6))} %`;
-  if (tol.below === tol.above) return `±${pc(tol.below)}`;
-  if (tol.above === 0) return `−${pc(tol.below)}, never above`;
-  if (tol.below === 0) return `+${pc(tol.above)}, never below`;
-  return `−${pc(tol.below)} / +${pc(tol.above)}`;
-}
-
 /** Goals whose turns are given (the sweep runs one count): the copper area nearest the target wins. */
 function turnsGiven(goal: GoalKind): boolean {
   return goal === "restore" || goal === "fixed";
