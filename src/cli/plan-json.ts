@@ -78,7 +78,7 @@ export function planJson(plan: Plan) {
       target_value: goalValue(plan.goal.kind, plan.goal.target),
       achieved_value: goalValue(plan.goal.kind, plan.goal.achieved),
       error_fraction: n(plan.goal.error_fraction),
-      tolerance: plan.goal.tolerance.below === plan.goal.tolerance.above ? plan.goal.tolerance.below : plan.goal.tolerance,
+      tolerance: plan.goal.tolerance.below === plan.goal.tolerance.above ? plan.goal.tolerance.below : { below_fraction: plan.goal.tolerance.below, above_fraction: plan.goal.tolerance.above },
       tolerance_below_fraction: plan.goal.tolerance.below,
       tolerance_above_fraction: plan.goal.tolerance.above,
       summary: goalSummary(plan.goal),
