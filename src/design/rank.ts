@@ -34,7 +34,7 @@ export function outsideBand(error: number | null, tol: Tolerance): number {
 
 /** Goals whose turns are given (the sweep runs one count): the copper area nearest the target wins. */
 function turnsGiven(goal: GoalKind): boolean {
-  return goal === "restore" || goal === "fixed";
+  return goal === "restore" || goal === "fixed" || goal === "convert";
 }
 
 /** Within one turns count: least resistance (most copper), then fewer strands, then less copper mass. Negative when `a` is better. */

@@ -36,6 +36,7 @@ export function goalSummary(goal: GoalReport): string {
     return `the winding chosen: ${f.turns} turns of ${f.wire}${f.strands > 1 ? `, ${f.strands} in hand` : ""} (copper area ${fig(achieved)} mm²)`;
   }
   if (goal.kind === "restore") return `copper area ${fig(achieved)} mm² against the original's ${fig(target)} mm² (${signed})`;
+  if (goal.kind === "convert") return `copper area ${fig(achieved)} mm² against the converted winding's ${fig(target)} mm² (${signed})`;
   const atMost = goal.kind === "stall_current" ? "at most " : "";
   return `${fig(achieved)} ${unit} against ${atMost}${fig(target)} ${unit} (${signed}, tolerance ${toleranceText(goal.kind, goal.tolerance)})`;
 }

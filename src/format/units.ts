@@ -38,6 +38,7 @@ export const GOAL_UNIT: Record<GoalKind, string> = {
   kv: "rpm/V",
   stall_current: "A",
   duty: "rpm",
+  convert: "mm2",
 };
 
 /**
@@ -48,6 +49,7 @@ export function goalValue(kind: GoalKind, si: number | null | undefined): number
   switch (kind) {
     case "restore":
     case "fixed":
+    case "convert":
       return convert(si, toMm2);
     case "no_load_speed":
     case "kv":
