@@ -229,7 +229,7 @@ export function planJob(job: Job, options: PlanOptions = {}): Plan {
   for (const w of [...motor.warnings]) if (!warnings.some((x) => x.code === w.code)) warnings.push(w);
   const densityNew = (i: number) => currentDensityByShare(i, ev.currentShare, chosen.strands, chosen.wire.area);
   const densityOld = (i: number) => currentDensityByShare(i, ev.currentShare, ctx.original.strands, ctx.original.wire.area);
-  warnings.push(...limitWarnings(ev, chosen, ctx));
+  warnings.push(...limitWarnings(ev, chosen));
   const duty = dutyReport(motor.model, supply, job, densityNew);
   const original_duty = dutyReport(original_motor.model, supply, job, densityOld);
   if (job.target.duty && !series) {
@@ -362,7 +362,7 @@ const REMEASURE: Partial<Record<RejectCode, { path: string; what: string }>> = {
  * breaks (planned anyway); the checks a `restore`'s original itself fails (planned anyway, naming
  * the geometry to re-measure). DESIGN.md "Choosing among candidates".
  */
-function limitWarnings(ev: Evaluator, chosen: Candidate, ctx: ArmatureContext): Warning[] {
+function limitWarnings(ev: Evaluator, chosen: Candidate): Warning[] {
   const out: Warning[] = [];
   const d = ev.density;
   if (d.basis === "default" || d.basis === "original") {

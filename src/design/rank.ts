@@ -104,7 +104,10 @@ export class MeetingRank {
   offer(c: Candidate): void {
     this.count++;
     let list = this.byTurns.get(c.turns);
-    if (!list) this.byTurns.set(c.turns, (list = new TopList(this.keep, this.within)));
+    if (!list) {
+      list = new TopList(this.keep, this.within);
+      this.byTurns.set(c.turns, list);
+    }
     list.offer(c);
   }
 
