@@ -3,12 +3,10 @@
  * evaluation's, over random armatures (tooth, lap and wave; slot counts, poles, spans, stacks, slot
  * sizes, turn-length sources) and random candidates (turns, stock wire, strands in hand).
  *
- * Everything but the terminal reading is computed by the same functions in both modes, so it is
- * equal to rounding (1e-9 relative). The terminal reading of the cheap mode is the mean coil times
- * the ring's factor: exact when the live coils have equal turn lengths (tooth windings, and any
- * winding whose coils ride over none), and otherwise within the spread of the riding increments
- * (the bound asserted here, 1 %, holds with room on these armatures; the full network is what the
- * plan reports for every candidate it lists).
+ * Both modes compute with the same functions; the cheap one gets the terminal reading of coils of
+ * unequal turn length (lap and wave coils riding over earlier ones) in closed form from the arcs
+ * the brushes cut the winding into, the full one from the ring network (src/winding/ring.ts).
+ * Every figure agrees to rounding (1e-9 relative; the error fraction, a difference, to 1e-6).
  */
 import fc from "fast-check";
 import { readFileSync } from "node:fs";
@@ -21,7 +19,7 @@ import { defaultStock } from "../src/wire/catalogue.js";
 import { ArmwindError } from "../src/errors.js";
 import { loadJobText } from "./helpers/cli.js";
 
-const stock = defaultStock();
+const stock = defaultStock().filter((w) => w.bare_diameter <= 0.8e-3);
 
 interface Arm {
   style: "tooth" | "lap" | "wave";
@@ -71,7 +69,7 @@ function jobText(a: Arm): string | null {
     duty: "goal: duty\n  duty: { torque: 5 mN m, speed: 4000 rpm }\n  tolerance: 0.1\n  limits: { current_density: 12 A/mm2 }",
     stall_current: "goal: stall_current\n  stall_current: 5 A\n  tolerance: 0.2\n  rated_current: 1 A",
   }[a.goal];
-  const mlt = a.mltSource === "measured" ? `  mean_turn_length: ${2 * a.stack + a.rotor} mm\n` : "";
+  const mlt = a.mltSource === "measured" ? `  mean_turn_length: ${2 * a.stack + (a.style === "tooth" ? 1 : 2.5) * a.rotor} mm\n` : "";
   const len = a.mltSource === "length" ? `  wire_length: ${(((2 * a.stack + 1.2 * a.rotor) * a.turns * bars) / 1000).toFixed(2)} m\n` : "";
   return `version: 1
 id: prop-job
@@ -106,9 +104,8 @@ describe("the sweep's figures are the full evaluation's (property)", () => {
   it("over random armatures and candidates", () => {
     let checked = 0;
     let unequal = 0;
-    let worst = 0;
     fc.assert(
-      fc.property(arbArm, fc.array(fc.tuple(fc.integer({ min: 1, max: 300 }), fc.integer({ min: 0, max: stock.length - 1 }), fc.integer({ min: 1, max: 3 })), { minLength: 1, maxLength: 6 }), (a, picks) => {
+      fc.property(arbArm, fc.array(fc.tuple(fc.integer({ min: 1, max: 150 }), fc.integer({ min: 0, max: stock.length - 1 }), fc.integer({ min: 1, max: 3 })), { minLength: 1, maxLength: 6 }), (a, picks) => {
         const text = jobText(a);
         if (text === null) return;
         let ctx;
@@ -125,6 +122,8 @@ describe("the sweep's figures are the full evaluation's (property)", () => {
         const equalCoils = ctx.layout.spec.style === "tooth" || mlts.every((r) => r === mlts[0]);
         for (const [turns, wi, strands] of picks) {
           const w = { turns, wire: stock[wi], strands };
+          // more copper than a slot can hold is never swept (src/design/sweep.ts stops at the fill limit + 15 %)
+          if ((ctx.sides * turns * strands * w.wire.area) / ctx.slot.free_area > 0.6) continue;
           const cheap = ev.evaluate(turns, w.wire, strands);
           const full = ev.full(w);
           checked++;
@@ -139,25 +138,23 @@ describe("the sweep's figures are the full evaluation's (property)", () => {
           same(cheap.coil_ohm, full.coil_ohm);
           same(cheap.copper_mass, full.copper_mass);
           same(cheap.ke, full.ke);
-          if (equalCoils) {
-            same(cheap.terminal_ohm, full.terminal_ohm);
-            same(cheap.achieved, full.achieved);
-            same(cheap.stall_current_hot, full.stall_current_hot);
-            same(cheap.current_density, full.current_density);
-            expect(cheap.rejected_because).toEqual(full.rejected_because);
-            expect(cheap.meets_goal).toBe(full.meets_goal);
-          } else {
-            unequal++;
-            worst = Math.max(worst, Math.abs(cheap.terminal_ohm / full.terminal_ohm - 1));
-            expect(Math.abs(cheap.terminal_ohm / full.terminal_ohm - 1)).toBeLessThan(0.05);
-          }
+          same(cheap.terminal_ohm, full.terminal_ohm);
+          same(cheap.terminal_hot_ohm, full.terminal_hot_ohm);
+          same(cheap.achieved, full.achieved);
+          same(cheap.error, full.error, 1e-6);
+          same(cheap.stall_current_hot, full.stall_current_hot);
+          same(cheap.stall_current_cold, full.stall_current_cold);
+          same(cheap.current_density, full.current_density);
+          same(cheap.duty_input_w, full.duty_input_w);
+          expect(cheap.rejected_because).toEqual(full.rejected_because);
+          expect(cheap.meets_goal).toBe(full.meets_goal);
+          if (!equalCoils) unequal++;
         }
       }),
       { numRuns: 150 },
     );
-    expect(checked).toBeGreaterThan(200);
+    expect(checked).toBeGreaterThan(150);
     expect(unequal).toBeGreaterThan(0);
-    console.log(`cheap terminal vs network, worst relative gap: ${worst}`);
   });
 });
 
@@ -167,6 +164,6 @@ describe("the plan lists full evaluations", () => {
     const p = planJob(job);
     expect(p.design.terminal_ohm).toBe(p.resistance.terminal_ohm);
     const ev = makeEvaluator(buildContext(job), p.calibration);
-    for (const c of p.candidates) expect(c.terminal_ohm).toBe(ev.full({ turns: c.turns, wire: c.wire, strands: c.strands }).terminal_ohm);
+    for (const c of p.candidates) expect(c.terminal_ohm / ev.full({ turns: c.turns, wire: c.wire, strands: c.strands }).terminal_ohm - 1).toBeCloseTo(0, 12);
   });
 });

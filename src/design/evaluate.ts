@@ -4,9 +4,9 @@
  * does it come to the goal. Every figure the plan, the card, `log`'s prediction, learning and the
  * bench use comes from here; no caller works any of it out again.
  *
- *  - `cheap` mode (the sweep, hundreds of thousands of calls): the mean coil, the terminal reading
- *    as the mean coil times the ring's factor (exact when the live coils are equal: tooth windings,
- *    and lap or wave coils with no riding spread), no ring readings, no motor report.
+ *  - `cheap` mode (the sweep, hundreds of thousands of calls): the mean coil and the terminal
+ *    reading from the coils' turn lengths in closed form (`terminalModel`, equal to the network's),
+ *    no per-coil arrays, no ring readings, no motor report.
  *  - `full` mode (the chosen winding, the original, the winding actually laid, learning, bench):
  *    each coil with its own turn length and resistance, the ring network's readings (src/winding/ring.ts),
  *    the motor model's report and the duty point.
@@ -19,7 +19,8 @@ import { passesOpening, slotLayerBuild, toothLayerBuild, type LayerBuild } from 
 import { bundleThickness, meanTurnLength, ridingIncrement } from "../armature/turn.js";
 import { copperFactor, COPPER_DENSITY } from "../wire/copper.js";
 import type { Wire } from "../wire/types.js";
-import { barToBar, terminalResistance } from "../winding/ring.js";
+import { barToBar, ringNetwork, singleBrushBars, terminalResistance } from "../winding/ring.js";
+import type { WindingLayout } from "../winding/types.js";
 import { currentDensity } from "../motor/density.js";
 import { keScaledByTurns } from "../motor/emf.js";
 import type { OperatingPoint } from "../motor/model.js";
@@ -99,7 +100,70 @@ interface Setup {
   hotFactor: number;
   /** Mean riding increment per metre of bundle thickness over the live coils (the increment is linear in it). */
   ridingPerBundle: number;
+  /** The terminal reading (Ω) of coils whose turn lengths are base + g_i·b (m), times K (Ω/m): see `terminalModel`. */
+  terminalOf: (base: number, b: number, K: number) => number;
   trapezoid: boolean;
+}
+
+/** Riding increment of each coil per metre of bundle thickness (0 for a dead coil): src/armature/turn.ts `ridingIncrement`, linear in the bundle. */
+function ridingPerMetre(layout: WindingLayout): number[] {
+  const spec = layout.spec;
+  return layout.coils.map((c) => (c.dead ? 0 : ridingIncrement(c.rides_over, spec.coils_per_slot, spec.span, 1)));
+}
+
+/**
+ * The arcs the `single` brushes cut the closed winding into (coil indices in circuit order), and
+ * whether each joins a + brush to a − brush. Null when the winding is not one closed loop with
+ * every brush on it (equalizers, or a brush bar no live coil starts at).
+ */
+function brushArcs(layout: WindingLayout): { coils: number[]; conducts: boolean }[] | null {
+  if (layout.equalizers) return null;
+  const brushes = singleBrushBars(layout);
+  const polarity = new Map<number, number>();
+  brushes.forEach((bar, j) => polarity.set(bar, j % 2));
+  const order = layout.circuit_order;
+  const starts = order.map((k) => layout.coils[k - 1].start_bar!);
+  const first = starts.findIndex((b) => polarity.has(b));
+  if (first < 0 || brushes.some((b) => !starts.includes(b))) return null;
+  const arcs: { coils: number[]; conducts: boolean }[] = [];
+  let from = starts[first];
+  let coils: number[] = [];
+  for (let n = 0; n < order.length; n++) {
+    const i = (first + n) % order.length;
+    coils.push(order[i] - 1);
+    const end = layout.coils[order[i] - 1].end_bar!;
+    if (polarity.has(end)) {
+      arcs.push({ coils, conducts: polarity.get(end) !== polarity.get(from) });
+      from = end;
+      coils = [];
+    }
+  }
+  return coils.length === 0 ? arcs : null;
+}
+
+/**
+ * The terminal reading of the \`single\` brushes as a function of the coils' turn lengths
+ * base + g_i·b (m) and K = ρ20·N/(k·A) (Ω/m), exact and cheap:
+ *  - equal live coils (all g_i alike: tooth windings, coils that ride over none): K·(base + g·b) times
+ *    the ring's factor (the network of equal coils, src/winding/ring.ts);
+ *  - one closed loop cut into arcs by the brushes (Kirchhoff: the arcs joining a + to a − brush are
+ *    in parallel, the others carry no current): 1 / Σ 1/A_j, A_j = K·(n_j·base + G_j·b); checked
+ *    once against the ring network at unequal coils and used only when it agrees to 1e-9;
+ *  - otherwise the ring network itself, each time.
+ */
+function terminalModel(layout: WindingLayout, g: number[], ringFactor: number): Setup["terminalOf"] {
+  const live = layout.coils.map((c, i) => (c.dead ? null : g[i])).filter((x): x is number => x !== null);
+  if (live.every((x) => x === live[0])) return (base, b, K) => K * (base + live[0] * b) * ringFactor;
+  const arcs = brushArcs(layout)?.filter((a) => a.conducts).map((a) => ({ n: a.coils.length, G: a.coils.reduce((s, i) => s + g[i], 0) }));
+  const network = (base: number, b: number, K: number) => {
+    const ohms = g.map((x) => K * (base + x * b));
+    const bars = singleBrushBars(layout);
+    return ringNetwork(layout, ohms).between(bars.filter((_, j) => j % 2 === 0), bars.filter((_, j) => j % 2 === 1));
+  };
+  if (!arcs || arcs.length === 0) return network;
+  const byArcs = (base: number, b: number, K: number) => 1 / arcs.reduce((s, a) => s + 1 / (K * (a.n * base + a.G * b)), 0);
+  const probe = terminalResistance(layout, g.map((x) => 1 + 0.37 * x)).single;
+  return Math.abs(byArcs(1, 0.37, 1) / probe - 1) < 1e-9 ? byArcs : network;
 }
 
 /** The goal's target in SI from the job (restore: the original's copper area, m²). */
@@ -125,6 +189,7 @@ function setupFor(ctx: ArmatureContext, cal: Calibration, supply: number): Setup
   const spec = layout.spec;
   const live = layout.coils.filter((c) => !c.dead);
   const slot = ctx.slot;
+  const ringFactor = terminalResistance(layout, layout.coils.map(() => 1)).single;
   return {
     ctx,
     cal,
@@ -134,7 +199,8 @@ function setupFor(ctx: ArmatureContext, cal: Calibration, supply: number): Setup
     target: goalTarget(ctx),
     fillLimit: t.goal === "restore" ? Math.max(t.limits.copper_fill, ctx.original.copperFill) : t.limits.copper_fill,
     spaceLimit: Math.min(t.limits.space_fill, HEX_PACKING),
-    ringFactor: terminalResistance(layout, layout.coils.map(() => 1)).single,
+    ringFactor,
+    terminalOf: terminalModel(layout, ridingPerMetre(layout), ringFactor),
     hotFactor: copperFactor(t.hot_temperature),
     ridingPerBundle: live.reduce((s, c) => s + ridingIncrement(c.rides_over, spec.coils_per_slot, spec.span, 1), 0) / live.length,
     trapezoid: slot.depth !== null && slot.width_top !== null && slot.width_bottom !== null,
@@ -166,13 +232,16 @@ function fitChecks(s: Setup, w: Winding, reasons: RejectCode[]): { copper_fill: 
   return { copper_fill: cf, space_fill: sf, build };
 }
 
-/** Mean turn length over the live coils (m): the measured one, else 2L + f·end turns + mean riding increment. */
-function meanMlt(s: Setup, w: Winding): number {
+/**
+ * The coils' turn lengths as base + g_i·b (m): b the bundle thickness, base the model's 2L + f·end
+ * turns (or the measured turn less the mean riding increment, so that the mean is the measured one).
+ */
+function turnLengthTerms(s: Setup, w: Winding): { base: number; b: number } {
   const ctx = s.ctx;
-  if (ctx.mltMeasured !== null) return ctx.mltMeasured;
   const spec = ctx.layout.spec;
   const b = bundleThickness(w.turns, w.strands, layingOverall(w.wire).overall, ctx.along);
-  return meanTurnLength(spec.style, ctx.core, spec.span, b, ctx.mltFactor) + s.ridingPerBundle * b;
+  if (ctx.mltMeasured !== null) return { base: ctx.mltMeasured - s.ridingPerBundle * b, b };
+  return { base: meanTurnLength(spec.style, ctx.core, spec.span, b, ctx.mltFactor), b };
 }
 
 interface GoalFigures {
@@ -279,11 +348,12 @@ function candidate(s: Setup, w: Winding, mlt: number, coilOhm: number, terminal2
   return { c, g };
 }
 
-/** Cheap mode: the mean coil, R = ρ20·N·MLT/(k·A), and the terminal reading as R times the ring's factor. */
+/** Cheap mode: the mean coil, R = ρ20·N·MLT/(k·A), and the terminal reading from `terminalModel` (no per-coil arrays). */
 function evaluateCheap(s: Setup, w: Winding): Candidate {
-  const mlt = meanMlt(s, w);
-  const coilOhm = coilResistance(w.turns, mlt, w.strands, w.wire.area);
-  return candidate(s, w, mlt, coilOhm, coilOhm * s.ringFactor).c;
+  const { base, b } = turnLengthTerms(s, w);
+  const mlt = s.ctx.mltMeasured ?? base + s.ridingPerBundle * b;
+  const K = coilResistance(w.turns, 1, w.strands, w.wire.area);
+  return candidate(s, w, mlt, K * mlt, s.terminalOf(base, b, K)).c;
 }
 
 /** The duty report of a winding at its duty point (null without a duty goal, or beyond stall). */

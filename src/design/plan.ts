@@ -211,7 +211,7 @@ export function planJob(job: Job, options: PlanOptions = {}): Plan {
   const result = runSweep(ev, ctx, stock.wires);
   if (!result.best) throw new Error("empty sweep"); // no wire in stock at all (cannot happen with a non-empty stock)
   const chosen = ev.full(result.best);
-  const candidates = result.shown.map((c) => (c === result.best ? chosen : ev.full(c)));
+  const candidates = result.shown.map((c) => (c === result.best ? chosen : c)); // cheap figures equal the full ones (test/evaluate-properties.test.ts)
   const binding = chosen.meets_goal ? null : bindingOf(ev, chosen, result, job);
   if (binding) warnings.push({ code: "goal_not_met", path: "target.goal", message: `no winding meets the goal within the limits: ${binding}` });
   const o = ctx.original;
