@@ -96,6 +96,8 @@ interface Setup {
   target: number;
   fillLimit: number;
   spaceLimit: number;
+  /** Restore, or convert (judged as a restore is): the copper area is the goal. */
+  likeRestore: boolean;
   ringFactor: number;
   hotFactor: number;
   /** Mean riding increment per metre of bundle thickness over the live coils (the increment is linear in it). */
@@ -166,12 +168,17 @@ function terminalModel(layout: WindingLayout, g: number[], ringFactor: number): 
   return Math.abs(byArcs(1, 0.37, 1) / probe - 1) < 1e-9 ? byArcs : network;
 }
 
-/** The goal's target in SI from the job (restore: the original's copper area, m²). */
-function goalTarget(ctx: ArmatureContext): number {
+/**
+ * The goal's target in SI from the job (restore: the original's copper area, m²; convert: that area
+ * ÷ the conversion's turns ratio, the same copper in the slot, src/design/series.ts).
+ */
+function goalTarget(ctx: ArmatureContext, convertRatio: number | null): number {
   const t = ctx.job.target;
   switch (t.goal) {
     case "restore":
       return ctx.original.strands * ctx.original.wire.area;
+    case "convert":
+      return (ctx.original.strands * ctx.original.wire.area) / (convertRatio ?? 1);
     case "no_load_speed":
       return t.no_load_speed!;
     case "kv":
@@ -183,21 +190,23 @@ function goalTarget(ctx: ArmatureContext): number {
   }
 }
 
-function setupFor(ctx: ArmatureContext, cal: Calibration, supply: number): Setup {
+function setupFor(ctx: ArmatureContext, cal: Calibration, supply: number, convertRatio: number | null = null): Setup {
   const t = ctx.job.target;
   const layout = ctx.layout;
   const spec = layout.spec;
   const live = layout.coils.filter((c) => !c.dead);
   const slot = ctx.slot;
   const ringFactor = terminalResistance(layout, layout.coils.map(() => 1)).single;
+  const likeRestore = t.goal === "restore" || t.goal === "convert";
   return {
     ctx,
     cal,
     physics: motorPhysicsFor(ctx.job),
     supply,
     goal: t.goal,
-    target: goalTarget(ctx),
-    fillLimit: t.goal === "restore" ? Math.max(t.limits.copper_fill, ctx.original.copperFill) : t.limits.copper_fill,
+    target: goalTarget(ctx, convertRatio),
+    likeRestore,
+    fillLimit: likeRestore ? Math.max(t.limits.copper_fill, ctx.original.copperFill) : t.limits.copper_fill,
     spaceLimit: Math.min(t.limits.space_fill, HEX_PACKING),
     ringFactor,
     terminalOf: terminalModel(layout, ridingPerMetre(layout), ringFactor),
@@ -276,6 +285,7 @@ function goalFigures(s: Setup, w: Winding, terminal20: number): GoalFigures {
   };
   switch (s.goal) {
     case "restore":
+    case "convert":
       out.achieved = w.strands * w.wire.area;
       break;
     case "no_load_speed":
@@ -309,7 +319,7 @@ function verdict(s: Setup, g: GoalFigures, reasons: RejectCode[]): { error: numb
   if (g.achieved === null) return { error: null, meets: false };
   const error = (g.achieved - s.target) / s.target;
   let meets: boolean;
-  if (s.goal === "restore") {
+  if (s.likeRestore) {
     meets = g.achieved >= RESTORE_MIN_AREA * s.target;
     if (!meets) reasons.push("below_original_copper");
   } else if (s.goal === "stall_current") {
@@ -394,9 +404,12 @@ function evaluateFull(s: Setup, w: Winding, options: FullOptions = {}): FullEval
   return { ...c, coil_mlt: coilMlt, coil_ohms: coilOhms, ring, motor, duty: dutyOf(s, w, c.ke, r20 * s.hotFactor) };
 }
 
-/** The evaluator of one armature and calibration at the job's supply (V): the setup done once, both modes. */
-export function makeEvaluator(ctx: ArmatureContext, cal: Calibration, supply = supplyOf(ctx.job).volts): Evaluator {
-  const s = setupFor(ctx, cal, supply);
+/**
+ * The evaluator of one armature and calibration at the job's supply (V): the setup done once, both
+ * modes. `convertRatio`: goal convert's turns ratio (src/design/series.ts).
+ */
+export function makeEvaluator(ctx: ArmatureContext, cal: Calibration, supply = supplyOf(ctx.job).volts, convertRatio: number | null = null): Evaluator {
+  const s = setupFor(ctx, cal, supply, convertRatio);
   return {
     evaluate: (turns, wire, strands) => evaluateCheap(s, { turns, wire, strands }),
     full: (w, options) => evaluateFull(s, w, options),

@@ -73,21 +73,21 @@ export const CONSTANT_FIELD: MotorPhysics = {
 };
 
 /**
- * Series field, armature only (until src/motor/series.ts plugs in): Ke scaled by turns and the
- * resistance; the stall current of the armature alone, (V − V_b)/R; no operating point.
+ * Series field, armature only: Ke scaled by turns and the resistance; no stall figure (the field is
+ * in the circuit) and no operating point. The series model's own figures come from
+ * src/design/series.ts (`planSeries`, the plan's `series` section).
  */
 export const SERIES_ARMATURE_ONLY: MotorPhysics = {
   field: "series",
   noLoad: () => null,
-  stallCurrent: (_ke, r, cal, V) => stallCurrent(r, cal.brush_drop, V),
+  stallCurrent: () => null,
   atTorque: () => null,
-  report(ke, r20, hotFactor, cal, V) {
+  report(ke, r20, hotFactor, _cal, V) {
     const rHot = r20 * hotFactor;
     const base = emptyReport(ke, rHot);
-    const stall = { stallCurrent: stallCurrent(rHot, cal.brush_drop, V), stallCurrentCold: stallCurrent(r20, cal.brush_drop, V) };
-    if (ke === null) return { ...base, ...stall };
-    const hot = modelOf(ke, rHot, cal, "series");
-    return { ...base, ...summarize(hot, V), ...stall, model: hot, curve: [] };
+    if (ke === null) return base;
+    const hot = modelOf(ke, rHot, _cal, "series");
+    return { ...base, ...summarize(hot, V), stallCurrent: null, stallCurrentCold: null, model: hot, curve: [] };
   },
 };
 

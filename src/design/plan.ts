@@ -12,6 +12,8 @@ import { buildContext, supplyOf, type ArmatureContext } from "./context.js";
 import { calibrateOriginal, type LogbookCalibration } from "./calibration.js";
 import { makeEvaluator, type Evaluator, type FullEvaluation } from "./evaluate.js";
 import { sweep, type SweepResult } from "./sweep.js";
+import { conversionRatio, planSeries, setupSeries, type SeriesPlan, type SeriesSetup } from "./series.js";
+import { inputError } from "../errors.js";
 import { toleranceText } from "../format/goal.js";
 import type { Candidate, CoilPlan, GoalKind, GoalReport, Plan, RejectCode, ResistancePlan, Sensitivity, WirePlan } from "./types.js";
 
@@ -63,13 +65,13 @@ function goalReport(ev: Evaluator, c: Candidate, tolerance: Job["target"]["toler
   return { kind: ev.goal, target: ev.target, achieved: c.achieved, error_fraction: c.error, tolerance };
 }
 
-/** The sweep over the stock (restore: the original's turns only). */
-function runSweep(ev: Evaluator, ctx: ArmatureContext, wires: Wire[]) {
+/** The sweep over the stock (restore: the original's turns only; convert: the original's × the conversion ratio). */
+function runSweep(ev: Evaluator, ctx: ArmatureContext, wires: Wire[], ratio: number | null) {
   const job = ctx.job;
   return sweep(ev, {
     wires,
     maxInHand: job.max_in_hand,
-    fixedTurns: ev.goal === "restore" ? job.original.turns : undefined,
+    fixedTurns: ev.goal === "restore" ? job.original.turns : ratio !== null ? Math.max(1, Math.round(job.original.turns * ratio)) : undefined,
     sides: ctx.sides,
     freeArea: ctx.slot.free_area,
   });
@@ -84,13 +86,15 @@ function bindingOf(ev: Evaluator, chosen: Candidate, result: SweepResult, job: J
 }
 
 /** Warnings the motor figures raise: the series field, the model's own, a duty beyond stall (new and original). */
-function motorWarnings(job: Job, supply: number, chosen: FullEvaluation, original: FullEvaluation, warnings: Warning[]): void {
+function motorWarnings(job: Job, supply: number, chosen: FullEvaluation, original: FullEvaluation, seriesSetup: SeriesSetup | null, warnings: Warning[]): void {
   const series = job.armature.field === "series";
   if (series && !warnings.some((w) => w.code === "series_field")) {
     warnings.push({
       code: "series_field",
-      path: "armature.field",
-      message: "series (universal) motor: no constant field, so only what the armature alone determines is predicted (resistance, Ke scaled by turns); never run a series motor unloaded, it races until it bursts",
+      path: seriesSetup ? "armature.field" : "field_winding",
+      message: seriesSetup
+        ? "series (universal) motor: its figures are the series model's (motor.series), not the constant-field ones; locked-rotor figures only at a reduced voltage, never at mains; never run a large series motor unloaded"
+        : "series (universal) motor: only what the armature alone determines is predicted (resistance, Ke scaled by turns); give field_winding (the field's resistance, and its inductance or a locked-rotor reading on AC) with a no-load test or the nameplate for the motor's figures; never run a series motor unloaded, it races",
     });
   }
   for (const w of chosen.motor.warnings) if (!warnings.some((x) => x.code === w.code)) warnings.push(w);
@@ -185,11 +189,32 @@ function resistancePlan(job: Job, chosen: FullEvaluation): ResistancePlan {
   };
 }
 
-/** The armature, its calibration and the evaluator for a job (the logbook's correction applied when the armature is built). */
+/**
+ * The armature, its calibration and the evaluator for a job (the logbook's correction applied when
+ * the armature is built); for a series motor with a described field, the series model's setup and,
+ * for goal convert, its turns ratio (src/design/series.ts).
+ */
 export function preparePlan(job: Job, options: PlanOptions = {}) {
   const ctx = buildContext(job, { mltFactor: options.logbook?.mltFactor });
   const { calibration, warnings } = calibrateOriginal(ctx, options.logbook);
-  return { ctx, calibration, calibrationWarnings: warnings, ev: makeEvaluator(ctx, calibration) };
+  const seriesSetup = job.armature.field === "series" ? setupSeries(ctx, calibration.brush_drop) : null;
+  const ratio = seriesSetup && job.target.goal === "convert" ? conversionRatio(seriesSetup, job.target.hot_temperature) : null;
+  if (job.target.goal === "convert" && ratio === null) {
+    throw inputError(
+      "goal_uncalibrated",
+      "original.nameplate",
+      "goal convert needs the original's rated point: field_winding (resistance, and inductance on AC) with a nameplate or load test that leaves the motor a load torque",
+    );
+  }
+  return { ctx, calibration, calibrationWarnings: warnings, seriesSetup, ratio, ev: makeEvaluator(ctx, calibration, undefined, ratio) };
+}
+
+/** The series model's figures for the chosen winding (null unless a series motor's field is described). */
+function seriesOf(job: Job, setup: SeriesSetup | null, chosen: FullEvaluation, ctx: ArmatureContext, ratio: number | null, warnings: Warning[]): SeriesPlan | null {
+  if (!setup) return null;
+  const sp = planSeries(job, setup, { turns: chosen.turns, originalTurns: ctx.original.turns, armature20: chosen.ring.single, hotTemperature: job.target.hot_temperature, convertRatio: ratio });
+  warnings.push(...sp.warnings);
+  return sp.plan;
 }
 
 /**
@@ -198,17 +223,17 @@ export function preparePlan(job: Job, options: PlanOptions = {}) {
  * in full. Nothing is changed after it is made.
  */
 export function planJob(job: Job, options: PlanOptions = {}): Plan {
-  const { ctx, calibration: cal, calibrationWarnings, ev } = preparePlan(job, options);
+  const { ctx, calibration: cal, calibrationWarnings, seriesSetup, ratio, ev } = preparePlan(job, options);
   const warnings: Warning[] = [...ctx.warnings];
   if (job.original.wire.assumed) warnings.push({ code: "wire_assumed", path: "original.wire", message: job.original.wire.assumed });
   warnings.push(...calibrationWarnings);
   const { volts: supply, kind: supplyKind } = supplyOf(job);
   const stock = stockWires(job);
   warnings.push(...stock.warnings);
-  if (ev.goal !== "restore" && cal.ke === null) {
+  if (ev.goal !== "restore" && ev.goal !== "convert" && cal.ke === null) {
     warnings.push({ code: "goal_uncalibrated", path: "target.goal", message: `the ${ev.goal.replace(/_/g, " ")} cannot be predicted without a calibrated Ke; the plan falls back to the most copper that fits` });
   }
-  const result = runSweep(ev, ctx, stock.wires);
+  const result = runSweep(ev, ctx, stock.wires, ratio);
   if (!result.best) throw new Error("empty sweep"); // no wire in stock at all (cannot happen with a non-empty stock)
   const chosen = ev.full(result.best);
   const candidates = result.shown.map((c) => (c === result.best ? chosen : c)); // cheap figures equal the full ones (test/evaluate-properties.test.ts)
@@ -216,7 +241,8 @@ export function planJob(job: Job, options: PlanOptions = {}): Plan {
   if (binding) warnings.push({ code: "goal_not_met", path: "target.goal", message: `no winding meets the goal within the limits: ${binding}` });
   const o = ctx.original;
   const original = ev.full({ turns: o.turns, wire: o.wire, strands: o.strands }, { measuredTerminal20: o.terminal20 });
-  motorWarnings(job, supply, chosen, original, warnings);
+  const series = seriesOf(job, seriesSetup, chosen, ctx, ratio, warnings);
+  motorWarnings(job, supply, chosen, original, seriesSetup, warnings);
   originalFillWarnings(ctx, ev.goal, warnings);
   const coils: CoilPlan[] = ctx.layout.coils.map((c, i) => ({ ...c, turns: chosen.turns, mlt: chosen.coil_mlt[i], ohm: chosen.coil_ohms[i] }));
   return {
@@ -232,6 +258,7 @@ export function planJob(job: Job, options: PlanOptions = {}): Plan {
     resistance: resistancePlan(job, chosen),
     wire: wirePlan(ctx, chosen),
     calibration: cal,
+    series,
     motor: chosen.motor,
     original_motor: original.motor,
     original: { wire: o.wire, turns: o.turns, strands: o.strands, copper_fill: o.copperFill, mlt: o.mlt, terminal_ohm: o.terminal20, terminal_measured: o.terminalMeasured },
