@@ -11,7 +11,8 @@
 import fc from "fast-check";
 import { readFileSync } from "node:fs";
 import { describe, expect, it } from "vitest";
-import { buildContext } from "../src/design/context.js";
+import { buildContext, type ArmatureContext } from "../src/design/context.js";
+import type { Calibration } from "../src/design/types.js";
 import { calibrateOriginal } from "../src/design/calibration.js";
 import { makeEvaluator } from "../src/design/evaluate.js";
 import { planJob } from "../src/design/plan.js";
@@ -54,7 +55,7 @@ const arbArm: fc.Arbitrary<Arm> = fc.record({
 /** A job text for a random armature (invented values, test data only); null when the layout cannot exist. */
 function jobText(a: Arm): string | null {
   const u = a.style === "tooth" ? 1 : a.u;
-  let bars = a.slots * u;
+  const bars = a.slots * u;
   if (a.style === "wave" && ((bars + 1) % (a.poles / 2) !== 0 || a.poles === 2)) return null;
   if (a.style === "lap" && a.poles > 2 && (a.slots % (a.poles / 2) !== 0 || bars % (a.poles / 2) !== 0)) return null;
   const span = a.style === "tooth" ? 1 : Math.max(1, Math.round((a.spanFrac * a.slots) / a.poles));
@@ -108,8 +109,8 @@ describe("the sweep's figures are the full evaluation's (property)", () => {
       fc.property(arbArm, fc.array(fc.tuple(fc.integer({ min: 1, max: 150 }), fc.integer({ min: 0, max: stock.length - 1 }), fc.integer({ min: 1, max: 3 })), { minLength: 1, maxLength: 6 }), (a, picks) => {
         const text = jobText(a);
         if (text === null) return;
-        let ctx;
-        let cal;
+        let ctx: ArmatureContext;
+        let cal: Calibration;
         try {
           ctx = buildContext(loadJobText(text));
           cal = calibrateOriginal(ctx).calibration;
