@@ -65,11 +65,12 @@ describe("one rule for every goal: the turns count nearest the goal, then the mo
     // two no-load tests, T_c 0.0374836 N·m, B 8.22855e-5 N·m·s/rad, V_b 2 V (carbon), V 24 V, load T 0.35 N·m.
     // 15 turns: Ke = 0.0603184·15/14 = 0.0646269, R_hot 0.569771 Ω; ω = (Ke·22 − R(T+T_c))/(Ke² + R·B) = 284.36 rad/s
     //   = 2715 rpm; I = (T + T_c + Bω)/Ke = 6.3578 A; η = T·ω/(24·I) = 0.6523.
-    // 16 turns: Ke = 0.0689353, R_hot 0.682202 Ω; ω = 260.44 rad/s = 2487 rpm; I = 5.9318 A; η = 0.6403.
+    // 16 turns: Ke = 0.0689353, R_hot 0.681322 Ω; ω = 260.51 rad/s = 2487.7 rpm; I = 5.9319 A; η = 0.6404.
     expect(p.duty!.efficiency).toBeCloseTo(0.6523, 3);
     expect(p.duty!.current).toBeCloseTo(6.3578, 3);
-    expect((other.achieved! * 60) / (2 * Math.PI)).toBeCloseTo(2487.0, 0);
-    expect(other.duty_input_w! / 24).toBeCloseTo(5.9318, 3); // less input power, yet slower and less efficient
+    expect((other.achieved! * 60) / (2 * Math.PI)).toBeCloseTo(2487.7, 0);
+    expect(other.duty_input_w! / 24).toBeCloseTo(5.9319, 3); // less input power, yet slower and less efficient
+    expect((0.35 * other.achieved!) / other.duty_input_w!).toBeCloseTo(0.6405, 3);
   });
   it("no-load speed: the blind demo takes 65 turns (+0.2 %), not the fast edge of the band (+1.8 %)", () => {
     const p = planJob(loadJobText(text("blind-motor-0031")));
