@@ -161,7 +161,10 @@ function openSteps(wins: number[][], readings: number[], e: number): number[] {
   if (wins[0].length === 1) {
     let sum = 0;
     let re = NaN;
-    wins.forEach((w, i) => (w[0] === e ? (re = readings[i]) : (sum += readings[i])));
+    wins.forEach((w, i) => {
+      if (w[0] === e) re = readings[i];
+      else sum += readings[i];
+    });
     const shift = (sum - re) / C;
     wins.forEach((w, i) => {
       if (w[0] !== e) out[w[0]] = readings[i] - shift;
@@ -282,7 +285,7 @@ export function solveCoils(layout: WindingLayout, readings: number[]): CoilSolut
   if (steps) {
     let clamped = 0;
     steps.forEach((r, s) => {
-      const v = r < 0 ? 0 : r;
+      const v = Math.max(0, r);
       if (r < 0) clamped++;
       coil[coilAt[s] - 1] = v;
       if (v === Infinity) open.push(coilAt[s]);
