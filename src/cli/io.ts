@@ -3,6 +3,7 @@
  * statuses, and the `--json` error shape of DESIGN.md.
  */
 import { readFileSync } from "node:fs";
+import { resolve } from "node:path";
 import { ArmwindError, formatProblem, type Problem } from "../errors.js";
 import { loadYaml, oneLine } from "../job/load.js";
 import { jobSchema, type Job } from "../job/schema.js";
@@ -30,7 +31,7 @@ export function readText(io: Io, file: string, path = ""): string {
   // yargs hands a lone "-" over as an empty string
   if (file === "-" || file === "") return io.stdin();
   try {
-    return readFileSync(file, "utf8");
+    return readFileSync(resolve(io.cwd, file), "utf8");
   } catch (e) {
     const code = (e as NodeJS.ErrnoException).code;
     const what = code === "ENOENT" ? "no such file" : code === "EISDIR" ? "is a folder, not a file" : code === "EACCES" ? "cannot be read (permission denied)" : `cannot be read (${code ?? "error"})`;
