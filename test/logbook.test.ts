@@ -20,6 +20,7 @@ import { learnFromRecords } from "../src/logbook/learn.js";
 import { parseRecordText, readLogbook } from "../src/logbook/store.js";
 import { logbookOptionsFor } from "../src/cli/learning.js";
 import { fromRpm } from "../src/job/units.js";
+import { toRpm } from "../src/format/units.js";
 import { resolveWire } from "../src/wire/catalogue.js";
 import { ROOT, loadJobFile } from "./helpers/cli.js";
 
@@ -117,7 +118,7 @@ describe("comparison", () => {
     expect(p.terminal.single).toBe(plan.resistance.terminal_ohm);
     plan.resistance.bar_to_bar.forEach((r, i) => expect(p.bar_to_bar[i]).toBeCloseTo(r, 12));
     const nl = compareReadings(p, { ...measured(GOOD).value, temperature: 20, no_load: { supply: 12, current: 0.17, speed: 900 } }).comparison.checks.find((c) => c.check === "no_load.speed")!;
-    expect(nl.predicted_value!).toBeCloseTo(plan.goal.achieved_value!, 6);
+    expect(nl.predicted_value!).toBeCloseTo(toRpm(plan.goal.achieved!), 6);
   });
 
   it("a wound winding that differs is predicted with its own turns: R ∝ N at the same wire (DESIGN.md coil resistance)", () => {

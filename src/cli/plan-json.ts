@@ -3,12 +3,16 @@
  * key, numbers unrounded, unknowable figures null (never absent).
  */
 import type { Candidate, MotorReport, Plan } from "../design/types.js";
+import type { GoalKind } from "../design/types.js";
 import { supplyOf } from "../design/plan.js";
+import { goalSummary } from "../format/goal.js";
+import { GOAL_UNIT, convert, goalValue, toAPerMm2, toMm, toRpm } from "../format/units.js";
+import { kvFromKe } from "../motor/emf.js";
 
-const RPM = 60 / (2 * Math.PI);
-const n = (x: number | null | undefined): number | null => (x === null || x === undefined || !Number.isFinite(x) ? null : x);
-const mm = (m: number | null | undefined) => (m === null || m === undefined ? null : m * 1e3);
-const rpm = (w: number | null | undefined) => (w === null || w === undefined ? null : n(w * RPM));
+const n = (x: number | null | undefined): number | null => convert(x, (v) => v);
+const mm = (m: number | null | undefined) => convert(m, toMm);
+const rpm = (w: number | null | undefined) => convert(w, toRpm);
+const density = (j: number | null | undefined) => convert(j, toAPerMm2);
 
 export function wireJson(w: Candidate["wire"]) {
   return {
@@ -41,7 +45,7 @@ function motorJson(m: MotorReport, calibration: string) {
   };
 }
 
-function candidateJson(c: Candidate) {
+function candidateJson(c: Candidate, goal: GoalKind) {
   return {
     turns_per_coil: c.turns,
     wire: c.wire.label,
@@ -49,11 +53,11 @@ function candidateJson(c: Candidate) {
     copper_fill: c.copper_fill,
     space_fill: n(c.space_fill),
     terminal_ohm: c.terminal_ohm,
-    kv_rpm_per_v: c.ke === null ? null : 60 / (2 * Math.PI * c.ke),
-    achieved_value: c.achieved,
+    kv_rpm_per_v: c.ke === null ? null : kvFromKe(c.ke),
+    achieved_value: goalValue(goal, c.achieved),
     error_fraction: n(c.error),
     stall_current_hot_a: n(c.stall_current_hot),
-    current_density_a_per_mm2: c.current_density === null ? null : c.current_density / 1e6,
+    current_density_a_per_mm2: density(c.current_density),
     copper_mass_g: c.copper_mass * 1e3,
     meets_goal: c.meets_goal,
     rejected_because: c.rejected_because,
@@ -70,14 +74,14 @@ export function planJson(plan: Plan) {
     feasible: plan.feasible,
     goal: {
       kind: plan.goal.kind,
-      unit: plan.goal.unit,
-      target_value: plan.goal.target_value,
-      achieved_value: n(plan.goal.achieved_value),
+      unit: GOAL_UNIT[plan.goal.kind],
+      target_value: goalValue(plan.goal.kind, plan.goal.target),
+      achieved_value: goalValue(plan.goal.kind, plan.goal.achieved),
       error_fraction: n(plan.goal.error_fraction),
-      tolerance: plan.job.target.tolerance,
-      summary: plan.goal.summary,
+      tolerance: plan.goal.tolerance,
+      summary: goalSummary(plan.goal),
     },
-    supply: { volts: plan.supply, kind, mains: plan.mains },
+    supply: { voltage_v: plan.supply, kind, mains: plan.mains },
     design: {
       turns_per_coil: d.turns,
       strands_in_hand: d.strands,
@@ -89,7 +93,7 @@ export function planJson(plan: Plan) {
       turns_per_layer: d.build ? d.build.turnsPerLayer : null,
       build_mm: d.build ? d.build.build * 1e3 : null,
       build_room_mm: d.build ? d.build.room * 1e3 : null,
-      current_density_a_per_mm2: d.current_density === null ? null : d.current_density / 1e6,
+      current_density_a_per_mm2: density(d.current_density),
     },
     winding: {
       style: plan.layout.spec.style,
@@ -177,16 +181,16 @@ export function planJson(plan: Plan) {
     duty: plan.duty
       ? {
           torque_n_m: plan.duty.torque,
-          target_speed_rpm: plan.duty.target_speed * RPM,
+          target_speed_rpm: rpm(plan.duty.target_speed),
           current_a: n(plan.duty.current),
-          speed_rpm: plan.duty.speed * RPM,
+          speed_rpm: rpm(plan.duty.speed),
           efficiency: n(plan.duty.efficiency),
           input_w: n(plan.duty.input_w),
           output_w: n(plan.duty.output_w),
-          current_density_a_per_mm2: plan.duty.current_density === null ? null : plan.duty.current_density / 1e6,
+          current_density_a_per_mm2: density(plan.duty.current_density),
         }
       : null,
-    candidates: plan.candidates.map(candidateJson),
+    candidates: plan.candidates.map((c) => candidateJson(c, plan.goal.kind)),
     candidates_total: plan.candidates_total,
     rejections: plan.rejections,
     binding: plan.binding,
@@ -197,12 +201,12 @@ export function planJson(plan: Plan) {
       strands_in_hand: s.strands,
       terminal_ohm: s.terminal_ohm,
       copper_fill: s.copper_fill,
-      achieved_value: s.achieved,
+      achieved_value: goalValue(plan.goal.kind, s.achieved),
       meets_goal: s.meets_goal,
       rejected_because: s.rejected_because,
     })),
     learning: plan.learning
-      ? { records: plan.learning.records, moves: plan.learning.moves }
+      ? { records: plan.learning.records, moves: plan.learning.moves.map((m) => ({ figure: m.figure, unit: m.unit, from_value: m.from, to_value: m.to })) }
       : null,
     warnings: plan.warnings.map((w) => ({ code: w.code, message: w.message, path: w.path })),
   };

@@ -4,6 +4,7 @@
  */
 import type { Warning } from "../errors.js";
 import type { Job } from "../job/schema.js";
+import { kvFromKe } from "../motor/emf.js";
 import { atTorque, curve, noLoad, stall, summarize, type MotorModel } from "../motor/model.js";
 import { copperFactor, COPPER_DENSITY } from "../wire/copper.js";
 import { defaultStock, resolveWire } from "../wire/catalogue.js";
@@ -13,6 +14,7 @@ import { buildContext, coilResistance, coilTurnLengths, meanOf, type ArmatureCon
 import { calibrateOriginal, type LogbookCalibration } from "./calibration.js";
 import { makeEvaluator, type Evaluator } from "./evaluate.js";
 import { sweep } from "./sweep.js";
+import { toleranceText } from "../format/goal.js";
 import type { Calibration, Candidate, CoilPlan, DutyReport, GoalReport, MotorReport, Plan, RejectCode, Sensitivity } from "./types.js";
 
 /** Extra-low voltage limits, IEC 60449 band I: 50 V AC r.m.s., 120 V ripple-free DC. */
@@ -70,7 +72,7 @@ function motorReport(ke: number | null, r20: number, hotFactor: number, cal: Cal
   const nullReport: MotorReport = {
     ke: ke ?? NaN,
     kt: ke ?? NaN,
-    kv: ke ? 60 / (2 * Math.PI * ke) : NaN,
+    kv: ke ? kvFromKe(ke) : NaN,
     resistance: r20 * hotFactor,
     noLoadSpeed: null,
     noLoadCurrent: null,
@@ -121,27 +123,8 @@ function dutyReport(model: MotorModel | null, supply: number, job: Job, density:
   }
 }
 
-const GOAL_UNITS: Record<Plan["goal"]["kind"], { unit: string; fromSi: (x: number) => number }> = {
-  restore: { unit: "mm2", fromSi: (x) => x * 1e6 },
-  no_load_speed: { unit: "rpm", fromSi: (x) => (x * 60) / (2 * Math.PI) },
-  kv: { unit: "rpm/V", fromSi: (x) => (x * 60) / (2 * Math.PI) },
-  stall_current: { unit: "A", fromSi: (x) => x },
-  duty: { unit: "rpm", fromSi: (x) => (x * 60) / (2 * Math.PI) },
-};
-
-function goalReport(ev: Evaluator, c: Candidate, tolerance: number): GoalReport {
-  const g = GOAL_UNITS[ev.goal];
-  const target = g.fromSi(ev.target);
-  const achieved = c.achieved === null ? null : g.fromSi(c.achieved);
-  const err = c.error;
-  const fmt = (x: number) => (Math.abs(x) >= 100 ? x.toFixed(0) : x.toPrecision(3));
-  let summary: string;
-  if (achieved === null || err === null) summary = `the ${ev.goal.replace(/_/g, " ")} cannot be predicted: nothing calibrates the motor`;
-  else if (ev.goal === "restore")
-    summary = `copper area ${fmt(achieved)} mm² against the original's ${fmt(target)} mm² (${err >= 0 ? "+" : "−"}${Math.abs(err * 100).toFixed(1)} %)`;
-  else
-    summary = `${fmt(achieved)} ${g.unit} against ${ev.goal === "stall_current" ? "at most " : ""}${fmt(target)} ${g.unit} (${err >= 0 ? "+" : "−"}${Math.abs(err * 100).toFixed(1)} %, tolerance ${ev.goal === "stall_current" ? "−" : "±"}${(tolerance * 100).toFixed(0)} %)`;
-  return { kind: ev.goal, unit: g.unit, target_value: target, achieved_value: achieved, error_fraction: err, summary };
+function goalReport(ev: Evaluator, c: Candidate, tolerance: Job["target"]["tolerance"]): GoalReport {
+  return { kind: ev.goal, target: ev.target, achieved: c.achieved, error_fraction: c.error, tolerance };
 }
 
 export function planJob(job: Job, options: PlanOptions = {}): Plan {
@@ -181,7 +164,7 @@ export function planJob(job: Job, options: PlanOptions = {}): Plan {
     const top = Object.entries(result.rejections).sort((a, b) => b[1] - a[1])[0];
     binding = reasons.length
       ? `the closest candidate is held back by: ${reasons.join("; ")}`
-      : `no candidate within the limits comes within ±${(job.target.tolerance * 100).toFixed(0)} % of the goal${top ? `; the limit that rejects most candidates: ${reasonText(top[0] as RejectCode)} (${top[1]} of ${result.total})` : ""}`;
+      : `no candidate within the limits comes within ${toleranceText(ev.goal, job.target.tolerance)} of the goal${top ? `; the limit that rejects most candidates: ${reasonText(top[0] as RejectCode)} (${top[1]} of ${result.total})` : ""}`;
     warnings.push({ code: "goal_not_met", path: "target.goal", message: `no winding meets the goal within the limits: ${binding}` });
   }
 
@@ -259,7 +242,7 @@ export function planJob(job: Job, options: PlanOptions = {}): Plan {
     strands: c.strands,
     terminal_ohm: c.terminal_ohm,
     copper_fill: c.copper_fill,
-    achieved: c.achieved === null ? null : GOAL_UNITS[ev.goal].fromSi(c.achieved),
+    achieved: c.achieved,
     meets_goal: c.meets_goal,
     rejected_because: c.rejected_because,
   });

@@ -53,15 +53,17 @@ export interface Candidate {
   duty_input_w: number | null;
 }
 
+/** The goal and how close the chosen winding comes, in SI (src/format/goal.ts words it, src/format/units.ts converts it). */
 export interface GoalReport {
   kind: GoalKind;
-  /** Unit the target and achieved values are reported in: "rpm", "rpm/V", "A", "W", "mm2". */
-  unit: string;
-  target_value: number;
-  achieved_value: number | null;
+  /** Target in SI: copper area m² (restore), rad/s (speeds), rad/s per V (kv), A (stall current). */
+  target: number;
+  /** The chosen winding's figure, same unit as `target`; null when unknowable. */
+  achieved: number | null;
+  /** (achieved − target)/target, signed; null when unknowable. */
   error_fraction: number | null;
-  /** One sentence on how close it comes. */
-  summary: string;
+  /** The tolerance as the job gave it. */
+  tolerance: Job["target"]["tolerance"];
 }
 
 export interface CoilPlan extends Coil {
@@ -154,6 +156,7 @@ export interface Sensitivity {
   strands: number;
   terminal_ohm: number;
   copper_fill: number;
+  /** Goal figure in SI, as `Candidate.achieved`. */
   achieved: number | null;
   meets_goal: boolean;
   rejected_because: RejectCode[];

@@ -278,7 +278,5 @@ function describe(v: unknown): string {
   return `${typeof v} ${JSON.stringify(v)}`;
 }
 
-/** rad/s → rpm. */
-export const toRpm = (w: number): number => w / RPM;
-/** rpm → rad/s. */
-export const fromRpm = (n: number): number => n * RPM;
+/** rad/s ↔ rpm: the one conversion, in src/format/units.ts. */
+export { toRpm, fromRpm } from "../format/units.js";

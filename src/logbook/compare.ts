@@ -5,7 +5,7 @@
  * V, °C, fractions), since it goes straight into the record.
  */
 import { copperFactor, to20C } from "../wire/copper.js";
-import { toRpm } from "../job/units.js";
+import { toRpm } from "../format/units.js";
 import type { Measured } from "./measured.js";
 import { predictNoLoad, predictStall, type Prediction } from "./predict.js";
 

@@ -8,7 +8,8 @@
 import { z } from "zod";
 import type { Job } from "../job/schema.js";
 import type { Plan } from "../design/types.js";
-import { toRpm } from "../job/units.js";
+import { toRpm } from "../format/units.js";
+import { kvFromKe } from "../motor/emf.js";
 import { compareReadings, type Comparison, type Derived } from "./compare.js";
 import type { Measured } from "./measured.js";
 import { predictNoLoad, predictStall, type Prediction } from "./predict.js";
@@ -144,7 +145,7 @@ export function buildRecord(job: Job, plan: Plan, prediction: Prediction, m: Mea
       terminal_max_ohm: p.terminal.max,
       supply_v: supply,
       ke_v_s_per_rad: nn(p.ke),
-      kv_rpm_per_v: p.ke === null ? null : 60 / (2 * Math.PI * p.ke),
+      kv_rpm_per_v: p.ke === null ? null : kvFromKe(p.ke),
       no_load_speed_rpm: nl ? toRpm(nl.speed) : null,
       no_load_current_a: nl ? nl.current : null,
       stall_current_a: p.ke === null && !p.series ? null : predictStall(p, supply, hot),
