@@ -42,7 +42,8 @@ export interface RecordWinding {
 export interface RecordMeasured {
   temperature_c: number;
   meter_resolution_ohm: number | null;
-  bar_to_bar_ohm: number[];
+  /** r1 … rC as read, Ω; null for a reading written OL or open. */
+  bar_to_bar_ohm: (number | null)[];
   terminal_ohm: number | null;
   no_load: { supply_v: number; current_a: number; speed_rpm: number } | null;
   stall: { supply_v: number; current_a: number } | null;
@@ -92,7 +93,7 @@ const nn = (x: number | null | undefined): number | null => (x === null || x ===
 
 /** Build the record of a finished rewind: pure (the time of logging is given). */
 export function buildRecord(job: Job, plan: Plan, prediction: Prediction, m: Measured, loggedAt: string): LogRecord {
-  const { comparison, derived } = compareReadings(prediction, m);
+  const { comparison, derived } = compareReadings(prediction, m, plan.wire.mlt_source !== "model");
   const p = prediction;
   const supply = plan.supply;
   const nl = predictNoLoad(p, supply, 20);
@@ -125,7 +126,7 @@ export function buildRecord(job: Job, plan: Plan, prediction: Prediction, m: Mea
     measured: {
       temperature_c: m.temperature,
       meter_resolution_ohm: m.meter_resolution ?? null,
-      bar_to_bar_ohm: m.bar_to_bar,
+      bar_to_bar_ohm: m.bar_to_bar.map((r) => (Number.isFinite(r) ? r : null)),
       terminal_ohm: m.terminal_resistance ?? null,
       no_load: m.no_load ? { supply_v: m.no_load.supply, current_a: m.no_load.current, speed_rpm: toRpm(m.no_load.speed) } : null,
       stall: m.stall ? { supply_v: m.stall.supply, current_a: m.stall.current } : null,
@@ -195,7 +196,7 @@ export const recordSchema = z.looseObject({
     wire: z.looseObject({ label: z.string(), bare_diameter_mm: num.positive(), overall_diameter_mm: numOrNull }),
     mean_turn_length_mm: num.positive(),
   }),
-  measured: z.looseObject({ temperature_c: num, bar_to_bar_ohm: z.array(num).min(1) }),
+  measured: z.looseObject({ temperature_c: num, bar_to_bar_ohm: z.array(numOrNull).min(1) }),
   predicted: z.looseObject({ terminal_ohm: num, brush_drop_v: num }),
   comparison: z.looseObject({ ok: z.boolean(), checks: z.array(checkRow) }),
   derived: z.looseObject({
