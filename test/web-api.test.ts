@@ -88,9 +88,10 @@ describe("the API is the CLI", () => {
     const j = JSON.parse(web.body);
     expect(j.ok).toBe(false);
     expect(j.errors[0].code).toBe("bad_yaml");
-    const check = await http(`${local.url}api/check`, { method: "POST", body: "version: 1\nid: x\n" });
+    const wrongUnit = readFileSync(join(ROOT, "jobs/blind-motor-0031.yaml"), "utf8").replace("stack_length: 12 mm", "stack_length: 12 kg");
+    const check = await http(`${local.url}api/check`, { method: "POST", body: wrongUnit });
     expect(check.status).toBe(422);
-    expect(JSON.parse(check.body).errors.map((e: { code: string }) => e.code)).toContain("missing_field");
+    expect(JSON.parse(check.body).errors[0]).toMatchObject({ code: "bad_quantity", path: "armature.stack_length", file: "<stdin>" });
   });
 
   it("diagnose names coil 3 of the demo's short-coil readings, as the CLI does", async () => {
