@@ -12,7 +12,6 @@ import type { Io } from "../src/cli/io.js";
 import { planJob } from "../src/design/plan.js";
 import { windingSpec } from "../src/design/context.js";
 import { layoutWinding } from "../src/winding/layout.js";
-import type { WindingLayout } from "../src/winding/types.js";
 import { ROOT, loadJobFile } from "./helpers/cli.js";
 import { nodalReadings } from "./helpers/nodal.js";
 

@@ -3,7 +3,7 @@ import { describe, expect, it } from "vitest";
 import { ArmwindError } from "../src/errors.js";
 import { DEFAULT_TOLERANCE, POLARITY_NOTE, diagnose, solveCoils } from "../src/winding/diagnose.js";
 import { layoutWinding } from "../src/winding/layout.js";
-import type { WindingLayout, WindingSpec } from "../src/winding/types.js";
+import type { WindingLayout } from "../src/winding/types.js";
 import { spec } from "./helpers/winding.js";
 import { nodalReadings } from "./helpers/nodal.js";
 

@@ -10,7 +10,7 @@ import { describe, expect, it } from "vitest";
 import { main } from "../src/cli/main.js";
 import type { Io } from "../src/cli/io.js";
 import { loadYaml } from "../src/job/load.js";
-import { ArmwindError } from "../src/errors.js";
+import type { ArmwindError } from "../src/errors.js";
 import { planJob } from "../src/design/plan.js";
 import { checkAgainstJob, measuredSchema, type Measured } from "../src/logbook/measured.js";
 import { predictWound } from "../src/logbook/predict.js";
@@ -116,7 +116,7 @@ describe("comparison", () => {
   it("the prediction for the planned winding is the plan's own figures", () => {
     expect(p.differs).toBe(false);
     expect(p.terminal.single).toBe(plan.resistance.terminal_ohm);
-    plan.resistance.bar_to_bar.forEach((r, i) => expect(p.bar_to_bar[i]).toBeCloseTo(r, 12));
+    for (const [i, r] of plan.resistance.bar_to_bar.entries()) expect(p.bar_to_bar[i]).toBeCloseTo(r, 12);
     const nl = compareReadings(p, { ...measured(GOOD).value, temperature: 20, no_load: { supply: 12, current: 0.17, speed: 900 } }).comparison.checks.find((c) => c.check === "no_load.speed")!;
     expect(nl.predicted_value!).toBeCloseTo(toRpm(plan.goal.achieved!), 6);
   });
@@ -365,7 +365,7 @@ describe("demo records", () => {
     const plan = planJob(job, options);
     expect(rec.predicted.plan).toEqual({ turns: plan.design.turns, wire: plan.design.wire.label, strands: plan.design.strands });
     expect(rec.predicted.terminal_ohm).toBeCloseTo(plan.resistance.terminal_ohm, 9);
-    rec.predicted.bar_to_bar_ohm.forEach((r, i) => expect(r).toBeCloseTo(plan.resistance.bar_to_bar[i], 9));
+    for (const [i, r] of rec.predicted.bar_to_bar_ohm.entries()) expect(r).toBeCloseTo(plan.resistance.bar_to_bar[i], 9);
     // the demo readings are invented but pass their checks
     expect(rec.comparison.ok).toBe(true);
   });

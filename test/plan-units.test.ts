@@ -11,13 +11,15 @@ import { demoJobFiles, loadJobFile, loadJobText } from "./helpers/cli.js";
 import { readFileSync } from "node:fs";
 
 /** Key endings that name a unit (docs/contracts.md). */
-const UNIT_SUFFIX = /_(mm|mm2|m|g|ohm|a|v|w|rpm|rpm_per_v|v_s_per_rad|n_m|n_m_per_a|n_m_s_per_rad|a_per_mm2|c|fraction)$/;
+const UNIT_SUFFIX = /_(mm|mm2|m|g|ohm|a|v|w|rpm|rpm_per_v|v_s_per_rad|v_s_per_a_rad|hz|n_m|n_m_per_a|n_m_s_per_rad|a_per_mm2|c|fraction)$/;
 /** Keys exempt from a unit suffix: fractions, counts, bar and slot numbers, and `*_value` in a sibling or the goal's `unit`. */
 const EXEMPT = new Set([
   "copper_fill", "space_fill", "copper_fill_limit", "efficiency", "peak_efficiency", "tolerance", "spare_margin",
   "turns_per_coil", "strands_in_hand", "layers", "turns_per_layer", "paths", "index", "turns", "slots", "bars", "poles", "span",
   "coils_per_slot", "lead_throw", "commutator_pitch", "back_pitch", "front_pitch", "coil_sides_per_slot", "go_slot", "return_slot",
   "start_bar", "end_bar", "candidates_total", "records", "target_value", "achieved_value", "from_value", "to_value",
+  // series motors: the power factor is a fraction like efficiency; the conversion's turns ratio and field turns are counts
+  "power_factor", "turns_ratio", "field_turns_per_pole",
 ]);
 
 function numericKeys(x: unknown, path: string, out: string[]): void {

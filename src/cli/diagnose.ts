@@ -17,7 +17,7 @@ import { loadYaml } from "../job/load.js";
 import { readText, guarded, loadJobText, isStdin, type Io, type Where } from "./io.js";
 import { logbookOptionsFor } from "./learning.js";
 import { loadMeasured } from "./log.js";
-import { predictWound } from "../logbook/predict.js";
+import { predictWound, type WoundInput } from "../logbook/predict.js";
 import { recordSchema, type LogRecord } from "../logbook/record.js";
 import { diagnose, type Diagnosis } from "../winding/diagnose.js";
 import { DEFAULT_METER_RESOLUTION_OHM, isOpenText, readingName } from "../bench/rules.js";
@@ -223,7 +223,7 @@ function gatherInput(io: Io, argv: DiagnoseArgs, loaded: { job: Job | null; id: 
   let readings: number[];
   let temperature = 20;
   let given = false;
-  let wound;
+  let wound: WoundInput | undefined;
   let date: string | undefined;
   let meter: number | undefined;
   if (argv.measured !== undefined) {

@@ -6,7 +6,6 @@
 import type { Argv } from "yargs";
 import { planJob } from "../design/plan.js";
 import { guarded, loadFile, loadJob, type Io } from "./io.js";
-import type { Where } from "./plan.js";
 import { logbookDir, logbookOptionsFor } from "./learning.js";
 import { checkAgainstJob, measuredSchema, type Measured } from "../logbook/measured.js";
 import { predictWound } from "../logbook/predict.js";

@@ -27,7 +27,11 @@ export async function main(args: string[], io = processIo()): Promise<number> {
   const wanted = COMMANDS.find((c) => c.names.includes(args[0] ?? ""));
   for (const c of wanted ? [wanted] : COMMANDS) y = await c.register(y, io, setStatus);
   try {
-    await y.parseAsync();
+    // with a callback yargs never exits the process, and hands help and version text back: printed
+    // through io, so that `main` can run in-process (tests) exactly as it runs in a process
+    await y.exitProcess(false).parseAsync(args, {}, (_err, _argv, output) => {
+      if (output) io.out(output);
+    });
   } catch (e) {
     if (!(e instanceof UsageError)) throw e;
     io.err(`armwind: ${e.message} (armwind --help lists commands and options)`);

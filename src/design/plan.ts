@@ -14,6 +14,8 @@ import { buildContext, coilResistance, coilTurnLengths, meanOf, type ArmatureCon
 import { calibrateOriginal, type LogbookCalibration } from "./calibration.js";
 import { makeEvaluator, type Evaluator } from "./evaluate.js";
 import { sweep } from "./sweep.js";
+import { conversionRatio, planSeries, setupSeries, type SeriesPlan } from "./series.js";
+import { inputError } from "../errors.js";
 import { toleranceText } from "../format/goal.js";
 import type { Calibration, Candidate, CoilPlan, DutyReport, GoalReport, MotorReport, Plan, RejectCode, Sensitivity } from "./types.js";
 
@@ -76,13 +78,13 @@ function motorReport(ke: number | null, r20: number, hotFactor: number, cal: Cal
     resistance: r20 * hotFactor,
     noLoadSpeed: null,
     noLoadCurrent: null,
-    stallCurrent: series ? Math.max(0, supply - cal.brush_drop) / (r20 * hotFactor) : null,
+    stallCurrent: null,
     stallTorque: null,
     peakEfficiency: null,
     peakEfficiencyCurrent: null,
     maxOutputW: null,
     warnings: [],
-    stallCurrentCold: series ? Math.max(0, supply - cal.brush_drop) / r20 : null,
+    stallCurrentCold: null,
     model: null,
     curve: [],
   };
@@ -139,16 +141,25 @@ export function planJob(job: Job, options: PlanOptions = {}): Plan {
   warnings.push(...calWarnings);
   const { volts: supply, kind: supplyKind } = supplyOf(job);
   const series = job.armature.field === "series";
-  const ev = makeEvaluator(ctx, cal, supply);
+  const seriesSetup = series ? setupSeries(ctx, cal.brush_drop) : null;
+  const ratio = seriesSetup && job.target.goal === "convert" ? conversionRatio(seriesSetup, job.target.hot_temperature) : null;
+  if (job.target.goal === "convert" && ratio === null) {
+    throw inputError(
+      "goal_uncalibrated",
+      "original.nameplate",
+      "goal convert needs the original's rated point: field_winding (resistance, and inductance on AC) with a nameplate or load test that leaves the motor a load torque",
+    );
+  }
+  const ev = makeEvaluator(ctx, cal, supply, ratio);
   const stock = stockWires(job);
   warnings.push(...stock.warnings);
-  if (ev.goal !== "restore" && cal.ke === null) {
+  if (ev.goal !== "restore" && ev.goal !== "convert" && cal.ke === null) {
     warnings.push({ code: "goal_uncalibrated", path: "target.goal", message: `the ${ev.goal.replace(/_/g, " ")} cannot be predicted without a calibrated Ke; the plan falls back to the most copper that fits` });
   }
   const result = sweep(ev, {
     wires: stock.wires,
     maxInHand: job.max_in_hand,
-    fixedTurns: ev.goal === "restore" ? job.original.turns : undefined,
+    fixedTurns: ev.goal === "restore" ? job.original.turns : ratio !== null ? Math.max(1, Math.round(job.original.turns * ratio)) : undefined,
     sides: ctx.sides,
     freeArea: ctx.slot.free_area,
   });
@@ -192,11 +203,25 @@ export function planJob(job: Job, options: PlanOptions = {}): Plan {
   const newKe = cal.ke === null ? null : (cal.ke * chosen.turns) / ctx.original.turns;
   const motor = motorReport(newKe, term.single, hotFactor, cal, series, supply);
   const original_motor = motorReport(cal.ke, ctx.original.terminal20, hotFactor, cal, series, supply);
+  let seriesPlan: SeriesPlan | null = null;
+  if (seriesSetup) {
+    const sp = planSeries(job, seriesSetup, {
+      turns: chosen.turns,
+      originalTurns: ctx.original.turns,
+      armature20: term.single,
+      hotTemperature: job.target.hot_temperature,
+      convertRatio: ratio,
+    });
+    seriesPlan = sp.plan;
+    warnings.push(...sp.warnings);
+  }
   if (series && !warnings.some((w) => w.code === "series_field")) {
     warnings.push({
       code: "series_field",
-      path: "armature.field",
-      message: "series (universal) motor: no constant field, so only what the armature alone determines is predicted (resistance, Ke scaled by turns); never run a series motor unloaded, it races until it bursts",
+      path: seriesSetup ? "armature.field" : "field_winding",
+      message: seriesSetup
+        ? "series (universal) motor: its figures are the series model's (motor.series), not the constant-field ones; locked-rotor figures only at a reduced voltage, never at mains; never run a large series motor unloaded"
+        : "series (universal) motor: only what the armature alone determines is predicted (resistance, Ke scaled by turns); give field_winding (the field's resistance, and its inductance or a locked-rotor reading on AC) with a no-load test or the nameplate for the motor's figures; never run a series motor unloaded, it races",
     });
   }
   for (const w of [...motor.warnings]) if (!warnings.some((x) => x.code === w.code)) warnings.push(w);
@@ -287,6 +312,7 @@ export function planJob(job: Job, options: PlanOptions = {}): Plan {
       lead_allowance: job.winding.lead_allowance,
     },
     calibration: cal,
+    series: seriesPlan,
     motor,
     original_motor,
     original: {

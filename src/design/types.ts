@@ -6,6 +6,7 @@ import type { Coil, WindingLayout } from "../winding/types.js";
 import type { SlotGeometry } from "../armature/slot.js";
 import type { LayerBuild } from "../armature/build.js";
 import type { MotorModel, MotorSummary, OperatingPoint } from "../motor/model.js";
+import type { SeriesPlan } from "./series.js";
 
 export type GoalKind = Job["target"]["goal"];
 
@@ -176,6 +177,8 @@ export interface Plan {
   resistance: ResistancePlan;
   wire: WirePlan;
   calibration: Calibration;
+  /** Series and universal motors with a described field: the series model's figures (design/series.ts); else null. */
+  series: SeriesPlan | null;
   motor: MotorReport;
   original_motor: MotorReport;
   original: {

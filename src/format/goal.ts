@@ -27,6 +27,7 @@ export function goalSummary(goal: GoalReport): string {
   if (achieved === null || err === null) return `the ${goal.kind.replace(/_/g, " ")} cannot be predicted: nothing calibrates the motor`;
   const signed = `${err >= 0 ? "+" : "−"}${Math.abs(err * 100).toFixed(1)} %`;
   if (goal.kind === "restore") return `copper area ${fig(achieved)} mm² against the original's ${fig(target)} mm² (${signed})`;
+  if (goal.kind === "convert") return `copper area ${fig(achieved)} mm² against the converted winding's ${fig(target)} mm² (${signed})`;
   const atMost = goal.kind === "stall_current" ? "at most " : "";
   return `${fig(achieved)} ${unit} against ${atMost}${fig(target)} ${unit} (${signed}, tolerance ${toleranceText(goal.kind, goal.tolerance)})`;
 }

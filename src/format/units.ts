@@ -37,6 +37,7 @@ export const GOAL_UNIT: Record<GoalKind, string> = {
   kv: "rpm/V",
   stall_current: "A",
   duty: "rpm",
+  convert: "mm2",
 };
 
 /**
@@ -46,6 +47,7 @@ export const GOAL_UNIT: Record<GoalKind, string> = {
 export function goalValue(kind: GoalKind, si: number | null | undefined): number | null {
   switch (kind) {
     case "restore":
+    case "convert":
       return convert(si, toMm2);
     case "no_load_speed":
     case "kv":

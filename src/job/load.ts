@@ -4,7 +4,7 @@
  * file: the CLI reads the text and hands it here.
  */
 import { LineCounter, parseDocument, isMap, isSeq, isScalar, isPair, visit, type Alias, type Node, type Document } from "yaml";
-import { z } from "zod";
+import type { z } from "zod";
 import { ArmwindError, type Problem } from "../errors.js";
 import { formatPath, nearest, type PathPart } from "./paths.js";
 

@@ -209,7 +209,7 @@ export function solveCoils(layout: WindingLayout, readings: number[]): CoilSolut
 
   if (inf.length > 0) {
     if (k === 1) {
-      steps = wins.map((w, i) => (Number.isFinite(readings[i]) ? readings[i] : Infinity));
+      steps = wins.map((_w, i) => (Number.isFinite(readings[i]) ? readings[i] : Infinity));
       if (inf.length === 1) {
         notes.push(
           `only r${inf[0] + 1} reads open: a single open coil would read the sum of the others across its bars, so check the meter contact and the lead on bars ${inf[0] + 1} and ${mod1(inf[0] + 2, C)}`,
