@@ -105,7 +105,10 @@ describe("the API is the CLI", () => {
   });
 
   it("a reading that is not a number is 422 naming its reading", async () => {
-    const web = await http(`${local.url}api/diagnose/jobs/blind-motor-0031.yaml`, { method: "POST", body: JSON.stringify({ bars: ["1.3", "x", "1.3", "1.3", "1.3"] }) });
+    const web = await http(`${local.url}api/diagnose/jobs/blind-motor-0031.yaml`, {
+      method: "POST",
+      body: JSON.stringify({ bars: ["1.3", "x", "1.3", "1.3", "1.3"] }),
+    });
     expect(web.status).toBe(422);
     expect(JSON.parse(web.body).errors[0]).toMatchObject({ code: "bad_quantity", path: "bars[1]" });
   });
@@ -155,7 +158,14 @@ describe("refusals", () => {
   it("a path that leaves the folder is refused", async () => {
     const link = join(shop, "jobs", "escape.yaml");
     symlinkSync(join(ROOT, "package.json"), link);
-    for (const p of ["api/plan/..%2Fpackage.json", "api/plan/jobs%2F..%2F..%2Fetc%2Fpasswd", "api/plan/%2Fetc%2Fpasswd", "api/plan/--help", "job/..%2F..%2Fetc%2Fpasswd", "api/job/jobs/escape.yaml"]) {
+    for (const p of [
+      "api/plan/..%2Fpackage.json",
+      "api/plan/jobs%2F..%2F..%2Fetc%2Fpasswd",
+      "api/plan/%2Fetc%2Fpasswd",
+      "api/plan/--help",
+      "job/..%2F..%2Fetc%2Fpasswd",
+      "api/job/jobs/escape.yaml",
+    ]) {
       const r = await http(`${shopServed.url}${p}`);
       expect(r.status, p).toBe(403);
     }
@@ -221,7 +231,10 @@ describe("saving a job", () => {
     const before = await open();
     const changed = before.text.replace("title:", "# edited in another window\ntitle:");
     writeFileSync(join(shop, file), changed);
-    const r = await http(`${shopServed.url}api/job/${file}`, { method: "PUT", body: JSON.stringify({ version: before.version, edits: [{ path: "title", text: "mine" }] }) });
+    const r = await http(`${shopServed.url}api/job/${file}`, {
+      method: "PUT",
+      body: JSON.stringify({ version: before.version, edits: [{ path: "title", text: "mine" }] }),
+    });
     expect(r.status).toBe(409);
     expect(JSON.parse(r.body).errors[0].code).toBe("changed_on_disk");
     expect(readFileSync(join(shop, file), "utf8")).toBe(changed);
@@ -229,7 +242,10 @@ describe("saving a job", () => {
 
   it("refuses (422) a change that makes the job invalid, and writes nothing", async () => {
     const before = await open();
-    const r = await http(`${shopServed.url}api/job/${file}`, { method: "PUT", body: JSON.stringify({ version: before.version, edits: [{ path: "armature.stack_length", text: "twelve mm" }] }) });
+    const r = await http(`${shopServed.url}api/job/${file}`, {
+      method: "PUT",
+      body: JSON.stringify({ version: before.version, edits: [{ path: "armature.stack_length", text: "twelve mm" }] }),
+    });
     expect(r.status).toBe(422);
     const e = JSON.parse(r.body).errors[0];
     expect(e).toMatchObject({ code: "bad_quantity", path: "armature.stack_length", file });

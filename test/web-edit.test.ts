@@ -7,8 +7,12 @@ import { ArmwindError } from "../src/errors.js";
 import { loadJobText, ROOT } from "./helpers/cli.js";
 
 const files = [
-  ...readdirSync(join(ROOT, "jobs")).filter((f) => f.endsWith(".yaml")).map((f) => join(ROOT, "jobs", f)),
-  ...readdirSync(join(ROOT, "templates")).filter((f) => f.endsWith(".yaml")).map((f) => join(ROOT, "templates", f)),
+  ...readdirSync(join(ROOT, "jobs"))
+    .filter((f) => f.endsWith(".yaml"))
+    .map((f) => join(ROOT, "jobs", f)),
+  ...readdirSync(join(ROOT, "templates"))
+    .filter((f) => f.endsWith(".yaml"))
+    .map((f) => join(ROOT, "templates", f)),
 ];
 const blind = readFileSync(join(ROOT, "jobs/blind-motor-0031.yaml"), "utf8");
 

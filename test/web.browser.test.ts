@@ -24,7 +24,10 @@ interface Started {
 /** `armwind serve …` as a process; resolves with its first lines once it listens. */
 function startServe(args: string[], wantLines = 1): Promise<Started> {
   return new Promise((done, fail) => {
-    const child = spawn(process.execPath, [CLI, "serve", "--port", "0", ...args], { stdio: ["ignore", "pipe", "pipe"], env: { ...process.env, ARMWIND_LOGBOOK: "" } });
+    const child = spawn(process.execPath, [CLI, "serve", "--port", "0", ...args], {
+      stdio: ["ignore", "pipe", "pipe"],
+      env: { ...process.env, ARMWIND_LOGBOOK: "" },
+    });
     const lines: string[] = [];
     const rl = createInterface({ input: child.stdout! });
     rl.on("line", (l) => {

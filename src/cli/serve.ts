@@ -15,10 +15,23 @@ export function serveCommand(yargs: Argv, io: Io, setStatus: (n: number) => void
     "The workbench: plan, card, readings and logbook in a web page, for this machine (or, with --host, the shop's network)",
     (y) =>
       y
-        .option("dir", { type: "string", default: ".", describe: "shop folder to serve (jobs, measured files, logbook), as the working folder of every command" })
+        .option("dir", {
+          type: "string",
+          default: ".",
+          describe: "shop folder to serve (jobs, measured files, logbook), as the working folder of every command",
+        })
         .option("port", { type: "number", default: 8417, describe: "port (0: any free port)" })
-        .option("host", { type: "string", default: "127.0.0.1", describe: "address to listen on; anything but loopback serves the network and needs the printed token" })
-        .option("allow-host", { type: "string", array: true, default: [] as string[], describe: "another name this machine is reached by (the Host header is checked against a list)" }),
+        .option("host", {
+          type: "string",
+          default: "127.0.0.1",
+          describe: "address to listen on; anything but loopback serves the network and needs the printed token",
+        })
+        .option("allow-host", {
+          type: "string",
+          array: true,
+          default: [] as string[],
+          describe: "another name this machine is reached by (the Host header is checked against a list)",
+        }),
     async (argv) => {
       setStatus(
         await guarded(io, false, async () => {
@@ -30,7 +43,8 @@ export function serveCommand(yargs: Argv, io: Io, setStatus: (n: number) => void
             // said below
           }
           if (!isDir) throw inputError("file_unreadable", "dir", `--dir ${argv.dir}: no such folder`);
-          if (!Number.isInteger(argv.port) || argv.port < 0 || argv.port > 65535) throw inputError("out_of_range", "port", `--port ${argv.port}: give a port from 0 to 65535`);
+          if (!Number.isInteger(argv.port) || argv.port < 0 || argv.port > 65535)
+            throw inputError("out_of_range", "port", `--port ${argv.port}: give a port from 0 to 65535`);
           const { serve } = await import("../web/server.js");
           const s = await serve({ dir, port: argv.port, host: argv.host, allowHost: argv["allow-host"].map(String) });
           io.out(`listening on ${s.url}`);

@@ -29,7 +29,10 @@ export function versionOf(text: string | Buffer): string {
 
 function errorResponse(e: unknown): Res {
   if (e instanceof ArmwindError) {
-    return json(httpStatus(e.status), { ok: false, errors: e.problems.map((p) => ({ code: p.code, message: p.message, file: p.file ?? null, line: p.line ?? null, column: p.column ?? null, path: p.path })) });
+    return json(httpStatus(e.status), {
+      ok: false,
+      errors: e.problems.map((p) => ({ code: p.code, message: p.message, file: p.file ?? null, line: p.line ?? null, column: p.column ?? null, path: p.path })),
+    });
   }
   throw e;
 }
@@ -71,7 +74,19 @@ async function saveJob(r: Req, ctx: Context, f: { rel: string; abs: string }): P
   const cur = openJob(f.abs, f.rel);
   if (isRes(cur)) return cur;
   if (b.version !== cur.version) {
-    return json(409, { ok: false, errors: [{ code: "changed_on_disk", message: `${f.rel} changed on disk since you opened it; nothing was saved: reload it (your changes are still in the form) and save again`, file: f.rel, line: null, column: null, path: "" }] });
+    return json(409, {
+      ok: false,
+      errors: [
+        {
+          code: "changed_on_disk",
+          message: `${f.rel} changed on disk since you opened it; nothing was saved: reload it (your changes are still in the form) and save again`,
+          file: f.rel,
+          line: null,
+          column: null,
+          path: "",
+        },
+      ],
+    });
   }
   let text: string;
   try {
@@ -114,7 +129,12 @@ async function card(r: Req, ctx: Context, f: { rel: string }): Promise<Res> {
     const run = await runCli(ctx.dir, ["card", f.rel, "-o", out, "--paper", paper, "--json"]);
     if (httpStatus(run.status) !== 200) return cliResponse(run);
     const made = JSON.parse(run.stdout) as { card: string; plan: { job_id: string } };
-    return { status: 200, type: "application/pdf", body: readFileSync(made.card), headers: { "content-disposition": `inline; filename="${made.plan.job_id}.pdf"` } };
+    return {
+      status: 200,
+      type: "application/pdf",
+      body: readFileSync(made.card),
+      headers: { "content-disposition": `inline; filename="${made.plan.job_id}.pdf"` },
+    };
   } finally {
     rmSync(out, { recursive: true, force: true });
   }
@@ -138,7 +158,11 @@ async function historySvg(r: Req, ctx: Context): Promise<Res> {
 async function diagnoseReadings(r: Req, ctx: Context, f: { rel: string }): Promise<Res> {
   const b = parseBody<{ bars?: unknown[]; temperature?: string; tolerance?: number }>(r);
   if (isRes(b)) return b;
-  const bars = (b.bars ?? []).map((x) => String(x ?? "").trim().replace(/,/g, "."));
+  const bars = (b.bars ?? []).map((x) =>
+    String(x ?? "")
+      .trim()
+      .replace(/,/g, "."),
+  );
   const args = ["diagnose", f.rel, `--bars=${bars.join(",")}`, "--json"];
   if (b.temperature) args.push(`--temperature=${b.temperature}`);
   if (typeof b.tolerance === "number") args.push(`--tolerance=${b.tolerance}`);
@@ -151,7 +175,8 @@ export async function handleApi(r: Req, ctx: Context): Promise<Res> {
   if (!m) return problem(404, "not_found", `no such endpoint: ${r.path}`);
   const [, what, rest] = m;
   const stdin = r.body.toString("utf8");
-  if ((what === "plan" || what === "check") && rest === undefined && r.method === "POST") return cliResponse(await runCli(ctx.dir, [what, "-", "--json"], stdin));
+  if ((what === "plan" || what === "check") && rest === undefined && r.method === "POST")
+    return cliResponse(await runCli(ctx.dir, [what, "-", "--json"], stdin));
   if (what === "jobs" && r.method === "GET") return json(200, await listJobs(ctx.dir));
   if (what === "wires" && r.method === "GET") return cliResponse(await runCli(ctx.dir, ["wires", "--json"]));
   if (what === "history" && r.method === "GET") {
@@ -162,7 +187,15 @@ export async function handleApi(r: Req, ctx: Context): Promise<Res> {
   if (what === "new" && r.method === "POST") {
     const b = parseBody<{ style?: string; id?: string }>(r);
     if (isRes(b)) return b;
-    return cliResponse(await runCli(ctx.dir, ["new", `--style=${b.style ?? ""}`, `--id=${b.id ?? ""}`, `--output=jobs/${/^[A-Za-z0-9._-]+$/.test(b.id ?? "") ? b.id : "job"}.yaml`, "--json"]));
+    return cliResponse(
+      await runCli(ctx.dir, [
+        "new",
+        `--style=${b.style ?? ""}`,
+        `--id=${b.id ?? ""}`,
+        `--output=jobs/${/^[A-Za-z0-9._-]+$/.test(b.id ?? "") ? b.id : "job"}.yaml`,
+        "--json",
+      ]),
+    );
   }
   if (rest === undefined) return problem(404, "not_found", `no such endpoint: ${r.path}`);
   const f = fileOf(ctx, rest);

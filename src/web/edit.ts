@@ -35,7 +35,11 @@ function parse(text: string): Document {
 function inline(edit: FieldEdit): string {
   const typed = parseDocument(edit.text);
   if (typed.errors.length) {
-    throw new ArmwindError({ code: "bad_yaml", path: edit.path, message: `"${edit.text}" is not a value YAML can read: ${typed.errors[0].message.split("\n")[0]}` });
+    throw new ArmwindError({
+      code: "bad_yaml",
+      path: edit.path,
+      message: `"${edit.text}" is not a value YAML can read: ${typed.errors[0].message.split("\n")[0]}`,
+    });
   }
   const t = edit.text.trim();
   if (!t.includes("\n") && !t.includes(" #") && !t.startsWith("#")) return t;
@@ -63,10 +67,15 @@ function insert(text: string, doc: Document, parentPath: (string | number)[], ke
     return insert(text, doc, up, name, `\n${" ".repeat(2 * parentPath.length)}${key}: ${value}`);
   }
   if (!isMap(parent) || parent.flow || !parent.range) {
-    throw new ArmwindError({ code: "bad_yaml", path: [...parentPath, key].join("."), message: "cannot add a key inside a one-line { … } map from the form; edit the whole map's field or the file" });
+    throw new ArmwindError({
+      code: "bad_yaml",
+      path: [...parentPath, key].join("."),
+      message: "cannot add a key inside a one-line { … } map from the form; edit the whole map's field or the file",
+    });
   }
   const last = parent.items[parent.items.length - 1] as Pair<Node, Node> | undefined;
-  if (!last || !isScalar(last.key) || !last.key.range) throw new ArmwindError({ code: "bad_yaml", path: parentPath.join("."), message: "cannot add to an empty map from the form" });
+  if (!last || !isScalar(last.key) || !last.key.range)
+    throw new ArmwindError({ code: "bad_yaml", path: parentPath.join("."), message: "cannot add to an empty map from the form" });
   const indent = last.key.range[0] - lineStart(text, last.key.range[0]);
   const end = last.value?.range ? lineEnd(text, Math.max(last.value.range[1] - 1, last.key.range[1])) : lineEnd(text, last.key.range[1]);
   return text.slice(0, end) + `\n${" ".repeat(indent)}${key}:${value.startsWith("\n") ? "" : " "}${value}` + text.slice(end);
@@ -78,7 +87,12 @@ function remove(text: string, doc: Document, path: (string | number)[]): string 
   if (!isMap(parent)) return text;
   const pair = pairOf(parent, path[path.length - 1]);
   if (!pair || !isScalar(pair.key) || !pair.key.range) return text;
-  if (parent.flow) throw new ArmwindError({ code: "bad_yaml", path: path.join("."), message: "cannot remove a key from a one-line { … } map from the form; edit the whole map's field" });
+  if (parent.flow)
+    throw new ArmwindError({
+      code: "bad_yaml",
+      path: path.join("."),
+      message: "cannot remove a key from a one-line { … } map from the form; edit the whole map's field",
+    });
   const value = pair.value as Node | null;
   const from = lineStart(text, pair.key.range[0]);
   const to = lineEnd(text, value?.range ? Math.max(value.range[1] - 1, pair.key.range[1]) : pair.key.range[1]);
@@ -93,7 +107,7 @@ function applyOne(text: string, edit: FieldEdit): string {
   if (edit.text.trim() === "") return remove(text, doc, path);
   const value = inline(edit);
   const node = doc.getIn(path, true) as Node | undefined;
-  if (node && node.range) {
+  if (node?.range) {
     const [start, end] = node.range;
     return text.slice(0, start) + value + text.slice(end);
   }

@@ -41,7 +41,9 @@ function leaf(node: Json, path: (string | number)[], doc: Document, required: bo
   let input: string;
   const choices = Array.isArray(node.enum) ? (node.enum as unknown[]).map(String) : node.type === "boolean" ? ["true", "false"] : null;
   if (choices) {
-    const opts = ["", ...choices].map((c) => `<option value="${esc(c)}"${c === value ? " selected" : ""}>${c ? esc(c) : required ? "(choose)" : "(default)"}</option>`).join("");
+    const opts = ["", ...choices]
+      .map((c) => `<option value="${esc(c)}"${c === value ? " selected" : ""}>${c ? esc(c) : required ? "(choose)" : "(default)"}</option>`)
+      .join("");
     input = `<select id="${id}" name="${esc(p)}" data-field="${esc(p)}">${opts}</select>`;
   } else {
     const mode = node.type === "integer" ? ` inputmode="numeric"` : "";
@@ -65,7 +67,9 @@ function section(node: Json, path: (string | number)[], doc: Document): string {
     const sub = [...path, k];
     if (isObject(v) && isObject(v.properties) && !Array.isArray(v.anyOf)) {
       const help = typeof v.description === "string" ? `<small class="help">${esc(v.description)}</small>` : "";
-      parts.push(`<fieldset data-path="${esc(pathText(sub))}"><legend>${esc(k.replace(/_/g, " "))}</legend>${help}${section(v, sub, doc)}<output class="problem" data-for="${esc(pathText(sub))}"></output></fieldset>`);
+      parts.push(
+        `<fieldset data-path="${esc(pathText(sub))}"><legend>${esc(k.replace(/_/g, " "))}</legend>${help}${section(v, sub, doc)}<output class="problem" data-for="${esc(pathText(sub))}"></output></fieldset>`,
+      );
     } else parts.push(leaf(v, sub, doc, required.has(k)));
   }
   return parts.join("\n");

@@ -47,12 +47,23 @@ const refuse = (status: number, code: string, message: string): Refusal => ({ st
 /** Refuse a Host header that is not an address this server serves (421: the request reached the wrong server). */
 export function checkHost(host: string | undefined, allowed: Set<string>): Refusal | undefined {
   if (!host) return refuse(421, "host_refused", "the request has no Host header");
-  if (!allowed.has(hostOnly(host))) return refuse(421, "host_refused", `this server does not answer for the host "${host}"; start it with --allow-host ${hostOnly(host)} if that name is yours`);
+  if (!allowed.has(hostOnly(host)))
+    return refuse(
+      421,
+      "host_refused",
+      `this server does not answer for the host "${host}"; start it with --allow-host ${hostOnly(host)} if that name is yours`,
+    );
   return undefined;
 }
 
 /** Refuse a request that changes something when it comes from another site (its Origin is present and foreign). */
-export function checkOrigin(method: string, origin: string | undefined, fetchSite: string | undefined, host: string | undefined, allowed: Set<string>): Refusal | undefined {
+export function checkOrigin(
+  method: string,
+  origin: string | undefined,
+  fetchSite: string | undefined,
+  host: string | undefined,
+  allowed: Set<string>,
+): Refusal | undefined {
   if (method === "GET" || method === "HEAD") return undefined;
   if (fetchSite === "cross-site") return refuse(403, "origin_refused", "a request from another site may not change anything here");
   if (origin === undefined) return undefined;

@@ -86,7 +86,16 @@ export async function listJobs(dir: string, opts: { verdicts?: boolean } = {}): 
       title: field(text, "title"),
       family: field(text, "family"),
       verdict,
-      verdict_detail: verdict === "feasible" ? "a winding meets the goal" : verdict === "infeasible" ? "no winding meets the goal (closest shown)" : verdict === "unknown" ? "" : (out.errors?.[0] ? `${out.errors[0].message} [${out.errors[0].code}]` : "cannot be planned"),
+      verdict_detail:
+        verdict === "feasible"
+          ? "a winding meets the goal"
+          : verdict === "infeasible"
+            ? "no winding meets the goal (closest shown)"
+            : verdict === "unknown"
+              ? ""
+              : out.errors?.[0]
+                ? `${out.errors[0].message} [${out.errors[0].code}]`
+                : "cannot be planned",
       warnings: out.warnings?.length ?? 0,
       last_record: last ? { file: last.file, date: last.date, checks_ok: last.checks_ok } : null,
     });

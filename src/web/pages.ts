@@ -53,7 +53,9 @@ export function layout(title: string, main: string, page: string, data: unknown 
 async function listPage(ctx: Context): Promise<Res> {
   const { jobs } = await listJobs(ctx.dir, { verdicts: false });
   const rows = jobs.map((j) => {
-    const rec = j.last_record ? `${esc(j.last_record.date)} <span class="badge ${j.last_record.checks_ok ? "ok" : "bad"}">${j.last_record.checks_ok ? "checks passed" : "check failed"}</span>` : "—";
+    const rec = j.last_record
+      ? `${esc(j.last_record.date)} <span class="badge ${j.last_record.checks_ok ? "ok" : "bad"}">${j.last_record.checks_ok ? "checks passed" : "check failed"}</span>`
+      : "—";
     const f = encodeURI(j.file);
     return `<tr><td><a class="job" href="/job/${f}">${esc(j.id ?? j.file)}</a><div class="sub">${esc(j.title ?? "")}</div><div class="sub file">${esc(j.file)}</div></td>
 <td class="verdict-cell" data-check="${esc(j.file)}"><span class="sub">planning…</span></td>
@@ -92,7 +94,15 @@ function jobPage(ctx: Context, rel: string): Res {
 <output class="problem" data-for=""></output>
 ${form}</form></section>
 <section class="plan-col"><div id="plan" aria-live="polite"><p class="sub">planning…</p></div></section></div>`;
-  return html(200, layout(String(doc.get("id") ?? f.rel), main, "job", { file: f.rel, text: f.text, version: versionOf(f.text), fixedGoal: (GOALS as readonly string[]).includes("fixed") }));
+  return html(
+    200,
+    layout(String(doc.get("id") ?? f.rel), main, "job", {
+      file: f.rel,
+      text: f.text,
+      version: versionOf(f.text),
+      fixedGoal: (GOALS as readonly string[]).includes("fixed"),
+    }),
+  );
 }
 
 function benchPage(ctx: Context, rel: string): Res {
@@ -105,7 +115,7 @@ function benchPage(ctx: Context, rel: string): Res {
 <p class="caution">Null the test leads first. Read bar to bar stepping round the commutator: r1 between bar 1 and bar 2, … the last between the last bar and bar 1.</p>
 <div class="split"><section><form id="bench-form" autocomplete="off">
 <div class="row"><label>date <input name="date" type="date" value="${today}"></label><label>winding temperature <input name="temperature" value="20 C" placeholder="21 C"></label><label>meter resolution <input name="meter_resolution" placeholder="0.001 ohm"></label></div>
-<div id="grid" class="grid"><p class="sub">loading the coil table…</p></div>
+<div id="grid" class="readings"><p class="sub">loading the coil table…</p></div>
 <output class="problem" data-for=""></output>
 <fieldset><legend>more readings (optional)</legend>
 <div class="row"><label>terminal resistance <input name="terminal_resistance" placeholder="1.57 ohm"></label></div>

@@ -22,7 +22,6 @@ export interface Context {
   maxBody: number;
 }
 
-
 /** A JSON error in the CLI's shape. */
 export function problem(status: number, code: string, message: string, path = ""): Res {
   return json(status, { ok: false, errors: [{ code, message, file: null, line: null, column: null, path }] });
@@ -31,4 +30,3 @@ export function problem(status: number, code: string, message: string, path = ""
 export function json(status: number, value: unknown): Res {
   return { status, type: "application/json; charset=utf-8", body: JSON.stringify(value, null, 2) + "\n" };
 }
-

@@ -76,10 +76,19 @@ function gate(req: IncomingMessage, url: URL, allowed: Set<string>, token: strin
     if (q !== null && tokenMatches(q, token) && (req.method === "GET" || req.method === "HEAD")) {
       // the printed link: turn the token into a same-site, HTTP-only cookie and drop it from the address
       url.searchParams.delete("token");
-      return { status: 303, type: "text/plain; charset=utf-8", body: "", headers: { location: url.pathname + url.search, "set-cookie": `${TOKEN_COOKIE}=${token}; HttpOnly; SameSite=Strict; Path=/` } };
+      return {
+        status: 303,
+        type: "text/plain; charset=utf-8",
+        body: "",
+        headers: { location: url.pathname + url.search, "set-cookie": `${TOKEN_COOKIE}=${token}; HttpOnly; SameSite=Strict; Path=/` },
+      };
     }
     if (!tokenMatches(presentedToken(req.headers.authorization, req.headers.cookie), token)) {
-      return problem(401, "token_required", "this workbench serves the network: open the link it printed when it started (it carries the token), or send Authorization: Bearer <token>");
+      return problem(
+        401,
+        "token_required",
+        "this workbench serves the network: open the link it printed when it started (it carries the token), or send Authorization: Bearer <token>",
+      );
     }
   }
   const origin = typeof req.headers.origin === "string" ? req.headers.origin : undefined;

@@ -1,7 +1,6 @@
 // armwind workbench: the one small script of the pages. It draws what the API answers (the CLI's
 // own --json output) and sends what the user types; every figure, rule and verdict comes from the
 // server. Plain browser JavaScript, no build step.
-"use strict";
 
 const $ = (sel, root = document) => root.querySelector(sel);
 const $$ = (sel, root = document) => Array.from(root.querySelectorAll(sel));
@@ -129,7 +128,10 @@ function initJob() {
       s.textContent = "saved";
       s.className = "ok";
     } else {
-      s.textContent = status === 409 ? "not saved: the file changed on disk since you opened it; reload the page (copy your changes first)" : "not saved: fix the fields marked in red";
+      s.textContent =
+        status === 409
+          ? "not saved: the file changed on disk since you opened it; reload the page (copy your changes first)"
+          : "not saved: fix the fields marked in red";
       s.className = "bad";
       showProblems(form, json.errors || []);
     }
@@ -155,7 +157,11 @@ function renderPlan(p) {
   box.append(
     h("p", { class: `verdict ${p.feasible ? "ok" : "warn"}` }, p.feasible ? "meets the goal" : "no winding meets the goal: the closest is shown"),
     h("p", { class: "big", id: "chosen" }, windingLine(d.turns_per_coil, d.wire.label, d.strands_in_hand)),
-    h("p", { class: "goal" }, `${p.goal.kind.replace(/_/g, " ")}: ${p.goal.summary || `${fmt(p.goal.achieved_value)} against ${fmt(p.goal.target_value)} ${p.goal.unit}`}`),
+    h(
+      "p",
+      { class: "goal" },
+      `${p.goal.kind.replace(/_/g, " ")}: ${p.goal.summary || `${fmt(p.goal.achieved_value)} against ${fmt(p.goal.target_value)} ${p.goal.unit}`}`,
+    ),
   );
   const m = p.motor || {};
   const om = p.original_motor || {};
@@ -163,7 +169,11 @@ function renderPlan(p) {
   const t = h("table", { class: "compare" }, h("thead", {}, h("tr", {}, h("th"), h("th", {}, "original"), h("th", {}, "new"), h("th"))));
   const tb = h("tbody");
   tb.append(
-    row("winding", o.turns_per_coil ? windingLine(o.turns_per_coil, o.wire?.label ?? "", o.strands_in_hand ?? 1) : "—", windingLine(d.turns_per_coil, d.wire.label, d.strands_in_hand)),
+    row(
+      "winding",
+      o.turns_per_coil ? windingLine(o.turns_per_coil, o.wire?.label ?? "", o.strands_in_hand ?? 1) : "—",
+      windingLine(d.turns_per_coil, d.wire.label, d.strands_in_hand),
+    ),
     row("copper fill", pct(o.copper_fill), pct(d.copper_fill)),
     row("terminal resistance (20 °C)", fmt(o.terminal_ohm, 4), fmt(r.terminal_ohm, 4), "Ω"),
     row("bar to bar (20 °C)", "", fmt(r.bar_to_bar_ohm, 4), "Ω"),
@@ -177,7 +187,15 @@ function renderPlan(p) {
   );
   t.append(tb);
   box.append(t);
-  if (p.warnings?.length) box.append(h("h3", {}, "Warnings"), h("ul", { class: "warnings" }, p.warnings.map((w) => h("li", {}, `${w.path ? w.path + ": " : ""}${w.message} [${w.code}]`))));
+  if (p.warnings?.length)
+    box.append(
+      h("h3", {}, "Warnings"),
+      h(
+        "ul",
+        { class: "warnings" },
+        p.warnings.map((w) => h("li", {}, `${w.path ? w.path + ": " : ""}${w.message} [${w.code}]`)),
+      ),
+    );
   box.append(h("h3", {}, `Candidates (${p.candidates.length} shown of ${p.candidates_total})`), candidateChart(p), h("div", { id: "picked" }));
 }
 
@@ -192,12 +210,19 @@ function candidateChart(p) {
   const turns = cands.map((c) => c.turns_per_coil);
   const lo = Math.min(...turns) - 1;
   const hi = Math.max(...turns) + 1;
-  const W = 640, L = 150, T = 10, rowH = 26, H = T + rows.length * rowH + 40;
+  const W = 640,
+    L = 150,
+    T = 10,
+    rowH = 26,
+    H = T + rows.length * rowH + 40;
   const x = (n) => L + ((n - lo) / (hi - lo || 1)) * (W - L - 20);
   const y = (k) => T + rows.indexOf(k) * rowH + rowH / 2;
   const svg = h("svg:svg", { viewBox: `0 0 ${W} ${H}`, class: "chart", role: "img", "aria-label": "candidates: turns against wire" });
   rows.forEach((k) => {
-    svg.append(h("svg:line", { x1: L, x2: W - 20, y1: y(k), y2: y(k), class: "grid" }), h("svg:text", { x: L - 8, y: y(k) + 4, "text-anchor": "end", class: "label" }, k));
+    svg.append(
+      h("svg:line", { x1: L, x2: W - 20, y1: y(k), y2: y(k), class: "gridline" }),
+      h("svg:text", { x: L - 8, y: y(k) + 4, "text-anchor": "end", class: "label" }, k),
+    );
   });
   const step = Math.max(1, Math.ceil((hi - lo) / 10));
   for (let n = Math.ceil(lo); n <= hi; n += step) svg.append(h("svg:text", { x: x(n), y: H - 22, "text-anchor": "middle", class: "label" }, String(n)));
@@ -209,12 +234,34 @@ function candidateChart(p) {
     const why = c.rejected_because.length ? `rejected: ${c.rejected_because.join(", ")}` : c.meets_goal ? "meets the goal" : "misses the goal";
     const mark = h(
       "svg:circle",
-      { cx: x(c.turns_per_coil), cy: y(key(c)), r: isChosen ? 9 : 6, class: `cand ${cls}`, tabindex: 0, "data-turns": c.turns_per_coil, "data-wire": c.wire, "data-strands": c.strands_in_hand, onclick: () => pick(c), onkeydown: (e) => e.key === "Enter" && pick(c) },
+      {
+        cx: x(c.turns_per_coil),
+        cy: y(key(c)),
+        r: isChosen ? 9 : 6,
+        class: `cand ${cls}`,
+        tabindex: 0,
+        "data-turns": c.turns_per_coil,
+        "data-wire": c.wire,
+        "data-strands": c.strands_in_hand,
+        onclick: () => pick(c),
+        onkeydown: (e) => e.key === "Enter" && pick(c),
+      },
       h("svg:title", {}, `${windingLine(c.turns_per_coil, c.wire, c.strands_in_hand)}: ${fmt(c.achieved_value)} ${p.goal.unit}; ${why}`),
     );
     svg.append(mark);
   }
-  const legend = h("p", { class: "legend" }, h("span", { class: "dot chosen" }), " chosen ", h("span", { class: "dot meets" }), " meets the goal ", h("span", { class: "dot misses" }), " misses it ", h("span", { class: "dot rejected" }), " rejected (tap for the reason)");
+  const legend = h(
+    "p",
+    { class: "legend" },
+    h("span", { class: "dot chosen" }),
+    " chosen ",
+    h("span", { class: "dot meets" }),
+    " meets the goal ",
+    h("span", { class: "dot misses" }),
+    " misses it ",
+    h("span", { class: "dot rejected" }),
+    " rejected (tap for the reason)",
+  );
   return h("div", {}, svg, legend);
 }
 
@@ -244,12 +291,20 @@ function pick(c) {
   );
   if (data.fixedGoal) {
     box.append(
-      h("button", { type: "button", id: "fix", onclick: () => {
-        setField("target.goal", "fixed");
-        setField("target.fixed", `{ turns: ${c.turns_per_coil}, wire: ${c.wire}, strands: ${c.strands_in_hand} }`);
-        $("#save-status").textContent = "unsaved changes";
-        preview();
-      } }, "Fix this winding into the job (goal: fixed)"),
+      h(
+        "button",
+        {
+          type: "button",
+          id: "fix",
+          onclick: () => {
+            setField("target.goal", "fixed");
+            setField("target.fixed", `{ turns: ${c.turns_per_coil}, wire: ${c.wire}, strands: ${c.strands_in_hand} }`);
+            $("#save-status").textContent = "unsaved changes";
+            preview();
+          },
+        },
+        "Fix this winding into the job (goal: fixed)",
+      ),
     );
   } else box.append(h("p", { class: "sub" }, "Fixing a chosen winding into the job needs goal: fixed, which this version of armwind does not have yet."));
 }
@@ -272,7 +327,14 @@ async function initBench() {
   const expected = json.resistance?.bar_to_bar_ohm;
   grid.replaceChildren(
     ...Array.from({ length: C }, (_, i) =>
-      h("label", { class: "reading", "data-index": i }, h("span", { class: "r" }, `r${i + 1}`), h("span", { class: "bars" }, `bar ${i + 1}–${i + 2 > C ? 1 : i + 2}`), h("input", { name: `r${i + 1}`, "data-reading": i, inputmode: "decimal", placeholder: fmt(expected, 4), autocomplete: "off" }), h("span", { class: "judge" })),
+      h(
+        "label",
+        { class: "reading", "data-index": i },
+        h("span", { class: "r" }, `r${i + 1}`),
+        h("span", { class: "bars" }, `bar ${i + 1}–${i + 2 > C ? 1 : i + 2}`),
+        h("input", { name: `r${i + 1}`, "data-reading": i, inputmode: "decimal", placeholder: fmt(expected, 4), autocomplete: "off" }),
+        h("span", { class: "judge" }),
+      ),
     ),
   );
   drawDiagram([]);
@@ -303,7 +365,10 @@ async function judge() {
   bench.shown = seq;
   for (const l of $$(".reading")) l.classList.remove("fail", "pass", "invalid"), ($(".judge", l).textContent = "");
   if (status !== 200) {
-    showProblems(form, (json.errors || []).map((e) => ({ ...e, path: "" })));
+    showProblems(
+      form,
+      (json.errors || []).map((e) => ({ ...e, path: "" })),
+    );
     for (const e of json.errors || []) {
       const m = /^bars\[(\d+)\]$/.exec(e.path);
       if (m) $$(".reading")[Number(m[1])]?.classList.add("invalid");
@@ -317,7 +382,13 @@ async function judge() {
   drawDiagram(suspects.flatMap((s) => s.coils));
   $("#verdict").replaceChildren(
     h("p", { class: `verdict ${json.ok ? "ok" : "bad"}` }, json.ok ? "every coil within tolerance" : "out of tolerance"),
-    suspects.length ? h("ul", { class: "suspects" }, suspects.map((s) => h("li", { "data-kind": s.kind }, s.message))) : h("p", {}, "No coil stands out."),
+    suspects.length
+      ? h(
+          "ul",
+          { class: "suspects" },
+          suspects.map((s) => h("li", { "data-kind": s.kind }, s.message)),
+        )
+      : h("p", {}, "No coil stands out."),
     ...(json.notes || []).map((n) => h("p", { class: "sub" }, n)),
   );
 }
@@ -335,7 +406,8 @@ function markReadings(d) {
     const bad = r.verdict ? r.verdict !== "ok" && r.verdict !== "pass" : failed.has(i);
     l.classList.add(bad ? "fail" : "pass");
     const off = r.of_median ?? r.of_average;
-    $(".judge", l).textContent = `${bad ? "out" : "within"}${off !== undefined ? `: ${off >= 1 ? "+" : "−"}${fmt(Math.abs(off - 1) * 100, 2)} % of the set` : ""}`;
+    $(".judge", l).textContent =
+      `${bad ? "out" : "within"}${off !== undefined ? `: ${off >= 1 ? "+" : "−"}${fmt(Math.abs(off - 1) * 100, 2)} % of the set` : ""}`;
   });
 }
 
@@ -344,26 +416,48 @@ function drawDiagram(suspectCoils) {
   const p = bench.plan;
   if (!p) return;
   const C = bench.bars;
-  const S = 440, cx = S / 2, cy = S / 2, R = 120;
+  const S = 440,
+    cx = S / 2,
+    cy = S / 2,
+    R = 120;
   const ang = (bar) => -Math.PI / 2 + ((bar - 1) / C) * 2 * Math.PI;
   const svg = h("svg:svg", { viewBox: `0 0 ${S} ${S}`, class: "diagram", role: "img", "aria-label": "commutator and coils" });
   svg.append(h("svg:circle", { cx, cy, r: R, class: "ring" }));
   for (let b = 1; b <= C; b++) {
     const a = ang(b);
     svg.append(h("svg:circle", { cx: cx + R * Math.cos(a), cy: cy + R * Math.sin(a), r: 5, class: "bar" }));
-    if (C <= 40 || b % 2 === 1) svg.append(h("svg:text", { x: cx + (R - 18) * Math.cos(a), y: cy + (R - 18) * Math.sin(a) + 4, "text-anchor": "middle", class: "label" }, String(b)));
+    if (C <= 40 || b % 2 === 1)
+      svg.append(h("svg:text", { x: cx + (R - 18) * Math.cos(a), y: cy + (R - 18) * Math.sin(a) + 4, "text-anchor": "middle", class: "label" }, String(b)));
   }
   const bad = new Set(suspectCoils);
   for (const c of p.coils) {
     if (c.dead) continue;
-    const a1 = ang(c.start_bar), a2 = ang(c.end_bar);
+    const a1 = ang(c.start_bar),
+      a2 = ang(c.end_bar);
     const mid = Math.atan2(Math.sin(a1) + Math.sin(a2), Math.cos(a1) + Math.cos(a2));
     const out = R + 28 + (bad.has(c.index) ? 6 : 0);
     const path = `M ${cx + R * Math.cos(a1)} ${cy + R * Math.sin(a1)} Q ${cx + out * 1.25 * Math.cos(mid)} ${cy + out * 1.25 * Math.sin(mid)} ${cx + R * Math.cos(a2)} ${cy + R * Math.sin(a2)}`;
-    svg.append(h("svg:path", { d: path, class: `coil${bad.has(c.index) ? " suspect" : ""}`, "data-coil": c.index }, h("svg:title", {}, `coil ${c.index}: bars ${c.start_bar}–${c.end_bar}, slots ${c.go_slot}–${c.return_slot}`)));
+    svg.append(
+      h(
+        "svg:path",
+        { d: path, class: `coil${bad.has(c.index) ? " suspect" : ""}`, "data-coil": c.index },
+        h("svg:title", {}, `coil ${c.index}: bars ${c.start_bar}–${c.end_bar}, slots ${c.go_slot}–${c.return_slot}`),
+      ),
+    );
     // the label just beyond the arc's apex (the curve's midpoint: a quarter of each end, half the control point)
-    const apex = Math.hypot(0.25 * (Math.cos(a1) + Math.cos(a2)) * R + 0.5 * out * 1.25 * Math.cos(mid), 0.25 * (Math.sin(a1) + Math.sin(a2)) * R + 0.5 * out * 1.25 * Math.sin(mid)) + 18;
-    if (bad.has(c.index)) svg.append(h("svg:text", { x: cx + apex * Math.cos(mid), y: cy + apex * Math.sin(mid) + 5, "text-anchor": "middle", class: "suspect-label", "data-suspect": c.index }, `coil ${c.index}`));
+    const apex =
+      Math.hypot(
+        0.25 * (Math.cos(a1) + Math.cos(a2)) * R + 0.5 * out * 1.25 * Math.cos(mid),
+        0.25 * (Math.sin(a1) + Math.sin(a2)) * R + 0.5 * out * 1.25 * Math.sin(mid),
+      ) + 18;
+    if (bad.has(c.index))
+      svg.append(
+        h(
+          "svg:text",
+          { x: cx + apex * Math.cos(mid), y: cy + apex * Math.sin(mid) + 5, "text-anchor": "middle", class: "suspect-label", "data-suspect": c.index },
+          `coil ${c.index}`,
+        ),
+      );
   }
   $("#diagram").replaceChildren(svg);
 }
@@ -384,7 +478,10 @@ async function logRecord() {
   } else {
     s.className = "bad";
     s.textContent = "not logged";
-    showProblems(form, (json.errors || []).map((e) => ({ ...e, path: "" })));
+    showProblems(
+      form,
+      (json.errors || []).map((e) => ({ ...e, path: "" })),
+    );
   }
 }
 
@@ -417,12 +514,32 @@ async function showHistory() {
       ? h(
           "table",
           { class: "records" },
-          h("thead", {}, h("tr", {}, head.map((x) => h("th", {}, x)))),
+          h(
+            "thead",
+            {},
+            h(
+              "tr",
+              {},
+              head.map((x) => h("th", {}, x)),
+            ),
+          ),
           h(
             "tbody",
             {},
             recs.map((r) =>
-              h("tr", {}, h("td", {}, r.date), h("td", {}, r.job_id), h("td", {}, r.family ?? "—"), h("td", {}, windingLine(r.turns_per_coil, r.wire, r.strands_in_hand)), h("td", {}, fmt(r.terminal_predicted_ohm, 4)), h("td", {}, fmt(r.terminal_measured_ohm, 4)), h("td", {}, fmt(r.no_load_speed_predicted_rpm)), h("td", {}, fmt(r.no_load_speed_measured_rpm)), h("td", { class: r.checks_ok ? "ok" : "bad" }, r.checks_ok ? "passed" : `failed: ${r.checks_failed.join(", ")}`)),
+              h(
+                "tr",
+                {},
+                h("td", {}, r.date),
+                h("td", {}, r.job_id),
+                h("td", {}, r.family ?? "—"),
+                h("td", {}, windingLine(r.turns_per_coil, r.wire, r.strands_in_hand)),
+                h("td", {}, fmt(r.terminal_predicted_ohm, 4)),
+                h("td", {}, fmt(r.terminal_measured_ohm, 4)),
+                h("td", {}, fmt(r.no_load_speed_predicted_rpm)),
+                h("td", {}, fmt(r.no_load_speed_measured_rpm)),
+                h("td", { class: r.checks_ok ? "ok" : "bad" }, r.checks_ok ? "passed" : `failed: ${r.checks_failed.join(", ")}`),
+              ),
             ),
           ),
         )
@@ -437,8 +554,17 @@ async function initList() {
   for (const cell of $$("[data-check]")) {
     const { status, json } = await api("GET", `/api/check/${enc(cell.dataset.check)}`);
     const w = (json.warnings || []).length;
-    const [cls, text] = status === 200 ? (json.feasible ? ["ok", "a winding meets the goal"] : ["warn", "no winding meets the goal"]) : ["bad", (json.errors || []).map((e) => `${e.message} [${e.code}]`)[0] || "cannot be planned"];
-    cell.replaceChildren(h("span", { class: `badge ${cls}` }, status === 200 ? text : "invalid"), w ? h("span", { class: "sub" }, ` ${w} warning${w > 1 ? "s" : ""}`) : "", status === 200 ? "" : h("div", { class: "sub" }, text));
+    const [cls, text] =
+      status === 200
+        ? json.feasible
+          ? ["ok", "a winding meets the goal"]
+          : ["warn", "no winding meets the goal"]
+        : ["bad", (json.errors || []).map((e) => `${e.message} [${e.code}]`)[0] || "cannot be planned"];
+    cell.replaceChildren(
+      h("span", { class: `badge ${cls}` }, status === 200 ? text : "invalid"),
+      w ? h("span", { class: "sub" }, ` ${w} warning${w > 1 ? "s" : ""}`) : "",
+      status === 200 ? "" : h("div", { class: "sub" }, text),
+    );
     cell.dataset.verdict = status === 200 ? (json.feasible ? "feasible" : "infeasible") : "invalid";
   }
 }
