@@ -10,8 +10,10 @@ import { windingSpec } from "../design/context.js";
 import { layoutWinding } from "../winding/layout.js";
 import { ArmwindError, inputError, type Problem } from "../errors.js";
 import { parseQuantity } from "../job/units.js";
+import { rangeProblem } from "../job/ranges.js";
 import { loadYaml } from "../job/load.js";
-import { readText, guarded, loadJob, type Io } from "./io.js";
+import { readText, readUserFile, guarded, loadJob, type Io } from "./io.js";
+import { RECORD_FILE_LIMIT } from "../files.js";
 import type { Where } from "./plan.js";
 import { logbookOptionsFor } from "./learning.js";
 import { loadMeasured } from "./log.js";
@@ -42,21 +44,22 @@ export function parseBars(text: string, bars: number): number[] {
   const out = items.map((s, i) => {
     const r = parseQuantity(s === "" ? "x" : s, "resistance");
     if (!r.ok) {
-      problems.push({ code: "bad_quantity", path: `bars[${i}]`, message: `r${i + 1} "${s}": ${r.message}` });
+      problems.push({ code: "bad_quantity", path: `--bars[${i}]`, message: `r${i + 1} "${s}": ${r.message}` });
       return NaN;
     }
-    if (r.value < 0) problems.push({ code: "out_of_range", path: `bars[${i}]`, message: `r${i + 1} must be 0 Ω or more, got "${s}"` });
+    const outside = rangeProblem("resistance", r.value, 0);
+    if (outside) problems.push({ code: "out_of_range", path: `--bars[${i}]`, message: `r${i + 1} "${s}": ${outside}` });
     return r.value;
   });
   if (problems.length) throw new ArmwindError(problems);
   if (out.length !== bars) {
-    throw inputError("readings_count", "bars", `${out.length} bar-to-bar readings for ${bars} bars; give r1 … r${bars} separated by commas (r_i between bar i and bar i+1, r${bars} between bar ${bars} and bar 1)`);
+    throw inputError("readings_count", "--bars", `${out.length} bar-to-bar readings for ${bars} bars; give r1 … r${bars} separated by commas (r_i between bar i and bar i+1, r${bars} between bar ${bars} and bar 1)`);
   }
   return out;
 }
 
 function loadRecordFile(io: Io, file: string, job: Job): LogRecord {
-  const text = readText(io, file);
+  const text = file === "-" || file === "" ? readText(io, file) : readUserFile(file, { limit: RECORD_FILE_LIMIT });
   const r = loadYaml(text, file, recordSchema);
   const rec = r.value as unknown as LogRecord;
   const problems: Problem[] = [];
@@ -72,9 +75,35 @@ function loadRecordFile(io: Io, file: string, job: Job): LogRecord {
   return rec;
 }
 
+/**
+ * What failed, for `--json` (DESIGN.md: status 4 carries `failures`): each coil out of tolerance
+ * with its solved and expected resistance and the rule, and each suspect not already named by a coil.
+ */
+export function diagnoseFailures(d: Diagnosis) {
+  const bad = d.coils.filter((c) => c.verdict === "high" || c.verdict === "low" || c.verdict === "open" || c.verdict === "shorted");
+  const named = new Set(bad.map((c) => c.index));
+  return [
+    ...bad.map((c) => ({
+      check: `coil[${c.index - 1}]`,
+      coils: [c.index],
+      verdict: c.verdict,
+      resistance_ohm: c.resistance_ohm,
+      expected_ohm: c.expected_ohm,
+      deviation_fraction: c.deviation_fraction,
+      tolerance_fraction: d.tolerance,
+      rule: d.tolerance_source,
+    })),
+    ...d.suspects
+      .filter((s) => !s.coils.some((i) => named.has(i)))
+      .map((s) => ({ check: s.kind, coils: s.coils, verdict: s.kind, resistance_ohm: null, expected_ohm: null, deviation_fraction: null, tolerance_fraction: d.tolerance, rule: s.message })),
+  ];
+}
+
 export function diagnoseJson(job: Job, input: DiagnoseInput, d: Diagnosis) {
   return {
     ok: d.ok,
+    errors: [],
+    failures: d.ok ? [] : diagnoseFailures(d),
     job_id: job.id,
     source: input.source,
     temperature_c: input.temperature,
@@ -159,7 +188,10 @@ export function diagnoseCommand(yargs: Argv, io: Io, setStatus: (n: number) => v
           (where) => {
             const ways = [argv.bars, argv.measured, argv.record].filter((x) => x !== undefined).length;
             if (ways !== 1) throw inputError("readings_missing", "", "give the readings one way: --bars r1,r2,…, --measured FILE or --record FILE");
-            if (argv.temperature !== undefined && argv.bars === undefined) throw inputError("option_conflict", "temperature", "--temperature goes with --bars (measured files and records carry their own)");
+            if (argv.temperature !== undefined && argv.bars === undefined) throw inputError("option_conflict", "--temperature", "--temperature goes with --bars (measured files and records carry their own)");
+            if (argv.tolerance !== undefined && !(argv.tolerance > 0 && argv.tolerance < 1)) {
+              throw inputError("tolerance_invalid", "--tolerance", `--tolerance ${argv.tolerance}: a fraction between 0 and 1 is needed, like 0.05 for ±5 %`);
+            }
             const { job, file, locate } = loadJob(io, argv.job);
             where.file = file;
             where.locate = locate;
@@ -191,7 +223,9 @@ export function diagnoseCommand(yargs: Argv, io: Io, setStatus: (n: number) => v
                 readings = parseBars(argv.bars!, job.armature.bars);
                 if (argv.temperature !== undefined) {
                   const t = parseQuantity(argv.temperature, "temperature");
-                  if (!t.ok) throw inputError("bad_quantity", "temperature", `--temperature ${argv.temperature}: ${t.message}`);
+                  if (!t.ok) throw inputError("bad_quantity", "--temperature", `--temperature ${argv.temperature}: ${t.message}`);
+                  const outside = rangeProblem("temperature", t.value);
+                  if (outside) throw inputError("out_of_range", "--temperature", `--temperature ${argv.temperature}: ${outside}`);
                   temperature = t.value;
                   given = true;
                 }
