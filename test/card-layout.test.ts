@@ -79,9 +79,9 @@ describe("small rules", () => {
       }),
     );
   });
-  it("four-wire advice below ten times the meter resolution (common practice, no published source)", () => {
-    expect(needsFourWire(0.0196, 0.01, 10)).toBe(true);
-    expect(needsFourWire(1.329, 0.01, 10)).toBe(false);
-    expect(needsFourWire(0.1, 0.01, 10)).toBe(false);
+  it("four-wire advice below forty counts of the meter (bench rules: common practice, no published source)", () => {
+    expect(needsFourWire(0.0196, 0.01)).toBe(true);
+    expect(needsFourWire(0.399, 0.01)).toBe(true);
+    expect(needsFourWire(1.329, 0.01)).toBe(false);
   });
 });

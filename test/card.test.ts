@@ -2,6 +2,7 @@
  * The PDF job card: every demo job in jobs/ (and a few variants made from them) is rendered and
  * read back with pdfjs-dist; what the winder needs must be on the card as printed.
  */
+import { spreadRuleText } from "../src/bench/rules.js";
 import { describe, expect, it } from "vitest";
 import { readdirSync, readFileSync } from "node:fs";
 import { join } from "node:path";
@@ -99,6 +100,10 @@ describe("renderCard on every demo job and the variants", () => {
       // every expected bar-to-bar reading (4 significant figures) is on the bench sheet
       for (const r of new Set(plan.resistance.bar_to_bar.map(ohm))) expect(pdf.all).toContain(r);
       expect(pdf.all).toContain(`r${plan.layout.bars}`);
+      // the bench sheet prints the rule `log` and `diagnose` apply, in the same words (src/bench/rules.ts)
+      const flat = pdf.all.replace(/\s+/g, " ");
+      expect(flat).toContain(spreadRuleText().slice(0, 60));
+      expect(flat).toContain("Null the test leads first");
       // the glyphs themselves (DejaVu embedded): Ω, °C, ±, mm²
       expect(pdf.all).toContain("Ω");
       expect(pdf.all).toContain("°C");

@@ -9,13 +9,14 @@ import { existsSync, mkdtempSync, readFileSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { spawnSync } from "node:child_process";
-import { CLI, ROOT, runCli, type CliResult } from "./helpers/cli.js";
+import { CLI, ROOT, runCli, runMain, type CliResult } from "./helpers/cli.js";
 
 const BLIND = join(ROOT, "jobs", "blind-motor-0031.yaml");
 const blindText = readFileSync(BLIND, "utf8");
 const tmp = () => mkdtempSync(join(tmpdir(), "armwind-cli-io-"));
 /** `file:line:column: path: message [code]`, one line. */
 const LINE = /^(?<file>[^\n]+?):(?<line>\d+):(?<column>\d+): (?:(?<path>[\w.$[\]]+): )?(?<message>[^\n]+) \[(?<code>[a-z][a-z0-9_]*)\]$/;
+// biome-ignore lint/suspicious/noControlCharactersInRegex: the escape character is what is looked for
 const ANSI = /\u001b\[/;
 
 /** runCli, but a hang is a failure, not a stuck suite (spawnSync kills the command after `ms`). */
@@ -169,15 +170,19 @@ describe("standard input as -", () => {
 });
 
 describe("no colour", () => {
-  it("no ANSI escape in any output, with NO_COLOR set or not", () => {
+  it("no ANSI escape in any output, with NO_COLOR set or not", async () => {
     const bad = jobWith((s) => s.replace("  stack_length:", "  stak_length:"));
     const runs: string[][] = [["plan", BLIND], ["wires", "--system", "awg"], ["plan", bad, "--json"], ["--help"], ["plan"]];
     for (const env of [{ NO_COLOR: "1" }, { NO_COLOR: "", FORCE_COLOR: "1" }] as Record<string, string>[]) {
+      // in-process (what is checked is the text, not the process); one real process with FORCE_COLOR below
       for (const args of runs) {
-        const r = runCli(args, { env });
+        const r = await runMain(args, { env });
         expect(r.stdout + r.stderr, args.join(" ")).not.toMatch(ANSI);
         expect(r.stdout + r.stderr).not.toBe("");
       }
     }
+    const real = runCli(["plan", bad], { env: { NO_COLOR: "", FORCE_COLOR: "1" } });
+    expect(real.stderr).not.toMatch(ANSI);
+    expect(real.stderr).not.toBe("");
   });
 });

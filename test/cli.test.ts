@@ -1,12 +1,14 @@
 /**
  * The command line as a user meets it: the demo jobs, the `--json` contract of DESIGN.md, the
  * PDF read back, and bad input giving one located line, exit status 1 and nothing written.
+ * In-process through `main(args, io)` (test/helpers/cli.ts `runMain`); cli-io.test.ts runs the
+ * real command where the process boundary matters.
  */
 import { describe, expect, it } from "vitest";
 import { existsSync, mkdtempSync, readdirSync, readFileSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
-import { ROOT, demoJobFiles, runCli } from "./helpers/cli.js";
+import { ROOT, demoJobFiles, runMain } from "./helpers/cli.js";
 
 const BLIND = join(ROOT, "jobs/blind-motor-0031.yaml");
 const blindText = readFileSync(BLIND, "utf8");
@@ -29,8 +31,8 @@ async function pdfText(file: string): Promise<string> {
 
 describe("plan --json (DESIGN.md contract)", () => {
   for (const file of demoJobFiles()) {
-    it(`has the contract's keys for ${file.split("/").pop()}`, () => {
-      const r = runCli(["plan", file, "--json"]);
+    it(`has the contract's keys for ${file.split("/").pop()}`, async () => {
+      const r = await runMain(["plan", file, "--json"]);
       expect([0, 2]).toContain(r.status);
       const j = JSON.parse(r.stdout);
       expect(j.ok).toBe(true);
@@ -54,12 +56,12 @@ describe("plan --json (DESIGN.md contract)", () => {
 describe("card", () => {
   it("writes output/<id>.pdf whose text carries the turn count, the cut length and the expected bar-to-bar reading", async () => {
     const out = tmp();
-    const r = runCli(["card", BLIND, "-o", out], { env: { SOURCE_DATE_EPOCH: "1796083200" } });
+    const r = await runMain(["card", BLIND, "-o", out], { env: { SOURCE_DATE_EPOCH: "1796083200" } });
     expect(r.stderr).toBe("");
     expect(r.status).toBe(0);
     const pdf = join(out, "blind-motor-0031.pdf");
     expect(existsSync(pdf)).toBe(true);
-    const j = JSON.parse(runCli(["plan", BLIND, "--json"]).stdout);
+    const j = JSON.parse((await runMain(["plan", BLIND, "--json"])).stdout);
     const text = await pdfText(pdf);
     const { sig, ohm } = await import("../src/cli/format.js");
     expect(text).toContain(String(j.design.turns_per_coil));
@@ -68,9 +70,9 @@ describe("card", () => {
     expect(text).toContain("Ω");
     expect(readdirSync(out).sort()).toEqual(["blind-motor-0031-curves.svg", "blind-motor-0031.pdf"]);
   });
-  it("writes the curves as an SVG image beside the card: four charts, original dashed and new solid", () => {
+  it("writes the curves as an SVG image beside the card: four charts, original dashed and new solid", async () => {
     const out = tmp();
-    expect(runCli(["card", BLIND, "-o", out]).status).toBe(0);
+    expect((await runMain(["card", BLIND, "-o", out])).status).toBe(0);
     const svg = readFileSync(join(out, "blind-motor-0031-curves.svg"), "utf8");
     expect(svg.startsWith("<?xml")).toBe(true);
     for (const t of ["Speed, rpm", "Current, A", "Efficiency, %", "Output power, W", "torque, mN·m"]) expect(svg).toContain(t);
@@ -78,9 +80,9 @@ describe("card", () => {
     expect(lines.filter((l) => l.includes("stroke-dasharray")).length).toBeGreaterThanOrEqual(4 + 1);
     expect(lines.filter((l) => !l.includes("stroke-dasharray")).length).toBeGreaterThanOrEqual(4 + 1);
   });
-  it("writes no curves image for a series motor (no safe no-load speed)", () => {
+  it("writes no curves image for a series motor (no safe no-load speed)", async () => {
     const out = tmp();
-    expect(runCli(["card", join(ROOT, "jobs/drill-lap-0112.yaml"), "-o", out]).status).toBe(0);
+    expect((await runMain(["card", join(ROOT, "jobs/drill-lap-0112.yaml"), "-o", out])).status).toBe(0);
     expect(readdirSync(out)).toEqual(["drill-lap-0112.pdf"]);
   });
 });
@@ -95,18 +97,18 @@ describe("bad input: one located line, exit 1, no stack trace, nothing written",
     ["bars that do not suit the slots", (s) => s.replace("bars: 5", "bars: 7"), /blind\.yaml:\d+:\d+: (armature|winding)\.\w+: /],
   ];
   for (const [name, edit, pattern] of cases) {
-    it(name, () => {
+    it(name, async () => {
       const dir = tmp();
       const job = join(dir, "blind.yaml");
       writeFileSync(job, edit(blindText));
       const out = join(dir, "out");
-      const r = runCli(["card", job, "-o", out]);
+      const r = await runMain(["card", job, "-o", out]);
       expect(r.status).toBe(1);
       expect(r.stderr).toMatch(pattern);
       expect(r.stderr).not.toMatch(/\n\s+at /);
       expect(r.stderr.trim().split("\n").length).toBeLessThanOrEqual(3);
       expect(existsSync(out)).toBe(false);
-      const j = runCli(["plan", job, "--json"]);
+      const j = await runMain(["plan", job, "--json"]);
       expect(j.status).toBe(1);
       const body = JSON.parse(j.stdout);
       expect(body.ok).toBe(false);
@@ -116,38 +118,38 @@ describe("bad input: one located line, exit 1, no stack trace, nothing written",
 });
 
 describe("exit statuses", () => {
-  it("2 when no winding meets the goal, with the closest candidate and feasible false", () => {
+  it("2 when no winding meets the goal, with the closest candidate and feasible false", async () => {
     const dir = tmp();
     const job = join(dir, "fast.yaml");
     writeFileSync(job, blindText.replace("no_load_speed: 9000 rpm", "no_load_speed: 90000 rpm"));
-    const r = runCli(["plan", job, "--json"]);
+    const r = await runMain(["plan", job, "--json"]);
     expect(r.status).toBe(2);
     const j = JSON.parse(r.stdout);
     expect(j.feasible).toBe(false);
     expect(j.design.turns_per_coil).toBeGreaterThan(0);
-    expect(runCli(["check", job]).status).toBe(2);
+    expect((await runMain(["check", job])).status).toBe(2);
   });
-  it("0 for check on a good job; the job may come on standard input as -", () => {
-    expect(runCli(["check", BLIND]).status).toBe(0);
-    const r = runCli(["plan", "-", "--json"], { input: blindText });
+  it("0 for check on a good job; the job may come on standard input as -", async () => {
+    expect((await runMain(["check", BLIND])).status).toBe(0);
+    const r = await runMain(["plan", "-", "--json"], { input: blindText });
     expect(r.status).toBe(0);
     expect(JSON.parse(r.stdout).job_id).toBe("blind-motor-0031");
   });
-  it("3 when the card cannot be written, with a clear line", () => {
+  it("3 when the card cannot be written, with a clear line", async () => {
     const dir = tmp();
     const blocker = join(dir, "file");
     writeFileSync(blocker, "x");
-    const r = runCli(["card", BLIND, "-o", join(blocker, "sub")]);
+    const r = await runMain(["card", BLIND, "-o", join(blocker, "sub")]);
     expect(r.status).toBe(3);
     expect(r.stderr).toMatch(/cannot write .*blind-motor-0031\.pdf/);
   });
-  it("every command has --help", () => {
+  it("every command has --help", async () => {
     // every command the README's table lists
     const readme = readFileSync(join(ROOT, "README.md"), "utf8").split("## Commands")[1].split("### Exit statuses")[0];
     const listed = [...readme.matchAll(/^\| `(\w+)[ `]/gm)].map((m) => m[1]);
     expect(listed).toEqual(["plan", "check", "card", "wires", "new", "schema", "log", "diagnose", "history"]);
     for (const c of listed) {
-      const r = runCli([c, "--help"]);
+      const r = await runMain([c, "--help"]);
       expect(r.status, c).toBe(0);
       expect(r.stdout).toMatch(/Options/);
     }

@@ -3,7 +3,7 @@ import { describe, expect, it } from "vitest";
 import { ArmwindError } from "../src/errors.js";
 import { DEFAULT_TOLERANCE, POLARITY_NOTE, diagnose, solveCoils } from "../src/winding/diagnose.js";
 import { layoutWinding } from "../src/winding/layout.js";
-import type { WindingLayout, WindingSpec } from "../src/winding/types.js";
+import type { WindingLayout } from "../src/winding/types.js";
 import { spec } from "./helpers/winding.js";
 import { nodalReadings } from "./helpers/nodal.js";
 
@@ -105,8 +105,14 @@ describe("diagnosis", () => {
       const R = [...E];
       const bad = l.coils.findIndex((c, i) => i >= 1 && !c.dead);
       R[bad] *= 1.1; // 4 turns too many on 40
-      const d = diagnose(l, nodalReadings(l, R), E, 40);
-      expect(d.ok).toBe(false);
+      const d = diagnose(l, nodalReadings(l, R), E, 40, undefined, { resolutionOhm: 0.001 });
+      // the exit status comes from the readings (bench rules): on 3 bars a 10 % coil moves the reading
+      // across it by only 1.1·2/3.1 ÷ 2.1/3.1 − 1 = +4.8 % (ring formula), inside ±5 %; from 5 bars on it
+      // fails. A wave reading spans p coils in series, so it moves by about 10 %/p and stays inside:
+      // the solved coils still name it.
+      const ring = l.coils_between_adjacent_bars === 1;
+      expect(d.ok).toBe(!(ring && l.bars >= 5));
+      if (!d.ok) expect(d.failures.some((f) => f.coils.includes(bad + 1))).toBe(true);
       const sus = d.suspects.filter((s) => s.kind === "turns_miscounted");
       expect(sus.length).toBe(1);
       expect(sus[0].coils).toEqual([bad + 1]);
@@ -135,7 +141,7 @@ describe("diagnosis", () => {
     const E = new Array(12).fill(1);
     const r = nodalReadings(l, E);
     r[3] *= 1.15;
-    const d = diagnose(l, r, E, 30);
+    const d = diagnose(l, r, E, 30, undefined, { resolutionOhm: 0.001 });
     expect(d.suspects.find((s) => s.kind === "poor_riser_connection")?.bars).toEqual([4, 5]);
   });
 
@@ -175,9 +181,9 @@ describe("diagnosis", () => {
     const E = new Array(12).fill(1);
     const R = [...E];
     R[4] = 1.5;
-    const d = diagnose(l, nodalReadings(l, R), E, 30);
+    const d = diagnose(l, nodalReadings(l, R), E, 30, undefined, { resolutionOhm: 0.001 });
     expect(d.coils.every((c) => c.resistance_ohm === null)).toBe(true);
-    const dev = d.suspects.filter((s) => s.kind === "reading_deviates");
+    const dev = d.suspects.filter((s) => s.kind === "reading_deviates" || s.kind === "poor_riser_connection");
     expect(dev.length).toBeGreaterThan(0);
     expect(dev.some((s) => s.bars[0] === 5 && s.bars[1] === 6)).toBe(true);
     expect(d.ok).toBe(false);

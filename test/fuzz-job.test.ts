@@ -15,6 +15,7 @@ import { join } from "node:path";
 import fc from "fast-check";
 import { parse, stringify } from "yaml";
 import { runJobText } from "./fuzz-support.js";
+import { chunks } from "./helpers/chunks.js";
 
 const ROOT = join(import.meta.dirname, "..");
 const SEED_FILES = [
@@ -30,7 +31,11 @@ const SEEDS = SEED_FILES.map((f) => parse(readFileSync(f, "utf8")) as unknown);
 type Slot = { parent: Record<string, unknown> | unknown[]; key: string | number };
 
 function slots(x: unknown, out: Slot[] = []): Slot[] {
-  if (Array.isArray(x)) x.forEach((v, i) => (out.push({ parent: x, key: i }), slots(v, out)));
+  if (Array.isArray(x))
+    for (const [i, v] of x.entries()) {
+      out.push({ parent: x, key: i });
+      slots(v, out);
+    }
   else if (x !== null && typeof x === "object") for (const [k, v] of Object.entries(x)) out.push({ parent: x as Record<string, unknown>, key: k }), slots(v, out);
   return out;
 }
@@ -133,16 +138,21 @@ describe("mutated job files through load and plan", () => {
     for (const f of SEED_FILES) expect(runJobText(readFileSync(f, "utf8")).kind, f).toBe("planned");
   });
 
-  it("3500 data mutations: a plan or located one-line problems, never another exception", () => {
-    const seen = { planned: 0, load_error: 0, plan_error: 0 };
-    fc.assert(
-      fc.property(fc.nat(SEEDS.length - 1), fc.array(mutation, { minLength: 1, maxLength: 4 }), (seed, ms) => {
-        const doc = structuredClone(SEEDS[seed]);
-        for (const m of ms) apply(doc, m);
-        seen[runJobText(stringify(doc)).kind]++;
-      }),
-      { numRuns: 3500 },
-    );
+  // 3500 data mutations in pieces of 500 (test/helpers/chunks.ts), each piece its own seed
+  const seen = { planned: 0, load_error: 0, plan_error: 0 };
+  for (const c of chunks(3500, 7)) {
+    it(`data mutations ${c.part}/${c.parts} (${c.runs}): a plan or located one-line problems, never another exception`, () => {
+      fc.assert(
+        fc.property(fc.nat(SEEDS.length - 1), fc.array(mutation, { minLength: 1, maxLength: 4 }), (seed, ms) => {
+          const doc = structuredClone(SEEDS[seed]);
+          for (const m of ms) apply(doc, m);
+          seen[runJobText(stringify(doc)).kind]++;
+        }),
+        { numRuns: c.runs, seed: c.seed },
+      );
+    });
+  }
+  it("the 3500 data mutations reached every outcome", () => {
     // the mutations reach every outcome: some still plan, some fail to load, some fail in the core
     expect(seen.planned).toBeGreaterThan(150);
     expect(seen.load_error).toBeGreaterThan(1500);

@@ -12,6 +12,7 @@ import { join } from "node:path";
 import fc from "fast-check";
 import { parse, stringify } from "yaml";
 import { checkPrintedError, loadChecked, runJobText } from "./fuzz-support.js";
+import { chunks } from "./helpers/chunks.js";
 import { measuredSchema, checkAgainstJob } from "../src/logbook/measured.js";
 import { loadYaml } from "../src/job/load.js";
 import { jobSchema } from "../src/job/schema.js";
@@ -99,15 +100,20 @@ function applyEdit(text: string, e: Edit): string {
 }
 
 describe("damaged job texts through load and plan", () => {
-  it("5500 text edits: a plan or located one-line problems, never another exception", () => {
-    const seen = { planned: 0, load_error: 0, plan_error: 0 };
-    fc.assert(
-      fc.property(fc.nat(SEEDS.length - 1), fc.array(edit, { minLength: 1, maxLength: 4 }), (seed, edits) => {
-        const text = edits.reduce(applyEdit, SEEDS[seed]);
-        seen[runJobText(text).kind]++;
-      }),
-      { numRuns: 5500 },
-    );
+  // 5500 text edits in pieces of about 700 (test/helpers/chunks.ts), each piece its own seed
+  const seen = { planned: 0, load_error: 0, plan_error: 0 };
+  for (const c of chunks(5500, 8)) {
+    it(`text edits ${c.part}/${c.parts} (${c.runs}): a plan or located one-line problems, never another exception`, () => {
+      fc.assert(
+        fc.property(fc.nat(SEEDS.length - 1), fc.array(edit, { minLength: 1, maxLength: 4 }), (seed, edits) => {
+          const text = edits.reduce(applyEdit, SEEDS[seed]);
+          seen[runJobText(text).kind]++;
+        }),
+        { numRuns: c.runs, seed: c.seed },
+      );
+    });
+  }
+  it("the 5500 text edits reached both outcomes", () => {
     expect(seen.load_error).toBeGreaterThan(2000);
     expect(seen.planned).toBeGreaterThan(50); // some edits only touch comments or leave valid YAML
   });
@@ -172,7 +178,10 @@ describe("measured files through load and the job check", () => {
 
   it("the seed is accepted", () => expect(run(MEASURED)).toBe("ok"));
 
-  it("3000 text edits and data mutations: located one-line problems, never another exception", () => {
+  // 3000 in two pieces (test/helpers/chunks.ts), each its own seed
+  const seen = { ok: 0, load_error: 0, check_error: 0 };
+  for (const c of chunks(3000, 2)) {
+  it(`text edits and data mutations ${c.part}/${c.parts} (${c.runs}): located one-line problems, never another exception`, () => {
     const seed = parse(MEASURED) as Record<string, unknown>;
     const keys = Object.keys(seed);
     const dataEdit = fc.record({
@@ -181,7 +190,6 @@ describe("measured files through load and the job check", () => {
       value: fc.oneof(fc.constantFrom<unknown>(null, "", -1, 0, 1e308, "1 V", "12 furlongs", [], {}, "2026-02-30", "yesterday", [1, "x", -2]), fc.double(), fc.string({ maxLength: 8 })),
       n: fc.nat(12),
     });
-    const seen = { ok: 0, load_error: 0, check_error: 0 };
     fc.assert(
       fc.property(fc.boolean(), fc.array(edit, { minLength: 1, maxLength: 3 }), fc.array(dataEdit, { minLength: 1, maxLength: 3 }), (asText, edits, data) => {
         let text: string;
@@ -198,8 +206,11 @@ describe("measured files through load and the job check", () => {
         }
         seen[run(text)]++;
       }),
-      { numRuns: 3000 },
+      { numRuns: c.runs, seed: c.seed },
     );
+  });
+  }
+  it("the 3000 measured-file edits reached both kinds of problem", () => {
     expect(seen.load_error).toBeGreaterThan(500);
     expect(seen.check_error).toBeGreaterThan(0);
   });

@@ -10,7 +10,7 @@ import {
   terminalResistance,
   waveBarToBar,
 } from "../src/winding/ring.js";
-import type { WindingLayout, WindingSpec } from "../src/winding/types.js";
+import type { WindingLayout } from "../src/winding/types.js";
 import { spec } from "./helpers/winding.js";
 import { nodal } from "./helpers/nodal.js";
 

@@ -94,7 +94,7 @@ describe("AWG diameters (ASTM B258)", () => {
 
   it("AWG 36 is exactly 0.127 mm and the ratio between gauges is 92^(1/39) (ASTM B258 definition)", () => {
     expect(awgDiameter(36)).toBeCloseTo(0.127e-3, 15);
-    expect(awgDiameter(0) / awgDiameter(1)).toBeCloseTo(Math.pow(92, 1 / 39), 12);
+    expect(awgDiameter(0) / awgDiameter(1)).toBeCloseTo(92 ** (1 / 39), 12);
   });
 
   // NEMA MW 1000 bare copper table: AWG 30, 103.7 Ω/1000 ft at 20 °C, derived from the rounded

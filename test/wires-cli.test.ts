@@ -31,7 +31,7 @@ describe("runWires --json", () => {
     expect(out.wires.map((w: { label: string }) => w.label)).toEqual(["30 AWG"]);
     const w = out.wires[0];
     // ASTM B258 formula: 0.127 mm × 92^(6/39) = 0.25464 mm, unrounded
-    expect(w.bare_diameter_mm).toBeCloseTo(0.127 * Math.pow(92, 6 / 39), 12);
+    expect(w.bare_diameter_mm).toBeCloseTo(0.127 * 92 ** (6 / 39), 12);
     expect(w.area_mm2).toBeCloseTo((Math.PI / 4) * w.bare_diameter_mm ** 2, 12);
     // IEC 60028: ρ = 1/58 Ω·mm²/m, density 8.89 g/cm³
     expect(w.ohm_per_m).toBeCloseTo(1 / 58 / w.area_mm2, 12);

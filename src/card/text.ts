@@ -1,11 +1,11 @@
 /** Wording shared by the card's pages: numbers as the card prints them, and the phrases for slots, bars and the winding. */
 import type { CoilPlan, Plan } from "../design/types.js";
 import type { Wire } from "../wire/types.js";
-import { mm, ohm, pct, rpm, sig } from "../cli/format.js";
+import { mm, ohm, pct, rpm, sig } from "../format/number.js";
+import { GOAL_UNIT, goalValue } from "../format/units.js";
 
 export { mm, ohm, pct, rpm, sig };
-
-const RPM = 60 / (2 * Math.PI);
+export { goalSummary } from "../format/goal.js";
 
 /** "0.202 mm bare, 0.234 mm overall (from memory)". */
 export function wireSizes(w: Wire): string {
@@ -29,24 +29,14 @@ export function sideText(slot: number, layer: string, position: number, u: numbe
   return `slot ${slot} ${layer}${pos}`;
 }
 
-/** The goal figure of a candidate in the goal's unit, as printed. */
+/** The goal figure of a candidate (SI in) in the goal's unit, as printed. */
 export function goalFigure(plan: Plan, achieved: number | null): string {
-  if (achieved === null) return "—";
-  switch (plan.goal.unit) {
-    case "mm2":
-      return sig(achieved * 1e6);
-    case "A":
-    case "W":
-      return sig(achieved);
-    case "rpm/V":
-      return sig(achieved * RPM);
-    default:
-      return sig(achieved * RPM);
-  }
+  return sig(goalValue(plan.goal.kind, achieved));
 }
 
 export function goalUnit(plan: Plan): string {
-  return plan.goal.unit === "mm2" ? "mm²" : plan.goal.unit;
+  const u = GOAL_UNIT[plan.goal.kind];
+  return u === "mm2" ? "mm²" : u;
 }
 
 export const goalName = (plan: Plan) => plan.goal.kind.replace(/_/g, " ");

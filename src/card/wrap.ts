@@ -20,7 +20,10 @@ export function breakLongWords(text: string, width: number, widthOf: (s: string)
   const charWidth = new Map<string, number>();
   const cw = (ch: string) => {
     let w = charWidth.get(ch);
-    if (w === undefined) charWidth.set(ch, (w = widthOf(ch)));
+    if (w === undefined) {
+      w = widthOf(ch);
+      charWidth.set(ch, w);
+    }
     return w;
   };
   return text.replace(/\S+/g, (word) => {

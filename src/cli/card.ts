@@ -2,7 +2,7 @@
 import type { Argv } from "yargs";
 import { join, relative, resolve } from "node:path";
 import { guarded, type Io } from "./io.js";
-import { planFromFile, planStatus, type Where } from "./plan.js";
+import { planFromFile, planStatus } from "./plan.js";
 import { planJson } from "./plan-json.js";
 import { VERSION } from "./version.js";
 import { writeAtomic } from "./write.js";

@@ -1,54 +1,67 @@
 /**
  * `armwind diagnose JOB (--bars r1,r2,… [--temperature T] | --measured FILE | --record FILE)
- * [--tolerance F] [--json] [--logbook DIR] [--no-learn]`: solve the ring for each coil's own
- * resistance, name the coils that stand out and what that suggests (src/winding/diagnose.ts does
- * the work; this is the shell). Exit 4 when a coil or reading is out of tolerance.
+ * [--tolerance F] [--resolution R] [--json] [--logbook DIR] [--no-learn]`: judge the readings by the
+ * bench rules (src/bench/rules.ts), solve the ring for each coil's own resistance and name the coils
+ * behind each failing reading (src/winding/diagnose.ts does the work; this is the shell). JOB may be
+ * a layout-only job (version, id, armature, winding): the readings are then judged against their
+ * own median. Exit 4 when a reading fails a bench rule.
  */
 import type { Argv } from "yargs";
 import { planJob } from "../design/plan.js";
 import { windingSpec } from "../design/context.js";
 import { layoutWinding } from "../winding/layout.js";
+import { isLayoutOnly, layoutJobSchema, layoutJobSpec } from "../winding/layout-job.js";
 import { ArmwindError, inputError, type Problem } from "../errors.js";
 import { parseQuantity } from "../job/units.js";
 import { rangeProblem } from "../job/ranges.js";
 import { loadYaml } from "../job/load.js";
-import { readText, readUserFile, guarded, loadJob, type Io } from "./io.js";
+import { readText, readUserFile, guarded, loadJobText, isStdin, type Io, type Where } from "./io.js";
 import { RECORD_FILE_LIMIT } from "../files.js";
-import type { Where } from "./plan.js";
 import { logbookOptionsFor } from "./learning.js";
 import { loadMeasured } from "./log.js";
-import { predictWound } from "../logbook/predict.js";
+import { predictWound, type WoundInput } from "../logbook/predict.js";
 import { recordSchema, type LogRecord } from "../logbook/record.js";
 import { diagnose, type Diagnosis } from "../winding/diagnose.js";
+import { DEFAULT_METER_RESOLUTION_OHM, isOpenText, readingName } from "../bench/rules.js";
 import { to20C } from "../wire/copper.js";
 import { ohm, sig, table } from "./format.js";
 import type { Job } from "../job/schema.js";
+import type { WindingSpec } from "../winding/types.js";
+import { z } from "zod";
 import { withJob, withLogbook } from "./options.js";
 
 export interface DiagnoseInput {
-  /** Readings r1 … rC as read, Ω. */
+  /** Readings r1 … rC as read, Ω; Infinity for OL/open. */
   readings: number[];
   /** Winding temperature when read, °C. */
   temperature: number;
   temperatureGiven: boolean;
-  /** Expected coil resistances at 20 °C, Ω (coil index order). */
-  expected: number[];
-  turns: number;
+  /** Expected coil resistances at 20 °C, Ω (coil index order); null for a layout-only job. */
+  expected: number[] | null;
+  /** Turns per coil; null when not known (layout-only job). */
+  turns: number | null;
+  /** Meter resolution, Ω (the measured file's or record's, --resolution, else 0.1 Ω). */
+  resolution: number;
+  /** The plan's turn length was measured or calibrated (level ±5 %, else ±15 %). */
+  calibrated: boolean;
+  /** Bare diameter of the wire laid, m; null when not known. */
+  bareDiameter: number | null;
   source: string;
 }
 
-/** `--bars 1.05,1.05,…` → Ω; each item may carry a unit ("1.05 ohm", "1050 mohm"). */
+/** `--bars 1.05,1.05,OL,…` → Ω; each item may carry a unit ("1.05 ohm", "1050 mohm"), or read OL / open (Infinity). */
 export function parseBars(text: string, bars: number): number[] {
   const items = text.split(",").map((s) => s.trim());
   const problems: Problem[] = [];
   const out = items.map((s, i) => {
+    if (isOpenText(s)) return Infinity;
     const r = parseQuantity(s === "" ? "x" : s, "resistance");
     if (!r.ok) {
-      problems.push({ code: "bad_quantity", path: `--bars[${i}]`, message: `r${i + 1} "${s}": ${r.message}` });
+      problems.push({ code: "bad_quantity", path: `--bars[${i}]`, message: `${readingName(i)} "${s}": ${r.message}; or OL / open for an open circuit` });
       return NaN;
     }
     const outside = rangeProblem("resistance", r.value, 0);
-    if (outside) problems.push({ code: "out_of_range", path: `--bars[${i}]`, message: `r${i + 1} "${s}": ${outside}` });
+    if (outside) problems.push({ code: "out_of_range", path: `--bars[${i}]`, message: `${readingName(i)} "${s}": ${outside}` });
     return r.value;
   });
   if (problems.length) throw new ArmwindError(problems);
@@ -58,8 +71,8 @@ export function parseBars(text: string, bars: number): number[] {
   return out;
 }
 
-function loadRecordFile(io: Io, file: string, job: Job): LogRecord {
-  const text = file === "-" || file === "" ? readText(io, file) : readUserFile(file, { limit: RECORD_FILE_LIMIT });
+function loadRecordFile(io: Io, file: string, job: { id: string; armature: { bars: number } }): LogRecord {
+  const text = isStdin(file) ? readText(io, file) : readUserFile(file, { limit: RECORD_FILE_LIMIT });
   const r = loadYaml(text, file, recordSchema);
   const rec = r.value as unknown as LogRecord;
   const problems: Problem[] = [];
@@ -75,39 +88,27 @@ function loadRecordFile(io: Io, file: string, job: Job): LogRecord {
   return rec;
 }
 
-/**
- * What failed, for `--json` (DESIGN.md: status 4 carries `failures`): each coil out of tolerance
- * with its solved and expected resistance and the rule, and each suspect not already named by a coil.
- */
-export function diagnoseFailures(d: Diagnosis) {
-  const bad = d.coils.filter((c) => c.verdict === "high" || c.verdict === "low" || c.verdict === "open" || c.verdict === "shorted");
-  const named = new Set(bad.map((c) => c.index));
-  return [
-    ...bad.map((c) => ({
-      check: `coil[${c.index - 1}]`,
-      coils: [c.index],
-      verdict: c.verdict,
-      resistance_ohm: c.resistance_ohm,
-      expected_ohm: c.expected_ohm,
-      deviation_fraction: c.deviation_fraction,
-      tolerance_fraction: d.tolerance,
-      rule: d.tolerance_source,
-    })),
-    ...d.suspects
-      .filter((s) => !s.coils.some((i) => named.has(i)))
-      .map((s) => ({ check: s.kind, coils: s.coils, verdict: s.kind, resistance_ohm: null, expected_ohm: null, deviation_fraction: null, tolerance_fraction: d.tolerance, rule: s.message })),
-  ];
-}
+const nullable = (x: number | null) => (x !== null && Number.isFinite(x) ? x : null);
 
-export function diagnoseJson(job: Job, input: DiagnoseInput, d: Diagnosis) {
+export function diagnoseJson(job: { id: string }, input: DiagnoseInput, d: Diagnosis) {
   return {
     ok: d.ok,
     errors: [],
-    failures: d.ok ? [] : diagnoseFailures(d),
+    failures: d.failures.map((f) => ({ ...f, reading_ohm: nullable(f.reading_ohm) })),
     job_id: job.id,
     source: input.source,
     temperature_c: input.temperature,
     turns_per_coil: input.turns,
+    meter_resolution_ohm: input.resolution,
+    median_ohm: nullable(d.median_ohm),
+    level: d.level && {
+      median_ohm: nullable(d.level.median_ohm),
+      expected_median_ohm: d.level.expected_median_ohm,
+      deviation_fraction: nullable(d.level.deviation_fraction),
+      window_fraction: d.level.window_fraction,
+      pass: d.level.pass,
+      source: d.level.source,
+    },
     coils: d.coils.map((c) => ({
       index: c.index,
       start_bar: c.start_bar,
@@ -116,18 +117,22 @@ export function diagnoseJson(job: Job, input: DiagnoseInput, d: Diagnosis) {
       return_slot: c.return_slot,
       resistance_ohm: c.resistance_ohm,
       expected_ohm: c.expected_ohm,
+      reference_ohm: c.reference_ohm,
       deviation_fraction: c.deviation_fraction,
       verdict: c.verdict,
     })),
-    suspects: d.suspects.map((s) => ({ kind: s.kind, coils: s.coils, bars: s.bars, turns_estimate: s.turns_estimate, message: s.message })),
+    suspects: d.suspects.map((s) => ({ kind: s.kind, coils: s.coils, bars: s.bars, readings: s.readings, turns_estimate: s.turns_estimate, message: s.message })),
     readings: d.readings.map((r, i) => ({
       index: r.index,
+      name: readingName(i),
       bar: r.bar,
       next_bar: r.next_bar,
       reading_ohm: Number.isFinite(input.readings[i]) ? input.readings[i] : null,
       reading_20c_ohm: r.reading_ohm,
       expected_ohm: r.expected_ohm,
-      of_average: r.of_average,
+      of_median_fraction: r.of_median_fraction,
+      pass: r.pass,
+      coils: r.coils,
     })),
     tolerance_fraction: d.tolerance,
     tolerance_source: d.tolerance_source,
@@ -137,12 +142,14 @@ export function diagnoseJson(job: Job, input: DiagnoseInput, d: Diagnosis) {
   };
 }
 
-export function diagnoseText(job: Job, input: DiagnoseInput, d: Diagnosis): string {
+const signedPct = (x: number) => `${x >= 0 ? "+" : "−"}${sig(Math.abs(x) * 100)} %`;
+
+export function diagnoseText(job: { id: string }, input: DiagnoseInput, d: Diagnosis): string {
   const L: string[] = [];
-  L.push(`${job.id}: ${input.readings.length} bar-to-bar readings (${input.source}), ${input.turns} turns a coil`);
+  L.push(`${job.id}: ${input.readings.length} bar-to-bar readings (${input.source}), ${input.turns === null ? "turns not known (layout only)" : `${input.turns} turns a coil`}`);
   L.push(
     input.temperatureGiven
-      ? `Read at ${input.temperature} °C, corrected to 20 °C (IEC 60028, 0.00393/K) against the plan's coil resistances at 20 °C`
+      ? `Read at ${input.temperature} °C, corrected to 20 °C (IEC 60028, 0.00393/K)${input.expected ? " against the plan's coil resistances at 20 °C" : ""}`
       : "Temperature not given: the readings are taken as read at 20 °C (give --temperature for a winding that is warmer or colder)",
   );
   L.push("");
@@ -151,107 +158,146 @@ export function diagnoseText(job: Job, input: DiagnoseInput, d: Diagnosis): stri
     `${c.go_slot}–${c.return_slot}`,
     c.start_bar === null ? "dead" : `${c.start_bar}–${c.end_bar}`,
     c.resistance_ohm === null ? "—" : ohm(c.resistance_ohm),
-    ohm(c.expected_ohm),
-    c.deviation_fraction === null ? "" : `${c.deviation_fraction >= 0 ? "+" : "−"}${sig(Math.abs(c.deviation_fraction) * 100)} %`,
+    c.reference_ohm === null ? "—" : ohm(c.reference_ohm),
+    c.deviation_fraction === null ? "" : signedPct(c.deviation_fraction),
     c.verdict === "ok" ? "ok" : c.verdict.toUpperCase(),
   ]);
-  L.push(table(["coil", "slots", "bars", "solved Ω", "expected Ω", "deviation", "verdict"], rows, [true, false, false, true, true, true, false]));
+  L.push(table(["coil", "slots", "bars", "solved Ω", d.level?.pass ? "expected Ω" : "reference Ω", "deviation", "verdict"], rows, [true, false, false, true, true, true, false]));
   L.push("");
+  if (d.failures.length) {
+    L.push("Readings out of the bench rules:");
+    for (const f of d.failures) L.push(`  ✗ ${f.message}`);
+  }
   if (d.suspects.length) {
     L.push("Suspects:");
     for (const s of d.suspects) L.push(`  ! ${s.message} [${s.kind}]`);
   } else L.push("No coil stands out: every coil within the tolerance.");
   for (const n of d.notes) L.push(`  · ${n}`);
-  L.push(`Tolerance: ${d.tolerance_source}${d.tolerance !== 0.05 ? ` (here ±${sig(d.tolerance * 100)} %)` : ""}`);
-  if (!d.ok) L.push("A coil or reading is out of tolerance (exit status 4).");
+  L.push(`Rule: ${d.tolerance_source}${d.tolerance !== 0.05 ? ` (coils here ±${sig(d.tolerance * 100)} %)` : ""}`);
+  if (d.level) L.push(`Level: ${d.level.source}`);
+  L.push(d.ok ? "Every reading within the bench rules." : "A reading is outside the bench rules (exit status 4).");
   return L.join("\n");
+}
+
+/** Read the job file: a full job, or a layout-only one (version, id, armature, winding). */
+function loadAnyJob(io: Io, file: string, where: Where): { job: Job | null; id: string; spec: WindingSpec; bars: number } {
+  const name = isStdin(file) ? "<stdin>" : file;
+  const text = readText(io, file);
+  const peek = loadYaml(text, name, z.unknown());
+  where.file = name;
+  where.locate = peek.locate;
+  if (isLayoutOnly(peek.raw)) {
+    const lj = loadYaml(text, name, layoutJobSchema).value;
+    return { job: null, id: lj.id, spec: layoutJobSpec(lj), bars: lj.armature.bars };
+  }
+  const { job } = loadJobText(text, name);
+  return { job, id: job.id, spec: windingSpec(job), bars: job.armature.bars };
+}
+
+interface DiagnoseArgs {
+  bars?: string;
+  temperature?: string;
+  measured?: string;
+  record?: string;
+  resolution?: string;
+  learn: boolean;
+  logbook?: string;
+}
+
+/** The readings and what to judge them against, from a record, a measured file or --bars (with the plan), or from a layout-only job (no plan). */
+function gatherInput(io: Io, argv: DiagnoseArgs, loaded: { job: Job | null; id: string; bars: number }): DiagnoseInput {
+  const job = loaded.job;
+  const res = argv.resolution === undefined ? undefined : parseResolution(argv.resolution);
+  if (argv.record !== undefined) {
+    if (!job) throw inputError("record_needs_plan", "record", "a logbook record goes with the full job it was planned by, not a layout-only job");
+    const rec = loadRecordFile(io, argv.record, job);
+    return {
+      readings: rec.measured.bar_to_bar_ohm.map((r) => (r === null ? Infinity : r)),
+      temperature: rec.measured.temperature_c,
+      temperatureGiven: true,
+      expected: rec.predicted.coil_ohm,
+      turns: rec.winding.turns,
+      resolution: res ?? rec.measured.meter_resolution_ohm ?? DEFAULT_METER_RESOLUTION_OHM,
+      calibrated: rec.predicted.mean_turn_length_source !== "model",
+      bareDiameter: rec.winding.wire.bare_diameter_mm * 1e-3,
+      source: `logbook record ${argv.record}`,
+    };
+  }
+  let readings: number[];
+  let temperature = 20;
+  let given = false;
+  let wound: WoundInput | undefined;
+  let date: string | undefined;
+  let meter: number | undefined;
+  if (argv.measured !== undefined) {
+    if (!job) throw inputError("measured_needs_plan", "measured", "a measured file goes with the full job it was planned by; with a layout-only job give the readings as --bars");
+    const m = loadMeasured(io, argv.measured, job);
+    ({ bar_to_bar: readings, temperature, wound, date } = m);
+    meter = m.meter_resolution;
+    given = true;
+  } else {
+    readings = parseBars(argv.bars!, loaded.bars);
+    if (argv.temperature !== undefined) {
+      const t = parseQuantity(argv.temperature, "temperature");
+      if (!t.ok) throw inputError("bad_quantity", "--temperature", `--temperature ${argv.temperature}: ${t.message}`);
+      const outside = rangeProblem("temperature", t.value);
+      if (outside) throw inputError("out_of_range", "--temperature", `--temperature ${argv.temperature}: ${outside}`);
+      temperature = t.value;
+      given = true;
+    }
+  }
+  const base = { readings, temperature, temperatureGiven: given, resolution: res ?? meter ?? DEFAULT_METER_RESOLUTION_OHM, source: argv.measured !== undefined ? `measured file ${argv.measured}` : "--bars" };
+  if (!job) return { ...base, expected: null, turns: null, calibrated: false, bareDiameter: null };
+  const options = argv.learn ? logbookOptionsFor(io, job, argv.logbook, date ? { before: date } : {}) : {};
+  const plan = planJob(job, options);
+  const p = predictWound(job, plan, wound, options);
+  return { ...base, expected: p.coil_ohm, turns: p.turns, calibrated: plan.wire.mlt_source !== "model", bareDiameter: p.wire.bare_diameter };
+}
+
+function parseResolution(text: string): number {
+  const r = parseQuantity(text, "resistance");
+  if (!r.ok || !(r.value > 0)) throw inputError("bad_quantity", "resolution", `--resolution ${text}: ${r.ok ? "must be greater than 0" : r.message} (the meter's last digit, e.g. 0.001 ohm)`);
+  return r.value;
 }
 
 export function diagnoseCommand(yargs: Argv, io: Io, setStatus: (n: number) => void) {
   return yargs.command(
     "diagnose <job>",
-    "Solve the bar-to-bar readings for each coil's resistance and name the coils that stand out (exit 4 when one is out of tolerance)",
+    "Judge the bar-to-bar readings by the bench rules, solve them for each coil's resistance and name the coils behind each failing reading (exit 4 when one fails)",
     (y) =>
-      withLogbook(withJob(y, "job file (YAML)"), "expect what the plan expects with the family's records (--no-learn: without)")
-        .option("bars", { type: "string", describe: "readings r1,r2,…,rC in Ω (a unit may follow each: 1.05 ohm, 1050 mohm)" })
+      withLogbook(withJob(y, "job file (YAML), or a layout-only job (version, id, armature, winding)"), "expect what the plan expects with the family's records (--no-learn: without)")
+        .option("bars", { type: "string", describe: "readings r1,r2,…,rC in Ω (a unit may follow each: 1.05 ohm, 1050 mohm; OL or open for an open circuit)" })
         .option("temperature", { type: "string", describe: 'winding temperature when read with --bars, e.g. "21 C" or "70 F" (default 20 C)' })
         .option("measured", { type: "string", describe: "take the readings (and the winding laid) from a measured file" })
         .option("record", { type: "string", describe: "take the readings (and the winding laid) from a logbook record" })
-        .option("tolerance", { type: "number", describe: "tolerance on each coil as a fraction (default 0.05, common practice)" })
-        .option("json", { type: "boolean", default: false, describe: "print { ok, coils, suspects, … } as JSON" }),
+        .option("resolution", { type: "string", describe: `the meter's resolution, e.g. "0.001 ohm" (default: the file's, else ${DEFAULT_METER_RESOLUTION_OHM} ohm)` })
+        .option("tolerance", { type: "number", describe: "tolerance on each coil as a fraction (default 0.05, the spread rule; common practice)" })
+        .option("json", { type: "boolean", default: false, describe: "print { ok, errors, failures, coils, suspects, … } as JSON" }),
 
     async (argv) => {
       setStatus(
-        await guarded(
-          io,
-          argv.json,
-          (where) => {
-            const ways = [argv.bars, argv.measured, argv.record].filter((x) => x !== undefined).length;
-            if (ways !== 1) throw inputError("readings_missing", "", "give the readings one way: --bars r1,r2,…, --measured FILE or --record FILE");
-            if (argv.temperature !== undefined && argv.bars === undefined) throw inputError("option_conflict", "--temperature", "--temperature goes with --bars (measured files and records carry their own)");
-            if (argv.tolerance !== undefined && !(argv.tolerance > 0 && argv.tolerance < 1)) {
-              throw inputError("tolerance_invalid", "--tolerance", `--tolerance ${argv.tolerance}: a fraction between 0 and 1 is needed, like 0.05 for ±5 %`);
-            }
-            const { job, file, locate } = loadJob(io, argv.job);
-            where.file = file;
-            where.locate = locate;
-            let input: DiagnoseInput;
-            if (argv.record !== undefined) {
-              const rec = loadRecordFile(io, argv.record, job);
-              input = {
-                readings: rec.measured.bar_to_bar_ohm,
-                temperature: rec.measured.temperature_c,
-                temperatureGiven: true,
-                expected: rec.predicted.coil_ohm,
-                turns: rec.winding.turns,
-                source: `logbook record ${argv.record}`,
-              };
-            } else {
-              let readings: number[];
-              let temperature = 20;
-              let given = false;
-              let wound;
-              let date: string | undefined;
-              if (argv.measured !== undefined) {
-                const m = loadMeasured(io, argv.measured, job);
-                readings = m.bar_to_bar;
-                temperature = m.temperature;
-                given = true;
-                wound = m.wound;
-                date = m.date;
-              } else {
-                readings = parseBars(argv.bars!, job.armature.bars);
-                if (argv.temperature !== undefined) {
-                  const t = parseQuantity(argv.temperature, "temperature");
-                  if (!t.ok) throw inputError("bad_quantity", "--temperature", `--temperature ${argv.temperature}: ${t.message}`);
-                  const outside = rangeProblem("temperature", t.value);
-                  if (outside) throw inputError("out_of_range", "--temperature", `--temperature ${argv.temperature}: ${outside}`);
-                  temperature = t.value;
-                  given = true;
-                }
-              }
-              const options = argv.learn ? logbookOptionsFor(io, job, argv.logbook, date ? { before: date } : {}) : {};
-              const plan = planJob(job, options);
-              const p = predictWound(job, plan, wound, options);
-              input = {
-                readings,
-                temperature,
-                temperatureGiven: given,
-                expected: p.coil_ohm,
-                turns: p.turns,
-                source: argv.measured !== undefined ? `measured file ${argv.measured}` : "--bars",
-              };
-            }
-            const layout = layoutWinding(windingSpec(job));
-            if (input.expected.length !== layout.coils.length) {
-              throw inputError("record_mismatch", "predicted.coil_ohm", `the record expects ${input.expected.length} coils, the job's coil table has ${layout.coils.length}`);
-            }
-            const at20 = input.readings.map((r) => (Number.isFinite(r) ? to20C(r, input.temperature) : r));
-            const d = diagnose(layout, at20, input.expected, input.turns, argv.tolerance);
-            io.out(argv.json ? JSON.stringify(diagnoseJson(job, input, d), null, 2) : diagnoseText(job, input, d));
-            return d.ok ? 0 : 4;
-          },
-        ),
+        await guarded(io, argv.json, (where) => {
+          const ways = [argv.bars, argv.measured, argv.record].filter((x) => x !== undefined).length;
+          if (ways !== 1) throw inputError("readings_missing", "", "give the readings one way: --bars r1,r2,…, --measured FILE or --record FILE");
+          if (argv.temperature !== undefined && argv.bars === undefined) throw inputError("option_conflict", "--temperature", "--temperature goes with --bars (measured files and records carry their own)");
+          if (argv.tolerance !== undefined && !(argv.tolerance > 0 && argv.tolerance < 1)) {
+            throw inputError("tolerance_invalid", "--tolerance", `--tolerance ${argv.tolerance}: a fraction between 0 and 1 is needed, like 0.05 for ±5 %`);
+          }
+          const loaded = loadAnyJob(io, argv.job, where);
+          const input = gatherInput(io, argv, loaded);
+          const layout = layoutWinding(loaded.spec);
+          if (input.expected && input.expected.length !== layout.coils.length) {
+            throw inputError("record_mismatch", "predicted.coil_ohm", `the record expects ${input.expected.length} coils, the job's coil table has ${layout.coils.length}`);
+          }
+          const at20 = input.readings.map((r) => (Number.isFinite(r) ? to20C(r, input.temperature) : r));
+          const d = diagnose(layout, at20, input.expected, input.turns, argv.tolerance, {
+            resolutionOhm: input.resolution,
+            calibrated: input.calibrated,
+            bareDiameterM: input.bareDiameter ?? undefined,
+          });
+          io.out(argv.json ? JSON.stringify(diagnoseJson(loaded, input, d), null, 2) : diagnoseText(loaded, input, d));
+          return d.ok ? 0 : 4;
+        }),
       );
     },
   );

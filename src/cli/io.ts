@@ -15,7 +15,8 @@ export { readUserFile } from "../files.js";
 export { OutputError } from "./output.js";
 import { loadYaml, oneLine } from "../job/load.js";
 import { jobSchema, type Job } from "../job/schema.js";
-import type { z } from "zod";
+import { z } from "zod";
+import { isLayoutOnly } from "../winding/layout-job.js";
 
 export interface Io {
   out: (s: string) => void;
@@ -53,8 +54,25 @@ export function loadFile<S extends z.ZodType>(io: Io, file: string, schema: S) {
 }
 
 export function loadJob(io: Io, file: string): { job: Job; file: string; locate: (path: (string | number)[]) => { line: number; column: number } } {
-  const r = loadFile(io, file, jobSchema);
-  return { job: r.value, file: isStdin(file) ? "<stdin>" : file, locate: r.locate };
+  return loadJobText(readText(io, file), isStdin(file) ? "<stdin>" : file);
+}
+
+/** A job from its text (`name` locates the problems): refused in one line when it holds only the layout. */
+export function loadJobText(text: string, name: string): { job: Job; file: string; locate: (path: (string | number)[]) => { line: number; column: number } } {
+  // a layout-only job (version, id, armature, winding) serves `diagnose` alone: one line, not a list of every missing field
+  const peek = loadYaml(text, name, z.unknown());
+  if (isLayoutOnly(peek.raw)) {
+    throw new ArmwindError({
+      code: "layout_only_job",
+      path: "",
+      message: "this job holds only the layout (no original, no target): armwind diagnose reads it; plan, card and log need the original winding and a target (armwind new job writes a full one)",
+      file: name,
+      line: 1,
+      column: 1,
+    });
+  }
+  const r = loadYaml(text, name, jobSchema);
+  return { job: r.value, file: name, locate: r.locate };
 }
 
 /** Attach file, line and column to problems that carry only a field path (thrown by the core). */

@@ -6,7 +6,6 @@
 import type { Argv } from "yargs";
 import { planJob } from "../design/plan.js";
 import { guarded, loadFile, loadJob, type Io } from "./io.js";
-import type { Where } from "./plan.js";
 import { logbookDir, logbookOptionsFor } from "./learning.js";
 import { checkAgainstJob, measuredSchema, type Measured } from "../logbook/measured.js";
 import { predictWound } from "../logbook/predict.js";
@@ -14,6 +13,7 @@ import { buildRecord, type LogRecord } from "../logbook/record.js";
 import { writeRecordFile } from "../logbook/store.js";
 import { ohm, sig, table } from "./format.js";
 import type { CheckRow } from "../logbook/compare.js";
+import { checkLabel } from "../bench/rules.js";
 import type { Job } from "../job/schema.js";
 import { relative } from "node:path";
 import { withJob, withLogbook } from "./options.js";
@@ -53,13 +53,18 @@ function value(c: CheckRow, x: number | null): string {
 }
 
 function checkName(c: CheckRow): string {
-  const m = /^bar_to_bar\[(\d+)\]$/.exec(c.check);
-  if (m) return `bar to bar r${Number(m[1]) + 1}`;
+  const label = checkLabel(c.check);
+  if (label !== c.check) return `bar to bar ${label}`;
   return (
-    { "bar_to_bar.spread": "bar-to-bar spread", terminal_resistance: "terminal", "no_load.speed": "no-load speed", "no_load.current": "no-load current", "stall.current": "stall current", insulation: "insulation" } as Record<
-      string,
-      string
-    >
+    {
+      "bar_to_bar.spread": "bar-to-bar spread",
+      "bar_to_bar.level": "bar-to-bar level (median)",
+      terminal_resistance: "terminal",
+      "no_load.speed": "no-load speed",
+      "no_load.current": "no-load current",
+      "stall.current": "stall current",
+      insulation: "insulation",
+    } as Record<string, string>
   )[c.check] ?? c.check;
 }
 
@@ -93,12 +98,13 @@ export function logText(record: LogRecord, file: string, jobFile = `${record.job
   const rows = cmp.checks.map((c) => [
     checkName(c),
     c.check === "insulation" || c.check === "bar_to_bar.spread" ? "" : value(c, c.predicted_value),
-    c.check === "insulation" && c.unit === "" ? (c.verdict === "ok" ? "passed" : c.verdict === "fail" ? "failed" : "—") : c.unit === "ohm" ? value(c, c.measured_20c_value) : value(c, c.measured_value),
+    c.check === "insulation" && c.unit === "" ? (c.verdict === "ok" ? "passed" : c.verdict === "fail" ? "failed" : "—") : c.unit === "ohm" ? (c.measured_20c_value === null && c.verdict === "fail" ? "open" : value(c, c.measured_20c_value)) : value(c, c.measured_value),
     c.deviation_fraction === null || c.unit === "fraction" ? "" : `${c.deviation_fraction >= 0 ? "+" : "−"}${sig(Math.abs(c.deviation_fraction) * 100)} %`,
     c.check === "insulation" && c.unit === "Mohm" ? `≥ ${value(c, c.predicted_value)}` : c.tolerance_fraction === null ? "" : `±${sig(c.tolerance_fraction * 100)} %`,
     c.verdict === "not_checked" ? "not checked" : c.verdict === "ok" ? "ok" : c.verdict.toUpperCase(),
   ]);
   L.push(table(["check", "predicted", "measured (20 °C)", "deviation", "tolerance", "verdict"], rows, [false, true, true, true, true, false]));
+  L.push("  (each bar-to-bar reading: deviation and band against the median of your readings, the spread rule; the level row: your median against the plan's)");
   const spread = cmp.checks.find((c) => c.check === "bar_to_bar.spread");
   if (spread?.note) L.push(`  spread: ${spread.note}`);
   for (const c of cmp.checks) if (c.note && c.verdict !== "not_checked" && c.check !== "bar_to_bar.spread" && c.verdict !== "ok") L.push(`  ${checkName(c)}: ${c.note}`);

@@ -28,7 +28,11 @@ export async function main(args: string[], io = processIo()): Promise<number> {
   const wanted = COMMANDS.find((c) => c.names.includes(args[0] ?? ""));
   for (const c of wanted ? [wanted] : COMMANDS) y = await c.register(y, io, setStatus);
   try {
-    await y.parseAsync();
+    // with a callback yargs never exits the process, and hands help and version text back: printed
+    // through io, so that `main` can run in-process (tests) exactly as it runs in a process
+    await y.exitProcess(false).parseAsync(args, {}, (_err, _argv, output) => {
+      if (output) io.out(output);
+    });
   } catch (e) {
     // standard output closed early (quiet, 0) or could not be written (one line, 3)
     if (e instanceof OutputError) return endForOutputError(e);

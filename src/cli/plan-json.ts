@@ -3,12 +3,17 @@
  * key, numbers unrounded, unknowable figures null (never absent).
  */
 import type { Candidate, MotorReport, Plan } from "../design/types.js";
+import type { GoalKind } from "../design/types.js";
 import { supplyOf } from "../design/plan.js";
+import type { SeriesPoint } from "../motor/series.js";
+import { goalSummary } from "../format/goal.js";
+import { GOAL_UNIT, convert, goalValue, toAPerMm2, toMm, toRpm } from "../format/units.js";
+import { kvFromKe } from "../motor/emf.js";
 
-const RPM = 60 / (2 * Math.PI);
-const n = (x: number | null | undefined): number | null => (x === null || x === undefined || !Number.isFinite(x) ? null : x);
-const mm = (m: number | null | undefined) => (m === null || m === undefined ? null : m * 1e3);
-const rpm = (w: number | null | undefined) => (w === null || w === undefined ? null : n(w * RPM));
+const n = (x: number | null | undefined): number | null => convert(x, (v) => v);
+const mm = (m: number | null | undefined) => convert(m, toMm);
+const rpm = (w: number | null | undefined) => convert(w, toRpm);
+const density = (j: number | null | undefined) => convert(j, toAPerMm2);
 
 export function wireJson(w: Candidate["wire"]) {
   return {
@@ -23,11 +28,70 @@ export function wireJson(w: Candidate["wire"]) {
   };
 }
 
-function motorJson(m: MotorReport, calibration: string) {
+function seriesPointJson(p: SeriesPoint | null) {
+  return {
+    current_a: p ? p.current : null,
+    speed_rpm: p ? toRpm(p.speed) : null,
+    torque_n_m: p ? p.torque : null,
+    efficiency: p ? p.efficiency : null,
+    input_w: p ? p.inputW : null,
+    output_w: p ? p.outputW : null,
+    power_factor: p ? p.powerFactor : null,
+  };
+}
+
+/** DESIGN.md's `motor.series` for one side (original or new), null members where the job lacks the data. */
+function seriesJson(plan: Plan, which: "original" | "rewound") {
+  const sp = plan.series;
+  if (!sp) {
+    // a series motor whose field the job does not describe: the contract's keys, each unknown
+    const none = { supply_v: null, frequency_hz: null, current_a: null };
+    return { k_v_s_per_a_rad: null, supply_v: plan.supply, frequency_hz: null, field_ohm: null, rated: seriesPointJson(null), locked_rotor: none, curve: [] };
+  }
+  const side = sp[which];
+  const supply = which === "original" ? sp.originalSupply : sp.supply;
+  return {
+    k_v_s_per_a_rad: side.k,
+    supply_v: supply.volts,
+    frequency_hz: supply.frequency,
+    field_ohm: side.fieldOhm,
+    rated: seriesPointJson(side.rated),
+    locked_rotor: {
+      supply_v: sp.lockedRotor ? sp.lockedRotor.supply.volts : null,
+      frequency_hz: sp.lockedRotor ? sp.lockedRotor.supply.frequency : null,
+      current_a: side.lockedRotorCurrent,
+    },
+    curve: side.curve.map((p) => ({ torque_n_m: p.torque, speed_rpm: toRpm(p.speed), current_a: p.current, efficiency: p.efficiency })),
+  };
+}
+
+/** What the series model adds beside the two motors: where the rated torque and check voltage come from, conversion, no-load run. */
+function seriesExtraJson(plan: Plan) {
+  const sp = plan.series;
+  if (!sp) return null;
+  return {
+    rated_torque_n_m: sp.ratedTorque,
+    rated_source: sp.ratedSource,
+    locked_rotor_basis: sp.lockedRotor ? sp.lockedRotor.basis : null,
+    no_load: sp.noLoad ? { supply_v: sp.supply.volts, current_a: sp.noLoad.current, speed_rpm: toRpm(sp.noLoad.speed) } : null,
+    convert: sp.convert
+      ? {
+          turns_ratio: sp.convert.ratio,
+          turns_per_coil: sp.convert.turns,
+          field_turns_per_pole: sp.convert.fieldTurnsPerPole,
+          field_ohm: sp.convert.fieldOhm,
+          field_area_fraction: sp.convert.fieldAreaFactor,
+        }
+      : null,
+    basis: sp.basis,
+  };
+}
+
+function motorJson(m: MotorReport, calibration: string, series: ReturnType<typeof seriesJson> | undefined) {
   return {
     ke_v_s_per_rad: n(m.ke),
     kt_n_m_per_a: n(m.kt),
-    kv_rpm_per_v: n(m.kv),
+    kv_rpm_per_v: series === undefined ? n(m.kv) : null,
     terminal_hot_ohm: n(m.resistance),
     no_load_speed_rpm: rpm(m.noLoadSpeed),
     no_load_current_a: n(m.noLoadCurrent),
@@ -38,10 +102,11 @@ function motorJson(m: MotorReport, calibration: string) {
     peak_efficiency_current_a: n(m.peakEfficiencyCurrent),
     max_output_w: n(m.maxOutputW),
     calibration,
+    series: series ?? null,
   };
 }
 
-function candidateJson(c: Candidate) {
+function candidateJson(c: Candidate, goal: GoalKind, series: boolean) {
   return {
     turns_per_coil: c.turns,
     wire: c.wire.label,
@@ -49,11 +114,11 @@ function candidateJson(c: Candidate) {
     copper_fill: c.copper_fill,
     space_fill: n(c.space_fill),
     terminal_ohm: c.terminal_ohm,
-    kv_rpm_per_v: c.ke === null ? null : 60 / (2 * Math.PI * c.ke),
-    achieved_value: c.achieved,
+    kv_rpm_per_v: c.ke === null || series ? null : kvFromKe(c.ke),
+    achieved_value: goalValue(goal, c.achieved),
     error_fraction: n(c.error),
     stall_current_hot_a: n(c.stall_current_hot),
-    current_density_a_per_mm2: c.current_density === null ? null : c.current_density / 1e6,
+    current_density_a_per_mm2: density(c.current_density),
     copper_mass_g: c.copper_mass * 1e3,
     meets_goal: c.meets_goal,
     rejected_because: c.rejected_because,
@@ -63,6 +128,7 @@ function candidateJson(c: Candidate) {
 export function planJson(plan: Plan) {
   const d = plan.design;
   const { kind } = supplyOf(plan.job);
+  const series = plan.job.armature.field === "series";
   return {
     ok: true,
     job_id: plan.job.id,
@@ -70,14 +136,14 @@ export function planJson(plan: Plan) {
     feasible: plan.feasible,
     goal: {
       kind: plan.goal.kind,
-      unit: plan.goal.unit,
-      target_value: plan.goal.target_value,
-      achieved_value: n(plan.goal.achieved_value),
+      unit: GOAL_UNIT[plan.goal.kind],
+      target_value: goalValue(plan.goal.kind, plan.goal.target),
+      achieved_value: goalValue(plan.goal.kind, plan.goal.achieved),
       error_fraction: n(plan.goal.error_fraction),
-      tolerance: plan.job.target.tolerance,
-      summary: plan.goal.summary,
+      tolerance: plan.goal.tolerance,
+      summary: goalSummary(plan.goal),
     },
-    supply: { volts: plan.supply, kind, mains: plan.mains },
+    supply: { voltage_v: plan.supply, kind, mains: plan.mains },
     design: {
       turns_per_coil: d.turns,
       strands_in_hand: d.strands,
@@ -89,7 +155,7 @@ export function planJson(plan: Plan) {
       turns_per_layer: d.build ? d.build.turnsPerLayer : null,
       build_mm: d.build ? d.build.build * 1e3 : null,
       build_room_mm: d.build ? d.build.room * 1e3 : null,
-      current_density_a_per_mm2: d.current_density === null ? null : d.current_density / 1e6,
+      current_density_a_per_mm2: density(d.current_density),
     },
     winding: {
       style: plan.layout.spec.style,
@@ -151,8 +217,9 @@ export function planJson(plan: Plan) {
       copper_mass_g: plan.wire.copper_mass * 1e3,
       spare_margin: plan.wire.spare_margin,
     },
-    motor: motorJson(plan.motor, plan.calibration.source),
-    original_motor: motorJson(plan.original_motor, plan.calibration.source),
+    motor: motorJson(plan.motor, plan.calibration.source, series ? seriesJson(plan, "rewound") : undefined),
+    original_motor: motorJson(plan.original_motor, plan.calibration.source, series ? seriesJson(plan, "original") : undefined),
+    series: seriesExtraJson(plan),
     original: {
       turns_per_coil: plan.original.turns,
       strands_in_hand: plan.original.strands,
@@ -177,16 +244,16 @@ export function planJson(plan: Plan) {
     duty: plan.duty
       ? {
           torque_n_m: plan.duty.torque,
-          target_speed_rpm: plan.duty.target_speed * RPM,
+          target_speed_rpm: rpm(plan.duty.target_speed),
           current_a: n(plan.duty.current),
-          speed_rpm: plan.duty.speed * RPM,
+          speed_rpm: rpm(plan.duty.speed),
           efficiency: n(plan.duty.efficiency),
           input_w: n(plan.duty.input_w),
           output_w: n(plan.duty.output_w),
-          current_density_a_per_mm2: plan.duty.current_density === null ? null : plan.duty.current_density / 1e6,
+          current_density_a_per_mm2: density(plan.duty.current_density),
         }
       : null,
-    candidates: plan.candidates.map(candidateJson),
+    candidates: plan.candidates.map((c) => candidateJson(c, plan.goal.kind, series)),
     candidates_total: plan.candidates_total,
     rejections: plan.rejections,
     binding: plan.binding,
@@ -197,12 +264,12 @@ export function planJson(plan: Plan) {
       strands_in_hand: s.strands,
       terminal_ohm: s.terminal_ohm,
       copper_fill: s.copper_fill,
-      achieved_value: s.achieved,
+      achieved_value: goalValue(plan.goal.kind, s.achieved),
       meets_goal: s.meets_goal,
       rejected_because: s.rejected_because,
     })),
     learning: plan.learning
-      ? { records: plan.learning.records, moves: plan.learning.moves }
+      ? { records: plan.learning.records, moves: plan.learning.moves.map((m) => ({ figure: m.figure, unit: m.unit, from_value: m.from, to_value: m.to })) }
       : null,
     warnings: plan.warnings.map((w) => ({ code: w.code, message: w.message, path: w.path })),
   };

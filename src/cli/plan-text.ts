@@ -1,7 +1,9 @@
 /** The plan for the terminal: the chosen winding first, then what it will read and do, then the rest. */
 import type { Plan } from "../design/types.js";
 import { reasonText } from "../design/plan.js";
-import { mm, ohm, pct, rpm, sig, table } from "./format.js";
+import { mm, ohm, pct, rpm, sig, table } from "../format/number.js";
+import { goalSummary } from "../format/goal.js";
+import { GOAL_UNIT, goalValue } from "../format/units.js";
 
 export function planText(plan: Plan): string {
   const j = plan.job;
@@ -17,7 +19,7 @@ export function planText(plan: Plan): string {
   for (const n of plan.layout.notes) L.push(`  note: ${n}`);
   L.push("");
   L.push(`${plan.feasible ? "WIND" : "CLOSEST (does not meet the goal)"}: ${d.turns} turns per coil of ${d.wire.label}${d.strands > 1 ? `, ${d.strands} strands in hand` : ""}`);
-  L.push(`  goal ${plan.goal.kind.replace(/_/g, " ")}: ${plan.goal.summary}`);
+  L.push(`  goal ${plan.goal.kind.replace(/_/g, " ")}: ${goalSummary(plan.goal)}`);
   if (plan.binding) L.push(`  ${plan.binding}`);
   L.push(
     `  copper fill ${pct(d.copper_fill)} (limit ${pct(plan.fill_limit)}), space fill ${pct(d.space_fill)}` +
@@ -74,11 +76,11 @@ export function planText(plan: Plan): string {
     String(c.strands),
     pct(c.copper_fill),
     ohm(c.terminal_ohm),
-    c.achieved === null ? "—" : sig(plan.goal.unit === "mm2" ? c.achieved * 1e6 : plan.goal.unit === "A" ? c.achieved : (c.achieved * 60) / (2 * Math.PI)),
+    sig(goalValue(plan.goal.kind, c.achieved)),
     c.meets_goal ? "meets" : c.rejected_because.length ? c.rejected_because.join(",") : "misses goal",
   ]);
   L.push(
-    table(["turns", "wire", "k", "Cu fill", "R Ω", plan.goal.unit, "verdict"], crow, [true, false, true, true, true, true, false])
+    table(["turns", "wire", "k", "Cu fill", "R Ω", GOAL_UNIT[plan.goal.kind], "verdict"], crow, [true, false, true, true, true, true, false])
       .split("\n")
       .map((s) => "  " + s)
       .join("\n"),
@@ -88,7 +90,7 @@ export function planText(plan: Plan): string {
   if (plan.sensitivity.length) {
     L.push("Sensitivity:");
     for (const s of plan.sensitivity)
-      L.push(`  ${s.label.padEnd(15)} ${String(s.turns).padStart(5)} × ${s.wire}: R ${ohm(s.terminal_ohm)} Ω, ${plan.goal.unit} ${sig(s.achieved)}, fill ${pct(s.copper_fill)}${s.rejected_because.length ? ` (${s.rejected_because.map(reasonText).join("; ")})` : ""}`);
+      L.push(`  ${s.label.padEnd(15)} ${String(s.turns).padStart(5)} × ${s.wire}: R ${ohm(s.terminal_ohm)} Ω, ${GOAL_UNIT[plan.goal.kind]} ${sig(goalValue(plan.goal.kind, s.achieved))}, fill ${pct(s.copper_fill)}${s.rejected_because.length ? ` (${s.rejected_because.map(reasonText).join("; ")})` : ""}`);
   }
   if (plan.learning) {
     L.push(`Logbook: ${plan.learning.records} record(s) of family ${j.armature.family} corrected this plan`);

@@ -10,6 +10,7 @@ import { copperFactor } from "../wire/copper.js";
 import type { Warning } from "../errors.js";
 import type { ArmatureContext } from "./context.js";
 import type { Calibration } from "./types.js";
+import { nameplateMotorSpeed } from "./series.js";
 
 /** Default brush material when the job does not say: metal for small permanent-magnet motors (rotor under 30 mm), else carbon (common practice, no published source). */
 export function defaultBrushMaterial(job: Job): BrushMaterial {
@@ -39,21 +40,26 @@ export function calibrateOriginal(ctx: ArmatureContext, logbook?: LogbookCalibra
   const r20 = ctx.original.terminal20;
   const inputs: CalibrationInputs = { brushDrop: bd.volts, field: job.armature.field };
   if (o.generator) inputs.generator = { speed: o.generator.speed, volts: o.generator.volts };
-  if (o.tests && o.tests.length > 0) {
-    inputs.noLoad = o.tests.map((t) => ({
+  // a series motor whose field the job describes is calibrated by the series model (design/series.ts):
+  // its running readings say nothing about a constant-field Ke
+  const seriesModel = job.armature.field === "series" && job.field_winding !== undefined;
+  const noLoadTests = seriesModel ? [] : (o.tests ?? []).filter((t) => t.kind === "no_load");
+  if (noLoadTests.length > 0) {
+    inputs.noLoad = noLoadTests.map((t) => ({
       supply: t.supply,
-      current: t.no_load_current,
-      speed: t.no_load_speed,
+      current: t.no_load_current!,
+      speed: t.no_load_speed!,
       fieldCurrent: t.field_current,
       terminalOhm: r20 * copperFactor(t.temperature ?? 20),
     }));
   }
   if (logbook?.ke !== undefined) inputs.logbook = { ke: logbook.ke, records: logbook.records, loss: logbook.loss };
-  if (o.nameplate) {
+  if (o.nameplate && !seriesModel) {
     inputs.nameplate = {
       supply: o.nameplate.supply,
-      current: o.nameplate.current,
-      speed: o.nameplate.speed,
+      // input watts on DC: I = P/V (a series motor's AC nameplate is read by design/series.ts)
+      current: o.nameplate.current ?? o.nameplate.input_power! / o.nameplate.supply,
+      speed: nameplateMotorSpeed(o.nameplate),
       hotOhm: r20 * copperFactor(job.target.hot_temperature),
     };
   }
@@ -72,7 +78,8 @@ export function calibrateOriginal(ctx: ArmatureContext, logbook?: LogbookCalibra
     }
   }
   const c = calibrate(inputs);
-  warnings.push(...c.warnings);
+  // with the series model in charge, "nothing calibrates Ke" is no news
+  warnings.push(...c.warnings.filter((w) => !(seriesModel && w.code === "uncalibrated")));
   if (c.loss === null && c.ke !== null && !(logbook?.loss)) {
     warnings.push({
       code: "loss_unknown",

@@ -28,12 +28,17 @@ export interface Evaluator {
   supply: number;
 }
 
-export function makeEvaluator(ctx: ArmatureContext, cal: Calibration, supply: number): Evaluator {
+/**
+ * `convertRatio`: goal convert's turns ratio (design/series.ts): the copper area aimed at is the
+ * original's ÷ the ratio (the same copper in the slot), judged as a restore is.
+ */
+export function makeEvaluator(ctx: ArmatureContext, cal: Calibration, supply: number, convertRatio: number | null = null): Evaluator {
   const job = ctx.job;
   const t = job.target;
   const lim = t.limits;
   const goal = t.goal;
-  const fillLimit = goal === "restore" ? Math.max(lim.copper_fill, ctx.original.copperFill) : lim.copper_fill;
+  const likeRestore = goal === "restore" || goal === "convert";
+  const fillLimit = likeRestore ? Math.max(lim.copper_fill, ctx.original.copperFill) : lim.copper_fill;
   const spaceLimit = Math.min(lim.space_fill, HEX_PACKING);
   const spec = ctx.layout.spec;
   const layout = ctx.layout;
@@ -55,6 +60,9 @@ export function makeEvaluator(ctx: ArmatureContext, cal: Calibration, supply: nu
   switch (goal) {
     case "restore":
       target = origArea;
+      break;
+    case "convert":
+      target = origArea / (convertRatio ?? 1);
       break;
     case "no_load_speed":
       target = t.no_load_speed!;
@@ -122,13 +130,15 @@ export function makeEvaluator(ctx: ArmatureContext, cal: Calibration, supply: nu
     if (keOrig !== null) ke = (keOrig * turns) / nOrig;
     // steady state of the linear model (DESIGN.md; motor/model.ts): stall I = (V − V_b)/R;
     // no load: V_d = Ke·ω + I·R with Kt·I = T_c + B·ω  →  ω0 = (Ke·V_d − R·T_c)/(Ke² + R·B)
-    if (ke !== null || series) {
+    // a series motor has no stall figure from the armature alone (the field is in the circuit): design/series.ts
+    if (ke !== null && !series) {
       stallHot = Vd / terminalHot;
       stallCold = Vd / terminal;
     }
     let dutyCurrent: number | null = null;
     switch (goal) {
       case "restore":
+      case "convert":
         achieved = strands * wire.area;
         break;
       case "no_load_speed":
@@ -164,7 +174,7 @@ export function makeEvaluator(ctx: ArmatureContext, cal: Calibration, supply: nu
     let error: number | null = achieved === null ? null : (achieved - target) / target;
     let meets = false;
     if (error !== null) {
-      if (goal === "restore") {
+      if (likeRestore) {
         if (achieved! < RESTORE_MIN_AREA * target) reasons.push("below_original_copper");
         meets = achieved! >= RESTORE_MIN_AREA * target;
       } else if (goal === "stall_current") {

@@ -4,6 +4,7 @@
  */
 import type { Warning } from "../errors.js";
 import type { Job } from "../job/schema.js";
+import { kvFromKe } from "../motor/emf.js";
 import { atTorque, curve, noLoad, stall, summarize, type MotorModel } from "../motor/model.js";
 import { copperFactor, COPPER_DENSITY } from "../wire/copper.js";
 import { defaultStock, resolveWire } from "../wire/catalogue.js";
@@ -13,6 +14,9 @@ import { buildContext, coilResistance, coilTurnLengths, meanOf, type ArmatureCon
 import { calibrateOriginal, type LogbookCalibration } from "./calibration.js";
 import { makeEvaluator, type Evaluator } from "./evaluate.js";
 import { sweep } from "./sweep.js";
+import { conversionRatio, planSeries, setupSeries, type SeriesPlan } from "./series.js";
+import { inputError } from "../errors.js";
+import { toleranceText } from "../format/goal.js";
 import type { Calibration, Candidate, CoilPlan, DutyReport, GoalReport, MotorReport, Plan, RejectCode, Sensitivity } from "./types.js";
 
 /** Extra-low voltage limits, IEC 60449 band I: 50 V AC r.m.s., 120 V ripple-free DC. */
@@ -70,17 +74,17 @@ function motorReport(ke: number | null, r20: number, hotFactor: number, cal: Cal
   const nullReport: MotorReport = {
     ke: ke ?? NaN,
     kt: ke ?? NaN,
-    kv: ke ? 60 / (2 * Math.PI * ke) : NaN,
+    kv: ke ? kvFromKe(ke) : NaN,
     resistance: r20 * hotFactor,
     noLoadSpeed: null,
     noLoadCurrent: null,
-    stallCurrent: series ? Math.max(0, supply - cal.brush_drop) / (r20 * hotFactor) : null,
+    stallCurrent: null,
     stallTorque: null,
     peakEfficiency: null,
     peakEfficiencyCurrent: null,
     maxOutputW: null,
     warnings: [],
-    stallCurrentCold: series ? Math.max(0, supply - cal.brush_drop) / r20 : null,
+    stallCurrentCold: null,
     model: null,
     curve: [],
   };
@@ -121,27 +125,8 @@ function dutyReport(model: MotorModel | null, supply: number, job: Job, density:
   }
 }
 
-const GOAL_UNITS: Record<Plan["goal"]["kind"], { unit: string; fromSi: (x: number) => number }> = {
-  restore: { unit: "mm2", fromSi: (x) => x * 1e6 },
-  no_load_speed: { unit: "rpm", fromSi: (x) => (x * 60) / (2 * Math.PI) },
-  kv: { unit: "rpm/V", fromSi: (x) => (x * 60) / (2 * Math.PI) },
-  stall_current: { unit: "A", fromSi: (x) => x },
-  duty: { unit: "rpm", fromSi: (x) => (x * 60) / (2 * Math.PI) },
-};
-
-function goalReport(ev: Evaluator, c: Candidate, tolerance: number): GoalReport {
-  const g = GOAL_UNITS[ev.goal];
-  const target = g.fromSi(ev.target);
-  const achieved = c.achieved === null ? null : g.fromSi(c.achieved);
-  const err = c.error;
-  const fmt = (x: number) => (Math.abs(x) >= 100 ? x.toFixed(0) : x.toPrecision(3));
-  let summary: string;
-  if (achieved === null || err === null) summary = `the ${ev.goal.replace(/_/g, " ")} cannot be predicted: nothing calibrates the motor`;
-  else if (ev.goal === "restore")
-    summary = `copper area ${fmt(achieved)} mm² against the original's ${fmt(target)} mm² (${err >= 0 ? "+" : "−"}${Math.abs(err * 100).toFixed(1)} %)`;
-  else
-    summary = `${fmt(achieved)} ${g.unit} against ${ev.goal === "stall_current" ? "at most " : ""}${fmt(target)} ${g.unit} (${err >= 0 ? "+" : "−"}${Math.abs(err * 100).toFixed(1)} %, tolerance ${ev.goal === "stall_current" ? "−" : "±"}${(tolerance * 100).toFixed(0)} %)`;
-  return { kind: ev.goal, unit: g.unit, target_value: target, achieved_value: achieved, error_fraction: err, summary };
+function goalReport(ev: Evaluator, c: Candidate, tolerance: Job["target"]["tolerance"]): GoalReport {
+  return { kind: ev.goal, target: ev.target, achieved: c.achieved, error_fraction: c.error, tolerance };
 }
 
 export function planJob(job: Job, options: PlanOptions = {}): Plan {
@@ -156,16 +141,25 @@ export function planJob(job: Job, options: PlanOptions = {}): Plan {
   warnings.push(...calWarnings);
   const { volts: supply, kind: supplyKind } = supplyOf(job);
   const series = job.armature.field === "series";
-  const ev = makeEvaluator(ctx, cal, supply);
+  const seriesSetup = series ? setupSeries(ctx, cal.brush_drop) : null;
+  const ratio = seriesSetup && job.target.goal === "convert" ? conversionRatio(seriesSetup, job.target.hot_temperature) : null;
+  if (job.target.goal === "convert" && ratio === null) {
+    throw inputError(
+      "goal_uncalibrated",
+      "original.nameplate",
+      "goal convert needs the original's rated point: field_winding (resistance, and inductance on AC) with a nameplate or load test that leaves the motor a load torque",
+    );
+  }
+  const ev = makeEvaluator(ctx, cal, supply, ratio);
   const stock = stockWires(job);
   warnings.push(...stock.warnings);
-  if (ev.goal !== "restore" && cal.ke === null) {
+  if (ev.goal !== "restore" && ev.goal !== "convert" && cal.ke === null) {
     warnings.push({ code: "goal_uncalibrated", path: "target.goal", message: `the ${ev.goal.replace(/_/g, " ")} cannot be predicted without a calibrated Ke; the plan falls back to the most copper that fits` });
   }
   const result = sweep(ev, {
     wires: stock.wires,
     maxInHand: job.max_in_hand,
-    fixedTurns: ev.goal === "restore" ? job.original.turns : undefined,
+    fixedTurns: ev.goal === "restore" ? job.original.turns : ratio !== null ? Math.max(1, Math.round(job.original.turns * ratio)) : undefined,
     sides: ctx.sides,
     freeArea: ctx.slot.free_area,
   });
@@ -181,7 +175,7 @@ export function planJob(job: Job, options: PlanOptions = {}): Plan {
     const top = Object.entries(result.rejections).sort((a, b) => b[1] - a[1])[0];
     binding = reasons.length
       ? `the closest candidate is held back by: ${reasons.join("; ")}`
-      : `no candidate within the limits comes within ±${(job.target.tolerance * 100).toFixed(0)} % of the goal${top ? `; the limit that rejects most candidates: ${reasonText(top[0] as RejectCode)} (${top[1]} of ${result.total})` : ""}`;
+      : `no candidate within the limits comes within ${toleranceText(ev.goal, job.target.tolerance)} of the goal${top ? `; the limit that rejects most candidates: ${reasonText(top[0] as RejectCode)} (${top[1]} of ${result.total})` : ""}`;
     warnings.push({ code: "goal_not_met", path: "target.goal", message: `no winding meets the goal within the limits: ${binding}` });
   }
 
@@ -209,11 +203,25 @@ export function planJob(job: Job, options: PlanOptions = {}): Plan {
   const newKe = cal.ke === null ? null : (cal.ke * chosen.turns) / ctx.original.turns;
   const motor = motorReport(newKe, term.single, hotFactor, cal, series, supply);
   const original_motor = motorReport(cal.ke, ctx.original.terminal20, hotFactor, cal, series, supply);
+  let seriesPlan: SeriesPlan | null = null;
+  if (seriesSetup) {
+    const sp = planSeries(job, seriesSetup, {
+      turns: chosen.turns,
+      originalTurns: ctx.original.turns,
+      armature20: term.single,
+      hotTemperature: job.target.hot_temperature,
+      convertRatio: ratio,
+    });
+    seriesPlan = sp.plan;
+    warnings.push(...sp.warnings);
+  }
   if (series && !warnings.some((w) => w.code === "series_field")) {
     warnings.push({
       code: "series_field",
-      path: "armature.field",
-      message: "series (universal) motor: no constant field, so only what the armature alone determines is predicted (resistance, Ke scaled by turns); never run a series motor unloaded, it races until it bursts",
+      path: seriesSetup ? "armature.field" : "field_winding",
+      message: seriesSetup
+        ? "series (universal) motor: its figures are the series model's (motor.series), not the constant-field ones; locked-rotor figures only at a reduced voltage, never at mains; never run a large series motor unloaded"
+        : "series (universal) motor: only what the armature alone determines is predicted (resistance, Ke scaled by turns); give field_winding (the field's resistance, and its inductance or a locked-rotor reading on AC) with a no-load test or the nameplate for the motor's figures; never run a series motor unloaded, it races",
     });
   }
   for (const w of [...motor.warnings]) if (!warnings.some((x) => x.code === w.code)) warnings.push(w);
@@ -259,7 +267,7 @@ export function planJob(job: Job, options: PlanOptions = {}): Plan {
     strands: c.strands,
     terminal_ohm: c.terminal_ohm,
     copper_fill: c.copper_fill,
-    achieved: c.achieved === null ? null : GOAL_UNITS[ev.goal].fromSi(c.achieved),
+    achieved: c.achieved,
     meets_goal: c.meets_goal,
     rejected_because: c.rejected_because,
   });
@@ -304,6 +312,7 @@ export function planJob(job: Job, options: PlanOptions = {}): Plan {
       lead_allowance: job.winding.lead_allowance,
     },
     calibration: cal,
+    series: seriesPlan,
     motor,
     original_motor,
     original: {

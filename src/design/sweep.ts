@@ -35,7 +35,7 @@ export interface SweepResult {
 
 /** Compare two candidates that both meet the goal: negative when `a` is better. */
 export function compareMeeting(goal: Evaluator["goal"], a: Candidate, b: Candidate): number {
-  if (goal === "restore") {
+  if (goal === "restore" || goal === "convert") {
     const d = Math.abs(a.error!) - Math.abs(b.error!);
     if (Math.abs(d) > 1e-9) return d;
   } else if (goal === "duty" && a.duty_input_w !== null && b.duty_input_w !== null) {

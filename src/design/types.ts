@@ -6,6 +6,7 @@ import type { Coil, WindingLayout } from "../winding/types.js";
 import type { SlotGeometry } from "../armature/slot.js";
 import type { LayerBuild } from "../armature/build.js";
 import type { MotorModel, MotorSummary, OperatingPoint } from "../motor/model.js";
+import type { SeriesPlan } from "./series.js";
 
 export type GoalKind = Job["target"]["goal"];
 
@@ -53,15 +54,17 @@ export interface Candidate {
   duty_input_w: number | null;
 }
 
+/** The goal and how close the chosen winding comes, in SI (src/format/goal.ts words it, src/format/units.ts converts it). */
 export interface GoalReport {
   kind: GoalKind;
-  /** Unit the target and achieved values are reported in: "rpm", "rpm/V", "A", "W", "mm2". */
-  unit: string;
-  target_value: number;
-  achieved_value: number | null;
+  /** Target in SI: copper area m² (restore), rad/s (speeds), rad/s per V (kv), A (stall current). */
+  target: number;
+  /** The chosen winding's figure, same unit as `target`; null when unknowable. */
+  achieved: number | null;
+  /** (achieved − target)/target, signed; null when unknowable. */
   error_fraction: number | null;
-  /** One sentence on how close it comes. */
-  summary: string;
+  /** The tolerance as the job gave it. */
+  tolerance: Job["target"]["tolerance"];
 }
 
 export interface CoilPlan extends Coil {
@@ -154,6 +157,7 @@ export interface Sensitivity {
   strands: number;
   terminal_ohm: number;
   copper_fill: number;
+  /** Goal figure in SI, as `Candidate.achieved`. */
   achieved: number | null;
   meets_goal: boolean;
   rejected_because: RejectCode[];
@@ -173,6 +177,8 @@ export interface Plan {
   resistance: ResistancePlan;
   wire: WirePlan;
   calibration: Calibration;
+  /** Series and universal motors with a described field: the series model's figures (design/series.ts); else null. */
+  series: SeriesPlan | null;
   motor: MotorReport;
   original_motor: MotorReport;
   original: {

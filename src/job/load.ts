@@ -4,7 +4,7 @@
  * file: the CLI reads the text and hands it here.
  */
 import { LineCounter, parseDocument, isMap, isSeq, isScalar, isPair, visit, type Alias, type Node, type Document } from "yaml";
-import { z } from "zod";
+import type { z } from "zod";
 import { ArmwindError, type Problem } from "../errors.js";
 import { formatPath, nearest, type PathPart } from "./paths.js";
 
@@ -110,7 +110,7 @@ export function oneLine(message: string): string {
     .replace(/\r\n|[\r\n\u2028\u2029]/g, "\\n")
     .replace(/[\t\v\f ]{2,}|\t/g, " ")
     // other control characters (a NUL, an escape that would drive the terminal) shown as \u0000
-    .replace(/[\u0000-\u0008\u000b\u000c\u000e-\u001f\u007f-\u009f]/g, (c) => `\\u${c.charCodeAt(0).toString(16).padStart(4, "0")}`);
+    .replace(/\p{Cc}/gu, (c) => `\\u${c.charCodeAt(0).toString(16).padStart(4, "0")}`);
   return flat.length > 300 ? `${flat.slice(0, 297)}…` : flat;
 }
 

@@ -41,6 +41,8 @@ export const KIND_RANGES: Record<QuantityKind, Range> = {
   frequency: { max: 2000, maxText: "2000 Hz" },
   current_density: { max: 1e9, maxText: "1000 A/mm2" },
   speed_per_volt: { max: 1e6 * RPM, maxText: "1000000 rpm/V" },
+  inductance: { max: 100, maxText: "100 H" },
+  power: { max: 10e6, maxText: "10 MW" },
 };
 
 /** Winding temperatures where resistances are read or figures are wanted, °C. */

@@ -11,6 +11,8 @@ import { parseQuantity, type QuantityKind, defaultUnit, example } from "./units.
 import { parseWireSpec } from "../wire/parse.js";
 import { COUNTS, ID_MAX_LENGTH, KIND_RANGES, RESERVED_NAMES, TEMPERATURE, TEXT_MAX_LENGTH } from "./ranges.js";
 
+const TEMP = { min: TEMPERATURE.min, max: TEMPERATURE.max, minText: TEMPERATURE.minText, maxText: TEMPERATURE.maxText };
+
 interface QtyOptions {
   /** Strictly greater than zero. */
   positive?: boolean;
@@ -161,12 +163,76 @@ const brushesSchema = z.strictObject({
   material: z.enum(["carbon", "metal"]).meta({ description: "carbon (drop about 2 V in total) or metal (a few tenths)" }).optional(),
 });
 
-const noLoadTestSchema = z.strictObject({
-  supply: qty("voltage", { positive: true }),
-  no_load_current: qty("current", { positive: true }),
-  no_load_speed: qty("speed", { positive: true }),
-  temperature: qty("temperature").optional(),
-  field_current: qty("current", { min: 0 }).optional(),
+/** A bench reading's frequency: AC at this frequency, 0 Hz for DC; absent: the target supply's kind. */
+const readingFrequency = () => qty("frequency", { min: 0, max: 1000, minText: "0 Hz (DC)", maxText: "1000 Hz" }).optional();
+
+const noLoadTestSchema = z
+  .strictObject({
+    kind: z.enum(["no_load", "load"]).meta({ description: "no_load (nothing on the shaft) or load (a known torque or output power)" }).prefault("no_load"),
+    supply: qty("voltage", { positive: true }),
+    frequency: readingFrequency(),
+    no_load_current: qty("current", { positive: true }).optional(),
+    no_load_speed: qty("speed", { positive: true }).optional(),
+    current: qty("current", { positive: true }).optional(),
+    speed: qty("speed", { positive: true }).optional(),
+    torque: qty("torque", { positive: true }).optional(),
+    output_power: qty("power", { positive: true }).optional(),
+    temperature: qty("temperature").optional(),
+    field_current: qty("current", { min: 0 }).optional(),
+  })
+  .superRefine((t, ctx) => {
+    const need = (key: string, ex: string) =>
+      ctx.addIssue({ code: "custom", path: [key], message: `a ${t.kind.replace("_", "-")} test needs ${key}: add ${ex}`, params: { code: "missing_field" } });
+    const refuse = (key: string, instead: string) =>
+      ctx.addIssue({ code: "custom", path: [key], message: `${key} belongs to a ${t.kind === "load" ? "no-load" : "load"} test; ${instead}`, params: { code: "unknown_key" } });
+    if (t.kind === "no_load") {
+      if (t.no_load_current === undefined) need("no_load_current", "no_load_current: 0.18 A");
+      if (t.no_load_speed === undefined) need("no_load_speed", "no_load_speed: 9800 rpm");
+      for (const k of ["current", "speed", "torque", "output_power"] as const) if (t[k] !== undefined) refuse(k, "write kind: load for a test with a load, or use no_load_current and no_load_speed");
+    } else {
+      if (t.current === undefined) need("current", "current: 2.1 A");
+      if (t.speed === undefined) need("speed", "speed: 18000 rpm");
+      if (t.torque === undefined && t.output_power === undefined) need("torque", "torque: 0.35 N m (or output_power: 400 W)");
+      if (t.torque !== undefined && t.output_power !== undefined) refuse("output_power", "give either torque or output_power, not both");
+      for (const k of ["no_load_current", "no_load_speed"] as const) if (t[k] !== undefined) refuse(k, "a load test uses current and speed");
+    }
+  });
+
+const nameplateSchema = z
+  .strictObject({
+    supply: qty("voltage", { positive: true }),
+    frequency: readingFrequency(),
+    current: qty("current", { positive: true }).optional(),
+    input_power: qty("power", { positive: true }).optional(),
+    speed: qty("speed", { positive: true }),
+    speed_kind: z.enum(["motor", "spindle"]).meta({ description: "motor: the speed at the armature; spindle: at a geared output (give gear_ratio)" }).prefault("motor"),
+    gear_ratio: z.number().positive().max(1000).meta({ description: "motor speed ÷ spindle speed (a 4:1 reduction is 4)" }).optional(),
+  })
+  .superRefine((n, ctx) => {
+    if (n.current === undefined && n.input_power === undefined) {
+      ctx.addIssue({ code: "custom", path: ["current"], message: "a nameplate needs its current (current: 2.2 A) or its input watts (input_power: 500 W)", params: { code: "missing_field" } });
+    }
+    if (n.speed_kind === "spindle" && n.gear_ratio === undefined) {
+      ctx.addIssue({ code: "custom", path: ["gear_ratio"], message: "a spindle speed needs the gear ratio to reach the motor: add gear_ratio (motor speed ÷ spindle speed, e.g. 4)", params: { code: "missing_field" } });
+    }
+  });
+
+const ohmAt = () => z.strictObject({ value: qty("resistance", { positive: true }), at: qty("temperature", TEMP).prefault(20) });
+
+/** A series (or shunt) field: a stator part, so at the top level of the job. */
+const fieldWindingSchema = z.strictObject({
+  resistance: ohmAt().meta({ description: "all field coils of the circuit in series, at a temperature" }),
+  inductance: qty("inductance", { positive: true }).optional(),
+  locked_rotor: z
+    .strictObject({
+      supply: qty("voltage", { positive: true, max: 1000, maxText: "1000 V" }),
+      current: qty("current", { positive: true }),
+      frequency: readingFrequency(),
+      temperature: qty("temperature", TEMP).optional(),
+    })
+    .optional(),
+  turns_per_pole: count(1, "turns per pole of the field coil").max(100000).optional(),
+  rewound_turns_per_pole: count(1, "turns per pole when the field is rewound to a new count").max(100000).optional(),
 });
 
 const supplySchema = z.union([
@@ -199,12 +265,10 @@ export const jobId = z.string().superRefine((id, ctx) => {
 /** Free text (title, customer, notes), at most TEXT_MAX_LENGTH characters. */
 const freeText = z.string().max(TEXT_MAX_LENGTH);
 
-export const GOALS = ["restore", "no_load_speed", "kv", "stall_current", "duty"] as const;
+export const GOALS = ["restore", "no_load_speed", "kv", "stall_current", "duty", "convert"] as const;
 
-const TEMP = { min: TEMPERATURE.min, max: TEMPERATURE.max, minText: TEMPERATURE.minText, maxText: TEMPERATURE.maxText };
 
-export const jobSchema = z
-  .strictObject({
+const jobShape = z.strictObject({
     $schema: z.string().optional().meta({ description: "editor hint, ignored" }),
     version: z.literal(1).meta({ description: "job file version: 1" }),
     id: jobId.meta({ description: "unique job id, used in file names and the logbook" }),
@@ -223,6 +287,7 @@ export const jobSchema = z
       slot: slotSchema,
       magnet: magnetSchema.optional(),
     }),
+    field_winding: fieldWindingSchema.optional(),
     winding: z.strictObject({
       style: z.enum(["tooth", "lap", "wave"]),
       span: count(0, "coil span in slots (tooth: 1)").max(200).optional(),
@@ -244,13 +309,8 @@ export const jobSchema = z
       strands: count(COUNTS.strands.min, "strands in hand").max(COUNTS.strands.max).prefault(1),
       wire_length: qty("wire_length", { positive: true }).optional(),
       wire_mass: qty("mass", { positive: true }).optional(),
-      nameplate: z
-        .strictObject({
-          supply: qty("voltage", { positive: true }),
-          current: qty("current", { positive: true }),
-          speed: qty("speed", { positive: true }),
-        })
-        .optional(),
+      nameplate: nameplateSchema.optional(),
+      armature_inductance: qty("inductance", { positive: true }).optional(),
       tests: z.array(noLoadTestSchema).max(COUNTS.tests.max).optional(),
       generator: z.strictObject({ speed: qty("speed", { positive: true }), volts: qty("voltage", { positive: true }) }).optional(),
       terminal_resistance: z
@@ -278,8 +338,9 @@ export const jobSchema = z
     }),
     wire_stock: z.array(wireRole("stock")).min(1).max(COUNTS.wire_stock.max).optional(),
     max_in_hand: count(COUNTS.in_hand.min, "most strands wound together").max(COUNTS.in_hand.max).prefault(1),
-  })
-  .superRefine((job, ctx) => {
+  });
+
+export const jobSchema = jobShape.superRefine((job, ctx) => {
     const t = job.target;
     const need: Record<string, unknown> = {
       no_load_speed: t.no_load_speed,
@@ -301,14 +362,7 @@ export const jobSchema = z
         params: { code: "missing_field" },
       });
     }
-    if (job.armature.field === "series" && (t.goal === "no_load_speed" || t.goal === "kv")) {
-      ctx.addIssue({
-        code: "custom",
-        path: ["target", "goal"],
-        message: `a series or universal motor has no safe no-load speed and no constant Kv; use goal restore, stall_current or duty`,
-        params: { code: "goal_unsuitable" },
-      });
-    }
+    seriesRules(job, ctx);
     checkSlotFitsRotor(job.armature, ctx);
     if (job.armature.field_poles % 2 !== 0) {
       ctx.addIssue({
@@ -329,12 +383,50 @@ export const jobSchema = z
     }
   });
 
+type JobOut = z.output<typeof jobShape>;
+
+/** Rules for series motors, their field and their goals (DESIGN.md, "Series and universal motors"). */
+function seriesRules(job: JobOut, ctx: z.RefinementCtx): void {
+  const t = job.target;
+  const series = job.armature.field === "series";
+  const issue = (path: (string | number)[], message: string, code: string) => ctx.addIssue({ code: "custom", path, message, params: { code } });
+  if (series && (t.goal === "no_load_speed" || t.goal === "kv" || t.goal === "stall_current")) {
+    issue(
+      ["target", "goal"],
+      `a series or universal motor has no safe no-load speed, no constant Kv and no stall figure at its supply; use goal restore, duty or convert`,
+      "goal_unsuitable",
+    );
+  }
+  if (!series && t.goal === "convert") {
+    issue(["target", "goal"], `goal convert re-plans a series motor's armature for a new supply; for a ${job.armature.field.replace("_", "-")} motor use no_load_speed, kv or duty`, "goal_unsuitable");
+  }
+  if (series && t.goal === "convert" && !job.original.nameplate && !(job.original.tests ?? []).some((x) => x.kind === "load")) {
+    issue(["original", "nameplate"], "goal convert keeps the original's rated speed and torque: give the nameplate (supply, current or input_power, speed) or a load test", "missing_field");
+  }
+  if (series && t.goal === "convert" && !job.field_winding) {
+    issue(["field_winding"], "goal convert says what the field must become: give field_winding with the field's resistance (resistance: { value: 3.8 ohm, at: 20 C })", "missing_field");
+  }
+  (job.original.tests ?? []).forEach((x, i) => {
+    if (x.kind === "load" && !series) issue(["original", "tests", i, "kind"], "load tests calibrate series motors only; for this motor give a no-load test (kind: no_load)", "goal_unsuitable");
+  });
+  if (typeof t.supply === "object" && t.supply.kind === "ac" && t.supply.frequency === undefined) {
+    issue(["target", "supply", "frequency"], "an AC supply needs its frequency: add frequency: 50 Hz (or 60 Hz)", "missing_field");
+  }
+  if (job.field_winding && !series && job.armature.field !== "shunt") {
+    issue(["field_winding"], "a permanent-magnet motor has no field winding: remove field_winding, or set armature.field to series or shunt", "unknown_key");
+  }
+  const lr = job.field_winding?.locked_rotor;
+  if (lr && lr.frequency === undefined && typeof t.supply === "object" && t.supply.kind === "ac") {
+    issue(["field_winding", "locked_rotor", "frequency"], "say whether the locked-rotor reading was on AC (frequency: 50 Hz) or DC (frequency: 0 Hz)", "missing_field");
+  }
+}
+
 /**
  * The slots must fit in the rotor: all slots' free area together less than the rotor's
  * cross-section π/4·D², a trapezoid slot no deeper than the rotor's radius (geometry; catches a
  * slot area written in the wrong unit, like 1e300 mm² on a 20 mm rotor).
  */
-function checkSlotFitsRotor(a: { slots: number; rotor_diameter: number; slot: { area?: number; depth?: number } }, ctx: z.core.$RefinementCtx) {
+function checkSlotFitsRotor(a: { slots: number; rotor_diameter: number; slot: { area?: number; depth?: number } }, ctx: z.RefinementCtx) {
   const disc = (Math.PI / 4) * a.rotor_diameter ** 2;
   const mm2 = (x: number) => `${Number((x * 1e6).toPrecision(3))} mm²`;
   if (a.slot.area !== undefined && a.slot.area * a.slots > disc) {

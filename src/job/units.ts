@@ -21,6 +21,8 @@ export type QuantityKind =
   | "torque"
   | "mass"
   | "frequency"
+  | "inductance"
+  | "power"
   | "current_density"
   | "speed_per_volt"
   | "resistance_large";
@@ -164,6 +166,23 @@ const UNITS: Record<QuantityKind, { default: string; units: UnitDef[] }> = {
     default: "Hz",
     units: [{ names: ["Hz", "hz"], factor: 1 }],
   },
+  inductance: {
+    default: "mH",
+    units: [
+      { names: ["H", "henry"], factor: 1 },
+      { names: ["mH"], factor: 1e-3 },
+      { names: ["uH", "µH", "μH"], factor: 1e-6 },
+    ],
+  },
+  power: {
+    default: "W",
+    units: [
+      { names: ["W", "watt", "watts"], factor: 1 },
+      { names: ["kW"], factor: 1e3 },
+      // mechanical horsepower, 745.69987 W (NIST SP 811)
+      { names: ["hp", "HP"], factor: 745.69987158227022 },
+    ],
+  },
   current_density: {
     default: "A/mm2",
     units: [
@@ -265,6 +284,8 @@ export function example(kind: QuantityKind): string {
     torque: "4 mN m",
     mass: "4.87 g",
     frequency: "50 Hz",
+    inductance: "60 mH",
+    power: "500 W",
     current_density: "8 A/mm2",
     speed_per_volt: "600 rpm/V",
   };
@@ -278,7 +299,5 @@ function describe(v: unknown): string {
   return `${typeof v} ${JSON.stringify(v)}`;
 }
 
-/** rad/s → rpm. */
-export const toRpm = (w: number): number => w / RPM;
-/** rpm → rad/s. */
-export const fromRpm = (n: number): number => n * RPM;
+/** rad/s ↔ rpm: the one conversion, in src/format/units.ts. */
+export { toRpm, fromRpm } from "../format/units.js";

@@ -5,6 +5,7 @@
  */
 import type { LogRecord } from "./record.js";
 import { checkOf } from "./record.js";
+import { checkLabel } from "../bench/rules.js";
 import { niceTicks } from "../plot/ticks.js";
 
 export interface HistoryRow {
@@ -27,7 +28,7 @@ export interface HistoryRow {
   no_load_speed_measured_rpm: number | null;
   /** Every check of the record within tolerance. */
   checks_ok: boolean;
-  /** Checks out of tolerance ("terminal_resistance", "bar_to_bar.spread" …). */
+  /** Checks out of tolerance, as people name them ("r7", "terminal_resistance", "bar_to_bar.spread" …). */
   checks_failed: string[];
 }
 
@@ -55,7 +56,7 @@ export function historyRows(records: { file: string; record: LogRecord }[]): His
       no_load_speed_predicted_rpm: spd?.predicted_value ?? null,
       no_load_speed_measured_rpm: spd?.measured_value ?? null,
       checks_ok: r.comparison.ok,
-      checks_failed: r.comparison.checks.filter((c) => c.verdict !== "ok" && c.verdict !== "not_checked").map((c) => c.check),
+      checks_failed: r.comparison.checks.filter((c) => c.verdict !== "ok" && c.verdict !== "not_checked").map((c) => checkLabel(c.check)),
     };
   });
 }

@@ -10,6 +10,20 @@ import { parseWireSpec } from "../wire/parse.js";
 import type { Job } from "../job/schema.js";
 import { ArmwindError, type Problem } from "../errors.js";
 import type { PathPart } from "../job/paths.js";
+import { isOpenText } from "../bench/rules.js";
+
+const ohmReading = qty("resistance", { min: 0, minText: "0 ohm" });
+/** A bar-to-bar reading: a resistance (Ω unless a unit is written), or `OL` / `open` for an open circuit (Infinity). */
+const barReading = z
+  .union([z.number(), z.string()])
+  .meta({ description: 'a resistance such as "1.05 ohm" (bare numbers in ohm), or OL / open for an open circuit' })
+  .transform((v, ctx) => {
+    if (isOpenText(v)) return Infinity;
+    const r = ohmReading.safeParse(v);
+    if (r.success) return r.data;
+    for (const issue of r.error.issues) ctx.addIssue({ code: "custom", message: issue.message, params: (issue as { params?: Record<string, unknown> }).params });
+    return z.NEVER;
+  });
 
 const TEMP = { min: -60, max: 250, minText: "-60 C", maxText: "250 C" };
 
@@ -58,7 +72,7 @@ export const measuredSchema = z.strictObject({
     .meta({ description: "the winding actually laid, only where it differs from the plan" }),
   temperature: qty("temperature", TEMP).meta({ description: "temperature of the winding when the resistances were read" }),
   meter_resolution: qty("resistance", { positive: true }).optional(),
-  bar_to_bar: z.array(qty("resistance", { min: 0, minText: "0 ohm" })).min(1).meta({ description: "r1 … rC, r_i between bar i and bar i+1; Ω unless a unit is written" }),
+  bar_to_bar: z.array(barReading).min(1).meta({ description: "r1 … rC, r_i between bar i and bar i+1; Ω unless a unit is written; OL or open for an open circuit" }),
   terminal_resistance: qty("resistance", { positive: true }).optional(),
   no_load: z
     .strictObject({

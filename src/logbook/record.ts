@@ -8,7 +8,8 @@
 import { z } from "zod";
 import type { Job } from "../job/schema.js";
 import type { Plan } from "../design/types.js";
-import { toRpm } from "../job/units.js";
+import { toRpm } from "../format/units.js";
+import { kvFromKe } from "../motor/emf.js";
 import { jobId } from "../job/schema.js";
 import { COUNTS, ID_MAX_LENGTH, RECORD_RANGES } from "../job/ranges.js";
 import { compareReadings, type Comparison, type Derived } from "./compare.js";
@@ -43,7 +44,8 @@ export interface RecordWinding {
 export interface RecordMeasured {
   temperature_c: number;
   meter_resolution_ohm: number | null;
-  bar_to_bar_ohm: number[];
+  /** r1 … rC as read, Ω; null for a reading written OL or open. */
+  bar_to_bar_ohm: (number | null)[];
   terminal_ohm: number | null;
   no_load: { supply_v: number; current_a: number; speed_rpm: number } | null;
   stall: { supply_v: number; current_a: number } | null;
@@ -93,7 +95,7 @@ const nn = (x: number | null | undefined): number | null => (x === null || x ===
 
 /** Build the record of a finished rewind: pure (the time of logging is given). */
 export function buildRecord(job: Job, plan: Plan, prediction: Prediction, m: Measured, loggedAt: string): LogRecord {
-  const { comparison, derived } = compareReadings(prediction, m);
+  const { comparison, derived } = compareReadings(prediction, m, plan.wire.mlt_source !== "model");
   const p = prediction;
   const supply = plan.supply;
   const nl = predictNoLoad(p, supply, 20);
@@ -126,7 +128,7 @@ export function buildRecord(job: Job, plan: Plan, prediction: Prediction, m: Mea
     measured: {
       temperature_c: m.temperature,
       meter_resolution_ohm: m.meter_resolution ?? null,
-      bar_to_bar_ohm: m.bar_to_bar,
+      bar_to_bar_ohm: m.bar_to_bar.map((r) => (Number.isFinite(r) ? r : null)),
       terminal_ohm: m.terminal_resistance ?? null,
       no_load: m.no_load ? { supply_v: m.no_load.supply, current_a: m.no_load.current, speed_rpm: toRpm(m.no_load.speed) } : null,
       stall: m.stall ? { supply_v: m.stall.supply, current_a: m.stall.current } : null,
@@ -146,7 +148,7 @@ export function buildRecord(job: Job, plan: Plan, prediction: Prediction, m: Mea
       terminal_max_ohm: p.terminal.max,
       supply_v: supply,
       ke_v_s_per_rad: nn(p.ke),
-      kv_rpm_per_v: p.ke === null ? null : 60 / (2 * Math.PI * p.ke),
+      kv_rpm_per_v: p.ke === null ? null : kvFromKe(p.ke),
       no_load_speed_rpm: nl ? toRpm(nl.speed) : null,
       no_load_current_a: nl ? nl.current : null,
       stall_current_a: p.ke === null && !p.series ? null : predictStall(p, supply, hot),
@@ -209,7 +211,8 @@ export const recordSchema = z.looseObject({
     wire: z.looseObject({ label: z.string().max(200), bare_diameter_mm: within(R.bare_diameter_mm), overall_diameter_mm: within(R.overall_diameter_mm).nullable() }),
     mean_turn_length_mm: within(R.mean_turn_length_mm),
   }),
-  measured: z.looseObject({ temperature_c: within(R.temperature_c), bar_to_bar_ohm: z.array(within(R.ohm)).min(1).max(COUNTS.bars.max) }),
+  // a reading may be null: OL or open on the meter
+  measured: z.looseObject({ temperature_c: within(R.temperature_c), bar_to_bar_ohm: z.array(within(R.ohm).nullable()).min(1).max(COUNTS.bars.max) }),
   predicted: z.looseObject({ terminal_ohm: within(R.ohm), brush_drop_v: within(R.volts) }),
   comparison: z.looseObject({ ok: z.boolean(), checks: z.array(checkRow).max(COUNTS.bars.max + 100) }),
   derived: z.looseObject({

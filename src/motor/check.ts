@@ -28,7 +28,5 @@ export function requireNonNegative(x: number, what: string, path: string): numbe
   return x;
 }
 
-/** rad/s → rpm, for messages only (exact: 1 rpm = 2π/60 rad/s, SI brochure). */
-export function rpm(radPerS: number): number {
-  return (radPerS * 60) / (2 * Math.PI);
-}
+/** rad/s → rpm, for messages only: the conversion of src/format/units.ts. */
+export { toRpm as rpm } from "../format/units.js";

@@ -11,6 +11,7 @@
  * Ke = E/ω in V·s/rad, which equals the torque constant Kt in N·m/A (power balance E·I = T·ω).
  */
 import { requirePositive } from "./check.js";
+import { fromRpm, toRpm } from "../format/units.js";
 
 export interface EmfInputs {
   /** Field poles P (2, 4, 6 …). */
@@ -96,13 +97,13 @@ export function fluxFromGap(
  */
 export function kvFromKe(ke: number): number {
   requirePositive(ke, "Ke", "motor.ke");
-  return 60 / (2 * Math.PI * ke);
+  return toRpm(1 / ke);
 }
 
 /** Ke in V·s/rad from Kv in rpm/V: Ke = 60 / (2π · Kv). Source: unit conversion. */
 export function keFromKv(kv: number): number {
   requirePositive(kv, "Kv", "target.kv");
-  return 60 / (2 * Math.PI * kv);
+  return 1 / fromRpm(kv);
 }
 
 /**

@@ -5,17 +5,17 @@
  */
 import type { OperatingPoint } from "../motor/model.js";
 import type { Plan } from "../design/types.js";
-import { sig } from "../cli/format.js";
+import { sig } from "../format/number.js";
+import { toRpm } from "../format/units.js";
 import { ticksFromZero } from "./ticks.js";
 import type { Drawing, Shape } from "./drawing.js";
 
-const RPM = 60 / (2 * Math.PI);
 /** Axis labels: the tick value without trailing zeros. */
 const tick = (v: number) => String(Number(v.toPrecision(6)));
 
 export type CurveKey = "speed" | "current" | "efficiency" | "output";
 export const CURVES: Record<CurveKey, { title: string; unit: string; value: (p: OperatingPoint) => number }> = {
-  speed: { title: "Speed", unit: "rpm", value: (p) => p.speed * RPM },
+  speed: { title: "Speed", unit: "rpm", value: (p) => toRpm(p.speed) },
   current: { title: "Current", unit: "A", value: (p) => p.current },
   efficiency: { title: "Efficiency", unit: "%", value: (p) => p.efficiency * 100 },
   output: { title: "Output power", unit: "W", value: (p) => p.outputW },
@@ -94,7 +94,7 @@ function chart(
   const ph = h - padT - padB;
   const all = [...o, ...n];
   const maxT = Math.max(...all.map((p) => p.torque), plan.duty?.torque ?? 0) * tu.k;
-  const maxV = Math.max(...all.map(def.value), key === "speed" && plan.duty ? plan.duty.target_speed * RPM : 0);
+  const maxV = Math.max(...all.map(def.value), key === "speed" && plan.duty ? toRpm(plan.duty.target_speed) : 0);
   const xt = ticksFromZero(maxT);
   const yt = ticksFromZero(key === "efficiency" ? Math.min(100, maxV) : maxV);
   const xMax = xt[xt.length - 1];
@@ -113,16 +113,16 @@ function chart(
   shapes.push({ kind: "polyline", points: series(n), width: 2 });
   if (plan.duty) {
     const du = plan.duty;
-    const val = (d: NonNullable<Plan["duty"]>): Record<CurveKey, number> => ({ speed: d.speed * RPM, current: d.current, efficiency: d.efficiency * 100, output: d.output_w });
+    const val = (d: NonNullable<Plan["duty"]>): Record<CurveKey, number> => ({ speed: toRpm(d.speed), current: d.current, efficiency: d.efficiency * 100, output: d.output_w });
     const cx = X(du.torque * tu.k);
     shapes.push({ kind: "line", x1: cx, y1: py, x2: cx, y2: py + ph, width: 0.5, grey: 0, dash: 2 });
     if (plan.original_duty) shapes.push({ kind: "circle", cx: X(plan.original_duty.torque * tu.k), cy: Y(val(plan.original_duty)[key]), r: 3.6, filled: false });
     shapes.push({ kind: "circle", cx, cy: Y(val(du)[key]), r: 3.6, filled: true });
     if (key === "speed") {
-      const ty = Y(du.target_speed * RPM);
+      const ty = Y(toRpm(du.target_speed));
       shapes.push({ kind: "line", x1: cx - 7, y1: ty, x2: cx + 7, y2: ty, width: 0.8, grey: 0 });
       shapes.push({ kind: "line", x1: cx, y1: ty - 7, x2: cx, y2: ty + 7, width: 0.8, grey: 0 });
-      shapes.push({ kind: "text", x: Math.min(cx + 9, px + pw - 90), y: ty - 12 + size, text: `duty target ${sig(du.target_speed * RPM)} rpm`, size: size - 1, anchor: "start", bold: true });
+      shapes.push({ kind: "text", x: Math.min(cx + 9, px + pw - 90), y: ty - 12 + size, text: `duty target ${sig(toRpm(du.target_speed))} rpm`, size: size - 1, anchor: "start", bold: true });
     }
   }
 }

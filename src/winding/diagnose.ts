@@ -13,28 +13,30 @@
  */
 import { inputError, type Warning } from "../errors.js";
 import { barToBar } from "./ring.js";
+import {
+  DEFAULT_METER_RESOLUTION_OHM,
+  FOUR_WIRE_FACTOR,
+  NEAR_ZERO_FRACTION,
+  OPEN_FACTOR,
+  SOURCE_TM,
+  SPREAD,
+  SUGGESTS,
+  WELL_BELOW_FRACTION,
+  judgeLevel,
+  judgeSpread,
+  median,
+  readingName,
+  spreadRuleText,
+  type Level,
+  type Spread,
+} from "../bench/rules.js";
 import type { WindingLayout } from "./types.js";
 
 const mod1 = (n: number, m: number) => ((((n - 1) % m) + m) % m) + 1;
 
-/**
- * Default tolerance on a coil's resistance: ±5 % of the expected value. Common practice, no
- * published source: it allows for the resistance tolerance of magnet wire (a ±1 to 2 % diameter
- * tolerance is ±2 to 4 % in resistance, IEC 60317-0-1 / NEMA MW 1000 tables, from memory) and
- * uneven end turns, and still catches one turn in twenty.
- */
-export const DEFAULT_TOLERANCE = 0.05;
-export const TOLERANCE_SOURCE =
-  "±5 % on each coil: common practice, no published source (magnet-wire resistance tolerance plus uneven end turns); the 10 % bar-to-bar rule is from US Army TM 55-2210-223-34";
-
-/** A reading this far above the average points to a poor coil-to-riser connection (US Army TM 55-2210-223-34, armature bar-to-bar test). */
-export const RISER_RULE_FRACTION = 0.1;
-
-/** A reading or coil below this fraction of its expected value counts as near zero: bars bridged or the coil shorted (common practice, no published source). */
-export const NEAR_ZERO_FRACTION = 0.1;
-
-/** A coil this far below its expected value is "well below": shorted turns rather than a miscount (common practice, no published source). */
-export const WELL_BELOW_FRACTION = 0.25;
+/** Default tolerance on a coil's resistance against its reference: the spread rule's ±5 % (src/bench/rules.ts; common practice, no published source). */
+export const DEFAULT_TOLERANCE = SPREAD.fraction;
+export const TOLERANCE_SOURCE = `bench rules: ${spreadRuleText()}`;
 
 /** The sentence every diagnosis carries (common practice). */
 export const POLARITY_NOTE =
@@ -207,7 +209,7 @@ export function solveCoils(layout: WindingLayout, readings: number[]): CoilSolut
 
   if (inf.length > 0) {
     if (k === 1) {
-      steps = wins.map((w, i) => (Number.isFinite(readings[i]) ? readings[i] : Infinity));
+      steps = wins.map((_w, i) => (Number.isFinite(readings[i]) ? readings[i] : Infinity));
       if (inf.length === 1) {
         notes.push(
           `only r${inf[0] + 1} reads open: a single open coil would read the sum of the others across its bars, so check the meter contact and the lead on bars ${inf[0] + 1} and ${mod1(inf[0] + 2, C)}`,
@@ -305,6 +307,7 @@ export function solveCoils(layout: WindingLayout, readings: number[]): CoilSolut
 }
 
 // ---------------------------------------------------------------------------------------------
+// the diagnosis: the bench rules (src/bench/rules.ts) on the readings, then the coils behind them
 
 export type Verdict = "ok" | "high" | "low" | "open" | "shorted" | "dead" | "unknown";
 
@@ -316,13 +319,24 @@ export interface CoilFinding {
   return_slot: number;
   /** Solved resistance (Ω); null when open, dead, or not resolvable (equalizers fitted). */
   resistance_ohm: number | null;
-  expected_ohm: number;
-  /** (resistance − expected)/expected; null when the resistance is null. */
+  /** What the plan expects (Ω), null for a layout-only diagnosis. */
+  expected_ohm: number | null;
+  /** What the coil is judged against (Ω): the plan's value, or the armature's own median when the level is off or there is no plan. */
+  reference_ohm: number | null;
+  /** (resistance − reference)/reference; null when the resistance is null. */
   deviation_fraction: number | null;
   verdict: Verdict;
 }
 
-export type SuspectKind = "turns_miscounted" | "shorted_turns" | "open_coil" | "bridged_bars" | "poor_riser_connection" | "reading_deviates" | "readings_inconsistent";
+export type SuspectKind =
+  | "turns_miscounted"
+  | "shorted_turns"
+  | "open_coil"
+  | "bridged_bars"
+  | "poor_riser_connection"
+  | "reading_deviates"
+  | "readings_inconsistent"
+  | "level_off_plan";
 
 export interface Suspect {
   kind: SuspectKind;
@@ -330,28 +344,55 @@ export interface Suspect {
   coils: number[];
   /** Bars concerned. */
   bars: number[];
-  /** Estimated turns too many (+) or too few (−), for turns_miscounted. */
+  /** Readings concerned, as people name them ("r3"). */
+  readings: string[];
+  /** Estimated turns too many (+) or too few (−), for turns_miscounted; null when the turns are not known. */
   turns_estimate: number | null;
   message: string;
 }
 
 export interface ReadingFinding {
-  /** Reading number i: between bar i and the next bar. */
+  /** Reading number i (1-based, r_i): between bar i and the next bar. */
   index: number;
   bar: number;
   next_bar: number;
+  /** At 20 °C, Ω; null when open. */
   reading_ohm: number | null;
-  expected_ohm: number;
-  /** Reading over the average of the finite readings. */
-  of_average: number | null;
+  /** What the plan expects, Ω; null for a layout-only diagnosis. */
+  expected_ohm: number | null;
+  /** The reading (plan pattern divided out) over the median of the set, minus 1; null when open. */
+  of_median_fraction: number | null;
+  pass: boolean;
+  /** Coils in series between the two bars (the ones behind the reading). */
+  coils: number[];
+}
+
+/** A failed bench check: the reading (or the set's level), the rule it broke, the coils behind it. */
+export interface Failure {
+  /** JSON path of the check: "bar_to_bar[2]" (r3) or "bar_to_bar.level". */
+  check: string;
+  /** As people name it: "r3", or "median" for the level. */
+  reading: string;
+  reading_ohm: number | null;
+  reference_ohm: number;
+  deviation_fraction: number | null;
+  window_fraction: number;
+  rule: string;
+  coils: number[];
+  message: string;
 }
 
 export interface Diagnosis {
-  /** True when no coil and no reading is out of tolerance. */
+  /** True when every reading passes the bench rules (the exit status comes from the readings). */
   ok: boolean;
   coils: CoilFinding[];
   readings: ReadingFinding[];
+  failures: Failure[];
   suspects: Suspect[];
+  /** Median of the readings at 20 °C (plan pattern divided out), Ω. */
+  median_ohm: number;
+  /** The level of the set against the plan; null for a layout-only diagnosis. */
+  level: Level | null;
   tolerance: number;
   tolerance_source: string;
   residual_fraction: number | null;
@@ -359,200 +400,277 @@ export interface Diagnosis {
   warnings: Warning[];
 }
 
+export interface DiagnoseOptions {
+  /** Coil tolerance, fraction (default SPREAD.fraction). */
+  tolerance?: number;
+  /** Meter resolution, Ω (default DEFAULT_METER_RESOLUTION_OHM). */
+  resolutionOhm?: number;
+  /** Turn length measured or calibrated (level window ±5 %), else from the model (±15 %). */
+  calibrated?: boolean;
+  /** Bare diameter of the wire laid, m (conductor tolerance of the level); unknown: 0.25 mm. */
+  bareDiameterM?: number;
+}
+
 const pct = (x: number) => `${(x * 100).toFixed(1)} %`;
+const live = (layout: WindingLayout) => layout.coils.filter((c) => !c.dead);
+
+/** For each reading (0-based), the coils (index) in series between its two bars. */
+export function coilsBehindReadings(layout: WindingLayout): number[][] {
+  const C = layout.bars;
+  if (layout.equalizers) {
+    return Array.from({ length: C }, (_, i) => {
+      const a = i + 1;
+      const b = mod1(i + 2, C);
+      return live(layout)
+        .filter((c) => (c.start_bar === a && c.end_bar === b) || (c.start_bar === b && c.end_bar === a))
+        .map((c) => c.index);
+    });
+  }
+  const { coilAt } = chain(layout);
+  return windows(layout).map((w) => w.map((s) => coilAt[s]).sort((x, y) => x - y));
+}
 
 /**
- * Read the bench: bar-to-bar readings (Ω, r1 … rC) against the coil resistances the plan expects
- * (Ω, coil index order), for coils of `turns` turns. Each coil gets a verdict against `tolerance`
- * (fraction, default DEFAULT_TOLERANCE); suspects say what a deviation suggests:
- *  - a coil high by ΔR/R: turns miscounted, about round(ΔR/R·N) turns too many;
- *  - low: turns short, or shorted turns; well below (more than 25 %): shorted turns;
- *  - an infinite reading, or a coil as large as the rest of the ring: an open coil (every other
- *    reading then rises by C/(C−1) on a ring);
- *  - a reading near zero: two bars bridged (or the coil between them shorted);
- *  - a reading 10 % or more above the average: a poor coil-to-riser connection (US Army
- *    TM 55-2210-223-34, armature bar-to-bar test).
- * Lap windings with equalizers: only the deviating bar pairs are reported.
+ * Read the bench: bar-to-bar readings (Ω at 20 °C, r1 … rC; Infinity for OL/open) against the coil
+ * resistances the plan expects (Ω, coil index order), or against the armature's own median when
+ * `expectedCoilOhm` is null (a layout-only job: no plan, no turn count).
+ *  1. The readings are judged by the bench rules (src/bench/rules.ts): the spread against their
+ *     median, the level of the median against the plan. The exit status comes from these.
+ *  2. The ring is solved for each coil (Kirchhoff; see solveCoils); each coil is judged against
+ *     the plan's pattern scaled to the armature's own median (equal coils without a plan): a
+ *     common factor off the plan is the level's, said once.
+ *  3. Suspects say what a deviation suggests (US Army TM 55-2210-223-34 for the riser and
+ *     near-zero rules; the rest common practice): turns miscounted, shorted turns, open coil,
+ *     bridged bars, poor riser connection; each failing reading names the coils behind it.
+ * Lap windings with equalizers: only the deviating readings are reported.
  */
-export function diagnose(layout: WindingLayout, readings: number[], expectedCoilOhm: number[], turns: number, tolerance: number = DEFAULT_TOLERANCE): Diagnosis {
-  checkReadings(layout, readings);
-  if (expectedCoilOhm.length !== layout.coils.length) {
-    throw inputError("coil_ohm_count", "coil_ohm", `${expectedCoilOhm.length} expected coil resistances for ${layout.coils.length} coils`);
-  }
-  if (!(turns >= 1)) throw inputError("turns_invalid", "wound.turns", `turns per coil must be 1 or more (got ${turns})`);
-  if (!(tolerance > 0 && tolerance < 1)) throw inputError("tolerance_invalid", "tolerance", `tolerance must be a fraction between 0 and 1 (got ${tolerance}); the default is ${DEFAULT_TOLERANCE}`);
-  const C = layout.bars;
-  const expectedReadings = barToBar(layout, expectedCoilOhm.map((x, i) => (layout.coils[i].dead ? 0 : x)));
-  const finite = readings.filter((r) => Number.isFinite(r));
-  const avg = finite.length ? finite.reduce((s, x) => s + x, 0) / finite.length : NaN;
-  const suspects: Suspect[] = [];
+export function diagnose(
+  layout: WindingLayout,
+  readings: number[],
+  expectedCoilOhm: number[] | null,
+  turns: number | null,
+  tolerance: number = DEFAULT_TOLERANCE,
+  options: DiagnoseOptions = {},
+): Diagnosis {
+  checkInputs(layout, readings, expectedCoilOhm, turns, tolerance);
+  const res = options.resolutionOhm ?? DEFAULT_METER_RESOLUTION_OHM;
+  const expectedReadings = expectedCoilOhm ? barToBar(layout, expectedCoilOhm.map((x, i) => (layout.coils[i].dead ? 0 : x))) : readings.map(() => 1);
+  const spread = judgeSpread(readings, expectedReadings, res);
+  const level = expectedCoilOhm ? judgeLevel(readings, expectedReadings, options.calibrated ?? false, options.bareDiameterM ?? 0.25e-3, res) : null;
+  const behind = coilsBehindReadings(layout);
   const notes: string[] = [];
-  const warnings: Warning[] = [];
-
-  const rf: ReadingFinding[] = readings.map((r, i) => ({
+  const suspects: Suspect[] = [];
+  const failures = readingFailures(layout, spread, level, behind, expectedCoilOhm !== null);
+  const solved = layout.equalizers ? null : solveCoils(layout, readings);
+  if (solved) notes.push(...solved.notes);
+  const coils = judgeCoils(layout, solved, expectedCoilOhm, tolerance);
+  if (level && !level.pass) suspects.push(levelSuspect(level));
+  if (!expectedCoilOhm) notes.push("No plan given: each coil is judged against the median of the armature's own coils, each reading against the median of the readings.");
+  const fromReadings = readingSuspects(layout, spread, behind, coils);
+  suspects.push(...fromReadings, ...coilSuspects(layout, coils, turns, fromReadings));
+  if (layout.equalizers) suspects.push(...deviatingReadings(layout, spread));
+  const residual = solved && Number.isFinite(solved.residual_fraction) ? solved.residual_fraction : null;
+  if (residual !== null && residual > tolerance / 2) suspects.push(inconsistentSuspect(residual));
+  notes.push(POLARITY_NOTE);
+  const rf: ReadingFinding[] = spread.rows.map((row, i) => ({
     index: i + 1,
     bar: i + 1,
-    next_bar: mod1(i + 2, C),
-    reading_ohm: Number.isFinite(r) ? r : null,
-    expected_ohm: expectedReadings[i],
-    of_average: Number.isFinite(r) && avg > 0 ? r / avg : null,
+    next_bar: mod1(i + 2, layout.bars),
+    reading_ohm: Number.isFinite(readings[i]) ? readings[i] : null,
+    expected_ohm: expectedCoilOhm ? expectedReadings[i] : null,
+    of_median_fraction: Number.isFinite(row.of_median_fraction) ? row.of_median_fraction : null,
+    pass: row.pass,
+    coils: behind[i],
   }));
+  return { ok: failures.length === 0, coils, readings: rf, failures, suspects, median_ohm: spread.median_ohm, level, tolerance, tolerance_source: TOLERANCE_SOURCE, residual_fraction: residual, notes, warnings: [] };
+}
 
-  // reading-level checks
-  const bridged: number[] = [];
-  readings.forEach((r, i) => {
-    const bars = [i + 1, mod1(i + 2, C)];
-    if (!Number.isFinite(r)) {
-      suspects.push({ kind: "open_coil", coils: [], bars, turns_estimate: null, message: `r${i + 1} (bars ${bars[0]}–${bars[1]}) reads open: a broken coil or a lead off its riser between these bars` });
-    } else if (r < NEAR_ZERO_FRACTION * expectedReadings[i]) {
-      bridged.push(i);
-      suspects.push({
-        kind: "bridged_bars",
-        coils: [],
-        bars,
-        turns_estimate: null,
-        message: `r${i + 1} reads ${r.toPrecision(3)} Ω, near zero against ${expectedReadings[i].toPrecision(3)} Ω expected: bars ${bars[0]} and ${bars[1]} bridged (solder, copper dust, a burr across the mica) or the coil between them shorted (US Army TM 55-2210-223-34)`,
-      });
-    } else if (avg > 0 && r >= (1 + RISER_RULE_FRACTION) * avg) {
-      suspects.push({
-        kind: "poor_riser_connection",
-        coils: [],
-        bars,
-        turns_estimate: null,
-        message: `r${i + 1} (bars ${bars[0]}–${bars[1]}) reads ${pct(r / avg - 1)} above the average of ${avg.toPrecision(4)} Ω: a poor coil-to-riser connection at bar ${bars[0]} or ${bars[1]} (US Army TM 55-2210-223-34: 10 % or more above the average); resolder and read again`,
-      });
-    }
-  });
+function checkInputs(layout: WindingLayout, readings: number[], expectedCoilOhm: number[] | null, turns: number | null, tolerance: number): void {
+  checkReadings(layout, readings);
+  if (expectedCoilOhm && expectedCoilOhm.length !== layout.coils.length) {
+    throw inputError("coil_ohm_count", "coil_ohm", `${expectedCoilOhm.length} expected coil resistances for ${layout.coils.length} coils`);
+  }
+  if (turns !== null && !(turns >= 1)) throw inputError("turns_invalid", "wound.turns", `turns per coil must be 1 or more (got ${turns})`);
+  if (!(tolerance > 0 && tolerance < 1)) throw inputError("tolerance_invalid", "tolerance", `tolerance must be a fraction between 0 and 1 (got ${tolerance}); the default is ${DEFAULT_TOLERANCE}`);
+}
 
-  const coilRows: CoilFinding[] = [];
-  let residual: number | null = null;
-  if (layout.equalizers) {
-    notes.push("Equalizers fitted: the readings do not determine each coil; the bar pairs that deviate from the expected readings are reported instead.");
-    readings.forEach((r, i) => {
-      if (!Number.isFinite(r) || bridged.includes(i)) return;
-      const d = r / expectedReadings[i] - 1;
-      if (Math.abs(d) > tolerance) {
-        suspects.push({
-          kind: "reading_deviates",
-          coils: [],
-          bars: [i + 1, mod1(i + 2, C)],
-          turns_estimate: null,
-          message: `r${i + 1} (bars ${i + 1}–${mod1(i + 2, C)}) reads ${pct(d)} from the expected ${expectedReadings[i].toPrecision(4)} Ω (tolerance ±${pct(tolerance)})`,
-        });
-      }
+/** Each reading outside the spread band, and the level when it is off the plan: the failures behind exit status 4. */
+function readingFailures(layout: WindingLayout, spread: Spread, level: Level | null, behind: number[][], planned: boolean): Failure[] {
+  const out: Failure[] = [];
+  const C = layout.bars;
+  for (const row of spread.rows) {
+    if (row.pass) continue;
+    const name = readingName(row.index);
+    const coils = behind[row.index];
+    const dev = Number.isFinite(row.of_median_fraction) ? row.of_median_fraction : null;
+    const how = row.side === "open" ? "reads open" : `reads ${dev! >= 0 ? "+" : "−"}${pct(Math.abs(dev!))} from the median ${spread.median_ohm.toPrecision(4)} Ω`;
+    out.push({
+      check: `bar_to_bar[${row.index}]`,
+      reading: name,
+      reading_ohm: Number.isFinite(row.reading_ohm) ? row.reading_ohm : null,
+      reference_ohm: spread.median_ohm,
+      deviation_fraction: dev,
+      window_fraction: row.window_fraction,
+      rule: spreadRuleText(),
+      coils,
+      message: `${name} (bars ${row.index + 1}–${mod1(row.index + 2, C)}, coil${coils.length > 1 ? "s" : ""} ${coils.join(", ")}) ${how}, outside ±${pct(row.window_fraction)}: ${row.suggests}`,
     });
-    for (const c of layout.coils) {
-      coilRows.push({
-        index: c.index,
-        start_bar: c.start_bar,
-        end_bar: c.end_bar,
-        go_slot: c.go_slot,
-        return_slot: c.return_slot,
-        resistance_ohm: null,
-        expected_ohm: expectedCoilOhm[c.index - 1],
-        deviation_fraction: null,
-        verdict: c.dead ? "dead" : "unknown",
-      });
-    }
-  } else {
-    const sol = solveCoils(layout, readings);
-    notes.push(...sol.notes);
-    residual = Number.isFinite(sol.residual_fraction) ? sol.residual_fraction : null;
-    if (residual !== null && residual > tolerance / 2) {
-      suspects.push({
-        kind: "readings_inconsistent",
-        coils: [],
-        bars: [],
+  }
+  if (planned && level && !level.pass) {
+    out.push({
+      check: "bar_to_bar.level",
+      reading: "median",
+      reading_ohm: level.median_ohm,
+      reference_ohm: level.expected_median_ohm,
+      deviation_fraction: level.deviation_fraction,
+      window_fraction: level.window_fraction,
+      rule: level.source,
+      coils: [],
+      message: `the median reading ${level.median_ohm.toPrecision(4)} Ω is ${(level.median_ohm / level.expected_median_ohm).toPrecision(3)} × the expected ${level.expected_median_ohm.toPrecision(4)} Ω, outside ±${pct(level.window_fraction)}: the wire or the turn length was not what the plan assumed`,
+    });
+  }
+  return out;
+}
+
+/**
+ * Each coil's solved resistance against its reference: the plan's coil-to-coil pattern (equal
+ * coils without a plan) scaled to the armature's own median coil, so a common factor off the plan
+ * is judged once by the level rule and each coil by the spread rule's ±5 % (bench rules).
+ */
+function judgeCoils(layout: WindingLayout, solved: CoilSolution | null, expected: number[] | null, tolerance: number): CoilFinding[] {
+  const E = expected ?? layout.coils.map(() => 1);
+  // the plan's coil-to-coil pattern scaled to the armature's own median: a common factor (the
+  // level) is judged once, by the level rule, not once per coil
+  let scale = 1;
+  if (solved) scale = median(live(layout).map((c) => solved.coil_ohm[c.index - 1] / E[c.index - 1]).filter((x) => Number.isFinite(x)));
+  return layout.coils.map((c) => {
+    const ref = solved && Number.isFinite(scale) ? E[c.index - 1] * scale : null;
+    const R = solved ? solved.coil_ohm[c.index - 1] : NaN;
+    const open = R === Infinity || (ref !== null && R >= OPEN_FACTOR * ref);
+    const known = Number.isFinite(R) && !open;
+    const row: CoilFinding = {
+      index: c.index,
+      start_bar: c.start_bar,
+      end_bar: c.end_bar,
+      go_slot: c.go_slot,
+      return_slot: c.return_slot,
+      resistance_ohm: known ? R : null,
+      expected_ohm: expected ? expected[c.index - 1] : null,
+      reference_ohm: ref,
+      deviation_fraction: known && ref ? R / ref - 1 : null,
+      verdict: "ok",
+    };
+    row.verdict = c.dead ? "dead" : !solved || Number.isNaN(R) || ref === null ? "unknown" : open ? "open" : coilVerdict(R, ref, tolerance);
+    return row;
+  });
+}
+
+function coilVerdict(R: number, ref: number, tolerance: number): Verdict {
+  if (R < NEAR_ZERO_FRACTION * ref) return "shorted";
+  const d = R / ref - 1;
+  return d > tolerance ? "high" : d < -tolerance ? "low" : "ok";
+}
+
+function levelSuspect(level: Level): Suspect {
+  const f = level.median_ohm / level.expected_median_ohm;
+  return {
+    kind: "level_off_plan",
+    coils: [],
+    bars: [],
+    readings: [],
+    turns_estimate: null,
+    message: `every reading is about ${f.toPrecision(3)} × the plan's (median ${level.median_ohm.toPrecision(4)} Ω against ${level.expected_median_ohm.toPrecision(4)} Ω, outside ±${pct(level.window_fraction)}): the wire or the turn length was not what the plan assumed; each coil is judged against the armature's own median`,
+  };
+}
+
+function inconsistentSuspect(residual: number): Suspect {
+  return {
+    kind: "readings_inconsistent",
+    coils: [],
+    bars: [],
+    readings: [],
+    turns_estimate: null,
+    message: `the readings do not fit one ring of coils (worst misfit ${pct(residual)} of the mean reading): read again, four-wire if the readings are below ${FOUR_WIRE_FACTOR} counts of the meter (common practice)`,
+  };
+}
+
+/** Suspects from the readings themselves: open readings, bridged bars, poor riser connections (US Army TM 55-2210-223-34); a reading across an open coil is the open coil, not a riser. */
+function readingSuspects(layout: WindingLayout, spread: Spread, behind: number[][], coils: CoilFinding[]): Suspect[] {
+  const out: Suspect[] = [];
+  const C = layout.bars;
+  const verdictOf = (k: number) => coils[k - 1].verdict;
+  for (const row of spread.rows) {
+    if (row.pass) continue;
+    const bars = [row.index + 1, mod1(row.index + 2, C)];
+    const name = readingName(row.index);
+    const cs = behind[row.index];
+    const overOpen = cs.some((k) => verdictOf(k) === "open");
+    if (row.side === "open" && !overOpen) {
+      out.push({ kind: "open_coil", coils: cs, bars, readings: [name], turns_estimate: null, message: `${name} (bars ${bars[0]}–${bars[1]}) reads open: a broken coil or a lead off its riser between these bars` });
+    } else if (row.side === "near_zero") {
+      out.push({ kind: "bridged_bars", coils: cs, bars, readings: [name], turns_estimate: null, message: `${name} reads ${row.reading_ohm.toPrecision(3)} Ω against a median of ${spread.median_ohm.toPrecision(3)} Ω: ${SUGGESTS.near_zero}` });
+    } else if (row.side === "riser" && !overOpen) {
+      out.push({
+        kind: "poor_riser_connection",
+        coils: cs,
+        bars,
+        readings: [name],
         turns_estimate: null,
-        message: `the readings do not fit one ring of coils (worst misfit ${pct(residual)} of the mean reading): read again, four-wire if the readings are below about ten times the meter's resolution (common practice)`,
+        message: `${name} (bars ${bars[0]}–${bars[1]}) reads ${pct(row.of_median_fraction)} above the median of ${spread.median_ohm.toPrecision(4)} Ω: a poor coil-to-riser connection at bar ${bars[0]} or ${bars[1]} (${SOURCE_TM}: 10 % or more above); resolder and read again`,
       });
-    }
-    for (const c of layout.coils) {
-      const E = expectedCoilOhm[c.index - 1];
-      const R = sol.coil_ohm[c.index - 1];
-      const row: CoilFinding = {
-        index: c.index,
-        start_bar: c.start_bar,
-        end_bar: c.end_bar,
-        go_slot: c.go_slot,
-        return_slot: c.return_slot,
-        resistance_ohm: Number.isFinite(R) ? R : null,
-        expected_ohm: E,
-        deviation_fraction: Number.isFinite(R) ? R / E - 1 : null,
-        verdict: "ok",
-      };
-      const where = `coil ${c.index} (bars ${c.start_bar}–${c.end_bar}, slots ${c.go_slot}–${c.return_slot})`;
-      if (c.dead) row.verdict = "dead";
-      else if (Number.isNaN(R)) row.verdict = "unknown";
-      else if (R === Infinity || R / E - 1 > 1) {
-        row.verdict = "open";
-        suspects.push({
-          kind: "open_coil",
-          coils: [c.index],
-          bars: [c.start_bar!, c.end_bar!],
-          turns_estimate: null,
-          message:
-            R === Infinity
-              ? `${where} is open: the bars across it read the rest of the ring in series and every other reading rises (by C/(C−1) on a ring); a broken wire or a lead off its riser`
-              : `${where} reads ${(R / E).toFixed(1)} × its expected ${E.toPrecision(4)} Ω: nearly open (a broken strand or a cracked joint)`,
-        });
-      } else if (R < NEAR_ZERO_FRACTION * E) {
-        row.verdict = "shorted";
-        const already = suspects.find((s) => s.kind === "bridged_bars" && s.bars.includes(c.start_bar!) && s.bars.includes(c.end_bar!));
-        if (already) already.coils.push(c.index);
-        else {
-          suspects.push({ kind: "bridged_bars", coils: [c.index], bars: [c.start_bar!, c.end_bar!], turns_estimate: null, message: `${where} reads near zero: its bars bridged or the whole coil shorted` });
-        }
-      } else {
-        const d = R / E - 1;
-        const dn = Math.round(d * turns);
-        if (d > tolerance) {
-          row.verdict = "high";
-          suspects.push({
-            kind: "turns_miscounted",
-            coils: [c.index],
-            bars: [c.start_bar!, c.end_bar!],
-            turns_estimate: dn,
-            message:
-              dn >= 1
-                ? `${where} reads ${pct(d)} high: about ${dn} turn${dn > 1 ? "s" : ""} too many (${turns + dn} instead of ${turns}), or a poor joint inside the coil`
-                : `${where} reads ${pct(d)} high, less than a turn in ${turns}: check the wire size and the coil's joints`,
-          });
-        } else if (d < -tolerance) {
-          row.verdict = "low";
-          if (d < -WELL_BELOW_FRACTION) {
-            suspects.push({
-              kind: "shorted_turns",
-              coils: [c.index],
-              bars: [c.start_bar!, c.end_bar!],
-              turns_estimate: dn,
-              message: `${where} reads ${pct(-d)} low, well below the others: shorted turns (damaged enamel); confirm with a growler (US Army TM 55-2210-223-34: readings well below the average)`,
-            });
-          } else {
-            suspects.push({
-              kind: "turns_miscounted",
-              coils: [c.index],
-              bars: [c.start_bar!, c.end_bar!],
-              turns_estimate: dn,
-              message: `${where} reads ${pct(-d)} low: about ${Math.max(1, -dn)} turn${-dn > 1 ? "s" : ""} short (${turns + Math.min(-1, dn)} instead of ${turns}), or shorted turns; a growler test tells them apart`,
-            });
-          }
-        }
-      }
-      coilRows.push(row);
     }
   }
-  notes.push(POLARITY_NOTE);
-  const problems = suspects.length > 0 || coilRows.some((c) => c.verdict === "high" || c.verdict === "low" || c.verdict === "open" || c.verdict === "shorted");
-  return {
-    ok: !problems,
-    coils: coilRows,
-    readings: rf,
-    suspects,
-    tolerance,
-    tolerance_source: TOLERANCE_SOURCE,
-    residual_fraction: residual,
-    notes,
-    warnings,
-  };
+  return out;
+}
+
+/** Suspects from the solved coils: open, near zero, high (turns too many), low (short or shorted turns). */
+function coilSuspects(layout: WindingLayout, coils: CoilFinding[], turns: number | null, fromReadings: Suspect[]): Suspect[] {
+  const out: Suspect[] = [];
+  for (const f of coils) {
+    const c = layout.coils[f.index - 1];
+    const where = `coil ${c.index} (bars ${c.start_bar}–${c.end_bar}, slots ${c.go_slot}–${c.return_slot})`;
+    const bars = [c.start_bar!, c.end_bar!];
+    const base = { coils: [c.index], bars, readings: [] as string[] };
+    if (f.verdict === "open") {
+      out.push({ ...base, kind: "open_coil", turns_estimate: null, message: `${where} is open: the bars across it read the rest of the ring in series and every other reading rises (by C/(C−1) on a ring); a broken wire or a lead off its riser` });
+    } else if (f.verdict === "shorted") {
+      const already = fromReadings.find((s) => s.kind === "bridged_bars" && s.bars.includes(bars[0]) && s.bars.includes(bars[1]));
+      if (!already) out.push({ ...base, kind: "bridged_bars", turns_estimate: null, message: `${where} reads near zero: its bars bridged or the whole coil shorted` });
+    } else if (f.verdict === "high" || f.verdict === "low") {
+      out.push(offCoilSuspect(where, base, f.deviation_fraction!, turns));
+    }
+  }
+  return out;
+}
+
+function offCoilSuspect(where: string, base: { coils: number[]; bars: number[]; readings: string[] }, d: number, turns: number | null): Suspect {
+  const dn = turns === null ? null : Math.round(d * turns);
+  if (d > 0) {
+    const message =
+      dn === null
+        ? `${where} reads ${pct(d)} above the others: turns too many, or a poor joint inside the coil`
+        : dn >= 1
+          ? `${where} reads ${pct(d)} high: about ${dn} turn${dn > 1 ? "s" : ""} too many (${turns! + dn} instead of ${turns}), or a poor joint inside the coil`
+          : `${where} reads ${pct(d)} high, less than a turn in ${turns}: check the wire size and the coil's joints`;
+    return { ...base, kind: "turns_miscounted", turns_estimate: dn, message };
+  }
+  if (d < -WELL_BELOW_FRACTION) {
+    return { ...base, kind: "shorted_turns", turns_estimate: dn, message: `${where} reads ${pct(-d)} low, well below the others: shorted turns (damaged enamel); confirm with a growler (${SOURCE_TM}: readings well below the average)` };
+  }
+  const message =
+    dn === null
+      ? `${where} reads ${pct(-d)} below the others: turns short, or shorted turns; a growler test tells them apart`
+      : `${where} reads ${pct(-d)} low: about ${Math.max(1, -dn)} turn${-dn > 1 ? "s" : ""} short (${turns! + Math.min(-1, dn)} instead of ${turns}), or shorted turns; a growler test tells them apart`;
+  return { ...base, kind: "turns_miscounted", turns_estimate: dn, message };
+}
+
+/** With equalizers fitted the coils cannot be solved one by one: each reading outside the spread band (and not named already) is reported as it stands. */
+function deviatingReadings(layout: WindingLayout, spread: Spread): Suspect[] {
+  return spread.rows
+    .filter((r) => !r.pass && (r.side === "high" || r.side === "low"))
+    .map((r) => {
+      const bars = [r.index + 1, mod1(r.index + 2, layout.bars)];
+      const name = readingName(r.index);
+      return { kind: "reading_deviates" as const, coils: [], bars, readings: [name], turns_estimate: null, message: `${name} (bars ${bars[0]}–${bars[1]}) reads ${pct(r.of_median_fraction)} from the median (band ±${pct(r.window_fraction)}): ${r.suggests}` };
+    });
 }

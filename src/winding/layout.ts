@@ -238,9 +238,7 @@ export function layoutWinding(spec: WindingSpec): WindingLayout {
   let yb: number | null = null;
   let yf: number | null = null;
   let perAdjacent = 1;
-  let groups: number[][] = [];
-
-  const side = (slot: number, layer: Layer, position: number) => ({ slot, layer, position });
+  const groups: number[][] = [];
 
   if (style === "tooth") {
     for (let k = 1; k <= S; k++) {

@@ -367,7 +367,9 @@ export function terminalResistance(layout: WindingLayout, coilOhm: number[]): Te
   const measure = (brushes: number[][]) => {
     const plus: number[] = [];
     const minus: number[] = [];
-    brushes.forEach((bars, j) => (j % 2 === 0 ? plus : minus).push(...bars));
+    brushes.forEach((bars, j) => {
+      (j % 2 === 0 ? plus : minus).push(...bars);
+    });
     return net.between(plus, minus);
   };
 

@@ -19,7 +19,7 @@ const INCH = 0.0254;
 
 /** Bare diameter of AWG gauge number n (n = −3 for 4/0 … 56), m. ASTM B258 formula, unrounded. */
 export function awgDiameter(n: number): number {
-  return 0.127e-3 * Math.pow(92, (36 - n) / 39);
+  return 0.127e-3 * 92 ** ((36 - n) / 39);
 }
 
 /** Canonical name of gauge number n: "4/0", "3/0", "2/0", "0", "1" … "56". */
@@ -34,7 +34,7 @@ export function awgName(n: number): string {
 export function awgNumber(size: string): number | undefined {
   const s = size.trim();
   let n: number | undefined;
-  let m = /^([1-4])\/0$/.exec(s);
+  const m = /^([1-4])\/0$/.exec(s);
   if (m) n = 1 - Number(m[1]);
   else if (/^0{1,4}$/.test(s)) n = 1 - s.length;
   else if (/^[1-9]\d?$/.test(s)) n = Number(s);

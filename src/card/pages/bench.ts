@@ -6,13 +6,14 @@
 import type { Plan } from "../../design/types.js";
 import type { Sheet } from "../sheet.js";
 import { ohm, rpm, sig } from "../text.js";
+import { DEFAULT_METER_RESOLUTION_OHM, NULL_LEADS, SPREAD, fourWireAdvice, levelRuleText, levelWindow, median, needsFourWire as needsFourWireRule, spreadRuleText } from "../../bench/rules.js";
 
 /** A plain number without padding zeros (5, 0.01, 10) for rules and limits. */
 const plain = (x: number) => String(Number(x.toPrecision(4)));
 
-/** True when a reading this small needs a four-wire / millivolt-drop method: below factor × the meter's resolution (common practice, no published source). */
-export function needsFourWire(expectedOhm: number, resolutionOhm: number, factor: number): boolean {
-  return expectedOhm < factor * resolutionOhm;
+/** True when a reading this small needs a four-wire / millivolt-drop method (the bench rules' test; kept here for callers of the card). */
+export function needsFourWire(expectedOhm: number, resolutionOhm: number): boolean {
+  return needsFourWireRule(expectedOhm, resolutionOhm);
 }
 
 export function benchPage(s: Sheet, plan: Plan): void {
@@ -29,24 +30,27 @@ export function benchPage(s: Sheet, plan: Plan): void {
   s.y += s.L.blank.height + 10;
 
   s.subheading("1. Bar to bar, brushes lifted", `expected at 20 °C; r_i is bar i to bar i+1, r${C} bar ${C} to bar 1`);
-  const tol = B.even_tolerance;
+  // the rules `log` and `diagnose` apply, in their words (src/bench/rules.ts)
+  const tol = SPREAD.fraction;
+  const res = DEFAULT_METER_RESOLUTION_OHM;
+  const calibrated = plan.wire.mlt_source !== "model";
+  const expectedMedian = median(r.bar_to_bar);
+  const level = levelWindow(calibrated, plan.design.wire.bare_diameter, res, expectedMedian);
   s.para(
-    `Tolerance ±${plain(tol * 100)} % of the expected reading for an even winding (common practice, no published source). ` +
-      `A reading ${plain(B.riser_rule * 100)} % or more above the average of your readings points to a poor coil-to-riser connection; one well below the average, down to near zero, to shorted turns or bars (TM 55-2210-223-34, armature bar-to-bar test). ` +
+    `${spreadRuleText()} ${levelRuleText(level, calibrated)} ` +
       `Correct a reading taken at t °C to 20 °C by dividing it by 1 + 0.00393 × (t − 20) (IEC 60028 copper).`,
     { size: T.body },
   );
   const minExpected = Math.min(...r.bar_to_bar);
-  if (needsFourWire(minExpected, B.meter_resolution_ohm, B.four_wire_factor)) {
-    s.framed(
-      (x, y, w) => {
-        const text = `Expected readings (${ohm(minExpected)} Ω) are below ${plain(B.four_wire_factor)} × the ${plain(B.meter_resolution_ohm)} Ω resolution of a typical meter: use a four-wire (Kelvin) or millivolt-drop reading at a known current (e.g. 1 A from a bench supply, volts across the two bars ÷ amps) — common practice.`;
-        s.at(text, x, y, { size: T.body, bold: true, width: w });
-        return s.measure(text, { size: T.body, bold: true, width: w });
-      },
-      { heavy: true, estimate: 40 },
-    );
-  }
+  const advice = fourWireAdvice(minExpected, res);
+  s.framed(
+    (x, y, w) => {
+      const text = advice ? `${advice} ${NULL_LEADS}` : NULL_LEADS;
+      s.at(text, x, y, { size: T.body, bold: true, width: w });
+      return s.measure(text, { size: T.body, bold: true, width: w });
+    },
+    { heavy: advice !== null, estimate: advice ? 40 : 14 },
+  );
   const sets = Math.max(1, B.column_sets);
   const setW = (s.width - (sets - 1) * 12) / sets;
   const cols = [0.12, 0.16, 0.34, 0.38].map((f) => f * setW);
@@ -56,7 +60,7 @@ export function benchPage(s: Sheet, plan: Plan): void {
     for (let k = 0; k < sets; k++) {
       const x = s.left + k * (setW + 12);
       s.doc.save().rect(x, y, setW, 15).fill("#e6e6e6").restore();
-      const heads = ["pair", "bars", "expected Ω", `reading Ω  (±${plain(tol * 100)} %)`];
+      const heads = ["pair", "bars", "expected Ω", "your reading Ω"];
       let cx = x + 3;
       heads.forEach((h, j) => {
         s.at(h, cx, y + 3.5, { size: T.small, bold: true });
@@ -81,14 +85,17 @@ export function benchPage(s: Sheet, plan: Plan): void {
         s.at(row.bars, cx, y + 5, { size: T.table });
         cx += cols[1];
         s.at(ohm(row.v), cx, y + 2, { size: T.table + 1, bold: true });
-        s.at(`${ohm(row.v * (1 - tol))}–${ohm(row.v * (1 + tol))}`, cx, y + 12, { size: 6.5, grey: 0.3 });
+        s.at(`median ${ohm(row.v * (1 - level))}–${ohm(row.v * (1 + level))}`, cx, y + 12, { size: 6.5, grey: 0.3 });
         cx += cols[2];
         s.doc.save().lineWidth(0.6).moveTo(cx, y + rh - 2).lineTo(x + setW - 4, y + rh - 2).stroke().restore();
       }
     }
     s.y = yStart + perCol * rh + 6;
   }
-  s.para(`Average of the expected readings: ${ohm(r.bar_to_bar_ohm)} Ω. Average of your readings: ________ Ω.`, { size: T.body });
+  s.para(
+    `Median of the expected readings: ${ohm(expectedMedian)} Ω; your median within ${ohm(expectedMedian * (1 - level))}–${ohm(expectedMedian * (1 + level))} Ω. Median of your readings: ________ Ω; each reading within ±${plain(tol * 100)} % of it (your median × ${plain(1 - tol)} to × ${plain(1 + tol)}), widened by one count of the meter.`,
+    { size: T.body },
+  );
 
   const check = (title: string, body: string, blanks: [string, string, number][]) => {
     const bh = s.measure(body, { size: T.body, width: s.width - 24 });

@@ -5,7 +5,8 @@
 import type { Plan } from "../../design/types.js";
 import { reasonText } from "../../design/plan.js";
 import { FONT_BOLD, FONT_REGULAR, type Sheet } from "../sheet.js";
-import { goalFigure, goalName, goalUnit, ohm, pct, sig } from "../text.js";
+import { kvFromKe } from "../../motor/emf.js";
+import { goalFigure, goalName, goalSummary, goalUnit, ohm, pct, sig } from "../text.js";
 import { curvesDrawing, hasCurves } from "../../plot/curves.js";
 import { paintDrawing } from "../../plot/drawing.js";
 
@@ -53,7 +54,7 @@ export function candidatesPage(s: Sheet, plan: Plan): void {
   s.newPage("Candidates");
   const rej = Object.entries(plan.rejections).filter(([, v]) => (v ?? 0) > 0);
   s.para(
-    `${plan.candidates_total} windings looked at (turns × stock wire × strands in hand); the best and the nearest misses below, best first. Goal ${goalName(plan)}: ${plan.goal.summary}.` +
+    `${plan.candidates_total} windings looked at (turns × stock wire × strands in hand); the best and the nearest misses below, best first. Goal ${goalName(plan)}: ${goalSummary(plan.goal)}.` +
       (rej.length ? ` Rejected over the whole sweep: ${rej.map(([k, v]) => `${k} ${v}`).join(", ")}.` : ""),
     { size: T.body },
   );
@@ -78,7 +79,7 @@ export function candidatesPage(s: Sheet, plan: Plan): void {
       String(c.strands),
       pct(c.copper_fill),
       ohm(c.terminal_ohm),
-      c.ke === null ? "—" : sig(60 / (2 * Math.PI * c.ke)),
+      c.ke === null ? "—" : sig(kvFromKe(c.ke)),
       goalFigure(plan, c.achieved),
       (chosen.has(i) ? "CHOSEN — " : "") + (c.meets_goal ? "meets the goal" : c.rejected_because.length ? `rejected: ${c.rejected_because.join(", ")}` : "misses the goal"),
     ];
@@ -106,7 +107,7 @@ export function candidatesPage(s: Sheet, plan: Plan): void {
         `${x.turns} × ${x.wire}${x.strands > 1 ? ` × ${x.strands}` : ""}`,
         ohm(x.terminal_ohm),
         pct(x.copper_fill),
-        sig(x.achieved), // sensitivity figures come in the goal's unit already (as the terminal prints them)
+        goalFigure(plan, x.achieved), // SI in the plan: the goal's unit here
         x.rejected_because.length ? x.rejected_because.map(reasonText).join("; ") : x.meets_goal ? "meets the goal" : "",
       ]),
       { size: T.table },

@@ -1,7 +1,7 @@
 /** Page 1, the job: who and what, THE WINDING in large type, the cut list, what it will read and do, the lead throw, warnings. */
 import type { MotorReport, Plan } from "../../design/types.js";
 import type { Sheet } from "../sheet.js";
-import { calibrationText, fieldText, goalName, mltSourceText, mm, ohm, pct, rpm, sig, strandsText, torqueUnit, wireSizes } from "../text.js";
+import { calibrationText, fieldText, goalName, goalSummary, mltSourceText, mm, ohm, pct, rpm, sig, strandsText, torqueUnit, wireSizes } from "../text.js";
 
 export function jobPage(s: Sheet, plan: Plan): void {
   const j = plan.job;
@@ -23,7 +23,7 @@ export function jobPage(s: Sheet, plan: Plan): void {
         const h1 = s.measure("CLOSEST WINDING — DOES NOT MEET THE GOAL", { size: 15, bold: true, width: w });
         s.at("CLOSEST WINDING — DOES NOT MEET THE GOAL", x, y, { size: 15, bold: true, width: w });
         const why = plan.binding ?? "no candidate within the limits reaches the goal";
-        const text = `${why.charAt(0).toUpperCase()}${why.slice(1)}. Goal ${goalName(plan)}: ${plan.goal.summary}. Decide with the customer before winding.`;
+        const text = `${why.charAt(0).toUpperCase()}${why.slice(1)}. Goal ${goalName(plan)}: ${goalSummary(plan.goal)}. Decide with the customer before winding.`;
         const h2 = s.measure(text, { size: T.body, width: w });
         s.at(text, x, y + h1 + 3, { size: T.body, width: w });
         return h1 + 3 + h2;
@@ -49,7 +49,7 @@ export function jobPage(s: Sheet, plan: Plan): void {
         `${wireSizes(d.wire)}; ${strandsText(d.strands)}${d.strands > 1 ? " (wind them side by side as one conductor)" : ""}.`,
         `Copper fill ${pct(d.copper_fill)} (limit ${pct(plan.fill_limit)}), space fill ${pct(d.space_fill)}` +
           (d.build ? `; ${d.build.layers} layer${d.build.layers === 1 ? "" : "s"} of ${d.build.turnsPerLayer} turns, build ${mm(d.build.build)} of ${mm(d.build.room)} mm room.` : "; layer build not known (slot dimensions not given)."),
-        `Goal ${goalName(plan)}: ${plan.goal.summary}.`,
+        `Goal ${goalName(plan)}: ${goalSummary(plan.goal)}.`,
       ];
       for (const l of lines) {
         const h = s.measure(l, { size: T.body + 1, width: w });

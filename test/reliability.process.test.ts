@@ -20,7 +20,6 @@ const LOGBOOK = join(ROOT, "jobs", "logbook");
 const blindText = readFileSync(BLIND, "utf8");
 /** A hang shows as a failed spawn after this long (well beyond a command's few seconds on a busy machine). */
 const LIMIT_MS = 30_000;
-const STACK = / {4}at |Error:|node:internal/;
 
 const tmp = () => {
   const d = mkdtempSync(join(tmpdir(), "armwind-reliability-"));
