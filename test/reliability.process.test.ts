@@ -262,7 +262,7 @@ describe("10. messages", () => {
   it("problems in command-line options are not located in the job file", () => {
     const r = run(["diagnose", BLIND, "--bars", "1,1,x,1,1", "--no-learn"]);
     expect(r.status).toBe(1);
-    expect(r.stderr).toBe('--bars[2]: r3 "x": "x" is not a number with a unit; write it like "1.57 ohm" [bad_quantity]\n');
+    expect(r.stderr).toMatch(/^--bars\[2\]: r3 "x": "x" is not a number with a unit; write it like "1.57 ohm".* \[bad_quantity\]\n$/);
   });
 
   it("a temperature in kelvin prints rounded (20.9 °C, not 20.850000000000023 °C)", () => {
