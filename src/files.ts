@@ -60,6 +60,8 @@ export interface ReadOptions {
   limit?: number;
   /** Field path for the problem ("" for the file itself). */
   path?: string;
+  /** The file's name as the user gave it, for messages (default: `file`). */
+  name?: string;
 }
 
 /** Problems of reading a file: `file_unreadable`, `not_a_file`, `file_too_large` (exit status 1). */
@@ -77,10 +79,12 @@ const tooLarge = (file: string, limit: number, path: string) =>
 export function readUserFile(file: string, opts: ReadOptions = {}): string {
   const limit = opts.limit ?? TEXT_FILE_LIMIT;
   const path = opts.path ?? "";
+  const at = file;
+  file = opts.name ?? file;
   let fd: number;
   try {
     // O_NONBLOCK: opening a FIFO never waits for a writer; O_NOCTTY: a terminal never becomes ours
-    fd = openSync(file, constants.O_RDONLY | constants.O_NONBLOCK | constants.O_NOCTTY);
+    fd = openSync(at, constants.O_RDONLY | constants.O_NONBLOCK | constants.O_NOCTTY);
   } catch (e) {
     throw readProblem(file, "file_unreadable", whyUnreadable((e as NodeJS.ErrnoException).code), path);
   }

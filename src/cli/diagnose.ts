@@ -7,6 +7,7 @@
  * own median. Exit 4 when a reading fails a bench rule.
  */
 import type { Argv } from "yargs";
+import { resolve } from "node:path";
 import { planJob } from "../design/plan.js";
 import { windingSpec } from "../design/context.js";
 import { layoutWinding } from "../winding/layout.js";
@@ -72,7 +73,7 @@ export function parseBars(text: string, bars: number): number[] {
 }
 
 function loadRecordFile(io: Io, file: string, job: { id: string; armature: { bars: number } }): LogRecord {
-  const text = isStdin(file) ? readText(io, file) : readUserFile(file, { limit: RECORD_FILE_LIMIT });
+  const text = isStdin(file) ? readText(io, file) : readUserFile(resolve(io.cwd, file), { limit: RECORD_FILE_LIMIT, name: file });
   const r = loadYaml(text, file, recordSchema);
   const rec = r.value as unknown as LogRecord;
   const problems: Problem[] = [];

@@ -7,6 +7,7 @@
  * limit). Writing to the terminal: `writeStream`, the one output routine (a reader that closes
  * early ends the command quietly, a full disk is exit status 3 with one line).
  */
+import { resolve } from "node:path";
 import { ArmwindError, formatProblem, type Problem } from "../errors.js";
 import { readStdin, readUserFile, TEXT_FILE_LIMIT } from "../files.js";
 import { OutputError, writeStream } from "./output.js";
@@ -17,6 +18,8 @@ import { loadYaml, oneLine } from "../job/load.js";
 import { jobSchema, type Job } from "../job/schema.js";
 import { z } from "zod";
 import { isLayoutOnly } from "../winding/layout-job.js";
+import { loadShop } from "./shop.js";
+import { mergeShopIntoJob } from "../shop/merge.js";
 
 export interface Io {
   out: (s: string) => void;
@@ -25,6 +28,8 @@ export interface Io {
   stdin: () => string;
   env: NodeJS.ProcessEnv;
   cwd: string;
+  /** The shop profile named by --shop (DESIGN.md "The shop profile"), when given. */
+  shop?: string;
 }
 
 export const processIo = (): Io => ({
@@ -43,7 +48,8 @@ export const processIo = (): Io => ({
 export function readText(io: Io, file: string, path = ""): string {
   // yargs hands a lone "-" over as an empty string
   if (file === "-" || file === "") return io.stdin();
-  return readUserFile(file, { path });
+  // relative to the command's working folder (the workbench serves a folder as if run there)
+  return readUserFile(resolve(io.cwd, file), { path, name: file });
 }
 
 export const isStdin = (file: string): boolean => file === "-" || file === "";
@@ -54,11 +60,17 @@ export function loadFile<S extends z.ZodType>(io: Io, file: string, schema: S) {
 }
 
 export function loadJob(io: Io, file: string): { job: Job; file: string; locate: (path: (string | number)[]) => { line: number; column: number } } {
-  return loadJobText(readText(io, file), isStdin(file) ? "<stdin>" : file);
+  // the shop profile's defaults fill in where the job is silent (src/shop/merge.ts)
+  const shop = loadShop(io);
+  return loadJobText(readText(io, file), isStdin(file) ? "<stdin>" : file, shop ? (raw) => mergeShopIntoJob(raw, shop.raw) : undefined);
 }
 
 /** A job from its text (`name` locates the problems): refused in one line when it holds only the layout. */
-export function loadJobText(text: string, name: string): { job: Job; file: string; locate: (path: (string | number)[]) => { line: number; column: number } } {
+export function loadJobText(
+  text: string,
+  name: string,
+  prepare?: (raw: Record<string, unknown>) => Record<string, unknown>,
+): { job: Job; file: string; locate: (path: (string | number)[]) => { line: number; column: number } } {
   // a layout-only job (version, id, armature, winding) serves `diagnose` alone: one line, not a list of every missing field
   const peek = loadYaml(text, name, z.unknown());
   if (isLayoutOnly(peek.raw)) {
@@ -71,7 +83,7 @@ export function loadJobText(text: string, name: string): { job: Job; file: strin
       column: 1,
     });
   }
-  const r = loadYaml(text, name, jobSchema);
+  const r = loadYaml(text, name, jobSchema, prepare);
   return { job: r.value, file: name, locate: r.locate };
 }
 
