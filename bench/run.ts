@@ -2,7 +2,8 @@
  * `npm run bench`: speed figures, printed, never asserted in tests.
  *  1. the candidate sweep over the whole catalogue with 4 strands in hand (≥ 100 000 candidates);
  *  2. a whole `armwind card` process against a whole Node process writing a one-page PDF with bare pdfkit;
- *  3. reading a logbook of a thousand records for `history` (when bench/history.ts exists).
+ *  3. reading a logbook of a thousand records for `history` (when bench/history.ts exists);
+ *  4. the workbench: a form change to its new plan, and the first page from a cold `armwind serve` (bench/web.ts).
  * Run after `npm run build` (the npm script does it): the card process is the built CLI.
  */
 import { spawnSync } from "node:child_process";
@@ -75,3 +76,4 @@ console.log(`armwind bench, ${new Date().toISOString().slice(0, 10)}, Node ${pro
 benchSweep();
 benchCard();
 await benchHistory();
+await import("./web.js");
