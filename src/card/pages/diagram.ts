@@ -67,6 +67,29 @@ function arrowHead(s: Sheet, from: Pt, to: Pt, size: number): void {
   s.doc.save().polygon(to, p1, p2).fill("#000000").restore();
 }
 
+/**
+ * Centre angles of the field poles (rad, clockwise from slot 1): the brushes sit in the neutral
+ * zone, so the poles lie half a pole pitch from them; N and S alternate.
+ */
+export function poleAngles(plan: Plan): { angle: number; north: boolean }[] {
+  const P = plan.layout.spec.poles;
+  const b = brushAngles(plan)[0] ?? 0;
+  return Array.from({ length: P }, (_, i) => ({ angle: (((b + ((i + 0.5) * TAU) / P) % TAU) + TAU) % TAU, north: i % 2 === 0 }));
+}
+
+/** The stator's poles round the rotor: an arc for each, two thirds of a pole pitch wide, marked N or S. */
+function fieldPoles(s: Sheet, plan: Plan, cx: number, cy: number, r0: number, r1: number): void {
+  const P = plan.layout.spec.poles;
+  for (const { angle, north } of poleAngles(plan)) {
+    const half = (TAU / P / 2) * 0.66;
+    s.doc.save().lineWidth(0.9);
+    sector(s, cx, cy, r0, r1, angle - half, angle + half);
+    s.doc.fillAndStroke(north ? grey(0.72) : "#ffffff", "#000000").restore();
+    const [lx, ly] = polar(cx, cy, r1 + 8, angle);
+    s.at(north ? "N" : "S", lx - 8, ly - 6, { size: s.L.type.subheading, bold: true, width: 16, align: "center" });
+  }
+}
+
 function toothDiagram(s: Sheet, plan: Plan): void {
   const T = s.L.type;
   const lay = plan.layout;
@@ -74,7 +97,7 @@ function toothDiagram(s: Sheet, plan: Plan): void {
   const C = lay.bars;
   const pitch = TAU / S;
   const size = Math.min(s.width, s.room() - 150);
-  const R = size / 2 - 34;
+  const R = size / 2 - 48;
   const cx = s.left + s.width / 2;
   const cy = s.y + size / 2 + 4;
   const d = s.doc;
@@ -91,7 +114,7 @@ function toothDiagram(s: Sheet, plan: Plan): void {
     const [lx, ly] = polar(cx, cy, R + 16, a);
     s.at(`S${k}`, lx - 14, ly - 5, { size: T.label, bold: true, width: 28, align: "center" });
     const [tx, ty] = polar(cx, cy, (R + rootR) / 2, a + pitch / 2);
-    s.at(`T${k}`, tx - 14, ty - 4, { size: T.small, width: 28, align: "center", grey: 0.25 });
+    s.at(`T${k}`, tx - 14, ty - 5, { size: T.label, bold: true, width: 28, align: "center" });
   }
   // bars
   const rb1 = R * 0.42;
@@ -105,14 +128,17 @@ function toothDiagram(s: Sheet, plan: Plan): void {
     const [lx, ly] = polar(cx, cy, (rb0 + rb1) / 2, a);
     s.at(String(b), lx - 10, ly - 4.5, { size: T.label, bold: true, width: 20, align: "center" });
   }
-  // brushes inside the ring
+  // brushes on the bars, at their real width (width_bars × the bar pitch) and position
+  const barPitch = TAU / C;
   brushAngles(plan).forEach((a, i) => {
-    const p0 = polar(cx, cy, rb0 - 3, a);
-    const p1 = polar(cx, cy, rb0 - 22, a);
-    d.save().lineWidth(7).lineCap("butt").strokeColor(grey(0.45)).moveTo(p0[0], p0[1]).lineTo(p1[0], p1[1]).stroke().restore();
-    const [lx, ly] = polar(cx, cy, rb0 - 32, a);
-    s.at(`B${i + 1}`, lx - 10, ly - 4, { size: T.small, bold: true, width: 20, align: "center" });
+    const half = (lay.spec.brushes.width_bars * barPitch) / 2;
+    d.save().lineWidth(0.9);
+    sector(s, cx, cy, rb0 - 16, rb0, a - half, a + half);
+    d.fillAndStroke(grey(0.55), "#000000").restore();
+    const [lx, ly] = polar(cx, cy, rb0 - 26, a);
+    s.at(`B${i + 1}`, lx - 10, ly - 4.5, { size: T.label, bold: true, width: 20, align: "center" });
   });
+  fieldPoles(s, plan, cx, cy, R + 26, R + 33);
   // coils
   const emph = emphasised(plan, s.L.diagram.emphasise_coils);
   const order = [...plan.coils].sort((x, y) => (x.index === 1 ? 1 : y.index === 1 ? -1 : 0));
@@ -141,12 +167,12 @@ function toothDiagram(s: Sheet, plan: Plan): void {
       d.save().circle(lx, ly, 7).fillAndStroke("#ffffff", "#000000").restore();
       s.at(String(c.index), lx - 7, ly - 4, { size: T.small, bold: true, width: 14, align: "center" });
       const [dx, dy] = polar(cx, cy, R + 12, (a0 + a1) / 2);
-      s.at(c.direction ?? "", dx - 12, dy - 4, { size: T.small, width: 24, align: "center" });
+      s.at(c.direction ?? "", dx - 12, dy - 4.5, { size: T.label, bold: true, width: 24, align: "center" });
     }
   }
   s.y = cy + size / 2 + 6;
   s.para(
-    `Seen from the commutator end, clockwise numbering: S = slot, T = tooth, numbers in the inner ring are bars. Coil k goes round tooth k from its start bar (solid lead, arrow into the slot) to its finish bar (dashed lead); coil 1 is the heavy line. ` +
+    `Seen from the commutator end (this whole page), clockwise numbering: S = slot, T = tooth, numbers in the inner ring are bars; grey blocks B on the bars are the brushes at their width; the outer arcs are the ${plan.job.armature.field === "permanent_magnet" ? "magnets" : "field poles"}, N grey, S white (which is which depends on the supply's polarity). Coil k goes round tooth k from its start bar (solid lead, arrow into the slot) to its finish bar (dashed lead); coil 1 is the heavy line. ` +
       `Sense round each tooth (cw/ccw, shown outside the tooth) is as seen looking at the tooth tip from outside. Lead throw ${num(lay.spec.lead_throw)} bars. ` +
       `The rotor is drawn where coil 1 commutates: brush B1 bridges bars 1 and 2${lay.spec.brushes.count > 1 ? `, the other brush${lay.spec.brushes.count > 2 ? "es" : ""} one pole pitch on` : ""}.`,
     { size: T.body },
@@ -164,7 +190,8 @@ function developedDiagram(s: Sheet, plan: Plan): void {
   const W = s.width - 12;
   const dx = W / S;
   const xAt = (a: number) => x0 + dx / 2 + (a / TAU) * W;
-  const yLabel = s.y + 4;
+  const yPoles = s.y + 2;
+  const yLabel = s.y + 26;
   const yApex = yLabel + 30;
   const backH = Math.min(90, 18 + lay.spec.span * dx * 0.35);
   const yTop = yApex + backH;
@@ -267,23 +294,35 @@ function developedDiagram(s: Sheet, plan: Plan): void {
   const xc = (p1.xg + p1.xr) / 2;
   d.save().lineWidth(0.6).dash(1.5, { space: 2 }).moveTo(xc, p1.apex[1]).lineTo(xc, yBars - 2).stroke().undash().restore();
   const xb1 = nearest(xAt(barAngle(lay, 1)), xc);
-  const yLt = yBars + barH + 24;
+  const yLt = yBars + barH + 34;
   if (Math.abs(xb1 - xc) > 0.5) {
     d.save().lineWidth(1).moveTo(xc, yLt).lineTo(xb1, yLt).stroke().restore();
     arrowHead(s, [xc, yLt], [xb1, yLt], 6);
   }
   d.save().lineWidth(0.6).moveTo(xc, yBars + barH).lineTo(xc, yLt + 4).stroke().restore();
   s.at(`lead throw ${num(lay.spec.lead_throw)} bars (coil 1 centre line → bar 1)`, Math.min(xc, xb1) - 4, yLt + 5, { size: T.small, bold: true });
-  // brushes
-  const yBr = yLt + 20;
+  // brushes against the bars, at their real width and position
+  const yBr = yBars + barH;
   brushAngles(plan).forEach((a, i) => {
     const xb = xAt(a);
     const x = xb > x0 + W ? xb - W : xb;
-    const bwid = Math.max(4, lay.spec.brushes.width_bars * barPitch);
-    d.save().lineWidth(0.8).rect(x - bwid / 2, yBr, bwid, 14).fillAndStroke(grey(0.55), "#000000").restore();
-    s.at(`B${i + 1}`, x - 12, yBr + 16, { size: T.small, bold: true, width: 24, align: "center" });
+    const bwid = lay.spec.brushes.width_bars * barPitch;
+    d.save().lineWidth(0.8).rect(x - bwid / 2, yBr, bwid, 12).fillAndStroke(grey(0.55), "#000000").restore();
+    s.at(`B${i + 1}`, x + bwid / 2 + 2, yBr + 2, { size: T.small, bold: true });
   });
-  s.y = yBr + 32;
+  // the field poles above the slots: N shaded, S white
+  for (const { angle, north } of poleAngles(plan)) {
+    const pw = (W / lay.spec.poles) * 0.66;
+    for (const off of [-W, 0, W]) {
+      const xc = xAt(angle) + off;
+      if (xc + pw / 2 < x0 || xc - pw / 2 > x0 + W) continue;
+      const xa = Math.max(x0, xc - pw / 2);
+      const xb = Math.min(x0 + W, xc + pw / 2);
+      d.save().lineWidth(0.8).rect(xa, yPoles, xb - xa, 14).fillAndStroke(north ? grey(0.72) : "#ffffff", "#000000").restore();
+      if (xc > x0 + 8 && xc < x0 + W - 8) s.at(north ? "N" : "S", xc - 8, yPoles + 2, { size: T.label + 1, bold: true, width: 16, align: "center" });
+    }
+  }
+  s.y = yLt + 22;
   const legendY = s.y;
   d.save().lineWidth(1.2).moveTo(s.left, legendY + 5).lineTo(s.left + 30, legendY + 5).stroke().restore();
   s.at("top layer (go side)", s.left + 34, legendY, { size: T.small });
@@ -294,7 +333,7 @@ function developedDiagram(s: Sheet, plan: Plan): void {
   s.y = legendY + 16;
   const shown = few ? `all ${plan.coils.length} coils drawn` : `coils 1–${s.L.diagram.emphasise_coils} drawn black, the rest faint`;
   s.para(
-    `Unrolled, seen from outside with the commutator at the bottom; slots and bars numbered left to right, which is clockwise seen from the commutator end. ` +
+    `Unrolled, seen from outside with the commutator at the bottom (this whole page); slots and bars numbered left to right, which is clockwise seen from the commutator end. Across the top, the ${plan.job.armature.field === "permanent_magnet" ? "magnets" : "field poles"} (N grey, S white; which is which depends on the supply's polarity); grey blocks B under the bars are the brushes at their width. ` +
       `Each coil runs from its start bar up to its go slot (top layer), over the back end to its return slot (bottom layer) and down to its finish bar; ${shown}; coil 1 is the heavy line. ` +
       `${lay.spec.style === "wave" ? `Wave: each coil's finish goes ${sig(lay.commutator_pitch)} bars on from its start. ` : ""}` +
       `The rotor is drawn where coil 1 commutates: brush B1 bridges bars 1 and 2 (a brush always bridges two adjacent bars)${lay.spec.brushes.count > 1 ? ", the others one pole pitch apart" : ""}. Bar 1 is shaded.`,
