@@ -16,7 +16,8 @@
  *  - a weighed old wire is enamelled wire: the drill's 61.6 g of 0.28 mm grade 2 (overall 0.3309 mm)
  *    is 106.36 m at 0.5474 g/m of copper plus 0.0317 g/m of enamel (1.3 g/cm³, from memory); the demo's
  *    mass was 58 g of bare copper (105.96 m) before, raised so that the invented story still holds
- *    (its like-for-like restore reproduces its measured 7.5 Ω at 22 °C).
+ *    (its like-for-like restore reproduces its measured 7.5 Ω at 22 °C); the robot demo's 1.9 g became 2.06 g so
+ *    that its plan is still the 98 turns its logbook record was wound with.
  */
 import { describe, expect, it } from "vitest";
 import { join } from "node:path";
