@@ -14,6 +14,7 @@
  * Units: counts and bar/slot numbers only; angles in radians.
  */
 import { inputError, type Warning } from "../errors.js";
+import { brushShortWarning } from "./ring.js";
 import type { Coil, Layer, WindingLayout, WindingSpec } from "./types.js";
 
 /** Span limit: a coil may exceed the pole pitch S/P by at most one slot (common practice, no published source). */
@@ -356,6 +357,8 @@ export function layoutWinding(spec: WindingSpec): WindingLayout {
     warnings,
   };
   layout.circuit_order = circuitOrder(layout);
+  const short = brushShortWarning(layout);
+  if (short) warnings.push(short);
   const broken = checkInvariants(layout);
   if (broken.length) {
     throw new Error(`internal error: winding table breaks its invariants: ${broken.join("; ")}`);
