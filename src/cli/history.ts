@@ -8,6 +8,7 @@ import { extname, relative, resolve } from "node:path";
 import { guarded, type Io } from "./io.js";
 import { logbookDir } from "./learning.js";
 import { readLogbook, type Logbook } from "../logbook/store.js";
+import { cacheFolder, refreshIndex } from "../logbook/family-index.js";
 import { drawingSvg, historyCsv, historyDrawing, historyRows, type HistoryRow } from "../logbook/history.js";
 import { writeAtomic } from "./write.js";
 import { inputError } from "../errors.js";
@@ -57,6 +58,7 @@ export function historyCommand(yargs: Argv, io: Io, setStatus: (n: number) => vo
             throw inputError("bad_plot_file", "plot", `--plot ${argv.plot}: the plot is written as SVG or PDF; name the file FILE.svg or FILE.pdf`);
           }
           const book = readLogbook(logbookDir(io, argv.logbook));
+          refreshIndex(book, cacheFolder(io.env));
           for (const w of book.warnings) io.err(`armwind: warning: ${w.message} [${w.code}]`);
           const records = argv.family === undefined ? book.records : book.records.filter((r) => r.record.job.family === argv.family);
           const rows = historyRows(records);

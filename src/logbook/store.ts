@@ -157,6 +157,14 @@ export interface LogbookWarning {
   path: string;
 }
 
+export interface ReadOptions {
+  /** Read only the files whose names pass (src/logbook/family-index.ts: only a family's records). */
+  keep?: (name: string) => boolean;
+}
+
+/** File names in numeric order (…-2- before …-10-): one collator for every comparison (a locale lookup per call is slow). */
+export const byFileName = new Intl.Collator("en", { numeric: true }).compare;
+
 export interface Logbook {
   dir: string;
   /** Whether the folder exists at all. */
@@ -170,10 +178,10 @@ export interface Logbook {
  * what history and learning need is a warning naming its file; the others still list. Hidden files
  * (temporary files of writers in progress, or of killed ones) are not records.
  */
-export function readLogbook(dir: string): Logbook {
+export function readLogbook(dir: string, opts: ReadOptions = {}): Logbook {
   let names: string[];
   try {
-    names = readdirSync(dir);
+    names = opts.keep ? readdirSync(dir).filter(opts.keep) : readdirSync(dir);
   } catch (e) {
     const code = (e as NodeJS.ErrnoException).code;
     if (code === "ENOENT" || code === "ENOTDIR") return { dir, exists: false, records: [], warnings: [] };
@@ -204,6 +212,6 @@ export function readLogbook(dir: string): Logbook {
     }
     records.push({ file: name, record: r.data as ReadRecord });
   }
-  records.sort((a, b) => (a.record.date < b.record.date ? -1 : a.record.date > b.record.date ? 1 : a.file.localeCompare(b.file, "en", { numeric: true })));
+  records.sort((a, b) => (a.record.date < b.record.date ? -1 : a.record.date > b.record.date ? 1 : byFileName(a.file, b.file)));
   return { dir, exists: true, records, warnings };
 }
