@@ -7,7 +7,7 @@ import { describe, expect, it } from "vitest";
 import { existsSync, mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
-import { cacheFolder, indexFile, recordsOfFamily } from "../src/logbook/family-index.js";
+import { cacheFolder, indexFile, recordsOfFamily, refreshIndex } from "../src/logbook/family-index.js";
 import { byFileName, readLogbook } from "../src/logbook/store.js";
 import { ROOT } from "./helpers/cli.js";
 
@@ -47,7 +47,7 @@ describe("records of one family", () => {
     writeFileSync(join(dir, other), "{ not a record");
     expect(recordsOfFamily(dir, "blind-5slot", cache).warnings).toEqual([]);
     // without the index, everything is read again and the damage shows
-    rmSync(indexFile(cache, dir));
+    rmSync(cache, { recursive: true });
     expect(recordsOfFamily(dir, "blind-5slot", cache).warnings.map((w) => w.file)).toEqual([other]);
   });
 
@@ -71,8 +71,10 @@ describe("records of one family", () => {
     expect(readdirSync(dir).sort()).toEqual(before);
     expect(existsSync(indexFile(cache, dir))).toBe(true);
     writeFileSync(indexFile(cache, dir), "garbage");
+    writeFileSync(indexFile(cache, dir, "blind-5slot"), "garbage");
     expect(recordsOfFamily(dir, "blind-5slot", cache).records).toHaveLength(1);
-    expect(JSON.parse(readFileSync(indexFile(cache, dir), "utf8")).version).toBe(1);
+    expect(JSON.parse(readFileSync(indexFile(cache, dir), "utf8")).version).toBe(2);
+    expect(JSON.parse(readFileSync(indexFile(cache, dir, "blind-5slot"), "utf8")).names).toHaveLength(1);
   });
 
   it("an unwritable cache folder costs only time", () => {
@@ -80,6 +82,21 @@ describe("records of one family", () => {
     const blocker = join(tmp("armwind-index-cache-"), "file");
     writeFileSync(blocker, "x");
     expect(recordsOfFamily(dir, "blind-5slot", join(blocker, "sub")).records).toHaveLength(1);
+  });
+});
+
+describe("history refreshes the index", () => {
+  it("a record edited in place into the family is found after a whole read", () => {
+    const dir = logbook();
+    const cache = tmp("armwind-index-cache-");
+    expect(recordsOfFamily(dir, "blind-5slot", cache).records).toHaveLength(1);
+    const other = readdirSync(dir).find((f) => familyOf(dir, f) !== "blind-5slot" && familyOf(dir, f) !== null)!;
+    writeFileSync(join(dir, other), readFileSync(join(dir, other), "utf8").replace(/"family": "[^"]*"/, '"family": "blind-5slot"'));
+    // same listing: the share still holds (the edit is not seen) …
+    expect(recordsOfFamily(dir, "blind-5slot", cache).records).toHaveLength(1);
+    // … until a whole read rewrites the index
+    refreshIndex(readLogbook(dir), cache);
+    expect(recordsOfFamily(dir, "blind-5slot", cache).records.map((r) => r.file)).toContain(other);
   });
 });
 

@@ -158,8 +158,8 @@ export interface LogbookWarning {
 }
 
 export interface ReadOptions {
-  /** Read only the files whose names pass (src/logbook/family-index.ts: only a family's records). */
-  keep?: (name: string) => boolean;
+  /** Read only these files of the folder (src/logbook/family-index.ts: a family's records), not every file. */
+  names?: string[];
 }
 
 /** File names in numeric order (…-2- before …-10-): one collator for every comparison (a locale lookup per call is slow). */
@@ -181,7 +181,7 @@ export interface Logbook {
 export function readLogbook(dir: string, opts: ReadOptions = {}): Logbook {
   let names: string[];
   try {
-    names = opts.keep ? readdirSync(dir).filter(opts.keep) : readdirSync(dir);
+    names = opts.names ?? readdirSync(dir);
   } catch (e) {
     const code = (e as NodeJS.ErrnoException).code;
     if (code === "ENOENT" || code === "ENOTDIR") return { dir, exists: false, records: [], warnings: [] };
