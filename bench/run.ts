@@ -58,6 +58,6 @@ console.log(`armwind bench, ${new Date().toISOString().slice(0, 10)}, Node ${pro
 benchSweep();
 const aims = [...benchStartup(), ...benchLogbook()];
 await benchHistory();
-benchRing();
-console.log("\naims of issue 15 (process figures; the ring aims are above):");
+console.log("\naims of issue 15 (whole processes; the ring aims follow):");
 for (const l of aims) console.log(l);
+benchRing();
