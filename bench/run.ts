@@ -4,7 +4,8 @@
  *  2. start-up aims: plan and --help against `node -e ''`, card against a bare pdfkit page (bench/startup.ts);
  *     logbook aims over 10 000 records: learning's extra time, history (bench/logbook.ts);
  *  3. reading a logbook of a thousand records for `history` (when bench/history.ts exists);
- *  4. a 400-bar lap plan and diagnose on 400 bars, in-process (bench/ring.ts).
+ *  4. a 400-bar lap plan and diagnose on 400 bars, in-process (bench/ring.ts);
+ *  5. the workbench: a form change to its new plan, and the first page from a cold `armwind serve` (bench/web.ts).
  * Run after `npm run build` (the npm script does it): the card process is the built CLI.
  */
 import { existsSync, readFileSync } from "node:fs";
@@ -61,3 +62,4 @@ await benchHistory();
 console.log("\naims of issue 15 (whole processes; the ring aims follow):");
 for (const l of aims) console.log(l);
 benchRing();
+await import("./web.js");
