@@ -230,10 +230,10 @@ function developedDiagram(s: Sheet, plan: Plan): void {
       const x = ((((xb - x0) % W) + W) % W) + x0;
       d.save().lineWidth(0.7).rect(x - barPitch * 0.42, yBars, barPitch * 0.84, barH).fillAndStroke(b === 1 ? grey(0.8) : "#ffffff", "#000000").restore();
       if ((b - 1) % bevery === 0 || b === 1)
-        s.at(String(b), x - 12, barPitch >= 11 ? yBars + 4 : yBars + barH + 2, { size: barPitch >= 14 ? T.small + 0.5 : 6.5, bold: b === 1, width: 24, align: "center" });
+        s.at(String(b), x - 12, barPitch >= 11 ? yBars + 4 : yBars + barH + 14, { size: barPitch >= 14 ? T.small + 0.5 : 6.5, bold: b === 1, width: 24, align: "center" });
     }
   }
-  s.at("bars", x0, yBars + barH + (barPitch >= 11 ? 3 : 11), { size: T.small, grey: 0.3 });
+  s.at("bars", x0, yBars + barH + (barPitch >= 11 ? 3 : 23), { size: T.small, grey: 0.3 });
   // coils: polylines, drawn at −W, 0, +W under a clip so coils that wrap round show at both edges
   const emph = emphasised(plan, s.L.diagram.emphasise_coils);
   const paths = (c: CoilPlan) => {
@@ -296,7 +296,7 @@ function developedDiagram(s: Sheet, plan: Plan): void {
   const xc = (p1.xg + p1.xr) / 2;
   d.save().lineWidth(0.6).dash(1.5, { space: 2 }).moveTo(xc, p1.apex[1]).lineTo(xc, yBars - 2).stroke().undash().restore();
   const xb1 = nearest(xAt(barAngle(lay, 1)), xc);
-  const yLt = yBars + barH + 34;
+  const yLt = yBars + barH + (barPitch >= 11 ? 34 : 40);
   if (Math.abs(xb1 - xc) > 0.5) {
     d.save().lineWidth(1).moveTo(xc, yLt).lineTo(xb1, yLt).stroke().restore();
     arrowHead(s, [xc, yLt], [xb1, yLt], 6);
