@@ -111,7 +111,8 @@ describe("the API is the CLI", () => {
       body: JSON.stringify({ bars: ["1.3", "x", "1.3", "1.3", "1.3"] }),
     });
     expect(web.status).toBe(422);
-    expect(JSON.parse(web.body).errors[0]).toMatchObject({ code: "bad_quantity", path: "bars[1]" });
+    // the CLI names the option it came through (issue 14: option problems are not located in the job)
+    expect(JSON.parse(web.body).errors[0]).toMatchObject({ code: "bad_quantity", path: "--bars[1]", file: null });
   });
 
   it("history and wires are the CLI's JSON", async () => {
