@@ -14,13 +14,16 @@ describe("tally boxes", () => {
   it("the shipped layout file is usable", () => {
     expect(layoutProblems(L)).toEqual([]);
   });
-  it("one box per turn up to 30 turns, one per 10 turns above (the brief's grouping)", () => {
-    expect(tallyBoxes(30, L.tally).step).toBe(1);
-    expect(tallyBoxes(30, L.tally).boxes).toHaveLength(30);
+  it("one rule for every count: 5 turns a box up to 60 turns, 10 turns a box above (issue 11)", () => {
+    expect(tallyBoxes(3, L.tally).boxes.map((b) => b.upTo)).toEqual([3]);
+    expect(tallyBoxes(13, L.tally).boxes.map((b) => b.upTo)).toEqual([5, 10, 13]);
+    expect(tallyBoxes(30, L.tally).step).toBe(5);
+    expect(tallyBoxes(60, L.tally).boxes).toHaveLength(12);
     const t64 = tallyBoxes(64, L.tally);
     expect(t64.step).toBe(10);
     expect(t64.boxes.map((b) => b.upTo)).toEqual([10, 20, 30, 40, 50, 60, 64]);
     expect(t64.boxes[6].turns).toBe(4);
+    for (let n = 1; n <= 2000; n++) expect([5, 10]).toContain(tallyBoxes(n, L.tally).step);
   });
   it("for any turn count: boxes add up to the turns, counts rise to it, at most max_boxes when a step allows", () => {
     fc.assert(

@@ -1,4 +1,6 @@
 /** `armwind new` and the job-file templates it copies (src/cli/new.ts, templates/*.yaml). */
+import { existsSync } from "node:fs";
+import { resolve } from "node:path";
 import { describe, expect, it } from "vitest";
 import { mkdtempSync, readdirSync, readFileSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
@@ -88,7 +90,9 @@ describe("armwind new", () => {
     const io = fakeIo(dir);
     expect(await main(["new", "--style", "lap", "--id", "mixer-0007"], io)).toBe(0);
     const text = readFileSync(join(dir, "mixer-0007.yaml"), "utf8");
-    expect(text).toBe(templateText("lap", "mixer-0007"));
+    // the template, with its $schema pointing at the real schema file from where the job was written
+    expect(text.split("\n").slice(1).join("\n")).toBe(templateText("lap", "mixer-0007").split("\n").slice(1).join("\n"));
+    expect(existsSync(resolve(dir, /\$schema=(\S+)/.exec(text)![1]))).toBe(true);
     expect(text).toMatch(/^id: mixer-0007 /m);
     expect(io.stdout.join("\n")).toMatch(/job file written: mixer-0007\.yaml/);
     expect(readdirSync(dir)).toEqual(["mixer-0007.yaml"]); // no temporary file left behind

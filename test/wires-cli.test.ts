@@ -103,3 +103,28 @@ describe("runWires table", () => {
     expect(sig(0.00016079, 4)).toBe("0.0001608");
   });
 });
+
+describe("wires --min/--max as gauges (issue 11 paper cut)", () => {
+  const labels = (r: ReturnType<typeof runWires>) => JSON.parse(r.stdout).wires.map((w: { label: string }) => w.label);
+  it("bare numbers with --system awg are gauge numbers, a range whichever way round", () => {
+    const r = runWires({ json: true, system: "awg", min: "25", max: "27" });
+    expect(r.status).toBe(0);
+    expect(labels(r)).toEqual(["25 AWG", "26 AWG", "27 AWG"]);
+  });
+  it('"27 AWG" is read as the gauge\'s bare diameter', () => {
+    const r = runWires({ json: true, min: "27 AWG", max: "26 awg" });
+    expect(r.status).toBe(0);
+    expect(labels(r)).toContain("27 AWG");
+    expect(labels(r)).toContain("26 AWG");
+    expect(labels(r)).not.toContain("25 AWG");
+    const swg = runWires({ json: true, system: "swg", min: "36", max: "34" });
+    expect(labels(swg)).toEqual(expect.arrayContaining(["34 SWG", "35 SWG", "36 SWG"]));
+    expect(labels(swg)).toHaveLength(3);
+  });
+  it("a gauge that does not exist is refused; a bare number without a system stays mm with a hint when nothing matches", () => {
+    expect(runWires({ json: false, min: "99 AWG" }).status).toBe(1);
+    const r = runWires({ json: false, min: "25", max: "27" });
+    expect(r.status).toBe(0);
+    expect(r.stdout).toMatch(/for a gauge write it with its system/);
+  });
+});

@@ -18,7 +18,7 @@ export interface CardLayout {
   line_width: { rule: number; box: number; heavy: number; thin: number };
   grey: { fill: number; rule: number; faint: number };
   sections: SectionName[];
-  tally: { turns_per_box: number[]; max_boxes: number; group_size: number; box: number; gap: number; group_gap: number };
+  tally: { turns_per_box: number[]; max_boxes: number; group_size: number; box: number; gap: number; group_gap: number; label_size: number };
   tick_box: number;
   blank: { height: number; min_width: number };
   steps: { row_min_height: number; columns: { tick: number; coil: number; start: number; slots: number; finish: number } };
@@ -71,7 +71,7 @@ export interface TallyBox {
 /**
  * Tally boxes for one coil: one box per `step` turns, `step` the smallest of `turns_per_box` that
  * keeps the coil within `max_boxes` boxes (the largest step if none does); the last box takes the
- * remainder. With the shipped layout: one box per turn up to 30 turns, one per 10 turns up to 300.
+ * remainder. With the shipped layout: 5 turns a box up to 60 turns, 10 turns a box above (one rule for every count).
  */
 export function tallyBoxes(turns: number, tally: CardLayout["tally"]): { step: number; boxes: TallyBox[] } {
   const steps = tally.turns_per_box;

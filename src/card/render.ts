@@ -6,7 +6,7 @@
  */
 import type { Plan } from "../design/types.js";
 import { cardLayout, type Paper, type SectionName } from "./layout.js";
-import { Sheet } from "./sheet.js";
+import { Sheet, type CardContext } from "./sheet.js";
 import { jobPage } from "./pages/job.js";
 import { stepsPage } from "./pages/steps.js";
 import { diagramPage } from "./pages/diagram.js";
@@ -19,6 +19,8 @@ export interface CardOptions {
   /** Date printed in the footer, YYYY-MM-DD. */
   date: string;
   version: string;
+  /** Shop, bench, meter and spool from the shop profile. */
+  context?: CardContext;
 }
 
 const BUILDERS: Record<SectionName, (s: Sheet, plan: Plan) => void> = {
@@ -43,6 +45,7 @@ export async function renderCard(plan: Plan, opts: CardOptions): Promise<Buffer>
     CreationDate: when,
     ModDate: when,
   });
+  s.context = opts.context ?? {};
   for (const section of L.sections) BUILDERS[section](s, plan);
   s.footers(plan.job.id, opts.date, opts.version);
   return s.finish();

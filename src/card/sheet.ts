@@ -35,8 +35,19 @@ export interface TextStyle {
   lineGap?: number;
 }
 
+/** What the card knows besides the plan: the shop and bench (shop profile) and the bench meter. */
+export interface CardContext {
+  shop?: string;
+  bench?: string;
+  /** The bench meter's resolution, Ω (measured file, else shop profile, else the layout's default). */
+  meterResolution?: number;
+  /** Net mass on the shelf's spool of the plan's wire, kg, when the profile says. */
+  spoolMass?: number;
+}
+
 export class Sheet {
   readonly doc: PDFDocument;
+  context: CardContext = {};
   readonly L: CardLayout;
   readonly paper: Paper;
   y = 0;

@@ -3,11 +3,14 @@
  * statuses, and the `--json` error shape of DESIGN.md.
  */
 import { readFileSync } from "node:fs";
+import { resolve } from "node:path";
 import { ArmwindError, formatProblem, type Problem } from "../errors.js";
 import { loadYaml, oneLine } from "../job/load.js";
 import { jobSchema, type Job } from "../job/schema.js";
 import { z } from "zod";
 import { isLayoutOnly } from "../winding/layout-job.js";
+import { loadShop } from "./shop.js";
+import { mergeShopIntoJob } from "../shop/merge.js";
 
 export interface Io {
   out: (s: string) => void;
@@ -16,6 +19,8 @@ export interface Io {
   stdin: () => string;
   env: NodeJS.ProcessEnv;
   cwd: string;
+  /** The shop profile named by --shop (DESIGN.md "The shop profile"), when given. */
+  shop?: string;
 }
 
 export const processIo = (): Io => ({
@@ -31,7 +36,7 @@ export function readText(io: Io, file: string, path = ""): string {
   // yargs hands a lone "-" over as an empty string
   if (file === "-" || file === "") return io.stdin();
   try {
-    return readFileSync(file, "utf8");
+    return readFileSync(resolve(io.cwd, file), "utf8");
   } catch (e) {
     const code = (e as NodeJS.ErrnoException).code;
     const what = code === "ENOENT" ? "no such file" : code === "EISDIR" ? "is a folder, not a file" : code === "EACCES" ? "cannot be read (permission denied)" : `cannot be read (${code ?? "error"})`;
@@ -47,11 +52,17 @@ export function loadFile<S extends z.ZodType>(io: Io, file: string, schema: S) {
 }
 
 export function loadJob(io: Io, file: string): { job: Job; file: string; locate: (path: (string | number)[]) => { line: number; column: number } } {
-  return loadJobText(readText(io, file), isStdin(file) ? "<stdin>" : file);
+  // the shop profile's defaults fill in where the job is silent (src/shop/merge.ts)
+  const shop = loadShop(io);
+  return loadJobText(readText(io, file), isStdin(file) ? "<stdin>" : file, shop ? (raw) => mergeShopIntoJob(raw, shop.raw) : undefined);
 }
 
 /** A job from its text (`name` locates the problems): refused in one line when it holds only the layout. */
-export function loadJobText(text: string, name: string): { job: Job; file: string; locate: (path: (string | number)[]) => { line: number; column: number } } {
+export function loadJobText(
+  text: string,
+  name: string,
+  prepare?: (raw: Record<string, unknown>) => Record<string, unknown>,
+): { job: Job; file: string; locate: (path: (string | number)[]) => { line: number; column: number } } {
   // a layout-only job (version, id, armature, winding) serves `diagnose` alone: one line, not a list of every missing field
   const peek = loadYaml(text, name, z.unknown());
   if (isLayoutOnly(peek.raw)) {
@@ -64,7 +75,7 @@ export function loadJobText(text: string, name: string): { job: Job; file: strin
       column: 1,
     });
   }
-  const r = loadYaml(text, name, jobSchema);
+  const r = loadYaml(text, name, jobSchema, prepare);
   return { job: r.value, file: name, locate: r.locate };
 }
 

@@ -3,12 +3,16 @@ import { resolve } from "node:path";
 import type { Job } from "../job/schema.js";
 import type { PlanOptions } from "../design/plan.js";
 import type { Io } from "./io.js";
+import { shopLogbook } from "./shop.js";
 import { readLogbook } from "../logbook/store.js";
 import { learnFromRecords } from "../logbook/learn.js";
 
-/** The logbook folder: --logbook DIR, else $ARMWIND_LOGBOOK, else jobs/logbook/ (relative to the working directory). */
+/**
+ * The logbook folder: --logbook DIR, else $ARMWIND_LOGBOOK, else the shop profile's `logbook`
+ * (relative to the profile), else jobs/logbook/ (relative to the working directory).
+ */
 export function logbookDir(io: Io, given?: string): string {
-  return resolve(io.cwd, given ?? io.env.ARMWIND_LOGBOOK ?? "jobs/logbook");
+  return resolve(io.cwd, given || io.env.ARMWIND_LOGBOOK || shopLogbook(io) || "jobs/logbook");
 }
 
 /**

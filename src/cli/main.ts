@@ -10,13 +10,17 @@ export async function main(args: string[], io = processIo()): Promise<number> {
   const setStatus = (n: number) => {
     status = n;
   };
-  let y = yargs(args)
+  let y: Argv = yargs(args)
     .scriptName("armwind")
     .usage("armwind <command> [options]\n\nPlan the rewind of a brushed DC or universal motor armature, print its job card, keep the logbook.")
     .version(VERSION)
     .strict()
-    .demandCommand(1, "give a command: plan, card, check, wires … (armwind --help lists them)")
+    .demandCommand(1, "give a command: plan, card, check, wires, new, log, diagnose, history …")
     .recommendCommands()
+    .option("shop", { type: "string", global: true, describe: "shop profile (default $ARMWIND_SHOP, else armwind.yaml here or in the nearest parent folder)" })
+    .middleware((argv) => {
+      if (typeof argv.shop === "string" && argv.shop) io.shop = argv.shop;
+    })
     .wrap(Math.min(100, process.stdout.columns || 100))
     .fail((msg, err) => {
       // a bad command line stops here: the command does not run

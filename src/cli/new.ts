@@ -10,13 +10,13 @@
 import type { Argv } from "yargs";
 import { makeFolders } from "./write.js";
 import { closeSync, linkSync, openSync, readFileSync, statSync, unlinkSync, writeFileSync, writeSync } from "node:fs";
-import { basename, dirname, isAbsolute, join, relative, resolve } from "node:path";
+import { basename, dirname, isAbsolute, join, relative, resolve, sep } from "node:path";
 import { fileURLToPath } from "node:url";
 import { randomBytes } from "node:crypto";
 import { stringify } from "yaml";
 import { ArmwindError } from "../errors.js";
 import { jobSchema } from "../job/schema.js";
-import { guarded, type Io } from "./io.js";
+import { guarded, type Io, type Where } from "./io.js";
 import { today } from "./card.js";
 
 export const STYLES = ["tooth", "lap", "wave"] as const;
@@ -141,15 +141,30 @@ export interface NewOptions {
   json?: boolean;
 }
 
+/** The `$schema` reference for a file written into `dir`: the relative path to templates/<name>, so an editor finds it. */
+export function schemaRef(dir: string, name: string): string {
+  const rel = relative(dir, join(templatesDir(), name)).split(sep).join("/");
+  return rel.startsWith(".") ? rel : `./${rel}`;
+}
+
+/** The first line of a template, pointing its `$schema` at the real file. */
+function withSchemaRef(text: string, dir: string, name: string): string {
+  return text.replace(/^# yaml-language-server: \$schema=\S+/, `# yaml-language-server: $schema=${schemaRef(dir, name)}`);
+}
+
+/** Where to write: -o FILE, -o DIR (then DIR/<name>), or <name> in the working folder. */
+function target(io: Io, output: string | undefined, name: string): { file: string; shown: string } {
+  let file = resolve(io.cwd, output ?? name);
+  if (output !== undefined && (/[\\/]$/.test(output) || isDir(file))) file = join(file, name);
+  return { file, shown: shownPath(io.cwd, file) };
+}
+
 /** Write the new job file; returns the exit status (problems are thrown as ArmwindError). */
 export function runNew(io: Io, opts: NewOptions): number {
   const id = opts.id ?? `rewind-${today(io)}`;
   checkId(id);
-  let file = resolve(io.cwd, opts.output ?? `${id}.yaml`);
-  // -o into a folder: the file is named after the id
-  if (opts.output !== undefined && (/[\\/]$/.test(opts.output) || isDir(file))) file = join(file, `${id}.yaml`);
-  const shown = shownPath(io.cwd, file);
-  writeNew(file, templateText(opts.style, id), shown);
+  const { file, shown } = target(io, opts.output, `${id}.yaml`);
+  writeNew(file, withSchemaRef(templateText(opts.style, id), dirname(file), "job.schema.json"), shown);
   if (opts.json) io.out(JSON.stringify({ ok: true, file, id, style: opts.style }, null, 2));
   else {
     io.out(`job file written: ${shown} (${opts.style} winding, id ${id})`);
@@ -158,20 +173,69 @@ export function runNew(io: Io, opts: NewOptions): number {
   return 0;
 }
 
+/** Write a commented shop profile (armwind.yaml here by default). */
+export function runNewShop(io: Io, opts: { output?: string; json?: boolean }): number {
+  const { file, shown } = target(io, opts.output, "armwind.yaml");
+  const text = readFileSync(join(templatesDir(), "shop.yaml"), "utf8");
+  writeNew(file, withSchemaRef(text, dirname(file), "shop.schema.json"), shown);
+  if (opts.json) io.out(JSON.stringify({ ok: true, file }, null, 2));
+  else {
+    io.out(`shop profile written: ${shown}`);
+    io.out(`  every value in it is an example: set your shop, bench, shelf and logbook; commands run in this folder or below it use it`);
+  }
+  return 0;
+}
+
+/** Write a commented measured-readings file for the job JOB (<id>-measured-<date>.yaml here by default). */
+export async function runNewMeasured(io: Io, job: string, opts: { output?: string; json?: boolean; logbook?: string; learn?: boolean }, where: Where): Promise<number> {
+  const { planFromFile } = await import("./plan.js");
+  const { measuredTemplate } = await import("./new-measured.js");
+  const { loadShop } = await import("./shop.js");
+  const plan = planFromFile(io, job, where, { logbook: opts.logbook, learn: opts.learn });
+  const date = today(io);
+  const { file, shown } = target(io, opts.output, `${plan.job.id}-measured-${date}.yaml`);
+  writeNew(file, measuredTemplate(plan, date, schemaRef(dirname(file), "measured.schema.json"), loadShop(io)?.shop.meter_resolution), shown);
+  if (opts.json) io.out(JSON.stringify({ ok: true, file, job: plan.job.id }, null, 2));
+  else {
+    io.out(`measured file written: ${shown} (job ${plan.job.id}, ${plan.layout.bars} bar-to-bar readings to fill in)`);
+    io.out(`  fill in every ~, then run armwind log ${where.file ?? job} --measured ${shown}`);
+  }
+  return 0;
+}
+
+const KINDS = ["job", "measured", "shop"] as const;
+
 export function newCommand(yargs: Argv, io: Io, setStatus: (n: number) => void) {
   return yargs.command(
-    "new",
-    "Start a job file from a template, every field commented (what to measure, where, with what)",
+    "new [kind] [job]",
+    "Start a file to fill in, every field commented: a job file (new job --style …, or new --style …), a measured-readings file for a job (new measured JOB), a shop profile (new shop)",
     (y) =>
       y
-        .option("style", { choices: STYLES, demandOption: true, describe: "winding style of the armature: tooth, lap or wave" })
-        .option("id", { type: "string", describe: "job id (letters, digits, . _ -); default rewind-<today's date>" })
-        .option("output", { alias: "o", type: "string", describe: "file to create (default <id>.yaml here; a folder: <folder>/<id>.yaml); never overwritten" })
-        .option("json", { type: "boolean", default: false, describe: "print { ok, file, id, style } as JSON" }),
+        .positional("kind", { choices: KINDS, describe: "what to write: job (default), measured or shop" })
+        .positional("job", { type: "string", describe: "new measured: the job file the readings are for" })
+        .option("style", { choices: STYLES, describe: "new job: winding style of the armature: tooth, lap or wave" })
+        .option("id", { type: "string", describe: "new job: job id (letters, digits, . _ -); default rewind-<today's date>" })
+        .option("output", { alias: "o", type: "string", describe: "file to create (a folder: the file goes in it); never overwritten" })
+        .option("logbook", { type: "string", describe: "new measured: logbook folder the plan learns from" })
+        .option("learn", { type: "boolean", default: true, describe: "new measured: use finished rewinds of the same family" })
+        .option("json", { type: "boolean", default: false, describe: "print { ok, file, … } as JSON" }),
     async (argv) => {
-      // yargs has already said what is wrong with the command line (status 1) when style is missing
-      if (!STYLES.includes(argv.style as Style)) return;
-      setStatus(await guarded(io, argv.json, () => runNew(io, { style: argv.style as Style, id: argv.id, output: argv.output, json: argv.json })));
+      const kind = argv.kind ?? "job";
+      const usage =
+        kind === "job" && argv.style === undefined
+          ? "new job needs --style tooth, lap or wave"
+          : kind === "measured" && !argv.job
+            ? "new measured needs the job file: armwind new measured JOB"
+            : kind !== "measured" && argv.job
+              ? `unexpected "${argv.job}": only new measured takes a job file`
+              : "";
+      if (usage) {
+        io.err(`armwind: ${usage} (armwind new --help)`);
+        return setStatus(1);
+      }
+      if (kind === "shop") setStatus(await guarded(io, argv.json, () => runNewShop(io, { output: argv.output, json: argv.json })));
+      else if (kind === "measured") setStatus(await guarded(io, argv.json, (where) => runNewMeasured(io, argv.job as string, { output: argv.output, json: argv.json, logbook: argv.logbook, learn: argv.learn }, where)));
+      else setStatus(await guarded(io, argv.json, () => runNew(io, { style: argv.style as Style, id: argv.id, output: argv.output, json: argv.json })));
     },
   );
 }

@@ -7,6 +7,8 @@ import { planJson } from "./plan-json.js";
 import { planText } from "./plan-text.js";
 import { logbookOptionsFor } from "./learning.js";
 import { withJob, withLogbook } from "./options.js";
+import { loadShop } from "./shop.js";
+import { spoolWarnings } from "../shop/merge.js";
 
 export type { Where } from "./io.js";
 
@@ -16,7 +18,11 @@ export function planFromFile(io: Io, file: string, where: Where, opts: { logbook
   where.file = name;
   where.locate = locate;
   const options: PlanOptions = opts.learn === false ? {} : logbookOptionsFor(io, job, opts.logbook);
-  return planJob(job, options);
+  const plan = planJob(job, options);
+  // the shop's shelf: a plan that needs more wire than the spool holds says so (src/shop)
+  const shop = loadShop(io)?.shop;
+  const short = shop ? spoolWarnings(plan, shop) : [];
+  return short.length ? { ...plan, warnings: [...plan.warnings, ...short] } : plan;
 }
 
 /** Exit status of a plan: 0, or 2 when no winding meets the goal within the limits. */
@@ -30,7 +36,7 @@ export function planCommand(yargs: Argv, io: Io, setStatus: (n: number) => void)
       "plan <job>",
       "Work out the winding: turns, wire, fill, resistances, cut list, and the motor old and new",
       (y) =>
-        withLogbook(withJob(y)).option("json", { type: "boolean", default: false, describe: "print the plan as JSON (the keys of DESIGN.md)" }),
+        withLogbook(withJob(y)).option("json", { type: "boolean", default: false, describe: "print the plan as JSON (its keys are listed in the README, \"The plan --json output\")" }),
       async (argv) => {
         setStatus(
           await guarded(

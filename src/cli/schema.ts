@@ -3,12 +3,13 @@ import type { Argv } from "yargs";
 import { dirname, resolve } from "node:path";
 import { shownPath, writeFailure } from "./new.js";
 import { jobJsonSchemaText } from "../job/json-schema.js";
+import { measuredJsonSchemaText, shopJsonSchemaText } from "../shop/json-schemas.js";
 import { guarded, type Io } from "./io.js";
 import { makeFolders, writeAtomic } from "./write.js";
 
 /** Print the schema, or write it to `output` (temporary file, then renamed); returns the exit status. */
-export async function runSchema(io: Io, output?: string): Promise<number> {
-  const text = jobJsonSchemaText();
+export async function runSchema(io: Io, output?: string, of: "job" | "measured" | "shop" = "job"): Promise<number> {
+  const text = of === "job" ? jobJsonSchemaText() : of === "shop" ? shopJsonSchemaText() : measuredJsonSchemaText();
   if (output === undefined || output === "-") {
     io.out(text);
     return 0;
@@ -31,9 +32,12 @@ export function schemaCommand(yargs: Argv, io: Io, setStatus: (n: number) => voi
   return yargs.command(
     "schema",
     "Print the JSON Schema of the job file, for editors (the YAML language server reads it)",
-    (y) => y.option("output", { alias: "o", type: "string", describe: "write it to this file instead (replaced whole, never half-written)" }),
+    (y) =>
+      y
+        .option("output", { alias: "o", type: "string", describe: "write it to this file instead (replaced whole, never half-written)" })
+        .option("of", { choices: ["job", "measured", "shop"] as const, default: "job" as const, describe: "which file's schema: the job file, the measured file or the shop profile" }),
     async (argv) => {
-      setStatus(await guarded(io, false, () => runSchema(io, argv.output)));
+      setStatus(await guarded(io, false, () => runSchema(io, argv.output, argv.of)));
     },
   );
 }

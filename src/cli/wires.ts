@@ -6,6 +6,8 @@
 
 import { formatProblem, type Problem } from "../errors.js";
 import { parseQuantity } from "../job/units.js";
+import { awgDiameter, awgNumber } from "../wire/awg.js";
+import { swgDiameter, swgName } from "../wire/swg.js";
 import { catalogue, type CatalogueFilter } from "../wire/catalogue.js";
 import type { CatalogueEntry, OverallSource, WireSystem } from "../wire/types.js";
 
@@ -39,6 +41,24 @@ export function sig(x: number, n: number): string {
   return x.toFixed(Math.min(20, n - digits));
 }
 
+/**
+ * The bare diameter (m) a gauge stands for, when the text is one: "27 AWG", "36 swg", or a bare
+ * gauge number with `--system awg` or `swg` (a bare number is mm otherwise). Undefined when the
+ * text is not a gauge; null when it names a gauge that does not exist.
+ */
+export function gaugeDiameter(text: string, system?: WireSystem): number | null | undefined {
+  const m = /^\s*(\d{1,2}|\d\/0|0{1,7})\s*(awg|swg)?\s*$/i.exec(text);
+  if (!m) return undefined;
+  const sys = m[2]?.toLowerCase() ?? (system === "awg" || system === "swg" ? system : undefined);
+  if (!sys) return undefined;
+  if (sys === "awg") {
+    const n = awgNumber(m[1]);
+    return n === undefined ? null : awgDiameter(n);
+  }
+  const name = swgName(m[1]);
+  return name === undefined ? null : swgDiameter(name);
+}
+
 const MARK: Record<OverallSource, string> = {
   published: "",
   measured: "",
@@ -61,15 +81,33 @@ export function runWires(args: WiresArgs): WiresResult {
       });
     }
   }
+  const bounds: number[] = [];
+  let gauges = 0;
   for (const key of ["min", "max"] as const) {
     const text = args[key];
     if (text === undefined) continue;
+    const g = gaugeDiameter(text, filter.system);
+    if (g !== undefined) {
+      if (g === null) problems.push({ code: "bad_length", path: key, message: `--${key} "${text}": no such gauge; e.g. "27 AWG", "36 SWG"` });
+      else {
+        gauges++;
+        bounds.push(g);
+        if (key === "min") filter.minBare = g;
+        else filter.maxBare = g;
+      }
+      continue;
+    }
     const q = parseQuantity(text, "length");
     if (!q.ok) problems.push({ code: "bad_length", path: key, message: `--${key} "${text}": ${q.message}` });
     else if (!(q.value > 0)) {
       problems.push({ code: "bad_length", path: key, message: `--${key}: a bare diameter must be more than 0, like "0.1 mm"` });
     } else if (key === "min") filter.minBare = q.value;
     else filter.maxBare = q.value;
+  }
+  // gauge numbers run the other way from diameters (27 AWG is thinner than 25 AWG): two gauges are a range of sizes
+  if (gauges === 2 && bounds.length === 2) {
+    filter.minBare = Math.min(...bounds);
+    filter.maxBare = Math.max(...bounds);
   }
   if (filter.minBare !== undefined && filter.maxBare !== undefined && filter.minBare > filter.maxBare) {
     problems.push({
@@ -124,7 +162,9 @@ function table(entries: CatalogueEntry[], filter: CatalogueFilter): string {
     ]
       .filter(Boolean)
       .join(" ");
-    return `No catalogue wire has a bare diameter ${range}.\n`;
+    const big = (filter.minBare ?? 0) >= 2e-3;
+    const hint = big ? ' A bare number is a diameter in mm; for a gauge write it with its system ("25 AWG", "36 SWG") or add --system awg or swg.' : "";
+    return `No catalogue wire has a bare diameter ${range}.${hint}\n`;
   }
   const out: string[] = [];
   for (const system of SYSTEMS) {

@@ -1,6 +1,8 @@
 /**
- * Everything about the armature that does not depend on the candidate: slot geometry, the coil
- * table, core dimensions for the turn-length model and its calibration on the old winding.
+ * The armature as the evaluation sees it: everything that does not depend on the candidate winding
+ * (slot geometry, the coil table, core dimensions for the turn-length model and the model's
+ * calibration on the old winding, a logbook correction included). Built once per job and never
+ * changed afterwards (frozen): a different correction is a different armature.
  */
 import { inputError, type Warning } from "../errors.js";
 import type { Job } from "../job/schema.js";
@@ -15,39 +17,73 @@ import { COPPER_RESISTIVITY_20, copperFactor } from "../wire/copper.js";
 import { terminalResistance } from "../winding/ring.js";
 import type { WirePlan } from "./types.js";
 
-/** Overall/bare ratio assumed for the old wire when its insulation is unknown: 1.08 (typical grade 2 of small sizes, from memory). */
-export const OLD_WIRE_OVERALL_RATIO = 1.08;
+/** Overall/bare ratio assumed for a wire whose insulation is unknown: 1.08 (typical grade 2 of small sizes, from memory). */
+const UNKNOWN_OVERALL_RATIO = 1.08;
 
-export interface ArmatureContext {
-  job: Job;
-  slot: SlotGeometry;
-  layout: WindingLayout;
-  core: CoreDims;
-  /** Live coils (a dead coil excluded). */
-  liveCoils: number;
-  /** Coil sides per slot: tooth 2, lap/wave 2u. */
-  sides: number;
-  /** Length along which one coil side's turns are laid (for the bundle thickness), m. */
-  along: number;
+/**
+ * The overall diameter (m) the turn-length model lays a wire at: the wire's own (catalogue grade or
+ * build, or measured) when known, else an assumed one, and the sentence that says which.
+ */
+export function layingOverall(wire: Pick<Wire, "label" | "bare_diameter" | "overall_diameter" | "overall_source">): { overall: number; basis: string } {
+  if (wire.overall_diameter !== null) return { overall: wire.overall_diameter, basis: `${wire.label}: overall diameter ${wire.overall_source}` };
+  return { overall: wire.bare_diameter * UNKNOWN_OVERALL_RATIO, basis: `${wire.label}: insulation not known, overall taken as ${UNKNOWN_OVERALL_RATIO} × bare (from memory)` };
+}
+
+/** The turn-length model's calibration: factor on the end-turn part, where it came from, a measured turn. */
+export interface TurnLengthCalibration {
   /** Calibration factor on the end-turn part of the turn-length model. */
-  mltFactor: number;
-  mltSource: WirePlan["mlt_source"];
+  readonly mltFactor: number;
+  readonly mltSource: WirePlan["mlt_source"];
   /** The measured turn length when given (used as is), m. */
-  mltMeasured: number | null;
-  original: {
-    wire: Wire;
-    turns: number;
-    strands: number;
-    copperFill: number;
-    /** Mean over coils, m. */
-    mlt: number;
-    coilOhms: number[];
-    /** Terminal resistance at 20 °C, Ω: measured (corrected to 20 °C) when given, else computed. */
-    terminal20: number;
-    terminalComputed20: number;
-    terminalMeasured: boolean;
-  };
-  warnings: Warning[];
+  readonly mltMeasured: number | null;
+}
+
+/** What the turn-length model needs of the armature: layout, core, the length a coil side is laid along, its calibration. */
+export interface TurnLengthGeometry extends TurnLengthCalibration {
+  readonly layout: WindingLayout;
+  readonly core: CoreDims;
+  /** Length along which one coil side's turns are laid (for the bundle thickness), m. */
+  readonly along: number;
+}
+
+/** The original winding as recorded, with its figures at 20 °C. */
+export interface OriginalFigures {
+  readonly wire: Wire;
+  /** Overall diameter the old build is laid at, m, and which source gave it. */
+  readonly overall: number;
+  readonly overallBasis: string;
+  readonly turns: number;
+  readonly strands: number;
+  readonly copperFill: number;
+  /** Mean over live coils, m. */
+  readonly mlt: number;
+  readonly coilOhms: readonly number[];
+  /** Terminal resistance at 20 °C, Ω: measured (corrected to 20 °C) when given, else computed. */
+  readonly terminal20: number;
+  readonly terminalComputed20: number;
+  readonly terminalMeasured: boolean;
+}
+
+export interface ArmatureContext extends TurnLengthGeometry {
+  readonly job: Job;
+  readonly slot: SlotGeometry;
+  /** Live coils (a dead coil excluded). */
+  readonly liveCoils: number;
+  /** Coil sides per slot: tooth 2, lap/wave 2u. */
+  readonly sides: number;
+  readonly original: OriginalFigures;
+  readonly warnings: readonly Warning[];
+}
+
+export interface ContextOptions {
+  /** End-turn factor learnt from the logbook of the same family (src/logbook/learn.ts); wins unless the turn length is measured. */
+  mltFactor?: number;
+}
+
+/** The supply of the job: volts (DC, or AC r.m.s.) and its kind. */
+export function supplyOf(job: Job): { volts: number; kind: "dc" | "ac" } {
+  const s = job.target.supply;
+  return typeof s === "number" ? { volts: s, kind: "dc" } : { volts: s.value, kind: s.kind };
 }
 
 export function windingSpec(job: Job): WindingSpec {
@@ -68,23 +104,33 @@ export function windingSpec(job: Job): WindingSpec {
   };
 }
 
-/** Per-coil turn lengths (m) for a build: the base model (or the measured MLT) plus the riding increment in winding order. */
-export function coilTurnLengths(ctx: Pick<ArmatureContext, "layout" | "core" | "mltFactor" | "mltMeasured" | "along">, turns: number, strands: number, overall: number): number[] {
-  const { layout, core } = ctx;
+/** Riding increments (m) of each coil for a bundle b (m): 0 for a dead coil (src/armature/turn.ts `ridingIncrement`). */
+function ridingIncrements(layout: WindingLayout, b: number): number[] {
   const spec = layout.spec;
-  const b = bundleThickness(turns, strands, overall, ctx.along);
-  if (ctx.mltMeasured !== null) {
-    // measured on an old turn: used as is for the mean, riding spread kept around it
-    const inc = layout.coils.map((c) => (c.dead ? 0 : ridingIncrement(c.rides_over, spec.coils_per_slot, spec.span, b)));
-    const live = layout.coils.filter((c) => !c.dead).length;
-    const mean = inc.reduce((s, x) => s + x, 0) / live;
-    return inc.map((x) => ctx.mltMeasured! + x - mean);
-  }
-  const base = meanTurnLength(spec.style, core, spec.span, b, ctx.mltFactor);
-  return layout.coils.map((c) => base + (c.dead ? 0 : ridingIncrement(c.rides_over, spec.coils_per_slot, spec.span, b)));
+  return layout.coils.map((c) => (c.dead ? 0 : ridingIncrement(c.rides_over, spec.coils_per_slot, spec.span, b)));
 }
 
-export function meanOf(xs: number[], layout: WindingLayout): number {
+/**
+ * Per-coil turn lengths (m) for a build of `turns` × `strands` wires of overall diameter `overall` (m):
+ * the base model 2L + f·end turns (or the measured MLT) plus the riding increment in winding order
+ * (src/armature/turn.ts; docs/contracts.md "Mean length of turn").
+ */
+export function coilTurnLengths(geo: TurnLengthGeometry, turns: number, strands: number, overall: number): number[] {
+  const { layout, core } = geo;
+  const spec = layout.spec;
+  const b = bundleThickness(turns, strands, overall, geo.along);
+  const inc = ridingIncrements(layout, b);
+  if (geo.mltMeasured !== null) {
+    // measured on an old turn: used as is for the mean, riding spread kept around it
+    const mean = meanOf(inc, layout);
+    return inc.map((x) => geo.mltMeasured! + x - mean);
+  }
+  const base = meanTurnLength(spec.style, core, spec.span, b, geo.mltFactor);
+  return inc.map((x) => base + x);
+}
+
+/** Mean of a per-coil figure over the live coils. */
+export function meanOf(xs: readonly number[], layout: WindingLayout): number {
   let s = 0;
   let n = 0;
   layout.coils.forEach((c, i) => {
@@ -96,13 +142,13 @@ export function meanOf(xs: number[], layout: WindingLayout): number {
   return s / n;
 }
 
-/** Coil resistance at 20 °C (Ω): R = ρ20 · N · MLT / (k · A) (DESIGN.md "Coil resistance"; IEC 60028 ρ). */
+/** Coil resistance at 20 °C (Ω): R = ρ20 · N · MLT / (k · A) (docs/contracts.md "Coil resistance"; IEC 60028 ρ). */
 export function coilResistance(turns: number, mlt: number, strands: number, area: number): number {
   return (COPPER_RESISTIVITY_20 * turns * mlt) / (strands * area);
 }
 
-export function buildContext(job: Job): ArmatureContext {
-  const warnings: Warning[] = [];
+/** The slot's free area after the liner, refused when the liner takes it all; a warning when the perimeter was estimated. */
+function checkedSlot(job: Job, warnings: Warning[]): SlotGeometry {
   const slot = slotGeometry(job);
   if (slot.free_area <= 0) {
     throw makeError("armature.slot.liner", `the liner (${(slot.liner * 1e3).toFixed(3)} mm over a ${(slot.perimeter * 1e3).toFixed(1)} mm wall) takes all of the slot's ${(slot.gross_area * 1e6).toFixed(2)} mm²; check the liner thickness and the slot area`);
@@ -114,8 +160,15 @@ export function buildContext(job: Job): ArmatureContext {
       message: `slot perimeter not given: estimated as ${(slot.perimeter * 1e3).toFixed(1)} mm from the area for the liner; measure it for a better free area`,
     });
   }
-  const layout = layoutWinding(windingSpec(job));
-  warnings.push(...layout.warnings);
+  return slot;
+}
+
+/**
+ * Core dimensions for the turn-length model (m): slot depth (√area when only the area is known),
+ * tooth width (estimated from the rotor and slot when a tooth winding does not give it), and the
+ * length a coil side is laid along (tooth: depth less two liners; lap/wave: depth less one).
+ */
+function coreGeometry(job: Job, slot: SlotGeometry, warnings: Warning[]): { core: CoreDims; along: number } {
   const a = job.armature;
   const depth = slot.depth ?? Math.sqrt(slot.gross_area);
   if (slot.depth === null) {
@@ -138,118 +191,130 @@ export function buildContext(job: Job): ArmatureContext {
     });
   }
   const core: CoreDims = { stack: a.stack_length, rotorDiameter: a.rotor_diameter, slots: a.slots, toothWidth, slotDepth: depth, liner: slot.liner };
-  const liveCoils = layout.coils.filter((c) => !c.dead).length;
-  const sides = layout.coil_sides_per_slot;
   const along = job.winding.style === "tooth" ? Math.max(depth - 2 * slot.liner, depth * 0.5) : Math.max(depth - slot.liner, depth * 0.5);
+  return { core, along };
+}
 
-  // the original winding
+/**
+ * The end-turn factor that makes the model's mean turn of the old build (bundle `oldBuild`, m) equal
+ * `oldMlt` (m): f = (MLT − riding − 2L) / end-turn model (src/armature/turn.ts `fitEndTurnFactor`).
+ */
+export function fitToOldTurn(geo: Omit<TurnLengthGeometry, keyof TurnLengthCalibration>, oldMlt: number, oldBuild: number): number {
+  const spec = geo.layout.spec;
+  return fitEndTurnFactor(oldMlt - meanOf(ridingIncrements(geo.layout, oldBuild), geo.layout), spec.style, geo.core, spec.span, oldBuild);
+}
+
+/**
+ * Calibration of the turn length from the job alone: the measured turn, else the old wire pulled
+ * off (its length, or its mass over the copper density and area), else the model (factor 1).
+ */
+function turnLengthFromJob(job: Job, geo: Omit<TurnLengthGeometry, keyof TurnLengthCalibration>, liveCoils: number, oWire: Wire, oldBuild: number, warnings: Warning[]): TurnLengthCalibration {
   const o = job.original;
-  const oWire = resolveWire(o.wire);
-  const oOverall = oWire.overall_diameter ?? oWire.bare_diameter * OLD_WIRE_OVERALL_RATIO;
-  const oFill = copperFill(sides * o.turns * o.strands, oWire.area, slot.free_area);
-  const oBuild = bundleThickness(o.turns, o.strands, oOverall, along);
-
-  // calibration of the turn length: measured MLT, else wire pulled off (length, mass), else model
-  let mltFactor = 1;
-  let mltSource: WirePlan["mlt_source"] = "model";
-  let mltMeasured: number | null = null;
-  const partial = { layout, core, mltFactor: 1, mltMeasured: null as number | null, along };
-  const riding = (b: number) => meanOf(layout.coils.map((c) => (c.dead ? 0 : ridingIncrement(c.rides_over, layout.spec.coils_per_slot, layout.spec.span, b))), layout);
-  let oldMlt: number | null = null;
-  if (job.winding.mean_turn_length !== undefined) {
-    mltMeasured = job.winding.mean_turn_length;
-    mltSource = "measured";
-  } else if (o.wire_length !== undefined) {
+  if (job.winding.mean_turn_length !== undefined) return { mltFactor: 1, mltSource: "measured", mltMeasured: job.winding.mean_turn_length };
+  let oldMlt: number;
+  let source: "wire_length" | "wire_mass";
+  if (o.wire_length !== undefined) {
     oldMlt = mltFromWireLength(o.wire_length, o.strands, o.turns, liveCoils);
-    mltSource = "wire_length";
+    source = "wire_length";
   } else if (o.wire_mass !== undefined) {
     oldMlt = mltFromWireLength(lengthFromMass(o.wire_mass, oWire.bare_diameter), o.strands, o.turns, liveCoils);
-    mltSource = "wire_mass";
+    source = "wire_mass";
+  } else return { mltFactor: 1, mltSource: "model", mltMeasured: null };
+  const path = source === "wire_length" ? "original.wire_length" : "original.wire_mass";
+  const what = source === "wire_length" ? "length" : "mass";
+  const f = fitToOldTurn(geo, oldMlt, oldBuild);
+  if (!(f > 0)) {
+    throw makeError(path, `the old wire gives ${(oldMlt * 1e3).toFixed(1)} mm a turn, less than the two sides along the ${(geo.core.stack * 1e3).toFixed(1)} mm stack (${(2 * geo.core.stack * 1e3).toFixed(1)} mm); check the wire ${what}, the turns and the stack length`);
   }
-  if (oldMlt !== null) {
-    mltFactor = fitEndTurnFactor(oldMlt - riding(oBuild), layout.spec.style, core, layout.spec.span, oBuild);
-    if (!(mltFactor > 0)) {
-      throw makeError(
-        mltSource === "wire_length" ? "original.wire_length" : "original.wire_mass",
-        `the old wire gives ${(oldMlt * 1e3).toFixed(1)} mm a turn, less than the two sides along the ${(core.stack * 1e3).toFixed(1)} mm stack (${(2 * core.stack * 1e3).toFixed(1)} mm); check the wire ${mltSource === "wire_length" ? "length" : "mass"}, the turns and the stack length`,
-      );
-    }
-    if (mltFactor < 0.4 || mltFactor > 2.5) {
-      warnings.push({
-        code: "turn_length_unusual",
-        path: mltSource === "wire_length" ? "original.wire_length" : "original.wire_mass",
-        message: `the old wire implies end turns ${mltFactor.toFixed(2)} × the model's; check the recorded ${mltSource === "wire_length" ? "length" : "mass"} and turns`,
-      });
-    }
+  if (f < 0.4 || f > 2.5) {
+    warnings.push({ code: "turn_length_unusual", path, message: `the old wire implies end turns ${f.toFixed(2)} × the model's; check the recorded ${what} and turns` });
   }
-  partial.mltFactor = mltFactor;
-  partial.mltMeasured = mltMeasured;
-  let oMlts = coilTurnLengths(partial, o.turns, o.strands, oOverall);
-  let oCoilOhms = oMlts.map((m) => coilResistance(o.turns, m, o.strands, oWire.area));
-  let terminalComputed20 = terminalResistance(layout, oCoilOhms).single;
-  let terminal20 = terminalComputed20;
-  let terminalMeasured = false;
-  if (o.terminal_resistance) {
-    terminalMeasured = true;
-    terminal20 = o.terminal_resistance.value / copperFactor(o.terminal_resistance.at);
-    if (mltSource === "model") {
-      // no wire pulled off: the measured resistance gives the effective turn length
-      const scale = terminal20 / terminalComputed20;
-      const effMlt = meanOf(oMlts, layout) * scale;
-      mltFactor = fitEndTurnFactor(effMlt - riding(oBuild), layout.spec.style, core, layout.spec.span, oBuild);
-      if (mltFactor > 0) {
-        mltSource = "terminal_resistance";
-        partial.mltFactor = mltFactor;
-        oMlts = coilTurnLengths(partial, o.turns, o.strands, oOverall);
-        oCoilOhms = oMlts.map((m) => coilResistance(o.turns, m, o.strands, oWire.area));
-        terminalComputed20 = terminalResistance(layout, oCoilOhms).single;
-      } else {
-        mltFactor = 1;
-      }
-    }
-    const dev = terminal20 / terminalComputed20 - 1;
+  return { mltFactor: f, mltSource: source, mltMeasured: null };
+}
+
+/** The original's coil turn lengths (m), coil resistances (Ω, 20 °C) and computed terminal resistance (Ω, 20 °C). */
+function originalChain(geo: TurnLengthGeometry, job: Job, overall: number, oWire: Wire) {
+  const o = job.original;
+  const mlts = coilTurnLengths(geo, o.turns, o.strands, overall);
+  const ohms = mlts.map((m) => coilResistance(o.turns, m, o.strands, oWire.area));
+  return { mlts, ohms, terminal: terminalResistance(geo.layout, ohms).single };
+}
+
+/**
+ * With no wire pulled off and no measured turn, a measured terminal resistance calibrates the turn
+ * length: the effective mean turn is the model's scaled by measured/computed resistance (R ∝ MLT).
+ */
+function fitToTerminal(geo: TurnLengthGeometry, job: Job, overall: number, oWire: Wire, oldBuild: number, terminal20: number): TurnLengthCalibration | null {
+  const first = originalChain(geo, job, overall, oWire);
+  const effMlt = meanOf(first.mlts, geo.layout) * (terminal20 / first.terminal);
+  const f = fitToOldTurn(geo, effMlt, oldBuild);
+  return f > 0 ? { mltFactor: f, mltSource: "terminal_resistance", mltMeasured: null } : null;
+}
+
+/**
+ * Build the armature for a job: slot, coil table, core, the turn-length calibration (the job's own,
+ * replaced by the logbook's factor when given and the turn is not measured) and the original
+ * winding's figures with that calibration. Pure; frozen.
+ */
+export function buildContext(job: Job, options: ContextOptions = {}): ArmatureContext {
+  const warnings: Warning[] = [];
+  const slot = checkedSlot(job, warnings);
+  const layout = layoutWinding(windingSpec(job));
+  warnings.push(...layout.warnings);
+  const { core, along } = coreGeometry(job, slot, warnings);
+  const liveCoils = layout.coils.filter((c) => !c.dead).length;
+  const sides = layout.coil_sides_per_slot;
+  const o = job.original;
+  const oWire = resolveWire(o.wire);
+  const { overall: oOverall, basis: overallBasis } = layingOverall(oWire);
+  const oldBuild = bundleThickness(o.turns, o.strands, oOverall, along);
+  const shape = { layout, core, along };
+  let cal = turnLengthFromJob(job, shape, liveCoils, oWire, oldBuild, warnings);
+  const terminalMeasured = o.terminal_resistance !== undefined;
+  const measured20 = o.terminal_resistance ? o.terminal_resistance.value / copperFactor(o.terminal_resistance.at) : null;
+  if (measured20 !== null && cal.mltSource === "model") cal = fitToTerminal({ ...shape, ...cal }, job, oOverall, oWire, oldBuild, measured20) ?? cal;
+  if (options.mltFactor !== undefined && cal.mltSource !== "measured") cal = { mltFactor: options.mltFactor, mltSource: "logbook", mltMeasured: null };
+  const geo: TurnLengthGeometry = { ...shape, ...cal };
+  const chain = originalChain(geo, job, oOverall, oWire);
+  const terminal20 = measured20 ?? chain.terminal;
+  turnLengthWarnings(cal, measured20, chain.terminal, warnings);
+  const original: OriginalFigures = Object.freeze({
+    wire: oWire,
+    overall: oOverall,
+    overallBasis,
+    turns: o.turns,
+    strands: o.strands,
+    copperFill: copperFill(sides * o.turns * o.strands, oWire.area, slot.free_area),
+    mlt: meanOf(chain.mlts, layout),
+    coilOhms: Object.freeze(chain.ohms),
+    terminal20,
+    terminalComputed20: chain.terminal,
+    terminalMeasured,
+  });
+  return Object.freeze({ job, slot, layout, core, along, liveCoils, sides, ...cal, original, warnings: Object.freeze(warnings) });
+}
+
+/** Warnings on the turn length: a measured terminal resistance far from the computed one; the model alone. */
+function turnLengthWarnings(cal: TurnLengthCalibration, measured20: number | null, computed20: number, warnings: Warning[]): void {
+  if (measured20 !== null) {
+    const dev = measured20 / computed20 - 1;
     if (Math.abs(dev) > 0.1) {
       warnings.push({
         code: "resistance_disagrees",
         path: "original.terminal_resistance",
-        message: `the measured terminal resistance (${terminal20.toFixed(4)} Ω at 20 °C) is ${(dev * 100).toFixed(0)} % from the ${terminalComputed20.toFixed(4)} Ω the recorded turns, wire and turn length give; the measured value is used for the original motor`,
+        message: `the measured terminal resistance (${measured20.toFixed(4)} Ω at 20 °C) is ${(dev * 100).toFixed(0)} % from the ${computed20.toFixed(4)} Ω the recorded turns, wire and turn length give; the measured value is used for the original motor`,
       });
     }
   }
-  if (mltSource === "model") {
+  if (cal.mltSource === "model") {
     warnings.push({
       code: "turn_length_model",
       path: "winding.mean_turn_length",
       message: "turn length from the end-turn model alone (no measured turn, old wire length or mass, or terminal resistance): wire lengths and resistances may be off by 10 to 20 %",
     });
   }
-  return {
-    job,
-    slot,
-    layout,
-    core,
-    liveCoils,
-    sides,
-    along,
-    mltFactor,
-    mltSource,
-    mltMeasured,
-    original: {
-      wire: oWire,
-      turns: o.turns,
-      strands: o.strands,
-      copperFill: oFill,
-      mlt: meanOf(oMlts, layout),
-      coilOhms: oCoilOhms,
-      terminal20,
-      terminalComputed20,
-      terminalMeasured,
-    },
-    warnings,
-  };
 }
 
 function makeError(path: string, message: string) {
   return inputError("inconsistent_geometry", path, message);
 }
-

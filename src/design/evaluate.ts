@@ -1,211 +1,433 @@
 /**
- * One candidate winding (turns × wire × strands in hand): does it fit, what does it measure,
- * what will it do, and how close does it come to the goal. Pure and fast: the sweep calls it
- * hundreds of thousands of times.
+ * ONE evaluation of a winding (turns × wire × strands in hand) on an armature: does it fit, what
+ * does each coil measure, what do the ring readings become, what will the motor do, and how close
+ * does it come to the goal. Every figure the plan, the card, `log`'s prediction, learning and the
+ * bench use comes from here; no caller works any of it out again.
+ *
+ *  - `cheap` mode (the sweep, hundreds of thousands of calls): the mean coil and the terminal
+ *    reading from the coils' turn lengths in closed form (`terminalModel`, equal to the network's),
+ *    no per-coil arrays, no ring readings, no motor report.
+ *  - `full` mode (the chosen winding, the original, the winding actually laid, learning, bench):
+ *    each coil with its own turn length and resistance, the ring network's readings (src/winding/ring.ts),
+ *    the motor model's report and the duty point.
+ * Both modes compute the fit, fills, turn length, Ke, goal figure and verdict with the same functions.
+ *
+ * Units: SI (m, m², Ω, V, A, rad/s, N·m, W, kg, A/m²).
  */
 import { HEX_PACKING, copperFill, spaceFill } from "../armature/fill.js";
 import { passesOpening, slotLayerBuild, toothLayerBuild, type LayerBuild } from "../armature/build.js";
 import { bundleThickness, meanTurnLength, ridingIncrement } from "../armature/turn.js";
 import { copperFactor, COPPER_DENSITY } from "../wire/copper.js";
 import type { Wire } from "../wire/types.js";
-import { terminalResistance } from "../winding/ring.js";
-import type { ArmatureContext } from "./context.js";
-import { coilResistance } from "./context.js";
-import type { Calibration, Candidate, GoalKind, RejectCode } from "./types.js";
+import { barToBar, ringNetwork, singleBrushBars, terminalResistance } from "../winding/ring.js";
+import type { WindingLayout } from "../winding/types.js";
+import { currentDensity } from "../motor/density.js";
+import { keScaledByTurns } from "../motor/emf.js";
+import type { OperatingPoint } from "../motor/model.js";
+import { coilResistance, coilTurnLengths, layingOverall, meanOf, supplyOf, type ArmatureContext } from "./context.js";
+import { motorPhysicsFor, type MotorPhysics } from "./motor.js";
+import type { Calibration, Candidate, DutyReport, GoalKind, MotorReport, RejectCode } from "./types.js";
 
-/** Share of the target copper area a restore may fall short by: 3 % (DESIGN.md, "Choosing among candidates"). */
+/** Share of the target copper area a restore may fall short by: 3 % (docs/contracts.md, "Choosing among candidates"). */
 export const RESTORE_MIN_AREA = 0.97;
 
+/** A winding to evaluate: turns per coil, the wire, strands in hand. */
+export interface Winding {
+  turns: number;
+  wire: Wire;
+  strands: number;
+}
+
+export type EvalMode = "cheap" | "full";
+
+/** The ring readings of a winding at 20 °C, Ω (src/winding/ring.ts). */
+export interface RingReadings {
+  /** r1 … rC: between bar i and bar i+1. */
+  bar_to_bar: number[];
+  /** Brushes each on a single bar. */
+  single: number;
+  /** Brushes each bridging two bars. */
+  bridged: number;
+  /** Least and largest over a turn of the rotor (the ring module's figures). */
+  min: number;
+  max: number;
+  /** How the brushes were placed. */
+  basis: string;
+}
+
+/** The full evaluation: the candidate's figures (from the network) plus each coil, the ring, the motor. */
+export interface FullEvaluation extends Candidate {
+  /** Each coil's mean turn length, m, in coil index order (a dead coil's too). */
+  coil_mlt: number[];
+  /** Each coil's resistance at 20 °C, Ω, in coil index order. */
+  coil_ohms: number[];
+  ring: RingReadings;
+  motor: MotorReport;
+  duty: DutyReport | null;
+}
+
+export interface FullOptions {
+  /** A measured terminal resistance at 20 °C (Ω) that wins over the computed one for the motor figures (the original). */
+  measuredTerminal20?: number;
+}
+
 export interface Evaluator {
+  /** The sweep's evaluation (cheap mode). */
   evaluate(turns: number, wire: Wire, strands: number): Candidate;
+  /** The full evaluation of a winding. */
+  full(w: Winding, options?: FullOptions): FullEvaluation;
   /** Copper fill limit in force. */
   fillLimit: number;
   goal: GoalKind;
-  /** Target in SI (rad/s, rad/s per V as Kv rpm/V converted, A, rad/s for duty speed, m² for restore). */
+  /** Target in SI (rad/s, rad/s per V, A, rad/s for the duty speed, m² for restore). */
   target: number;
   /** Terminal resistance of a ring of equal coils of 1 Ω (brushes each on one bar). */
   ringFactor: number;
   supply: number;
 }
 
-/**
- * `convertRatio`: goal convert's turns ratio (design/series.ts): the copper area aimed at is the
- * original's ÷ the ratio (the same copper in the slot), judged as a restore is.
- */
-export function makeEvaluator(ctx: ArmatureContext, cal: Calibration, supply: number, convertRatio: number | null = null): Evaluator {
-  const job = ctx.job;
-  const t = job.target;
-  const lim = t.limits;
-  const goal = t.goal;
-  const likeRestore = goal === "restore" || goal === "convert";
-  const fillLimit = likeRestore ? Math.max(lim.copper_fill, ctx.original.copperFill) : lim.copper_fill;
-  const spaceLimit = Math.min(lim.space_fill, HEX_PACKING);
-  const spec = ctx.layout.spec;
-  const layout = ctx.layout;
-  const ones = layout.coils.map(() => 1);
-  const ringFactor = terminalResistance(layout, ones).single;
-  const rides = layout.coils.filter((c) => !c.dead).map((c) => c.rides_over);
-  const hotFactor = copperFactor(t.hot_temperature);
-  const slot = ctx.slot;
-  const trapezoid = slot.depth !== null && slot.width_top !== null && slot.width_bottom !== null;
-  const series = job.armature.field === "series";
-  const keOrig = cal.ke;
-  const nOrig = ctx.original.turns;
-  const origArea = ctx.original.strands * ctx.original.wire.area;
-  const paths = layout.paths;
-  const densityCurrent = t.rated_current ?? null;
-  const tol = t.tolerance;
+/** What does not change from one winding to the next: limits, target, ring factor, hot factor, the motor model. */
+interface Setup {
+  ctx: ArmatureContext;
+  cal: Calibration;
+  physics: MotorPhysics;
+  supply: number;
+  goal: GoalKind;
+  target: number;
+  fillLimit: number;
+  spaceLimit: number;
+  /** Restore, or convert (judged as a restore is): the copper area is the goal. */
+  likeRestore: boolean;
+  ringFactor: number;
+  hotFactor: number;
+  /** Mean riding increment per metre of bundle thickness over the live coils (the increment is linear in it). */
+  ridingPerBundle: number;
+  /** The terminal reading (Ω) of coils whose turn lengths are base + g_i·b (m), times K (Ω/m): see `terminalModel`. */
+  terminalOf: (base: number, b: number, K: number) => number;
+  trapezoid: boolean;
+}
 
-  let target: number;
-  switch (goal) {
+/** Riding increment of each coil per metre of bundle thickness (0 for a dead coil): src/armature/turn.ts `ridingIncrement`, linear in the bundle. */
+function ridingPerMetre(layout: WindingLayout): number[] {
+  const spec = layout.spec;
+  return layout.coils.map((c) => (c.dead ? 0 : ridingIncrement(c.rides_over, spec.coils_per_slot, spec.span, 1)));
+}
+
+/**
+ * The arcs the `single` brushes cut the closed winding into (coil indices in circuit order), and
+ * whether each joins a + brush to a − brush. Null when the winding is not one closed loop with
+ * every brush on it (equalizers, or a brush bar no live coil starts at).
+ */
+function brushArcs(layout: WindingLayout): { coils: number[]; conducts: boolean }[] | null {
+  if (layout.equalizers) return null;
+  const brushes = singleBrushBars(layout);
+  const polarity = new Map<number, number>();
+  brushes.forEach((bar, j) => polarity.set(bar, j % 2));
+  const order = layout.circuit_order;
+  const starts = order.map((k) => layout.coils[k - 1].start_bar!);
+  const first = starts.findIndex((b) => polarity.has(b));
+  if (first < 0 || brushes.some((b) => !starts.includes(b))) return null;
+  const arcs: { coils: number[]; conducts: boolean }[] = [];
+  let from = starts[first];
+  let coils: number[] = [];
+  for (let n = 0; n < order.length; n++) {
+    const i = (first + n) % order.length;
+    coils.push(order[i] - 1);
+    const end = layout.coils[order[i] - 1].end_bar!;
+    if (polarity.has(end)) {
+      arcs.push({ coils, conducts: polarity.get(end) !== polarity.get(from) });
+      from = end;
+      coils = [];
+    }
+  }
+  return coils.length === 0 ? arcs : null;
+}
+
+/**
+ * The terminal reading of the \`single\` brushes as a function of the coils' turn lengths
+ * base + g_i·b (m) and K = ρ20·N/(k·A) (Ω/m), exact and cheap:
+ *  - equal live coils (all g_i alike: tooth windings, coils that ride over none): K·(base + g·b) times
+ *    the ring's factor (the network of equal coils, src/winding/ring.ts);
+ *  - one closed loop cut into arcs by the brushes (Kirchhoff: the arcs joining a + to a − brush are
+ *    in parallel, the others carry no current): 1 / Σ 1/A_j, A_j = K·(n_j·base + G_j·b); checked
+ *    once against the ring network at unequal coils and used only when it agrees to 1e-9;
+ *  - otherwise the ring network itself, each time.
+ */
+function terminalModel(layout: WindingLayout, g: number[], ringFactor: number): Setup["terminalOf"] {
+  const live = layout.coils.map((c, i) => (c.dead ? null : g[i])).filter((x): x is number => x !== null);
+  if (live.every((x) => x === live[0])) return (base, b, K) => K * (base + live[0] * b) * ringFactor;
+  const arcs = brushArcs(layout)?.filter((a) => a.conducts).map((a) => ({ n: a.coils.length, G: a.coils.reduce((s, i) => s + g[i], 0) }));
+  const network = (base: number, b: number, K: number) => {
+    const ohms = g.map((x) => K * (base + x * b));
+    const bars = singleBrushBars(layout);
+    return ringNetwork(layout, ohms).between(bars.filter((_, j) => j % 2 === 0), bars.filter((_, j) => j % 2 === 1));
+  };
+  if (!arcs || arcs.length === 0) return network;
+  const byArcs = (base: number, b: number, K: number) => 1 / arcs.reduce((s, a) => s + 1 / (K * (a.n * base + a.G * b)), 0);
+  const probe = terminalResistance(layout, g.map((x) => 1 + 0.37 * x)).single;
+  return Math.abs(byArcs(1, 0.37, 1) / probe - 1) < 1e-9 ? byArcs : network;
+}
+
+/**
+ * The goal's target in SI from the job (restore: the original's copper area, m²; convert: that area
+ * ÷ the conversion's turns ratio, the same copper in the slot, src/design/series.ts).
+ */
+function goalTarget(ctx: ArmatureContext, convertRatio: number | null): number {
+  const t = ctx.job.target;
+  switch (t.goal) {
     case "restore":
-      target = origArea;
-      break;
+      return ctx.original.strands * ctx.original.wire.area;
     case "convert":
-      target = origArea / (convertRatio ?? 1);
+      return (ctx.original.strands * ctx.original.wire.area) / (convertRatio ?? 1);
+    case "no_load_speed":
+      return t.no_load_speed!;
+    case "kv":
+      return t.kv!;
+    case "stall_current":
+      return t.stall_current!;
+    case "duty":
+      return t.duty!.speed;
+  }
+}
+
+function setupFor(ctx: ArmatureContext, cal: Calibration, supply: number, convertRatio: number | null = null): Setup {
+  const t = ctx.job.target;
+  const layout = ctx.layout;
+  const spec = layout.spec;
+  const live = layout.coils.filter((c) => !c.dead);
+  const slot = ctx.slot;
+  const ringFactor = terminalResistance(layout, layout.coils.map(() => 1)).single;
+  const likeRestore = t.goal === "restore" || t.goal === "convert";
+  return {
+    ctx,
+    cal,
+    physics: motorPhysicsFor(ctx.job),
+    supply,
+    goal: t.goal,
+    target: goalTarget(ctx, convertRatio),
+    likeRestore,
+    fillLimit: likeRestore ? Math.max(t.limits.copper_fill, ctx.original.copperFill) : t.limits.copper_fill,
+    spaceLimit: Math.min(t.limits.space_fill, HEX_PACKING),
+    ringFactor,
+    terminalOf: terminalModel(layout, ridingPerMetre(layout), ringFactor),
+    hotFactor: copperFactor(t.hot_temperature),
+    ridingPerBundle: live.reduce((s, c) => s + ridingIncrement(c.rides_over, spec.coils_per_slot, spec.span, 1), 0) / live.length,
+    trapezoid: slot.depth !== null && slot.width_top !== null && slot.width_bottom !== null,
+  };
+}
+
+/** Copper fill, space fill, layer build and opening against the limits (src/armature/fill.ts, build.ts). */
+function fitChecks(s: Setup, w: Winding, reasons: RejectCode[]): { copper_fill: number; space_fill: number | null; build: LayerBuild | null } {
+  const { slot, sides, layout } = s.ctx;
+  const conductors = sides * w.turns * w.strands;
+  const cf = copperFill(conductors, w.wire.area, slot.free_area);
+  if (cf > s.fillLimit + 1e-12) reasons.push("copper_fill");
+  const overall = w.wire.overall_diameter;
+  if (overall === null) {
+    reasons.push("overall_unknown");
+    return { copper_fill: cf, space_fill: null, build: null };
+  }
+  const sf = spaceFill(conductors, overall, slot.free_area);
+  if (sf > s.spaceLimit + 1e-12) reasons.push("space_fill");
+  if (!passesOpening(overall, w.strands, slot.opening)) reasons.push("slot_opening");
+  let build: LayerBuild | null = null;
+  if (s.trapezoid) {
+    build =
+      layout.spec.style === "tooth"
+        ? toothLayerBuild(w.turns, w.strands, overall, slot.depth!, slot.width_bottom!, slot.liner)
+        : slotLayerBuild(conductors, overall, slot.depth!, slot.width_top!, slot.width_bottom!, slot.liner);
+    if (!build.fits) reasons.push("layer_build");
+  }
+  return { copper_fill: cf, space_fill: sf, build };
+}
+
+/**
+ * The coils' turn lengths as base + g_i·b (m): b the bundle thickness, base the model's 2L + f·end
+ * turns (or the measured turn less the mean riding increment, so that the mean is the measured one).
+ */
+function turnLengthTerms(s: Setup, w: Winding): { base: number; b: number } {
+  const ctx = s.ctx;
+  const spec = ctx.layout.spec;
+  const b = bundleThickness(w.turns, w.strands, layingOverall(w.wire).overall, ctx.along);
+  if (ctx.mltMeasured !== null) return { base: ctx.mltMeasured - s.ridingPerBundle * b, b };
+  return { base: meanTurnLength(spec.style, ctx.core, spec.span, b, ctx.mltFactor), b };
+}
+
+interface GoalFigures {
+  ke: number | null;
+  achieved: number | null;
+  stall_current_hot: number | null;
+  stall_current_cold: number | null;
+  current_density: number | null;
+  duty_input_w: number | null;
+  dutyPoint: OperatingPoint | null;
+}
+
+/**
+ * The motor figures a goal needs, from the motor model (src/design/motor.ts): Ke scaled by turns
+ * (Ke_new = Ke_orig·N_new/N_orig), stall currents hot and cold, the goal's figure (no-load speed
+ * with the cold resistance, Kv as 1/Ke in rad/s per V, duty speed with the hot one), and the
+ * current density at the duty point or the rated current, J = I/(a·k·A) (src/motor/density.ts).
+ */
+function goalFigures(s: Setup, w: Winding, terminal20: number): GoalFigures {
+  const { ctx, cal, physics, supply } = s;
+  const t = ctx.job.target;
+  const terminalHot = terminal20 * s.hotFactor;
+  const ke = cal.ke === null ? null : keScaledByTurns(cal.ke, ctx.original.turns, w.turns);
+  const out: GoalFigures = {
+    ke,
+    achieved: null,
+    stall_current_hot: physics.stallCurrent(ke, terminalHot, cal, supply),
+    stall_current_cold: physics.stallCurrent(ke, terminal20, cal, supply),
+    current_density: null,
+    duty_input_w: null,
+    dutyPoint: null,
+  };
+  switch (s.goal) {
+    case "restore":
+    case "convert":
+      out.achieved = w.strands * w.wire.area;
       break;
     case "no_load_speed":
-      target = t.no_load_speed!;
+      if (ke !== null) out.achieved = physics.noLoad(ke, terminal20, cal, supply)?.speed ?? null;
       break;
     case "kv":
-      target = t.kv!;
+      if (ke !== null) out.achieved = 1 / ke; // Kv in rad/s per volt (60/(2π·Ke) rpm/V)
       break;
     case "stall_current":
-      target = t.stall_current!;
+      out.achieved = out.stall_current_cold;
       break;
     case "duty":
-      target = t.duty!.speed;
+      if (ke !== null && physics.field === "constant") {
+        out.dutyPoint = physics.atTorque(ke, terminalHot, cal, supply, t.duty!.torque);
+        out.achieved = out.dutyPoint ? out.dutyPoint.speed : 0;
+        out.duty_input_w = out.dutyPoint ? out.dutyPoint.inputW : null;
+      }
       break;
   }
+  const dc = out.dutyPoint?.current ?? t.rated_current ?? null;
+  if (dc !== null) out.current_density = currentDensity(dc, ctx.layout.paths, w.strands, w.wire.area);
+  return out;
+}
 
-  // the riding increment is linear in the bundle thickness b (below its cap): precompute its mean factor
-  let ridingPerBundle = 0;
-  for (const r of rides) ridingPerBundle += ridingIncrement(r, spec.coils_per_slot, spec.span, 1);
-  ridingPerBundle /= rides.length;
-  const brushDrop = cal.brush_drop;
-  const Vd = Math.max(0, supply - brushDrop);
-  const tc = cal.loss.tc;
-  const bLoss = cal.loss.b;
+/** The limits on current, the error against the target and whether the goal is met (docs/contracts.md "Choosing among candidates"). */
+function verdict(s: Setup, g: GoalFigures, reasons: RejectCode[]): { error: number | null; meets: boolean } {
+  const t = s.ctx.job.target;
+  const lim = t.limits;
+  if (lim.current_density !== undefined && g.current_density !== null && g.current_density > lim.current_density) reasons.push("current_density");
+  if (lim.hot_stall_current !== undefined && g.stall_current_hot !== null && g.stall_current_hot > lim.hot_stall_current) reasons.push("hot_stall_current");
+  if (g.achieved === null) return { error: null, meets: false };
+  const error = (g.achieved - s.target) / s.target;
+  let meets: boolean;
+  if (s.likeRestore) {
+    meets = g.achieved >= RESTORE_MIN_AREA * s.target;
+    if (!meets) reasons.push("below_original_copper");
+  } else if (s.goal === "stall_current") {
+    // "at most this much", hot and cold: the cold (larger) stall current within the tolerance below the limit, never above it
+    meets = error <= 1e-12 && error >= -t.tolerance;
+  } else meets = Math.abs(error) <= t.tolerance;
+  return { error: Number.isFinite(error) ? error : null, meets };
+}
 
-  function meanMlt(turns: number, strands: number, overall: number): number {
-    if (ctx.mltMeasured !== null) return ctx.mltMeasured;
-    const b = bundleThickness(turns, strands, overall, ctx.along);
-    return meanTurnLength(spec.style, ctx.core, spec.span, b, ctx.mltFactor) + ridingPerBundle * b;
-  }
+/** The candidate's figures for a winding whose mean turn is `mlt` (m) and terminal reading `terminal20` (Ω, 20 °C). */
+function candidate(s: Setup, w: Winding, mlt: number, coilOhm: number, terminal20: number): { c: Candidate; g: GoalFigures } {
+  const reasons: RejectCode[] = [];
+  const fit = fitChecks(s, w, reasons);
+  const g = goalFigures(s, w, terminal20);
+  const v = verdict(s, g, reasons);
+  const c: Candidate = {
+    turns: w.turns,
+    strands: w.strands,
+    wire: w.wire,
+    ...fit,
+    mlt,
+    coil_ohm: coilOhm,
+    terminal_ohm: terminal20,
+    terminal_hot_ohm: terminal20 * s.hotFactor,
+    ke: g.ke,
+    achieved: g.achieved,
+    error: v.error,
+    meets_goal: v.meets && reasons.length === 0,
+    rejected_because: reasons,
+    copper_mass: COPPER_DENSITY * w.wire.area * w.strands * w.turns * mlt * s.ctx.liveCoils,
+    current_density: g.current_density,
+    stall_current_hot: g.stall_current_hot,
+    stall_current_cold: g.stall_current_cold,
+    duty_input_w: g.duty_input_w,
+  };
+  return { c, g };
+}
 
-  function evaluate(turns: number, wire: Wire, strands: number): Candidate {
-    const reasons: RejectCode[] = [];
-    const conductors = ctx.sides * turns * strands;
-    const cf = copperFill(conductors, wire.area, slot.free_area);
-    if (cf > fillLimit + 1e-12) reasons.push("copper_fill");
-    const overall = wire.overall_diameter;
-    let sf: number | null = null;
-    let build: LayerBuild | null = null;
-    if (overall === null) {
-      reasons.push("overall_unknown");
-    } else {
-      sf = spaceFill(conductors, overall, slot.free_area);
-      if (sf > spaceLimit + 1e-12) reasons.push("space_fill");
-      if (!passesOpening(overall, strands, slot.opening)) reasons.push("slot_opening");
-      if (trapezoid) {
-        build =
-          spec.style === "tooth"
-            ? toothLayerBuild(turns, strands, overall, slot.depth!, slot.width_bottom!, slot.liner)
-            : slotLayerBuild(conductors, overall, slot.depth!, slot.width_top!, slot.width_bottom!, slot.liner);
-        if (!build.fits) reasons.push("layer_build");
-      }
-    }
-    const mlt = meanMlt(turns, strands, overall ?? wire.bare_diameter * 1.08);
-    const coilOhm = coilResistance(turns, mlt, strands, wire.area);
-    const terminal = coilOhm * ringFactor;
-    const terminalHot = terminal * hotFactor;
-    const copperMass = COPPER_DENSITY * wire.area * strands * turns * mlt * ctx.liveCoils;
+/** Cheap mode: the mean coil, R = ρ20·N·MLT/(k·A), and the terminal reading from `terminalModel` (no per-coil arrays). */
+function evaluateCheap(s: Setup, w: Winding): Candidate {
+  const { base, b } = turnLengthTerms(s, w);
+  const mlt = s.ctx.mltMeasured ?? base + s.ridingPerBundle * b;
+  const K = coilResistance(w.turns, 1, w.strands, w.wire.area);
+  return candidate(s, w, mlt, K * mlt, s.terminalOf(base, b, K)).c;
+}
 
-    let ke: number | null = null;
-    let achieved: number | null = null;
-    let stallHot: number | null = null;
-    let stallCold: number | null = null;
-    let density: number | null = null;
-    let dutyInput: number | null = null;
-    if (keOrig !== null) ke = (keOrig * turns) / nOrig;
-    // steady state of the linear model (DESIGN.md; motor/model.ts): stall I = (V − V_b)/R;
-    // no load: V_d = Ke·ω + I·R with Kt·I = T_c + B·ω  →  ω0 = (Ke·V_d − R·T_c)/(Ke² + R·B)
-    // a series motor has no stall figure from the armature alone (the field is in the circuit): design/series.ts
-    if (ke !== null && !series) {
-      stallHot = Vd / terminalHot;
-      stallCold = Vd / terminal;
-    }
-    let dutyCurrent: number | null = null;
-    switch (goal) {
-      case "restore":
-      case "convert":
-        achieved = strands * wire.area;
-        break;
-      case "no_load_speed":
-        if (ke !== null && !series) achieved = Math.max(0, (ke * Vd - terminal * tc) / (ke * ke + terminal * bLoss));
-        break;
-      case "kv":
-        if (ke !== null) achieved = 1 / ke; // Kv in rad/s per volt (60/(2π·Ke) rpm/V)
-        break;
-      case "stall_current":
-        achieved = stallCold;
-        break;
-      case "duty": {
-        if (ke !== null && !series) {
-          const T = t.duty!.torque;
-          // at load torque T: Kt·I = T + T_c + B·ω and V_d = Ke·ω + I·R_hot
-          const speed = (ke * Vd - terminalHot * (T + tc)) / (ke * ke + terminalHot * bLoss);
-          if (speed > 0) {
-            const current = (T + tc + bLoss * speed) / ke;
-            achieved = speed;
-            dutyCurrent = current;
-            dutyInput = supply * current;
-          } else {
-            achieved = 0;
-          }
-        }
-        break;
-      }
-    }
-    const dc = dutyCurrent ?? densityCurrent;
-    if (dc !== null) density = dc / (paths * strands * wire.area);
-    if (lim.current_density !== undefined && density !== null && density > lim.current_density) reasons.push("current_density");
-    if (lim.hot_stall_current !== undefined && stallHot !== null && stallHot > lim.hot_stall_current) reasons.push("hot_stall_current");
-    let error: number | null = achieved === null ? null : (achieved - target) / target;
-    let meets = false;
-    if (error !== null) {
-      if (likeRestore) {
-        if (achieved! < RESTORE_MIN_AREA * target) reasons.push("below_original_copper");
-        meets = achieved! >= RESTORE_MIN_AREA * target;
-      } else if (goal === "stall_current") {
-        // "at most this much", hot and cold: the cold (larger) stall current within the tolerance below the limit, never above it
-        meets = error <= 1e-12 && error >= -tol;
-      } else meets = Math.abs(error) <= tol;
-    }
-    if (error !== null && !Number.isFinite(error)) error = null;
-    return {
-      turns,
-      strands,
-      wire,
-      copper_fill: cf,
-      space_fill: sf,
-      build,
-      mlt,
-      coil_ohm: coilOhm,
-      terminal_ohm: terminal,
-      terminal_hot_ohm: terminalHot,
-      ke,
-      achieved,
-      error,
-      meets_goal: meets && reasons.length === 0,
-      rejected_because: reasons,
-      copper_mass: copperMass,
-      current_density: density,
-      stall_current_hot: stallHot,
-      stall_current_cold: stallCold,
-      duty_input_w: dutyInput,
-    };
-  }
+/** The duty report of a winding at its duty point (null without a duty goal, or beyond stall). */
+function dutyOf(s: Setup, w: Winding, ke: number | null, terminalHot: number): DutyReport | null {
+  const d = s.ctx.job.target.duty;
+  if (!d || ke === null) return null;
+  const p = s.physics.atTorque(ke, terminalHot, s.cal, s.supply, d.torque);
+  if (p === null) return null;
+  return {
+    torque: d.torque,
+    target_speed: d.speed,
+    current: p.current,
+    speed: p.speed,
+    efficiency: p.efficiency,
+    input_w: p.inputW,
+    output_w: p.outputW,
+    current_density: currentDensity(p.current, s.ctx.layout.paths, w.strands, w.wire.area),
+  };
+}
 
-  return { evaluate, fillLimit, goal, target, ringFactor, supply };
+/** Full mode: each coil's turn length and resistance, the ring network's readings, the motor report and duty point. */
+function evaluateFull(s: Setup, w: Winding, options: FullOptions = {}): FullEvaluation {
+  const { layout } = s.ctx;
+  const coilMlt = coilTurnLengths(s.ctx, w.turns, w.strands, layingOverall(w.wire).overall);
+  const coilOhms = coilMlt.map((m) => coilResistance(w.turns, m, w.strands, w.wire.area));
+  const t = terminalResistance(layout, coilOhms);
+  const ring: RingReadings = {
+    bar_to_bar: barToBar(layout, coilOhms),
+    single: t.single,
+    bridged: t.bridged,
+    min: Math.min(t.min, t.bridged, t.single),
+    max: Math.max(t.max, t.single),
+    basis: t.validity,
+  };
+  const { c } = candidate(s, w, meanOf(coilMlt, layout), meanOf(coilOhms, layout), t.single);
+  const r20 = options.measuredTerminal20 ?? t.single;
+  const motor = s.physics.report(c.ke, r20, s.hotFactor, s.cal, s.supply);
+  return { ...c, coil_mlt: coilMlt, coil_ohms: coilOhms, ring, motor, duty: dutyOf(s, w, c.ke, r20 * s.hotFactor) };
+}
+
+/**
+ * The evaluator of one armature and calibration at the job's supply (V): the setup done once, both
+ * modes. `convertRatio`: goal convert's turns ratio (src/design/series.ts).
+ */
+export function makeEvaluator(ctx: ArmatureContext, cal: Calibration, supply = supplyOf(ctx.job).volts, convertRatio: number | null = null): Evaluator {
+  const s = setupFor(ctx, cal, supply, convertRatio);
+  return {
+    evaluate: (turns, wire, strands) => evaluateCheap(s, { turns, wire, strands }),
+    full: (w, options) => evaluateFull(s, w, options),
+    fillLimit: s.fillLimit,
+    goal: s.goal,
+    target: s.target,
+    ringFactor: s.ringFactor,
+    supply,
+  };
+}
+
+/**
+ * Evaluate a winding on an armature with a calibration at the job's supply: `cheap` for the
+ * sweep, `full` for everything else. Units SI.
+ */
+export function evaluateWinding(ctx: ArmatureContext, cal: Calibration, w: Winding, mode: "full", options?: FullOptions): FullEvaluation;
+export function evaluateWinding(ctx: ArmatureContext, cal: Calibration, w: Winding, mode: "cheap"): Candidate;
+export function evaluateWinding(ctx: ArmatureContext, cal: Calibration, w: Winding, mode: EvalMode, options?: FullOptions): Candidate | FullEvaluation {
+  const s = setupFor(ctx, cal, supplyOf(ctx.job).volts);
+  return mode === "full" ? evaluateFull(s, w, options) : evaluateCheap(s, w);
 }

@@ -1,23 +1,21 @@
 /**
- * A job in, a plan out: the armature context, the calibrated original, the sweep, and the chosen
- * winding worked out coil by coil. Pure: no files, no terminal.
+ * A job in, a plan out: the armature, the calibrated original, the sweep, and the chosen winding,
+ * the candidates shown and the original evaluated in full (src/design/evaluate.ts). Pure: no files,
+ * no terminal.
  */
 import type { Warning } from "../errors.js";
 import type { Job } from "../job/schema.js";
-import { kvFromKe } from "../motor/emf.js";
-import { atTorque, curve, noLoad, stall, summarize, type MotorModel } from "../motor/model.js";
-import { copperFactor, COPPER_DENSITY } from "../wire/copper.js";
+import { COPPER_DENSITY } from "../wire/copper.js";
 import { defaultStock, resolveWire } from "../wire/catalogue.js";
 import type { Wire } from "../wire/types.js";
-import { barToBar, terminalResistance } from "../winding/ring.js";
-import { buildContext, coilResistance, coilTurnLengths, meanOf, type ArmatureContext } from "./context.js";
+import { buildContext, supplyOf, type ArmatureContext } from "./context.js";
 import { calibrateOriginal, type LogbookCalibration } from "./calibration.js";
-import { makeEvaluator, type Evaluator } from "./evaluate.js";
-import { sweep } from "./sweep.js";
-import { conversionRatio, planSeries, setupSeries, type SeriesPlan } from "./series.js";
+import { makeEvaluator, type Evaluator, type FullEvaluation } from "./evaluate.js";
+import { sweep, type SweepResult } from "./sweep.js";
+import { conversionRatio, planSeries, setupSeries, type SeriesPlan, type SeriesSetup } from "./series.js";
 import { inputError } from "../errors.js";
 import { toleranceText } from "../format/goal.js";
-import type { Calibration, Candidate, CoilPlan, DutyReport, GoalReport, MotorReport, Plan, RejectCode, Sensitivity } from "./types.js";
+import type { Candidate, CoilPlan, GoalKind, GoalReport, Plan, RejectCode, ResistancePlan, Sensitivity, WirePlan } from "./types.js";
 
 /** Extra-low voltage limits, IEC 60449 band I: 50 V AC r.m.s., 120 V ripple-free DC. */
 export const ELV_AC = 50;
@@ -43,10 +41,7 @@ export function reasonText(code: RejectCode): string {
   return REASON_TEXT[code];
 }
 
-export function supplyOf(job: Job): { volts: number; kind: "dc" | "ac" } {
-  const s = job.target.supply;
-  return typeof s === "number" ? { volts: s, kind: "dc" } : { volts: s.value, kind: s.kind };
-}
+export { supplyOf };
 
 export function stockWires(job: Job): { wires: Wire[]; warnings: Warning[] } {
   const warnings: Warning[] = [];
@@ -66,155 +61,33 @@ export function stockWires(job: Job): { wires: Wire[]; warnings: Warning[] } {
   return { wires, warnings };
 }
 
-function motorModel(ke: number, resistance: number, cal: Calibration, series: boolean): MotorModel {
-  return { ke, resistance, brushDrop: cal.brush_drop, loss: cal.loss, field: series ? "series" : "constant" };
-}
-
-function motorReport(ke: number | null, r20: number, hotFactor: number, cal: Calibration, series: boolean, supply: number): MotorReport {
-  const nullReport: MotorReport = {
-    ke: ke ?? NaN,
-    kt: ke ?? NaN,
-    kv: ke ? kvFromKe(ke) : NaN,
-    resistance: r20 * hotFactor,
-    noLoadSpeed: null,
-    noLoadCurrent: null,
-    stallCurrent: null,
-    stallTorque: null,
-    peakEfficiency: null,
-    peakEfficiencyCurrent: null,
-    maxOutputW: null,
-    warnings: [],
-    stallCurrentCold: null,
-    model: null,
-    curve: [],
-  };
-  if (ke === null) return nullReport;
-  const hot = motorModel(ke, r20 * hotFactor, cal, series);
-  const s = summarize(hot, supply);
-  if (series) return { ...nullReport, ...s, stallCurrent: nullReport.stallCurrent, stallCurrentCold: nullReport.stallCurrentCold, model: hot, curve: [] };
-  const cold = motorModel(ke, r20, cal, false);
-  const nl = noLoad(cold, supply);
-  return {
-    ...s,
-    noLoadSpeed: nl.speed,
-    noLoadCurrent: nl.current,
-    stallCurrentCold: stall(cold, supply).current,
-    model: hot,
-    curve: curve(hot, supply, 41),
-  };
-}
-
-function dutyReport(model: MotorModel | null, supply: number, job: Job, density: (i: number) => number | null): DutyReport | null {
-  const d = job.target.duty;
-  if (!d || !model || model.field === "series") return null;
-  try {
-    const p = atTorque(model, supply, d.torque);
-    return {
-      torque: d.torque,
-      target_speed: d.speed,
-      current: p.current,
-      speed: p.speed,
-      efficiency: p.efficiency,
-      input_w: p.inputW,
-      output_w: p.outputW,
-      current_density: density(p.current),
-    };
-  } catch {
-    // the load torque is beyond this motor's stall torque: no operating point (planJob warns)
-    return null;
-  }
-}
-
 function goalReport(ev: Evaluator, c: Candidate, tolerance: Job["target"]["tolerance"]): GoalReport {
   return { kind: ev.goal, target: ev.target, achieved: c.achieved, error_fraction: c.error, tolerance };
 }
 
-export function planJob(job: Job, options: PlanOptions = {}): Plan {
-  const ctx: ArmatureContext = buildContext(job);
-  const warnings: Warning[] = [...ctx.warnings];
-  if (job.original.wire.assumed) warnings.push({ code: "wire_assumed", path: "original.wire", message: job.original.wire.assumed });
-  if (options.logbook?.mltFactor !== undefined && ctx.mltSource !== "measured") {
-    ctx.mltFactor = options.logbook.mltFactor;
-    ctx.mltSource = "logbook";
-  }
-  const { calibration: cal, warnings: calWarnings } = calibrateOriginal(ctx, options.logbook);
-  warnings.push(...calWarnings);
-  const { volts: supply, kind: supplyKind } = supplyOf(job);
-  const series = job.armature.field === "series";
-  const seriesSetup = series ? setupSeries(ctx, cal.brush_drop) : null;
-  const ratio = seriesSetup && job.target.goal === "convert" ? conversionRatio(seriesSetup, job.target.hot_temperature) : null;
-  if (job.target.goal === "convert" && ratio === null) {
-    throw inputError(
-      "goal_uncalibrated",
-      "original.nameplate",
-      "goal convert needs the original's rated point: field_winding (resistance, and inductance on AC) with a nameplate or load test that leaves the motor a load torque",
-    );
-  }
-  const ev = makeEvaluator(ctx, cal, supply, ratio);
-  const stock = stockWires(job);
-  warnings.push(...stock.warnings);
-  if (ev.goal !== "restore" && ev.goal !== "convert" && cal.ke === null) {
-    warnings.push({ code: "goal_uncalibrated", path: "target.goal", message: `the ${ev.goal.replace(/_/g, " ")} cannot be predicted without a calibrated Ke; the plan falls back to the most copper that fits` });
-  }
-  const result = sweep(ev, {
-    wires: stock.wires,
+/** The sweep over the stock (restore: the original's turns only; convert: the original's × the conversion ratio). */
+function runSweep(ev: Evaluator, ctx: ArmatureContext, wires: Wire[], ratio: number | null) {
+  const job = ctx.job;
+  return sweep(ev, {
+    wires,
     maxInHand: job.max_in_hand,
     fixedTurns: ev.goal === "restore" ? job.original.turns : ratio !== null ? Math.max(1, Math.round(job.original.turns * ratio)) : undefined,
     sides: ctx.sides,
     freeArea: ctx.slot.free_area,
   });
-  if (!result.best) {
-    // no wire in stock at all can be evaluated (cannot happen with a non-empty stock)
-    throw new Error("empty sweep");
-  }
-  const chosen = result.best;
-  const feasible = chosen.meets_goal;
-  let binding: string | null = null;
-  if (!feasible) {
-    const reasons = chosen.rejected_because.map(reasonText);
-    const top = Object.entries(result.rejections).sort((a, b) => b[1] - a[1])[0];
-    binding = reasons.length
-      ? `the closest candidate is held back by: ${reasons.join("; ")}`
-      : `no candidate within the limits comes within ${toleranceText(ev.goal, job.target.tolerance)} of the goal${top ? `; the limit that rejects most candidates: ${reasonText(top[0] as RejectCode)} (${top[1]} of ${result.total})` : ""}`;
-    warnings.push({ code: "goal_not_met", path: "target.goal", message: `no winding meets the goal within the limits: ${binding}` });
-  }
+}
 
-  // the chosen winding, coil by coil
-  const overall = chosen.wire.overall_diameter ?? chosen.wire.bare_diameter * 1.08;
-  const mlts = coilTurnLengths(ctx, chosen.turns, chosen.strands, overall);
-  const coilOhms = mlts.map((m) => coilResistance(chosen.turns, m, chosen.strands, chosen.wire.area));
-  const coils: CoilPlan[] = ctx.layout.coils.map((c, i) => ({ ...c, turns: c.dead ? chosen.turns : chosen.turns, mlt: mlts[i], ohm: coilOhms[i] }));
-  const term = terminalResistance(ctx.layout, coilOhms);
-  const hotFactor = copperFactor(job.target.hot_temperature);
-  // the sweep used the mean coil; the chosen winding's terminal figure comes from the network of its own coils
-  chosen.terminal_ohm = term.single;
-  chosen.terminal_hot_ohm = term.single * hotFactor;
-  const b2b = barToBar(ctx.layout, coilOhms);
-  const liveMean = meanOf(coilOhms, ctx.layout);
-  const validity: string[] = [];
-  if (job.winding.equalizers) validity.push("equalizer connections are fitted: they tie bars together, so the bar-to-bar and terminal figures from the plain ring do not hold; the figures here include the equalizers as near-zero links");
-  const mltMean = meanOf(mlts, ctx.layout);
-  const perCoil = chosen.turns * chosen.strands * mltMean;
-  const windingLen = perCoil * ctx.liveCoils;
-  const leads = 2 * job.winding.lead_allowance * ctx.liveCoils * chosen.strands;
-  const cut = (windingLen + leads) * (1 + job.winding.spare_margin);
+/** What binds when the chosen winding misses the goal: its own rejections, else the limit that rejects most. */
+function bindingOf(ev: Evaluator, chosen: Candidate, result: SweepResult, job: Job): string {
+  const reasons = chosen.rejected_because.map(reasonText);
+  if (reasons.length) return `the closest candidate is held back by: ${reasons.join("; ")}`;
+  const top = Object.entries(result.rejections).sort((a, b) => b[1] - a[1])[0];
+  return `no candidate within the limits comes within ${toleranceText(ev.goal, job.target.tolerance)} of the goal${top ? `; the limit that rejects most candidates: ${reasonText(top[0] as RejectCode)} (${top[1]} of ${result.total})` : ""}`;
+}
 
-  // motors
-  const newKe = cal.ke === null ? null : (cal.ke * chosen.turns) / ctx.original.turns;
-  const motor = motorReport(newKe, term.single, hotFactor, cal, series, supply);
-  const original_motor = motorReport(cal.ke, ctx.original.terminal20, hotFactor, cal, series, supply);
-  let seriesPlan: SeriesPlan | null = null;
-  if (seriesSetup) {
-    const sp = planSeries(job, seriesSetup, {
-      turns: chosen.turns,
-      originalTurns: ctx.original.turns,
-      armature20: term.single,
-      hotTemperature: job.target.hot_temperature,
-      convertRatio: ratio,
-    });
-    seriesPlan = sp.plan;
-    warnings.push(...sp.warnings);
-  }
+/** Warnings the motor figures raise: the series field, the model's own, a duty beyond stall (new and original). */
+function motorWarnings(job: Job, supply: number, chosen: FullEvaluation, original: FullEvaluation, seriesSetup: SeriesSetup | null, warnings: Warning[]): void {
+  const series = job.armature.field === "series";
   if (series && !warnings.some((w) => w.code === "series_field")) {
     warnings.push({
       code: "series_field",
@@ -224,24 +97,23 @@ export function planJob(job: Job, options: PlanOptions = {}): Plan {
         : "series (universal) motor: only what the armature alone determines is predicted (resistance, Ke scaled by turns); give field_winding (the field's resistance, and its inductance or a locked-rotor reading on AC) with a no-load test or the nameplate for the motor's figures; never run a series motor unloaded, it races",
     });
   }
-  for (const w of [...motor.warnings]) if (!warnings.some((x) => x.code === w.code)) warnings.push(w);
-  const densityNew = (i: number) => i / (ctx.layout.paths * chosen.strands * chosen.wire.area);
-  const densityOld = (i: number) => i / (ctx.layout.paths * ctx.original.strands * ctx.original.wire.area);
-  const duty = dutyReport(motor.model, supply, job, densityNew);
-  const original_duty = dutyReport(original_motor.model, supply, job, densityOld);
-  if (job.target.duty && !series) {
-    for (const [which, report, m] of [["new", duty, motor], ["original", original_duty, original_motor]] as const) {
-      if (report === null && m.model) {
-        warnings.push({
-          code: "duty_beyond_stall",
-          path: "target.duty.torque",
-          message: `the ${which} winding cannot carry the ${(job.target.duty.torque * 1e3).toPrecision(3)} mN·m load at ${supply} V: it is beyond its stall torque${m.stallTorque !== null ? ` (${(m.stallTorque * 1e3).toPrecision(3)} mN·m)` : ""}`,
-        });
-      }
+  for (const w of chosen.motor.warnings) if (!warnings.some((x) => x.code === w.code)) warnings.push(w);
+  if (!job.target.duty || series) return;
+  for (const [which, e] of [["new", chosen], ["original", original]] as const) {
+    if (e.duty === null && e.motor.model) {
+      warnings.push({
+        code: "duty_beyond_stall",
+        path: "target.duty.torque",
+        message: `the ${which} winding cannot carry the ${(job.target.duty.torque * 1e3).toPrecision(3)} mN·m load at ${supply} V: it is beyond its stall torque${e.motor.stallTorque !== null ? ` (${(e.motor.stallTorque * 1e3).toPrecision(3)} mN·m)` : ""}`,
+      });
     }
   }
+}
 
-  if (ev.goal === "restore" && ctx.original.copperFill > job.target.limits.copper_fill) {
+/** Warnings on the original's fill: above the limit (a restore allows it), or more than hand winding reaches. */
+function originalFillWarnings(ctx: ArmatureContext, goal: GoalKind, warnings: Warning[]): void {
+  const job = ctx.job;
+  if (goal === "restore" && ctx.original.copperFill > job.target.limits.copper_fill) {
     warnings.push({
       code: "original_over_limit",
       path: "target.limits.copper_fill",
@@ -255,31 +127,127 @@ export function planJob(job: Job, options: PlanOptions = {}): Plan {
       message: `the recorded original would fill ${(ctx.original.copperFill * 100).toFixed(0)} % of the free slot area with copper, more than hand winding reaches: check the turns, the wire and the slot size`,
     });
   }
+}
 
-  // sensitivity: one turn more and less, the next wire up and down
-  const sens: Sensitivity[] = [];
-  const sorted = [...stock.wires].sort((a, b) => a.bare_diameter - b.bare_diameter);
+/** Sensitivity: one turn less and more, the next wire down and up in the stock, each fully evaluated (goal figure SI). */
+function sensitivityRows(ev: Evaluator, chosen: Candidate, wires: Wire[]): Sensitivity[] {
+  const sorted = [...wires].sort((a, b) => a.bare_diameter - b.bare_diameter);
   const idx = sorted.findIndex((w) => w.label === chosen.wire.label);
-  const row = (label: string, c: Candidate): Sensitivity => ({
-    label,
-    turns: c.turns,
-    wire: c.wire.label,
-    strands: c.strands,
-    terminal_ohm: c.terminal_ohm,
-    copper_fill: c.copper_fill,
-    achieved: c.achieved,
-    meets_goal: c.meets_goal,
-    rejected_because: c.rejected_because,
-  });
-  if (chosen.turns > 1) sens.push(row("one turn less", ev.evaluate(chosen.turns - 1, chosen.wire, chosen.strands)));
-  sens.push(row("one turn more", ev.evaluate(chosen.turns + 1, chosen.wire, chosen.strands)));
-  if (idx > 0) sens.push(row("next wire down", ev.evaluate(chosen.turns, sorted[idx - 1], chosen.strands)));
-  if (idx >= 0 && idx < sorted.length - 1) sens.push(row("next wire up", ev.evaluate(chosen.turns, sorted[idx + 1], chosen.strands)));
+  const row = (label: string, turns: number, wire: Wire): Sensitivity => {
+    const c = ev.full({ turns, wire, strands: chosen.strands });
+    return { label, turns: c.turns, wire: c.wire.label, strands: c.strands, terminal_ohm: c.terminal_ohm, copper_fill: c.copper_fill, achieved: c.achieved, meets_goal: c.meets_goal, rejected_because: c.rejected_because };
+  };
+  const rows: Sensitivity[] = [];
+  if (chosen.turns > 1) rows.push(row("one turn less", chosen.turns - 1, chosen.wire));
+  rows.push(row("one turn more", chosen.turns + 1, chosen.wire));
+  if (idx > 0) rows.push(row("next wire down", chosen.turns, sorted[idx - 1]));
+  if (idx >= 0 && idx < sorted.length - 1) rows.push(row("next wire up", chosen.turns, sorted[idx + 1]));
+  return rows;
+}
 
-  const mains = supplyKind === "ac" ? supply > ELV_AC : supply > ELV_DC;
+/**
+ * The cut list (m, kg): one coil N·k·MLT, the winding over the live coils, two leads per coil and
+ * strand, and the spare margin on everything: cut = (winding + leads)·(1 + margin); copper mass
+ * ρ_Cu·A·cut (IEC 60028 density).
+ */
+function wirePlan(ctx: ArmatureContext, chosen: Candidate): WirePlan {
+  const w = ctx.job.winding;
+  const perCoil = chosen.turns * chosen.strands * chosen.mlt;
+  const windingLen = perCoil * ctx.liveCoils;
+  const leads = 2 * w.lead_allowance * ctx.liveCoils * chosen.strands;
+  const cut = (windingLen + leads) * (1 + w.spare_margin);
+  return {
+    mlt: chosen.mlt,
+    mlt_source: ctx.mltSource,
+    per_coil: perCoil,
+    winding: windingLen,
+    leads,
+    cut,
+    cut_per_strand: cut / chosen.strands,
+    copper_mass: COPPER_DENSITY * chosen.wire.area * cut,
+    spare_margin: w.spare_margin,
+    lead_allowance: w.lead_allowance,
+  };
+}
+
+/** The resistance section of the plan from the chosen winding's full evaluation. */
+function resistancePlan(job: Job, chosen: FullEvaluation): ResistancePlan {
+  const r = chosen.ring;
+  const validity: string[] = [];
+  if (job.winding.equalizers) validity.push("equalizer connections are fitted: they tie bars together, so the bar-to-bar and terminal figures from the plain ring do not hold; the figures here include the equalizers as near-zero links");
+  return {
+    coil_ohm: chosen.coil_ohm,
+    bar_to_bar: r.bar_to_bar,
+    bar_to_bar_ohm: r.bar_to_bar.reduce((s: number, x: number) => s + x, 0) / r.bar_to_bar.length,
+    terminal_ohm: r.single,
+    terminal_min_ohm: r.min,
+    terminal_max_ohm: r.max,
+    terminal_hot_ohm: chosen.terminal_hot_ohm,
+    hot_temperature: job.target.hot_temperature,
+    validity,
+    terminal_basis: r.basis,
+  };
+}
+
+/**
+ * The armature, its calibration and the evaluator for a job (the logbook's correction applied when
+ * the armature is built); for a series motor with a described field, the series model's setup and,
+ * for goal convert, its turns ratio (src/design/series.ts).
+ */
+export function preparePlan(job: Job, options: PlanOptions = {}) {
+  const ctx = buildContext(job, { mltFactor: options.logbook?.mltFactor });
+  const { calibration, warnings } = calibrateOriginal(ctx, options.logbook);
+  const seriesSetup = job.armature.field === "series" ? setupSeries(ctx, calibration.brush_drop) : null;
+  const ratio = seriesSetup && job.target.goal === "convert" ? conversionRatio(seriesSetup, job.target.hot_temperature) : null;
+  if (job.target.goal === "convert" && ratio === null) {
+    throw inputError(
+      "goal_uncalibrated",
+      "original.nameplate",
+      "goal convert needs the original's rated point: field_winding (resistance, and inductance on AC) with a nameplate or load test that leaves the motor a load torque",
+    );
+  }
+  return { ctx, calibration, calibrationWarnings: warnings, seriesSetup, ratio, ev: makeEvaluator(ctx, calibration, undefined, ratio) };
+}
+
+/** The series model's figures for the chosen winding (null unless a series motor's field is described). */
+function seriesOf(job: Job, setup: SeriesSetup | null, chosen: FullEvaluation, ctx: ArmatureContext, ratio: number | null, warnings: Warning[]): SeriesPlan | null {
+  if (!setup) return null;
+  const sp = planSeries(job, setup, { turns: chosen.turns, originalTurns: ctx.original.turns, armature20: chosen.ring.single, hotTemperature: job.target.hot_temperature, convertRatio: ratio });
+  warnings.push(...sp.warnings);
+  return sp.plan;
+}
+
+/**
+ * A job in, a plan out (SI): the armature, the calibration, the sweep (cheap evaluations), then the
+ * chosen winding, the listed candidates, the sensitivity rows and the original winding evaluated
+ * in full. Nothing is changed after it is made.
+ */
+export function planJob(job: Job, options: PlanOptions = {}): Plan {
+  const { ctx, calibration: cal, calibrationWarnings, seriesSetup, ratio, ev } = preparePlan(job, options);
+  const warnings: Warning[] = [...ctx.warnings];
+  if (job.original.wire.assumed) warnings.push({ code: "wire_assumed", path: "original.wire", message: job.original.wire.assumed });
+  warnings.push(...calibrationWarnings);
+  const { volts: supply, kind: supplyKind } = supplyOf(job);
+  const stock = stockWires(job);
+  warnings.push(...stock.warnings);
+  if (ev.goal !== "restore" && ev.goal !== "convert" && cal.ke === null) {
+    warnings.push({ code: "goal_uncalibrated", path: "target.goal", message: `the ${ev.goal.replace(/_/g, " ")} cannot be predicted without a calibrated Ke; the plan falls back to the most copper that fits` });
+  }
+  const result = runSweep(ev, ctx, stock.wires, ratio);
+  if (!result.best) throw new Error("empty sweep"); // no wire in stock at all (cannot happen with a non-empty stock)
+  const chosen = ev.full(result.best);
+  const candidates = result.shown.map((c) => (c === result.best ? chosen : c)); // cheap figures equal the full ones (test/evaluate-properties.test.ts)
+  const binding = chosen.meets_goal ? null : bindingOf(ev, chosen, result, job);
+  if (binding) warnings.push({ code: "goal_not_met", path: "target.goal", message: `no winding meets the goal within the limits: ${binding}` });
+  const o = ctx.original;
+  const original = ev.full({ turns: o.turns, wire: o.wire, strands: o.strands }, { measuredTerminal20: o.terminal20 });
+  const series = seriesOf(job, seriesSetup, chosen, ctx, ratio, warnings);
+  motorWarnings(job, supply, chosen, original, seriesSetup, warnings);
+  originalFillWarnings(ctx, ev.goal, warnings);
+  const coils: CoilPlan[] = ctx.layout.coils.map((c, i) => ({ ...c, turns: chosen.turns, mlt: chosen.coil_mlt[i], ohm: chosen.coil_ohms[i] }));
   return {
     job,
-    feasible,
+    feasible: chosen.meets_goal,
     goal: goalReport(ev, chosen, job.target.tolerance),
     layout: ctx.layout,
     slot: ctx.slot,
@@ -287,53 +255,23 @@ export function planJob(job: Job, options: PlanOptions = {}): Plan {
     fill_limit: ev.fillLimit,
     coils,
     paths: ctx.layout.paths,
-    resistance: {
-      coil_ohm: liveMean,
-      bar_to_bar: b2b,
-      bar_to_bar_ohm: b2b.reduce((s: number, x: number) => s + x, 0) / b2b.length,
-      terminal_ohm: term.single,
-      terminal_min_ohm: Math.min(term.min, term.bridged, term.single),
-      terminal_max_ohm: Math.max(term.max, term.single),
-      terminal_hot_ohm: term.single * hotFactor,
-      hot_temperature: job.target.hot_temperature,
-      validity,
-      terminal_basis: term.validity,
-    },
-    wire: {
-      mlt: mltMean,
-      mlt_source: ctx.mltSource,
-      per_coil: perCoil,
-      winding: windingLen,
-      leads,
-      cut,
-      cut_per_strand: cut / chosen.strands,
-      copper_mass: COPPER_DENSITY * chosen.wire.area * cut,
-      spare_margin: job.winding.spare_margin,
-      lead_allowance: job.winding.lead_allowance,
-    },
+    resistance: resistancePlan(job, chosen),
+    wire: wirePlan(ctx, chosen),
     calibration: cal,
-    series: seriesPlan,
-    motor,
-    original_motor,
-    original: {
-      wire: ctx.original.wire,
-      turns: ctx.original.turns,
-      strands: ctx.original.strands,
-      copper_fill: ctx.original.copperFill,
-      mlt: ctx.original.mlt,
-      terminal_ohm: ctx.original.terminal20,
-      terminal_measured: ctx.original.terminalMeasured,
-    },
-    duty,
-    original_duty,
-    candidates: result.shown,
+    series,
+    motor: chosen.motor,
+    original_motor: original.motor,
+    original: { wire: o.wire, turns: o.turns, strands: o.strands, copper_fill: o.copperFill, mlt: o.mlt, terminal_ohm: o.terminal20, terminal_measured: o.terminalMeasured },
+    duty: chosen.duty,
+    original_duty: original.duty,
+    candidates,
     candidates_total: result.total,
     rejections: result.rejections,
     binding,
-    sensitivity: sens,
+    sensitivity: sensitivityRows(ev, chosen, stock.wires),
     supply,
     supply_kind: supplyKind,
-    mains,
+    mains: supplyKind === "ac" ? supply > ELV_AC : supply > ELV_DC,
     warnings: dedupeWarnings(warnings),
     learning: options.logbook ? { records: options.logbook.records, moves: options.logbook.moves ?? [] } : null,
   };

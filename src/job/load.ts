@@ -17,7 +17,7 @@ export interface Located<T> {
 }
 
 /** Parse YAML text and validate it with `schema`; throws ArmwindError (status 1) with every problem located. */
-export function loadYaml<S extends z.ZodType>(text: string, file: string, schema: S): Located<z.output<S>> {
+export function loadYaml<S extends z.ZodType>(text: string, file: string, schema: S, prepare?: (raw: Record<string, unknown>) => Record<string, unknown>): Located<z.output<S>> {
   const lc = new LineCounter();
   const doc = parseDocument(text, { lineCounter: lc, prettyErrors: false, uniqueKeys: true, strict: true });
   const pos = (offset: number) => {
@@ -57,6 +57,8 @@ export function loadYaml<S extends z.ZodType>(text: string, file: string, schema
       column: 1,
     });
   }
+  // defaults from elsewhere (the shop profile) are filled in where the file is silent
+  if (prepare) raw = prepare(raw as Record<string, unknown>);
   const result = schema.safeParse(raw);
   if (!result.success) {
     const raws = issuesToProblems(result.error.issues, schema, raw);
@@ -253,7 +255,9 @@ function issuesToProblems(issues: readonly Issue[], schema: z.ZodType, raw: unkn
             parts: [...parts, key],
             keyNode: true,
             suggests: near,
-            message: `unknown key "${key}"${near ? `; did you mean "${near}"?` : known.length ? `; known keys here: ${known.filter((k) => k !== "$schema").join(", ")}` : ""}`,
+            message: /^\d/.test(key)
+              ? `unknown key "${key}": it looks like the end of a number split at a comma; inside { } a comma separates entries, so write numbers without thousands separators (11000 rpm, not 11,000 rpm)`
+              : `unknown key "${key}"${near ? `; did you mean "${near}"?` : known.length ? `; known keys here: ${known.filter((k) => k !== "$schema").join(", ")}` : ""}`,
           });
         }
         break;

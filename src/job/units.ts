@@ -180,7 +180,7 @@ const UNITS: Record<QuantityKind, { default: string; units: UnitDef[] }> = {
       { names: ["W", "watt", "watts"], factor: 1 },
       { names: ["kW"], factor: 1e3 },
       // mechanical horsepower, 745.69987 W (NIST SP 811)
-      { names: ["hp", "HP"], factor: 745.69987158227022 },
+      { names: ["hp", "HP"], factor: 745.6998715822702 },
     ],
   },
   current_density: {

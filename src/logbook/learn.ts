@@ -16,8 +16,8 @@
 import type { Job } from "../job/schema.js";
 import type { PlanOptions } from "../design/plan.js";
 import { calibrateOriginal } from "../design/calibration.js";
-import { coilTurnLengths, meanOf, OLD_WIRE_OVERALL_RATIO, type ArmatureContext } from "../design/context.js";
-import { bundleThickness, fitEndTurnFactor, ridingIncrement } from "../armature/turn.js";
+import { buildContext, fitToOldTurn, layingOverall, type ArmatureContext } from "../design/context.js";
+import { bundleThickness } from "../armature/turn.js";
 import { contextFor } from "./predict.js";
 import type { LogRecord } from "./record.js";
 
@@ -37,14 +37,14 @@ const mean = (xs: number[]) => xs.reduce((s, x) => s + x, 0) / xs.length;
 
 /** The end-turn factor a record's effective turn length implies on this armature (null when it implies none). */
 export function recordEndTurnFactor(ctx: ArmatureContext, r: Pick<LogRecord, "winding" | "derived">): number | null {
-  const spec = ctx.layout.spec;
-  const overall = (r.winding.wire.overall_diameter_mm ?? r.winding.wire.bare_diameter_mm * OLD_WIRE_OVERALL_RATIO) / 1e3;
-  const b = bundleThickness(r.winding.turns, r.winding.strands, overall, ctx.along);
-  const riding = meanOf(
-    ctx.layout.coils.map((c) => (c.dead ? 0 : ridingIncrement(c.rides_over, spec.coils_per_slot, spec.span, b))),
-    ctx.layout,
-  );
-  const f = fitEndTurnFactor(r.derived.mean_turn_length_mm / 1e3 - riding, spec.style, ctx.core, spec.span, b);
+  const w = r.winding.wire;
+  const { overall } = layingOverall({
+    label: w.label,
+    bare_diameter: w.bare_diameter_mm / 1e3,
+    overall_diameter: w.overall_diameter_mm === null ? null : w.overall_diameter_mm / 1e3,
+    overall_source: w.overall_diameter_mm === null ? "none" : "published",
+  });
+  const f = fitToOldTurn(ctx, r.derived.mean_turn_length_mm / 1e3, bundleThickness(r.winding.turns, r.winding.strands, overall, ctx.along));
   return Number.isFinite(f) && f > 0 ? f : null;
 }
 
@@ -93,16 +93,14 @@ export function learnFromRecords(job: Job, records: { file?: string; record: Log
   if (factors.length && ctx.mltSource !== "measured") {
     const f = mean(factors);
     options.mltFactor = f;
-    const o = ctx.original;
-    const oOverall = o.wire.overall_diameter ?? o.wire.bare_diameter * OLD_WIRE_OVERALL_RATIO;
-    const after = meanOf(coilTurnLengths({ ...ctx, mltFactor: f }, o.turns, o.strands, oOverall), ctx.layout);
-    moves.push({ figure: "mean turn length (original build)", from: o.mlt * 1e3, to: after * 1e3, unit: "mm" });
+    const after = buildContext(job, { mltFactor: f }).original.mlt;
+    moves.push({ figure: "mean turn length (original build)", from: ctx.original.mlt * 1e3, to: after * 1e3, unit: "mm" });
   }
   if (kes.length) options.ke = mean(kes);
   if (losses.length) options.loss = { tc: mean(losses), b: 0 };
   // what the plan's calibration does with them (a bench test of the job itself wins)
   const before = calibrateOriginal(ctx).calibration;
-  const ctx1 = options.mltFactor !== undefined ? { ...ctx, mltFactor: options.mltFactor } : ctx;
+  const ctx1 = options.mltFactor !== undefined ? buildContext(job, { mltFactor: options.mltFactor }) : ctx;
   const after = calibrateOriginal(ctx1, options).calibration;
   if (after.ke !== null && after.ke !== before.ke) moves.push({ figure: "Ke (original winding)", from: before.ke ?? NaN, to: after.ke, unit: "V·s/rad" });
   if (after.loss.tc !== before.loss.tc) moves.push({ figure: "loss torque", from: before.loss.tc * 1e3, to: after.loss.tc * 1e3, unit: "mN·m" });

@@ -1,21 +1,22 @@
 /**
  * What the plan predicts for the winding actually laid: the planned one, or the turns, wire and
- * strands the measured file says were wound instead. Pure: built from the same pieces `planJob`
- * uses (the armature context, the plan's calibration, the ring network), so for the planned winding
- * the figures are the plan's own (a test holds them equal).
+ * strands the measured file says were wound instead. Pure: the full evaluation of that winding
+ * (src/design/evaluate.ts) on the same armature (the logbook's correction applied as the plan
+ * applied it) with the plan's calibration; nothing is copied from the plan, so a test comparing
+ * the two compares two computations.
  *
  * Units: SI (Ω, m, V, A, rad/s, N·m); temperatures °C.
  */
 import type { Job } from "../job/schema.js";
 import type { Plan } from "../design/types.js";
 import type { PlanOptions } from "../design/plan.js";
-import { buildContext, coilResistance, coilTurnLengths, meanOf, type ArmatureContext } from "../design/context.js";
-import { barToBar, terminalResistance } from "../winding/ring.js";
+import { buildContext, type ArmatureContext } from "../design/context.js";
+import { evaluateWinding, type FullEvaluation } from "../design/evaluate.js";
+import { motorPhysicsFor } from "../design/motor.js";
+import { stallCurrent } from "../motor/model.js";
 import { resolveWire } from "../wire/catalogue.js";
 import type { Wire, WireSpec } from "../wire/types.js";
 import { copperFactor } from "../wire/copper.js";
-import { noLoad, type MotorModel } from "../motor/model.js";
-import { OLD_WIRE_OVERALL_RATIO } from "../design/context.js";
 import type { WindingLayout } from "../winding/types.js";
 
 export interface WoundInput {
@@ -50,23 +51,22 @@ export interface Prediction {
   series: boolean;
   /** The original's turns per coil (Ke scales from it). */
   original_turns: number;
+  /** The full evaluation this prediction reads (the plan's own when nothing differs). */
+  evaluation: FullEvaluation;
+  /** The job (for the motor model of its field). */
+  job: Job;
+  calibration: Plan["calibration"];
 }
 
-/** The armature context as `planJob` sets it up for these options (the logbook's turn-length factor applied). */
+/** The armature as `planJob` builds it for these options (the logbook's turn-length factor applied). */
 export function contextFor(job: Job, options: PlanOptions = {}): ArmatureContext {
-  const ctx = buildContext(job);
-  if (options.logbook?.mltFactor !== undefined && ctx.mltSource !== "measured") {
-    ctx.mltFactor = options.logbook.mltFactor;
-    ctx.mltSource = "logbook";
-  }
-  return ctx;
+  return buildContext(job, { mltFactor: options.logbook?.mltFactor });
 }
 
 /**
  * Predict the readings of the winding laid: `wound` overrides the plan's turns, wire and strands
- * where given. Coil resistance R = ρ20·N·MLT/(k·A) per coil with its own turn length (DESIGN.md
- * "Coil resistance"), the ring network for bar-to-bar and terminal figures, Ke scaled by turns
- * (Ke_new = Ke_orig·N_new/N_orig, DESIGN.md "Calibration of Ke").
+ * where given; the full evaluation of that winding (each coil R = ρ20·N·MLT/(k·A) with its own
+ * turn length, the ring network, Ke scaled by turns) with the plan's calibration.
  */
 export function predictWound(job: Job, plan: Plan, wound: WoundInput | undefined, options: PlanOptions = {}): Prediction {
   const d = plan.design;
@@ -77,58 +77,39 @@ export function predictWound(job: Job, plan: Plan, wound: WoundInput | undefined
   if (turns !== d.turns) differences.push(`turns ${d.turns} → ${turns}`);
   if (wire.label !== d.wire.label) differences.push(`wire ${d.wire.label} → ${wire.label}`);
   if (strands !== d.strands) differences.push(`strands ${d.strands} → ${strands}`);
-  const differs = differences.length > 0;
-  let coilOhm: number[];
-  let coilMlt: number[];
-  let layout: WindingLayout;
-  if (!differs) {
-    coilOhm = plan.coils.map((c) => c.ohm);
-    coilMlt = plan.coils.map((c) => c.mlt);
-    layout = plan.layout;
-  } else {
-    const ctx = contextFor(job, options);
-    layout = ctx.layout;
-    const overall = wire.overall_diameter ?? wire.bare_diameter * OLD_WIRE_OVERALL_RATIO;
-    coilMlt = coilTurnLengths(ctx, turns, strands, overall);
-    coilOhm = coilMlt.map((m) => coilResistance(turns, m, strands, wire.area));
-  }
-  const t = terminalResistance(layout, coilOhm);
+  const ctx = contextFor(job, options);
   const cal = plan.calibration;
+  const e = evaluateWinding(ctx, cal, { turns, wire, strands }, "full");
   return {
     turns,
     strands,
     wire,
-    differs,
+    differs: differences.length > 0,
     differences,
-    layout,
-    coil_ohm: coilOhm,
-    coil_mlt: coilMlt,
-    mlt: meanOf(coilMlt, layout),
-    bar_to_bar: barToBar(layout, coilOhm),
-    terminal: { single: t.single, bridged: t.bridged, min: Math.min(t.min, t.bridged, t.single), max: Math.max(t.max, t.single) },
-    ke: cal.ke === null ? null : (cal.ke * turns) / plan.original.turns,
+    layout: ctx.layout,
+    coil_ohm: e.coil_ohms,
+    coil_mlt: e.coil_mlt,
+    mlt: e.mlt,
+    bar_to_bar: e.ring.bar_to_bar,
+    terminal: { single: e.ring.single, bridged: e.ring.bridged, min: e.ring.min, max: e.ring.max },
+    ke: e.ke,
     brush_drop: cal.brush_drop,
     loss: cal.loss,
     series: job.armature.field === "series",
-    original_turns: plan.original.turns,
+    original_turns: ctx.original.turns,
+    evaluation: e,
+    job,
+    calibration: cal,
   };
 }
 
-/** The constant-field motor model of a prediction with the winding at tC °C; null for series fields or without Ke. */
-export function modelAt(p: Prediction, tC: number): MotorModel | null {
-  if (p.ke === null || p.series) return null;
-  return { ke: p.ke, resistance: p.terminal.single * copperFactor(tC), brushDrop: p.brush_drop, loss: p.loss, field: "constant" };
-}
-
-/** Predicted no-load speed (rad/s) and current (A) at supply V (V), winding at tC °C (the linear model, DESIGN.md "Steady state"). */
+/** Predicted no-load speed (rad/s) and current (A) at supply V (V), winding at tC °C (the job's motor model); null without Ke or for a series field. */
 export function predictNoLoad(p: Prediction, V: number, tC: number): { speed: number; current: number } | null {
-  const m = modelAt(p, tC);
-  if (!m) return null;
-  const r = noLoad(m, V);
-  return { speed: r.speed, current: r.current };
+  if (p.ke === null) return null;
+  return motorPhysicsFor(p.job).noLoad(p.ke, p.terminal.single * copperFactor(tC), p.calibration, V);
 }
 
-/** Predicted brief stall current (A) at supply V (V), winding at tC °C: (V − V_brush)/R (DESIGN.md "Steady state"). */
+/** Predicted brief stall current (A) at supply V (V), winding at tC °C: (V − V_brush)/R (src/motor/model.ts `stallCurrent`). */
 export function predictStall(p: Prediction, V: number, tC: number): number {
-  return Math.max(0, V - p.brush_drop) / (p.terminal.single * copperFactor(tC));
+  return stallCurrent(p.terminal.single * copperFactor(tC), p.brush_drop, V);
 }

@@ -106,9 +106,18 @@ export function noLoad(model: MotorModel, V: number): { speed: number; current: 
  * Source: the linear model at ω = 0.
  */
 export function stall(model: MotorModel, V: number): { current: number; torque: number } {
-  const Vd = constantField(model, V);
-  const current = Vd / model.resistance;
+  constantField(model, V);
+  const current = stallCurrent(model.resistance, model.brushDrop, V);
   return { current, torque: Math.max(0, model.ke * current - model.loss.tc) };
+}
+
+/**
+ * Stall current (A) through resistance `resistance` (Ω) at supply V (V) with brush drop V_b (V):
+ * (V − V_b)/R, 0 below the brush drop. Needs no field model: the rotor is still, so no back-EMF.
+ * Source: the armature equation at ω = 0.
+ */
+export function stallCurrent(resistance: number, brushDrop: number, V: number): number {
+  return Math.max(0, V - brushDrop) / resistance;
 }
 
 /**
@@ -118,16 +127,10 @@ export function stall(model: MotorModel, V: number): { current: number; torque: 
  * Source: the linear model above, solved.
  */
 export function atTorque(model: MotorModel, V: number, torque: number, path = "target.duty.torque"): OperatingPoint {
-  const Vd = constantField(model, V);
   requireNonNegative(torque, "load torque", path);
-  const { ke, resistance: R } = model;
-  const { tc, b } = model.loss;
-  const st = stall(model, V);
-  const current = (ke * (torque + tc) + b * Vd) / (ke * ke + b * R);
-  let speed = (Vd - current * R) / ke;
-  const scale = Vd / ke;
-  if (speed < 0 && speed > -1e-9 * scale) speed = 0;
-  if (speed < 0 || st.torque <= 0) {
+  const p = pointAtTorque(model, V, torque);
+  if (p === null) {
+    const st = stall(model, V);
     throw inputError(
       "beyond_stall",
       path,
@@ -135,6 +138,23 @@ export function atTorque(model: MotorModel, V: number, torque: number, path = "t
         `(stall current ${fmt(st.current)} A); choose a torque below ${fmt(st.torque)} N·m or a higher supply`,
     );
   }
+  return p;
+}
+
+/**
+ * The operating point at shaft torque `torque` (N·m) and supply V (V), as `atTorque`, or null when
+ * the torque is beyond stall (the sweep asks for many windings and needs no message).
+ * Closed form: I = (Ke·(T + T_c) + B·(V − V_b)) / (Ke² + B·R) A, ω = (V − V_b − I·R)/Ke rad/s.
+ */
+export function pointAtTorque(model: MotorModel, V: number, torque: number): OperatingPoint | null {
+  const Vd = constantField(model, V);
+  const { ke, resistance: R } = model;
+  const { tc, b } = model.loss;
+  const current = (ke * (torque + tc) + b * Vd) / (ke * ke + b * R);
+  let speed = (Vd - current * R) / ke;
+  const scale = Vd / ke;
+  if (speed < 0 && speed > -1e-9 * scale) speed = 0;
+  if (speed < 0 || ke * stallCurrent(R, model.brushDrop, V) - tc <= 0) return null;
   return point(V, torque, speed, current);
 }
 

@@ -339,6 +339,21 @@ export function barsUnderBrush(C: number, centre: number, width: number): number
 }
 
 /**
+ * The bar under each brush for the `single` terminal figure, + and − alternately (see
+ * `terminalResistance`): tooth and lap, brush j on bar 1 + ⌊j·C/P⌋; wave, + on bar 1 and − on the
+ * bar ⌊C/2⌋ coils on along the circuit.
+ */
+export function singleBrushBars(layout: WindingLayout): number[] {
+  const C = layout.bars;
+  if (layout.spec.style === "wave") {
+    const chainBars = layout.circuit_order.map((k) => layout.coils[k - 1].start_bar!);
+    return [1, chainBars[Math.floor(chainBars.length / 2)]];
+  }
+  const P = layout.spec.poles;
+  return Array.from({ length: layout.spec.brushes.count }, (_, j) => 1 + Math.floor((j * C) / P));
+}
+
+/**
  * Terminal resistance between the brush leads (Ω), brushes excluded.
  *
  * Brush placement (DESIGN.md "The `plan --json` output"; neutral-axis placement, from memory of
@@ -376,9 +391,7 @@ export function terminalResistance(layout: WindingLayout, coilOhm: number[]): Te
   let single: number;
   let bridged: number;
   if (layout.spec.style === "wave") {
-    const chainBars = layout.circuit_order.map((k) => layout.coils[k - 1].start_bar!);
-    const live = chainBars.length;
-    const b2 = chainBars[Math.floor(live / 2)];
+    const b2 = singleBrushBars(layout)[1];
     single = measure([[1], [b2]]);
     bridged = measure([
       [1, 2],
@@ -389,13 +402,8 @@ export function terminalResistance(layout: WindingLayout, coilOhm: number[]): Te
       validity.push(`C/P = ${fmtBars(C / P)} is not whole: turning the rotor, the brushes are never both on single bars, so max may be below single`);
     }
   } else {
-    const pos = (j: number) => 1 + Math.floor((j * C) / P);
-    const brushesSingle: number[][] = [];
-    const brushesBridged: number[][] = [];
-    for (let j = 0; j < count; j++) {
-      brushesSingle.push([pos(j)]);
-      brushesBridged.push([pos(j), mod1(pos(j) + 1, C)]);
-    }
+    const brushesSingle = singleBrushBars(layout).map((b) => [b]);
+    const brushesBridged = brushesSingle.map(([b]) => [b, mod1(b + 1, C)]);
     single = measure(brushesSingle);
     bridged = measure(brushesBridged);
     validity.push(`${count} brushes on bars ${brushesSingle.map((b) => b[0]).join(", ")} (+ and − alternately), ${fmtBars(C / P)} bars apart`);

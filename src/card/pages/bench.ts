@@ -33,7 +33,7 @@ export function benchPage(s: Sheet, plan: Plan): void {
   s.subheading("1. Bar to bar, brushes lifted", `expected at 20 °C; r_i is bar i to bar i+1, r${C} bar ${C} to bar 1`);
   // the rules `log` and `diagnose` apply, in their words (src/bench/rules.ts)
   const tol = SPREAD.fraction;
-  const res = DEFAULT_METER_RESOLUTION_OHM;
+  const res = s.context.meterResolution ?? DEFAULT_METER_RESOLUTION_OHM;
   const calibrated = plan.wire.mlt_source !== "model";
   const expectedMedian = median(r.bar_to_bar);
   const level = levelWindow(calibrated, plan.design.wire.bare_diameter, res, expectedMedian);
@@ -52,16 +52,20 @@ export function benchPage(s: Sheet, plan: Plan): void {
     },
     { heavy: advice !== null, estimate: advice ? 40 : 14 },
   );
-  const sets = Math.max(1, B.column_sets);
+  // two sets of columns side by side when the widest window fits its column, else one
+  const windowText = (v: number) => `${ohm(v * (1 - level))}–${ohm(v * (1 + level))}`;
+  const widest = Math.max(...r.bar_to_bar.map((v) => s.widthOf(windowText(v), { size: T.table + 1, bold: true })));
+  const fits = (n: number) => ((s.width - (n - 1) * 12) / n) * 0.29 - 4 >= widest;
+  const sets = Math.max(1, B.column_sets) > 1 && fits(Math.max(1, B.column_sets)) ? Math.max(1, B.column_sets) : 1;
   const setW = (s.width - (sets - 1) * 12) / sets;
-  const cols = [0.12, 0.16, 0.34, 0.38].map((f) => f * setW);
+  const cols = [0.11, 0.15, 0.21, 0.29, 0.24].map((f) => f * setW);
   const rows = r.bar_to_bar.map((v, i) => ({ i: i + 1, bars: `${i + 1}–${i + 2 > C ? 1 : i + 2}`, v }));
   const rh = B.row_height;
   const header = (y: number) => {
     for (let k = 0; k < sets; k++) {
       const x = s.left + k * (setW + 12);
       s.doc.save().rect(x, y, setW, 15).fill("#e6e6e6").restore();
-      const heads = ["pair", "bars", "expected Ω", "your reading Ω"];
+      const heads = ["pair", "bars", "expected Ω", "median window Ω", "your reading Ω"];
       let cx = x + 3;
       heads.forEach((h, j) => {
         s.at(h, cx, y + 3.5, { size: T.small, bold: true });
@@ -85,9 +89,11 @@ export function benchPage(s: Sheet, plan: Plan): void {
         cx += cols[0];
         s.at(row.bars, cx, y + 5, { size: T.table });
         cx += cols[1];
-        s.at(ohm(row.v), cx, y + 2, { size: T.table + 1, bold: true });
-        s.at(`median ${ohm(row.v * (1 - level))}–${ohm(row.v * (1 + level))}`, cx, y + 12, { size: 6.5, grey: 0.3 });
+        // the window in the same size as the expected value: it is the number the winder compares with
+        s.at(ohm(row.v), cx, y + 4, { size: T.table + 1, bold: true });
         cx += cols[2];
+        s.at(windowText(row.v), cx, y + 4, { size: T.table + 1, bold: true });
+        cx += cols[3];
         s.doc.save().lineWidth(0.6).moveTo(cx, y + rh - 2).lineTo(x + setW - 4, y + rh - 2).stroke().restore();
       }
     }

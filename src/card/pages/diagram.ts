@@ -296,7 +296,7 @@ function developedDiagram(s: Sheet, plan: Plan): void {
     `Unrolled, seen from outside with the commutator at the bottom; slots and bars numbered left to right, which is clockwise seen from the commutator end. ` +
       `Each coil runs from its start bar up to its go slot (top layer), over the back end to its return slot (bottom layer) and down to its finish bar; ${shown}; coil 1 is the heavy line. ` +
       `${lay.spec.style === "wave" ? `Wave: each coil's finish goes ${sig(lay.commutator_pitch)} bars on from its start. ` : ""}` +
-      `The rotor is drawn where coil 1 commutates: brush B1 bridges bar 1 and the next bar of the circuit${lay.spec.brushes.count > 1 ? ", the others one pole pitch apart" : ""}. Bar 1 is shaded.`,
+      `The rotor is drawn where coil 1 commutates: brush B1 bridges bars 1 and 2 (a brush always bridges two adjacent bars)${lay.spec.brushes.count > 1 ? ", the others one pole pitch apart" : ""}. Bar 1 is shaded.`,
     { size: T.body },
   );
 }

@@ -10,7 +10,8 @@ export function jobPage(s: Sheet, plan: Plan): void {
   const d = plan.design;
   const sp = plan.layout.spec;
   s.newPage();
-  s.at("ARMATURE REWIND — JOB CARD", s.left, s.y, { size: T.small, bold: true, grey: 0.35 });
+  const where = [s.context.shop, s.context.bench ? `bench ${s.context.bench}` : undefined].filter(Boolean).join("  ·  ");
+  s.at(`ARMATURE REWIND — JOB CARD${where ? `  ·  ${where}` : ""}`, s.left, s.y, { size: T.small, bold: true, grey: 0.35, width: s.width });
   s.y += T.small * 1.6;
   s.para(j.id, { size: T.title, bold: true, after: 2 });
   s.para(j.title, { size: T.subheading, after: 2 });

@@ -1,6 +1,6 @@
 /** Page 2, coil by coil in winding order: hook, go slot → return slot, turns with tally boxes, finish hook, a tick per coil. */
 import type { CoilPlan, Plan } from "../../design/types.js";
-import { tallyBoxes, tallyGroups } from "../layout.js";
+import { tallyBoxes, tallyGroups, type CardLayout, type TallyBox } from "../layout.js";
 import type { Sheet } from "../sheet.js";
 import { DEAD_COIL, isDead, sideText } from "../text.js";
 
@@ -18,6 +18,64 @@ function routeLines(plan: Plan, c: CoilPlan): [string, string] {
   if (sp.style === "tooth") return [`round tooth ${c.go_slot}`, `slot ${c.go_slot} → slot ${c.return_slot}, ${c.direction ?? sp.direction}`];
   const u = sp.coils_per_slot;
   return [`${c.go_slot} → ${c.return_slot}`, `${sideText(c.go_slot, c.go_layer, c.go_position, u)} → ${sideText(c.return_slot, c.return_layer, c.return_position, u)}`];
+}
+
+interface RowText {
+  main: string;
+  detail: string;
+  mainH: number;
+  /** Height of the route text (main and detail, or the dead coil's line), pt. */
+  height: number;
+  dead?: string;
+}
+
+/** A coil row's text, measured at the widths it will be drawn at. */
+function coilRow(s: Sheet, plan: Plan, c: CoilPlan, width: number, deadWidth: number): RowText {
+  const T = s.L.type;
+  if (isDead(c)) {
+    const dead = `${coilRoute(plan, c)} — ${DEAD_COIL}`;
+    const h = s.measure(dead, { size: T.step - 1, bold: true, width: deadWidth });
+    return { main: "", detail: "", mainH: h, height: h, dead };
+  }
+  const [main, detail] = routeLines(plan, c);
+  const mainH = s.measure(main, { size: T.step, bold: true, width });
+  const detailH = detail ? s.measure(detail, { size: T.step - 3, width }) + 1 : 0;
+  return { main, detail, mainH, height: mainH + detailH };
+}
+
+interface TallyGeometry {
+  step: number;
+  groups: TallyBox[][];
+  groupsPerLine: number;
+  lineH: number;
+  height: number;
+}
+
+/** Where the tally boxes go in a column `width` pt wide (one rule for every turn count: layout.ts). */
+function tallyGeometry(turns: number, tl: CardLayout["tally"], width: number): TallyGeometry {
+  const { step, boxes } = tallyBoxes(turns, tl);
+  const groups = tallyGroups(boxes, tl.group_size);
+  const groupW = tl.group_size * (tl.box + tl.gap) - tl.gap;
+  const groupsPerLine = Math.max(1, Math.floor((width + tl.group_gap) / (groupW + tl.group_gap)));
+  const lineH = tl.box + tl.label_size * 1.25 + 3;
+  return { step, groups, groupsPerLine, lineH, height: Math.ceil(groups.length / groupsPerLine) * lineH };
+}
+
+/** Draw the tally: boxes in groups with a gap, the running count under each box in bold. */
+function drawTally(s: Sheet, g: TallyGeometry, x0: number, y0: number): void {
+  const tl = s.L.tally;
+  const groupW = tl.group_size * (tl.box + tl.gap) - tl.gap;
+  g.groups.forEach((grp, gi) => {
+    const ty = y0 + Math.floor(gi / g.groupsPerLine) * g.lineH;
+    const gx = x0 + (gi % g.groupsPerLine) * (groupW + tl.group_gap);
+    grp.forEach((b, bi) => {
+      const bx = gx + bi * (tl.box + tl.gap);
+      s.doc.save().lineWidth(1).rect(bx, ty, tl.box, tl.box).stroke().restore();
+      const label = String(b.upTo);
+      const w = s.widthOf(label, { size: tl.label_size, bold: true });
+      s.at(label, bx + tl.box / 2 - w / 2, ty + tl.box + 1.5, { size: tl.label_size, bold: true });
+    });
+  });
 }
 
 export function stepsPage(s: Sheet, plan: Plan): void {
@@ -40,31 +98,26 @@ export function stepsPage(s: Sheet, plan: Plan): void {
     finish: s.left + cw.tick + cw.coil + cw.start + cw.slots,
     tally: s.left + cw.tick + cw.coil + cw.start + cw.slots + cw.finish,
   };
-  const tallyW = s.right - x.tally;
   const tl = s.L.tally;
-  const { step, boxes } = tallyBoxes(plan.design.turns, tl);
-  const groups = tallyGroups(boxes, tl.group_size);
-  const groupW = tl.group_size * (tl.box + tl.gap) - tl.gap;
-  const groupsPerLine = Math.max(1, Math.floor((tallyW + tl.group_gap) / (groupW + tl.group_gap)));
-  const tallyLines = Math.ceil(groups.length / groupsPerLine);
-  const labelSize = 7;
-  const lineH = tl.box + labelSize + 4;
-  const rowH = Math.max(s.L.steps.row_min_height, tallyLines * lineH + 6);
-
+  const tally = tallyGeometry(plan.design.turns, tl, s.right - x.tally);
   const header = () => {
     const y = s.y;
     s.doc.save().rect(s.left, y, s.width, 16).fill("#e6e6e6").restore();
     const o = { size: T.small, bold: true };
     s.at("done", x.tick + 1, y + 4, o);
     s.at("coil", x.coil, y + 4, o);
-    s.at("start bar", x.start, y + 4, o);
+    s.at("start", x.start, y + 4, o);
     s.at(sp.style === "tooth" ? "tooth, slots, sense" : "go slot → return slot", x.slots, y + 4, o);
-    s.at("finish bar", x.finish, y + 4, o);
-    s.at(step === 1 ? "tally: 1 box = 1 turn" : `tally: 1 box = ${step} turns`, x.tally, y + 4, o);
+    s.at("finish", x.finish, y + 4, o);
+    s.at(tally.step === 1 ? "tally: 1 box = 1 turn" : `tally: 1 box = ${tally.step} turns, groups of ${tally.step * tl.group_size}`, x.tally, y + 4, o);
     s.y += 18;
   };
+  // a coil row is measured whole before it is placed, and never split across pages
+  const rows = plan.coils.map((c) => coilRow(s, plan, c, cw.slots - 4, x.tally - x.start - 6));
   header();
-  for (const c of plan.coils) {
+  plan.coils.forEach((c, ci) => {
+    const text = rows[ci];
+    const rowH = Math.max(s.L.steps.row_min_height, tally.height + 6, text.height + 8);
     if (s.y + rowH > s.bottom) {
       s.need(s.bottom);
       header();
@@ -73,31 +126,19 @@ export function stepsPage(s: Sheet, plan: Plan): void {
     const mid = y + rowH / 2;
     s.tickBox(x.tick + 2, mid - s.L.tick_box / 2, s.L.tick_box, true);
     s.at(String(c.index), x.coil, mid - T.step * 0.6, { size: T.step + 2, bold: true });
-    if (isDead(c)) {
-      s.at(`${coilRoute(plan, c)} — ${DEAD_COIL}`, x.start, mid - T.step * 0.9, { size: T.step - 1, bold: true, width: x.tally - x.start - 6 });
+    const ty = y + (rowH - text.height) / 2;
+    if (text.dead !== undefined) {
+      s.at(text.dead, x.start, ty, { size: T.step - 1, bold: true, width: x.tally - x.start - 6 });
     } else {
       s.at(String(c.start_bar), x.start + 4, mid - T.step * 0.6, { size: T.step + 2, bold: true });
-      const [main, detail] = routeLines(plan, c);
-      s.at(main, x.slots, mid - T.step * (detail ? 1.1 : 0.6), { size: T.step, bold: true, width: cw.slots - 4 });
-      if (detail) s.at(detail, x.slots, mid + T.step * 0.15, { size: T.step - 2, width: cw.slots - 4 });
+      s.at(text.main, x.slots, ty, { size: T.step, bold: true, width: cw.slots - 4 });
+      if (text.detail) s.at(text.detail, x.slots, ty + text.mainH + 1, { size: T.step - 3, width: cw.slots - 4 });
       s.at(String(c.end_bar), x.finish + 4, mid - T.step * 0.6, { size: T.step + 2, bold: true });
     }
-    // tally
-    let ty = y + 3;
-    groups.forEach((g, gi) => {
-      const line = Math.floor(gi / groupsPerLine);
-      const col = gi % groupsPerLine;
-      ty = y + 3 + line * lineH;
-      const gx = x.tally + col * (groupW + tl.group_gap);
-      g.forEach((b, bi) => {
-        const bx = gx + bi * (tl.box + tl.gap);
-        s.doc.save().lineWidth(0.8).rect(bx, ty, tl.box, tl.box).stroke().restore();
-        s.at(String(b.upTo), bx - 3, ty + tl.box + 1, { size: labelSize, width: tl.box + 6, align: "center", grey: 0.2 });
-      });
-    });
+    drawTally(s, tally, x.tally, y + (rowH - tally.height) / 2);
     s.y = y + rowH;
     s.doc.save().lineWidth(s.L.line_width.thin).strokeColor("#8c8c8c").moveTo(s.left, s.y).lineTo(s.right, s.y).stroke().restore();
-  }
+  });
   s.y += 8;
   s.para(
     `${plan.coils.length} coils. When all are wound: every bar holds two leads${plan.coils.some(isDead) ? " (the dead coil none)" : ""}; check the leads against the bench sheet before soldering.`,

@@ -1,0 +1,170 @@
+/**
+ * ONE evaluation of a winding (src/design/evaluate.ts): the sweep's cheap figures are the full
+ * evaluation's, over random armatures (tooth, lap and wave; slot counts, poles, spans, stacks, slot
+ * sizes, turn-length sources) and random candidates (turns, stock wire, strands in hand).
+ *
+ * Both modes compute with the same functions; the cheap one gets the terminal reading of coils of
+ * unequal turn length (lap and wave coils riding over earlier ones) in closed form from the arcs
+ * the brushes cut the winding into, the full one from the ring network (src/winding/ring.ts).
+ * Every figure agrees to rounding (1e-9 relative; the error fraction, a difference, to 1e-6).
+ */
+import fc from "fast-check";
+import { readFileSync } from "node:fs";
+import { describe, expect, it } from "vitest";
+import { buildContext, type ArmatureContext } from "../src/design/context.js";
+import type { Calibration } from "../src/design/types.js";
+import { calibrateOriginal } from "../src/design/calibration.js";
+import { makeEvaluator } from "../src/design/evaluate.js";
+import { planJob } from "../src/design/plan.js";
+import { defaultStock } from "../src/wire/catalogue.js";
+import { ArmwindError } from "../src/errors.js";
+import { loadJobText } from "./helpers/cli.js";
+
+const stock = defaultStock().filter((w) => w.bare_diameter <= 0.8e-3);
+
+interface Arm {
+  style: "tooth" | "lap" | "wave";
+  slots: number;
+  poles: number;
+  u: number;
+  spanFrac: number;
+  stack: number;
+  rotor: number;
+  depth: number;
+  turns: number;
+  wireMm: number;
+  mltSource: "model" | "length" | "measured";
+  goal: "no_load_speed" | "kv" | "duty" | "stall_current";
+}
+
+const arbArm: fc.Arbitrary<Arm> = fc.record({
+  style: fc.constantFrom("tooth", "lap", "wave") as fc.Arbitrary<Arm["style"]>,
+  slots: fc.integer({ min: 3, max: 31 }),
+  poles: fc.constantFrom(2, 2, 4),
+  u: fc.integer({ min: 1, max: 3 }),
+  spanFrac: fc.double({ min: 0.6, max: 1, noNaN: true }),
+  stack: fc.integer({ min: 8, max: 60 }),
+  rotor: fc.integer({ min: 16, max: 80 }),
+  depth: fc.double({ min: 0.15, max: 0.3, noNaN: true }),
+  turns: fc.integer({ min: 5, max: 80 }),
+  wireMm: fc.constantFrom(0.2, 0.25, 0.315, 0.4, 0.5, 0.63),
+  mltSource: fc.constantFrom("model", "length", "measured") as fc.Arbitrary<Arm["mltSource"]>,
+  goal: fc.constantFrom("no_load_speed", "kv", "duty", "stall_current") as fc.Arbitrary<Arm["goal"]>,
+});
+
+/** A job text for a random armature (invented values, test data only); null when the layout cannot exist. */
+function jobText(a: Arm): string | null {
+  const u = a.style === "tooth" ? 1 : a.u;
+  const bars = a.slots * u;
+  if (a.style === "wave" && ((bars + 1) % (a.poles / 2) !== 0 || a.poles === 2)) return null;
+  if (a.style === "lap" && a.poles > 2 && (a.slots % (a.poles / 2) !== 0 || bars % (a.poles / 2) !== 0)) return null;
+  const span = a.style === "tooth" ? 1 : Math.max(1, Math.round((a.spanFrac * a.slots) / a.poles));
+  const depth = a.rotor * a.depth;
+  const pitch = (Math.PI * (a.rotor - depth)) / a.slots;
+  const wTop = pitch * 0.55;
+  const wBottom = pitch * 0.4;
+  if (wBottom < 1) return null;
+  const goalLine = {
+    no_load_speed: "goal: no_load_speed\n  no_load_speed: 6000 rpm\n  tolerance: 0.1",
+    kv: "goal: kv\n  kv: 500 rpm/V\n  tolerance: 0.1",
+    duty: "goal: duty\n  duty: { torque: 5 mN m, speed: 4000 rpm }\n  tolerance: 0.1\n  limits: { current_density: 12 A/mm2 }",
+    stall_current: "goal: stall_current\n  stall_current: 5 A\n  tolerance: 0.2\n  rated_current: 1 A",
+  }[a.goal];
+  const mlt = a.mltSource === "measured" ? `  mean_turn_length: ${2 * a.stack + (a.style === "tooth" ? 1 : 2.5) * a.rotor} mm\n` : "";
+  const len = a.mltSource === "length" ? `  wire_length: ${(((2 * a.stack + 1.2 * a.rotor) * a.turns * bars) / 1000).toFixed(2)} m\n` : "";
+  return `version: 1
+id: prop-job
+title: random armature (invented)
+armature:
+  slots: ${a.slots}
+  bars: ${bars}
+  field_poles: ${a.poles}
+  field: permanent_magnet
+  stack_length: ${a.stack} mm
+  rotor_diameter: ${a.rotor} mm
+  tooth_width: ${(pitch * 0.45).toFixed(2)} mm
+  slot: { width_top: ${wTop.toFixed(2)} mm, width_bottom: ${wBottom.toFixed(2)} mm, depth: ${depth.toFixed(2)} mm, opening: ${(wTop * 0.6).toFixed(2)} mm, liner: 0.15 mm }
+winding:
+  style: ${a.style}
+  span: ${span}
+  coils_per_slot: ${u}
+${mlt}  brushes: { count: 2, width_bars: 1, material: carbon }
+original:
+  turns: ${a.turns}
+  wire: ${a.wireMm} mm
+${len}  tests:
+    - { supply: 12 V, no_load_current: 0.3 A, no_load_speed: 5000 rpm }
+target:
+  supply: 12 V
+  ${goalLine}
+max_in_hand: 3
+`;
+}
+
+describe("the sweep's figures are the full evaluation's (property)", () => {
+  it("over random armatures and candidates", () => {
+    let checked = 0;
+    let unequal = 0;
+    fc.assert(
+      fc.property(arbArm, fc.array(fc.tuple(fc.integer({ min: 1, max: 150 }), fc.integer({ min: 0, max: stock.length - 1 }), fc.integer({ min: 1, max: 3 })), { minLength: 1, maxLength: 6 }), (a, picks) => {
+        const text = jobText(a);
+        if (text === null) return;
+        let ctx: ArmatureContext;
+        let cal: Calibration;
+        try {
+          ctx = buildContext(loadJobText(text));
+          cal = calibrateOriginal(ctx).calibration;
+        } catch (e) {
+          if (e instanceof ArmwindError) return; // an armature the loader or the geometry refuses: not this property's concern
+          throw e;
+        }
+        const ev = makeEvaluator(ctx, cal);
+        const mlts = ctx.layout.coils.filter((c) => !c.dead).map((c) => c.rides_over);
+        const equalCoils = ctx.layout.spec.style === "tooth" || mlts.every((r) => r === mlts[0]);
+        for (const [turns, wi, strands] of picks) {
+          const w = { turns, wire: stock[wi], strands };
+          // more copper than a slot can hold is never swept (src/design/sweep.ts stops at the fill limit + 15 %)
+          if ((ctx.sides * turns * strands * w.wire.area) / ctx.slot.free_area > 0.6) continue;
+          const cheap = ev.evaluate(turns, w.wire, strands);
+          const full = ev.full(w);
+          checked++;
+          const same = (x: number | null, y: number | null, tol = 1e-9) => {
+            if (x === null || y === null) return expect(x).toBe(y);
+            expect(Math.abs(x - y)).toBeLessThanOrEqual(tol * Math.max(Math.abs(x), Math.abs(y), 1e-300));
+          };
+          same(cheap.copper_fill, full.copper_fill);
+          same(cheap.space_fill, full.space_fill);
+          expect(cheap.build).toEqual(full.build);
+          same(cheap.mlt, full.mlt);
+          same(cheap.coil_ohm, full.coil_ohm);
+          same(cheap.copper_mass, full.copper_mass);
+          same(cheap.ke, full.ke);
+          same(cheap.terminal_ohm, full.terminal_ohm);
+          same(cheap.terminal_hot_ohm, full.terminal_hot_ohm);
+          same(cheap.achieved, full.achieved);
+          same(cheap.error, full.error, 1e-6);
+          same(cheap.stall_current_hot, full.stall_current_hot);
+          same(cheap.stall_current_cold, full.stall_current_cold);
+          same(cheap.current_density, full.current_density);
+          same(cheap.duty_input_w, full.duty_input_w);
+          expect(cheap.rejected_because).toEqual(full.rejected_because);
+          expect(cheap.meets_goal).toBe(full.meets_goal);
+          if (!equalCoils) unequal++;
+        }
+      }),
+      { numRuns: 150 },
+    );
+    expect(checked).toBeGreaterThan(150);
+    expect(unequal).toBeGreaterThan(0);
+  });
+});
+
+describe("the plan lists full evaluations", () => {
+  it("every candidate the plan shows has the network's terminal reading (chair demo, a wave winding whose coils ride)", () => {
+    const job = loadJobText(readFileSync(new URL("../jobs/chair-wave-0045.yaml", import.meta.url), "utf8"));
+    const p = planJob(job);
+    expect(p.design.terminal_ohm).toBe(p.resistance.terminal_ohm);
+    const ev = makeEvaluator(buildContext(job), p.calibration);
+    for (const c of p.candidates) expect(c.terminal_ohm / ev.full({ turns: c.turns, wire: c.wire, strands: c.strands }).terminal_ohm - 1).toBeCloseTo(0, 12);
+  });
+});
