@@ -155,7 +155,7 @@ describe("exit statuses", () => {
     // every command the README's table lists
     const readme = readFileSync(join(ROOT, "README.md"), "utf8").split("## Commands")[1].split("### Exit statuses")[0];
     const listed = [...readme.matchAll(/^\| `(\w+)[ `]/gm)].map((m) => m[1]);
-    expect(listed).toEqual(["plan", "check", "card", "wires", "new", "schema", "log", "diagnose", "history"]);
+    expect(listed).toEqual(["plan", "check", "card", "wires", "new", "schema", "log", "diagnose", "history", "serve"]);
     for (const c of listed) {
       const r = await runMain([c, "--help"]);
       expect(r.status, c).toBe(0);

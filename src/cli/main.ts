@@ -58,6 +58,7 @@ const COMMANDS: { names: string[]; register: Register }[] = [
   { names: ["history"], register: async (y, io, s) => (await import("./history.js")).historyCommand(y, io, s) },
   { names: ["schema"], register: async (y, io, s) => (await import("./schema.js")).schemaCommand(y, io, s) },
   { names: ["new"], register: async (y, io, s) => (await import("./new.js")).newCommand(y, io, s) },
+  { names: ["serve"], register: async (y, io, s) => (await import("./serve.js")).serveCommand(y, io, s) },
 ];
 
 const isMain = process.argv[1] && /main\.(js|ts)$|armwind(\.mjs)?$/.test(process.argv[1]);

@@ -1,0 +1,126 @@
+/**
+ * Field edits from the job form applied to the job file's own text, so that comments, key order,
+ * alignment and the user's way of writing stay exactly as they were. The `yaml` package's Document
+ * API finds each value's place in the text (its source range); the edit replaces only those
+ * characters, removes only a removed key's lines, or adds a key's line under its parent.
+ * Pure: text in, text out.
+ */
+import { isMap, isPair, isScalar, parseDocument, stringify, type Document, type Node, type Pair, type YAMLMap } from "yaml";
+import { ArmwindError } from "../errors.js";
+
+/** One field of the form: its dotted path (`armature.slot.area`, `wire_stock[2]`) and the text typed ("" removes the key). */
+export interface FieldEdit {
+  path: string;
+  text: string;
+}
+
+/** A dotted path with bracketed indices as keys and indices: "wire_stock[2]" → ["wire_stock", 2]. */
+export function splitPath(path: string): (string | number)[] {
+  const parts: (string | number)[] = [];
+  for (const m of path.matchAll(/([^.[\]]+)|\[(\d+)\]/g)) parts.push(m[2] !== undefined ? Number(m[2]) : m[1]);
+  return parts;
+}
+
+function parse(text: string): Document {
+  const doc = parseDocument(text);
+  if (doc.errors.length) {
+    const e = doc.errors[0];
+    const at = e.linePos?.[0];
+    throw new ArmwindError({ code: "bad_yaml", path: "", message: e.message.split("\n")[0], line: at?.line, column: at?.col });
+  }
+  return doc;
+}
+
+/** The value as it goes on its line: what was typed when it is one line of valid YAML, else flow style. */
+function inline(edit: FieldEdit): string {
+  const typed = parseDocument(edit.text);
+  if (typed.errors.length) {
+    throw new ArmwindError({
+      code: "bad_yaml",
+      path: edit.path,
+      message: `"${edit.text}" is not a value YAML can read: ${typed.errors[0].message.split("\n")[0]}`,
+    });
+  }
+  const t = edit.text.trim();
+  if (!t.includes("\n") && !t.includes(" #") && !t.startsWith("#")) return t;
+  return stringify(typed.toJS(), { collectionStyle: "flow", lineWidth: 0 }).trim();
+}
+
+const lineStart = (text: string, at: number) => text.lastIndexOf("\n", at - 1) + 1;
+const lineEnd = (text: string, at: number) => {
+  const i = text.indexOf("\n", at);
+  return i < 0 ? text.length : i;
+};
+
+/** The pair that holds `key` in a map node. */
+function pairOf(map: YAMLMap, key: string | number): Pair | undefined {
+  return map.items.find((p) => isPair(p) && isScalar(p.key) && String(p.key.value) === String(key)) as Pair | undefined;
+}
+
+/** Insert `key: value` as the last entry of the block map at `parentPath` (created too when missing). */
+function insert(text: string, doc: Document, parentPath: (string | number)[], key: string, value: string): string {
+  const parent = parentPath.length ? (doc.getIn(parentPath, true) as Node | undefined) : (doc.contents as Node | null);
+  if (parent === undefined || parent === null) {
+    // the parent is missing too: add it, with this key under it
+    const up = parentPath.slice(0, -1);
+    const name = String(parentPath[parentPath.length - 1]);
+    return insert(text, doc, up, name, `\n${" ".repeat(2 * parentPath.length)}${key}: ${value}`);
+  }
+  if (!isMap(parent) || parent.flow || !parent.range) {
+    throw new ArmwindError({
+      code: "bad_yaml",
+      path: [...parentPath, key].join("."),
+      message: "cannot add a key inside a one-line { … } map from the form; edit the whole map's field or the file",
+    });
+  }
+  const last = parent.items[parent.items.length - 1] as Pair<Node, Node> | undefined;
+  if (!last || !isScalar(last.key) || !last.key.range)
+    throw new ArmwindError({ code: "bad_yaml", path: parentPath.join("."), message: "cannot add to an empty map from the form" });
+  const indent = last.key.range[0] - lineStart(text, last.key.range[0]);
+  const end = last.value?.range ? lineEnd(text, Math.max(last.value.range[1] - 1, last.key.range[1])) : lineEnd(text, last.key.range[1]);
+  return text.slice(0, end) + `\n${" ".repeat(indent)}${key}:${value.startsWith("\n") ? "" : " "}${value}` + text.slice(end);
+}
+
+/** Remove a key of a block map: its lines, from the key to the end of its value. */
+function remove(text: string, doc: Document, path: (string | number)[]): string {
+  const parent = (path.length > 1 ? doc.getIn(path.slice(0, -1), true) : doc.contents) as Node | null;
+  if (!isMap(parent)) return text;
+  const pair = pairOf(parent, path[path.length - 1]);
+  if (!pair || !isScalar(pair.key) || !pair.key.range) return text;
+  if (parent.flow)
+    throw new ArmwindError({
+      code: "bad_yaml",
+      path: path.join("."),
+      message: "cannot remove a key from a one-line { … } map from the form; edit the whole map's field",
+    });
+  const value = pair.value as Node | null;
+  const from = lineStart(text, pair.key.range[0]);
+  const to = lineEnd(text, value?.range ? Math.max(value.range[1] - 1, pair.key.range[1]) : pair.key.range[1]);
+  return text.slice(0, from) + text.slice(Math.min(to + 1, text.length));
+}
+
+/** Apply one edit to the text. */
+function applyOne(text: string, edit: FieldEdit): string {
+  const path = splitPath(edit.path);
+  if (!path.length) return text;
+  const doc = parse(text);
+  if (edit.text.trim() === "") return remove(text, doc, path);
+  const value = inline(edit);
+  const node = doc.getIn(path, true) as Node | undefined;
+  if (node?.range) {
+    const [start, end] = node.range;
+    return text.slice(0, start) + value + text.slice(end);
+  }
+  const key = path[path.length - 1];
+  if (typeof key === "number") throw new ArmwindError({ code: "bad_yaml", path: edit.path, message: "add list items in the list's own field" });
+  return insert(text, doc, path.slice(0, -1), key, value);
+}
+
+/** Apply the form's edits to a job file's text, one after another; a field left empty removes its key. */
+export function applyEdits(text: string, edits: FieldEdit[]): string {
+  parse(text);
+  let out = text;
+  for (const e of edits) out = applyOne(out, e);
+  parse(out);
+  return out;
+}

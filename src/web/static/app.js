@@ -1,0 +1,586 @@
+// armwind workbench: the one small script of the pages. It draws what the API answers (the CLI's
+// own --json output) and sends what the user types; every figure, rule and verdict comes from the
+// server. Plain browser JavaScript, no build step.
+
+const $ = (sel, root = document) => root.querySelector(sel);
+const $$ = (sel, root = document) => Array.from(root.querySelectorAll(sel));
+const data = JSON.parse(($("#page-data") || { textContent: "{}" }).textContent || "{}");
+const SVGNS = "http://www.w3.org/2000/svg";
+
+function h(tag, attrs = {}, ...kids) {
+  const e = tag.startsWith("svg:") ? document.createElementNS(SVGNS, tag.slice(4)) : document.createElement(tag);
+  for (const [k, v] of Object.entries(attrs)) {
+    if (v === undefined || v === null || v === false) continue;
+    if (k.startsWith("on")) e.addEventListener(k.slice(2), v);
+    else e.setAttribute(k, String(v));
+  }
+  for (const k of kids.flat()) if (k !== undefined && k !== null && k !== false) e.append(k instanceof Node ? k : String(k));
+  return e;
+}
+
+/** 3 significant figures (resistance: 4), "—" for an unknown figure, as the terminal prints. */
+function fmt(x, digits = 3) {
+  if (x === null || x === undefined || Number.isNaN(x)) return "—";
+  if (typeof x !== "number") return String(x);
+  if (x === 0) return "0";
+  const p = Number(x.toPrecision(digits));
+  return Math.abs(p) >= 1e5 || Math.abs(p) < 1e-3 ? p.toExponential(digits - 1) : String(p);
+}
+const pct = (x) => (x === null || x === undefined ? "—" : `${fmt(x * 100)} %`);
+const enc = (file) => file.split("/").map(encodeURIComponent).join("/");
+
+async function api(method, url, body) {
+  const init = { method, headers: {} };
+  if (body !== undefined) {
+    init.body = typeof body === "string" ? body : JSON.stringify(body);
+    init.headers["content-type"] = typeof body === "string" ? "application/yaml" : "application/json";
+  }
+  const r = await fetch(url, init);
+  let json = null;
+  try {
+    json = await r.json();
+  } catch {
+    json = { ok: false, errors: [{ code: "bad_answer", message: `the server answered ${r.status} without JSON`, path: "" }] };
+  }
+  return { status: r.status, json };
+}
+
+function debounce(fn, ms) {
+  let t;
+  return (...a) => {
+    clearTimeout(t);
+    t = setTimeout(() => fn(...a), ms);
+  };
+}
+
+/** Show each problem at its field: the output for its path, else its nearest parent's, else the form's. */
+function showProblems(form, problems, kind = "error") {
+  for (const o of $$("output.problem", form)) if (o.dataset.kind === kind || !o.dataset.kind) (o.textContent = ""), delete o.dataset.kind;
+  for (const f of $$(".field.has-problem, fieldset.has-problem", form)) f.classList.remove("has-problem");
+  for (const p of problems) {
+    let path = p.path || "";
+    let out = null;
+    for (;;) {
+      out = form.querySelector(`output.problem[data-for="${CSS.escape(path)}"]`);
+      if (out || path === "") break;
+      path = path.replace(/(\.[^.[\]]+|\[\d+\])$|^[^.[\]]+$/, "");
+    }
+    if (!out) continue;
+    if (out.dataset.kind && out.dataset.kind !== kind) continue;
+    out.dataset.kind = kind;
+    out.append(h("span", { class: kind }, `${p.message} [${p.code}]`));
+    out.closest(".field, fieldset")?.classList.add("has-problem");
+  }
+}
+
+// ---------------------------------------------------------------- the job page: form, plan, chart
+
+const job = { edits: new Map(), seq: 0, shown: 0, plan: null, picked: null };
+
+function fieldEdits() {
+  return Array.from(job.edits, ([path, text]) => ({ path, text }));
+}
+
+async function preview() {
+  const seq = ++job.seq;
+  const t0 = performance.now();
+  const { status, json } = await api("POST", `/api/preview/${enc(data.file)}`, { text: data.text, edits: fieldEdits() });
+  if (seq < job.shown) return;
+  job.shown = seq;
+  const form = $("#job-form");
+  if (status === 200) {
+    showProblems(form, []);
+    showProblems(form, json.warnings || [], "warning");
+    renderPlan(json);
+  } else {
+    showProblems(form, json.errors || []);
+    $("#plan").classList.add("stale");
+  }
+  document.body.dataset.previewMs = String(Math.round(performance.now() - t0));
+  document.body.dataset.previewSeq = String(seq);
+}
+const previewSoon = debounce(preview, 120);
+
+function setField(path, text) {
+  job.edits.set(path, text);
+  const input = $(`[data-field="${CSS.escape(path)}"]`);
+  if (input) input.value = text;
+}
+
+function initJob() {
+  const form = $("#job-form");
+  if (!form) return;
+  form.addEventListener("input", (ev) => {
+    const f = ev.target.closest("[data-field]");
+    if (!f) return;
+    job.edits.set(f.dataset.field, f.value);
+    $("#save-status").textContent = "unsaved changes";
+    previewSoon();
+  });
+  form.addEventListener("submit", async (ev) => {
+    ev.preventDefault();
+    const { status, json } = await api("PUT", `/api/job/${enc(data.file)}`, { version: data.version, edits: fieldEdits() });
+    const s = $("#save-status");
+    if (status === 200) {
+      data.text = json.text;
+      data.version = json.version;
+      job.edits.clear();
+      s.textContent = "saved";
+      s.className = "ok";
+    } else {
+      s.textContent =
+        status === 409
+          ? "not saved: the file changed on disk since you opened it; reload the page (copy your changes first)"
+          : "not saved: fix the fields marked in red";
+      s.className = "bad";
+      showProblems(form, json.errors || []);
+    }
+  });
+  preview();
+}
+
+function row(label, a, b, unit = "") {
+  return h("tr", {}, h("th", {}, label), h("td", {}, a), h("td", {}, b), h("td", { class: "unit" }, unit));
+}
+
+function windingLine(turns, wire, strands) {
+  return `${turns} turns of ${wire}${strands > 1 ? ` × ${strands} in hand` : ""}`;
+}
+
+function renderPlan(p) {
+  job.plan = p;
+  const box = $("#plan");
+  box.classList.remove("stale");
+  box.replaceChildren();
+  const d = p.design;
+  const o = p.original || {};
+  box.append(
+    h("p", { class: `verdict ${p.feasible ? "ok" : "warn"}` }, p.feasible ? "meets the goal" : "no winding meets the goal: the closest is shown"),
+    h("p", { class: "big", id: "chosen" }, windingLine(d.turns_per_coil, d.wire.label, d.strands_in_hand)),
+    h(
+      "p",
+      { class: "goal" },
+      `${p.goal.kind.replace(/_/g, " ")}: ${p.goal.summary || `${fmt(p.goal.achieved_value)} against ${fmt(p.goal.target_value)} ${p.goal.unit}`}`,
+    ),
+  );
+  const m = p.motor || {};
+  const om = p.original_motor || {};
+  const r = p.resistance || {};
+  const t = h("table", { class: "compare" }, h("thead", {}, h("tr", {}, h("th"), h("th", {}, "original"), h("th", {}, "new"), h("th"))));
+  const tb = h("tbody");
+  tb.append(
+    row(
+      "winding",
+      o.turns_per_coil ? windingLine(o.turns_per_coil, o.wire?.label ?? "", o.strands_in_hand ?? 1) : "—",
+      windingLine(d.turns_per_coil, d.wire.label, d.strands_in_hand),
+    ),
+    row("copper fill", pct(o.copper_fill), pct(d.copper_fill)),
+    row("terminal resistance (20 °C)", fmt(o.terminal_ohm, 4), fmt(r.terminal_ohm, 4), "Ω"),
+    row("bar to bar (20 °C)", "", fmt(r.bar_to_bar_ohm, 4), "Ω"),
+    row("Kv (motor constant)", fmt(om.kv_rpm_per_v), fmt(m.kv_rpm_per_v), "rpm/V"),
+    row("no-load speed", fmt(om.no_load_speed_rpm), fmt(m.no_load_speed_rpm), "rpm"),
+    row("no-load current", fmt(om.no_load_current_a), fmt(m.no_load_current_a), "A"),
+    row("stall current (hot)", fmt(om.stall_current_a), fmt(m.stall_current_a), "A"),
+    row("stall torque", fmt(om.stall_torque_n_m), fmt(m.stall_torque_n_m), "N·m"),
+    row("peak efficiency", pct(om.peak_efficiency), pct(m.peak_efficiency)),
+    row("wire to cut (all strands)", "", fmt(p.wire?.cut_m), "m"),
+  );
+  t.append(tb);
+  box.append(t);
+  if (p.warnings?.length)
+    box.append(
+      h("h3", {}, "Warnings"),
+      h(
+        "ul",
+        { class: "warnings" },
+        p.warnings.map((w) => h("li", {}, `${w.path ? w.path + ": " : ""}${w.message} [${w.code}]`)),
+      ),
+    );
+  box.append(h("h3", {}, `Candidates (${p.candidates.length} shown of ${p.candidates_total})`), candidateChart(p), h("div", { id: "picked" }));
+}
+
+/** Turns (across) against wire and strands (up, thinner to thicker copper), each candidate marked by verdict. */
+function candidateChart(p) {
+  const cands = p.candidates;
+  const key = (c) => `${c.wire}${c.strands_in_hand > 1 ? ` ×${c.strands_in_hand}` : ""}`;
+  // copper per turn grows as resistance per turn falls: order the rows by it (figures from the plan)
+  const perTurn = new Map();
+  for (const c of cands) perTurn.set(key(c), Math.min(perTurn.get(key(c)) ?? Infinity, c.terminal_ohm / c.turns_per_coil));
+  const rows = Array.from(perTurn.keys()).sort((a, b) => perTurn.get(b) - perTurn.get(a));
+  const turns = cands.map((c) => c.turns_per_coil);
+  const lo = Math.min(...turns) - 1;
+  const hi = Math.max(...turns) + 1;
+  const W = 640,
+    L = 150,
+    T = 10,
+    rowH = 26,
+    H = T + rows.length * rowH + 40;
+  const x = (n) => L + ((n - lo) / (hi - lo || 1)) * (W - L - 20);
+  const y = (k) => T + rows.indexOf(k) * rowH + rowH / 2;
+  const svg = h("svg:svg", { viewBox: `0 0 ${W} ${H}`, class: "chart", role: "img", "aria-label": "candidates: turns against wire" });
+  rows.forEach((k) => {
+    svg.append(
+      h("svg:line", { x1: L, x2: W - 20, y1: y(k), y2: y(k), class: "gridline" }),
+      h("svg:text", { x: L - 8, y: y(k) + 4, "text-anchor": "end", class: "label" }, k),
+    );
+  });
+  const step = Math.max(1, Math.ceil((hi - lo) / 10));
+  for (let n = Math.ceil(lo); n <= hi; n += step) svg.append(h("svg:text", { x: x(n), y: H - 22, "text-anchor": "middle", class: "label" }, String(n)));
+  svg.append(h("svg:text", { x: (L + W) / 2, y: H - 4, "text-anchor": "middle", class: "label" }, "turns per coil"));
+  const chosen = p.design;
+  for (const c of cands) {
+    const isChosen = c.turns_per_coil === chosen.turns_per_coil && c.wire === chosen.wire.label && c.strands_in_hand === chosen.strands_in_hand;
+    const cls = isChosen ? "chosen" : c.meets_goal && !c.rejected_because.length ? "meets" : c.rejected_because.length ? "rejected" : "misses";
+    const why = c.rejected_because.length ? `rejected: ${c.rejected_because.join(", ")}` : c.meets_goal ? "meets the goal" : "misses the goal";
+    const mark = h(
+      "svg:circle",
+      {
+        cx: x(c.turns_per_coil),
+        cy: y(key(c)),
+        r: isChosen ? 9 : 6,
+        class: `cand ${cls}`,
+        tabindex: 0,
+        "data-turns": c.turns_per_coil,
+        "data-wire": c.wire,
+        "data-strands": c.strands_in_hand,
+        onclick: () => pick(c),
+        onkeydown: (e) => e.key === "Enter" && pick(c),
+      },
+      h("svg:title", {}, `${windingLine(c.turns_per_coil, c.wire, c.strands_in_hand)}: ${fmt(c.achieved_value)} ${p.goal.unit}; ${why}`),
+    );
+    svg.append(mark);
+  }
+  const legend = h(
+    "p",
+    { class: "legend" },
+    h("span", { class: "dot chosen" }),
+    " chosen ",
+    h("span", { class: "dot meets" }),
+    " meets the goal ",
+    h("span", { class: "dot misses" }),
+    " misses it ",
+    h("span", { class: "dot rejected" }),
+    " rejected (tap for the reason)",
+  );
+  return h("div", {}, svg, legend);
+}
+
+function pick(c) {
+  job.picked = c;
+  const p = job.plan;
+  const box = $("#picked");
+  const reasons = c.rejected_because.length ? c.rejected_because.join(", ") : "none";
+  box.replaceChildren(
+    h("h3", {}, windingLine(c.turns_per_coil, c.wire, c.strands_in_hand)),
+    h(
+      "table",
+      { class: "compare" },
+      h(
+        "tbody",
+        {},
+        row(p.goal.kind.replace(/_/g, " "), "", fmt(c.achieved_value), p.goal.unit),
+        row("copper fill", "", pct(c.copper_fill)),
+        row("space fill", "", pct(c.space_fill)),
+        row("terminal resistance (20 °C)", "", fmt(c.terminal_ohm, 4), "Ω"),
+        row("Kv", "", fmt(c.kv_rpm_per_v), "rpm/V"),
+        row("stall current (hot)", "", fmt(c.stall_current_hot_a), "A"),
+        row("copper mass", "", fmt(c.copper_mass_g), "g"),
+        row("rejected because", "", reasons),
+      ),
+    ),
+  );
+  if (data.fixedGoal) {
+    box.append(
+      h(
+        "button",
+        {
+          type: "button",
+          id: "fix",
+          onclick: () => {
+            setField("target.goal", "fixed");
+            setField("target.fixed", `{ turns: ${c.turns_per_coil}, wire: ${c.wire}, strands: ${c.strands_in_hand} }`);
+            $("#save-status").textContent = "unsaved changes";
+            preview();
+          },
+        },
+        "Fix this winding into the job (goal: fixed)",
+      ),
+    );
+  } else box.append(h("p", { class: "sub" }, "Fixing a chosen winding into the job needs goal: fixed, which this version of armwind does not have yet."));
+}
+
+// ---------------------------------------------------------------- readings at the bench
+
+const bench = { plan: null, seq: 0, shown: 0, last: null };
+
+async function initBench() {
+  const { status, json } = await api("GET", `/api/plan/${enc(data.file)}`);
+  const grid = $("#grid");
+  if (status !== 200) {
+    grid.replaceChildren(h("p", { class: "problem" }, (json.errors || []).map((e) => `${e.message} [${e.code}]`).join("; ") || "the job cannot be planned"));
+    return;
+  }
+  bench.plan = json;
+  const live = json.coils.filter((c) => !c.dead);
+  const C = Math.max(...live.map((c) => Math.max(c.start_bar, c.end_bar)));
+  bench.bars = C;
+  const expected = json.resistance?.bar_to_bar_ohm;
+  grid.replaceChildren(
+    ...Array.from({ length: C }, (_, i) =>
+      h(
+        "label",
+        { class: "reading", "data-index": i },
+        h("span", { class: "r" }, `r${i + 1}`),
+        h("span", { class: "bars" }, `bar ${i + 1}–${i + 2 > C ? 1 : i + 2}`),
+        h("input", { name: `r${i + 1}`, "data-reading": i, inputmode: "decimal", placeholder: fmt(expected, 4), autocomplete: "off" }),
+        h("span", { class: "judge" }),
+      ),
+    ),
+  );
+  drawDiagram([]);
+  const form = $("#bench-form");
+  form.addEventListener("input", debounce(judge, 150));
+  form.addEventListener("submit", (ev) => {
+    ev.preventDefault();
+    logRecord();
+  });
+}
+
+function readings() {
+  return $$("[data-reading]").map((i) => i.value.trim());
+}
+
+async function judge() {
+  const rs = readings();
+  const form = $("#bench-form");
+  if (rs.some((r) => r === "")) {
+    const left = rs.map((r, i) => (r === "" ? `r${i + 1}` : null)).filter(Boolean);
+    $("#verdict").replaceChildren(h("p", { class: "sub" }, `waiting for ${left.length > 4 ? `${left.length} readings` : left.join(", ")}`));
+    return;
+  }
+  const seq = ++bench.seq;
+  const temperature = form.elements.temperature.value.trim();
+  const { status, json } = await api("POST", `/api/diagnose/${enc(data.file)}`, { bars: rs, temperature: temperature || undefined });
+  if (seq < bench.shown) return;
+  bench.shown = seq;
+  for (const l of $$(".reading")) l.classList.remove("fail", "pass", "invalid"), ($(".judge", l).textContent = "");
+  if (status !== 200) {
+    showProblems(
+      form,
+      (json.errors || []).map((e) => ({ ...e, path: "" })),
+    );
+    for (const e of json.errors || []) {
+      const m = /^bars\[(\d+)\]$/.exec(e.path);
+      if (m) $$(".reading")[Number(m[1])]?.classList.add("invalid");
+    }
+    return;
+  }
+  showProblems(form, []);
+  bench.last = json;
+  markReadings(json);
+  const suspects = json.suspects || [];
+  drawDiagram(suspects.flatMap((s) => s.coils));
+  $("#verdict").replaceChildren(
+    h("p", { class: `verdict ${json.ok ? "ok" : "bad"}` }, json.ok ? "every coil within tolerance" : "out of tolerance"),
+    suspects.length
+      ? h(
+          "ul",
+          { class: "suspects" },
+          suspects.map((s) => h("li", { "data-kind": s.kind }, s.message)),
+        )
+      : h("p", {}, "No coil stands out."),
+    ...(json.notes || []).map((n) => h("p", { class: "sub" }, n)),
+  );
+}
+
+function markReadings(d) {
+  const labels = $$(".reading");
+  const failed = new Set();
+  for (const f of d.failures || []) {
+    const m = /r(\d+)/.exec(f.reading ?? f.check ?? f.path ?? "") || /\[(\d+)\]/.exec(f.path ?? "");
+    if (m) failed.add(f.reading || f.check ? Number(m[1]) - 1 : Number(m[1]));
+  }
+  (d.readings || []).forEach((r, i) => {
+    const l = labels[i];
+    if (!l) return;
+    const bad = r.verdict ? r.verdict !== "ok" && r.verdict !== "pass" : failed.has(i);
+    l.classList.add(bad ? "fail" : "pass");
+    const off = r.of_median ?? r.of_average;
+    $(".judge", l).textContent =
+      `${bad ? "out" : "within"}${off !== undefined ? `: ${off >= 1 ? "+" : "−"}${fmt(Math.abs(off - 1) * 100, 2)} % of the set` : ""}`;
+  });
+}
+
+/** The commutator seen from its end: bars round a ring, each coil an arc from its start bar to its end bar; suspects in red. */
+function drawDiagram(suspectCoils) {
+  const p = bench.plan;
+  if (!p) return;
+  const C = bench.bars;
+  const S = 440,
+    cx = S / 2,
+    cy = S / 2,
+    R = 120;
+  const ang = (bar) => -Math.PI / 2 + ((bar - 1) / C) * 2 * Math.PI;
+  const svg = h("svg:svg", { viewBox: `0 0 ${S} ${S}`, class: "diagram", role: "img", "aria-label": "commutator and coils" });
+  svg.append(h("svg:circle", { cx, cy, r: R, class: "ring" }));
+  for (let b = 1; b <= C; b++) {
+    const a = ang(b);
+    svg.append(h("svg:circle", { cx: cx + R * Math.cos(a), cy: cy + R * Math.sin(a), r: 5, class: "bar" }));
+    if (C <= 40 || b % 2 === 1)
+      svg.append(h("svg:text", { x: cx + (R - 18) * Math.cos(a), y: cy + (R - 18) * Math.sin(a) + 4, "text-anchor": "middle", class: "label" }, String(b)));
+  }
+  const bad = new Set(suspectCoils);
+  for (const c of p.coils) {
+    if (c.dead) continue;
+    const a1 = ang(c.start_bar),
+      a2 = ang(c.end_bar);
+    const mid = Math.atan2(Math.sin(a1) + Math.sin(a2), Math.cos(a1) + Math.cos(a2));
+    const out = R + 28 + (bad.has(c.index) ? 6 : 0);
+    const path = `M ${cx + R * Math.cos(a1)} ${cy + R * Math.sin(a1)} Q ${cx + out * 1.25 * Math.cos(mid)} ${cy + out * 1.25 * Math.sin(mid)} ${cx + R * Math.cos(a2)} ${cy + R * Math.sin(a2)}`;
+    svg.append(
+      h(
+        "svg:path",
+        { d: path, class: `coil${bad.has(c.index) ? " suspect" : ""}`, "data-coil": c.index },
+        h("svg:title", {}, `coil ${c.index}: bars ${c.start_bar}–${c.end_bar}, slots ${c.go_slot}–${c.return_slot}`),
+      ),
+    );
+    // the label just beyond the arc's apex (the curve's midpoint: a quarter of each end, half the control point)
+    const apex =
+      Math.hypot(
+        0.25 * (Math.cos(a1) + Math.cos(a2)) * R + 0.5 * out * 1.25 * Math.cos(mid),
+        0.25 * (Math.sin(a1) + Math.sin(a2)) * R + 0.5 * out * 1.25 * Math.sin(mid),
+      ) + 18;
+    if (bad.has(c.index))
+      svg.append(
+        h(
+          "svg:text",
+          { x: cx + apex * Math.cos(mid), y: cy + apex * Math.sin(mid) + 5, "text-anchor": "middle", class: "suspect-label", "data-suspect": c.index },
+          `coil ${c.index}`,
+        ),
+      );
+  }
+  $("#diagram").replaceChildren(svg);
+}
+
+async function logRecord() {
+  const form = $("#bench-form");
+  const v = (n) => form.elements[n].value.trim();
+  const measured = { version: 1, job: data.id, date: v("date"), temperature: v("temperature") || "20 C", bar_to_bar: readings() };
+  if (v("meter_resolution")) measured.meter_resolution = v("meter_resolution");
+  if (v("terminal_resistance")) measured.terminal_resistance = v("terminal_resistance");
+  if (v("nl_supply") || v("nl_current") || v("nl_speed")) measured.no_load = { supply: v("nl_supply"), current: v("nl_current"), speed: v("nl_speed") };
+  if (v("notes")) measured.notes = v("notes");
+  const { status, json } = await api("POST", `/api/log/${enc(data.file)}`, measured);
+  const s = $("#log-status");
+  if (status === 200) {
+    s.className = json.ok ? "ok" : "warn";
+    s.textContent = `logged as ${json.file}${json.ok ? "" : ": a check failed (the record is kept)"}`;
+  } else {
+    s.className = "bad";
+    s.textContent = "not logged";
+    showProblems(
+      form,
+      (json.errors || []).map((e) => ({ ...e, path: "" })),
+    );
+  }
+}
+
+// ---------------------------------------------------------------- the logbook
+
+async function initHistory() {
+  const sel = $("#family");
+  const all = await api("GET", "/api/history");
+  const families = [...new Set((all.json.records || []).map((r) => r.family).filter(Boolean))].sort();
+  for (const f of families) sel.append(h("option", { value: f, selected: f === data.family }, f));
+  sel.addEventListener("change", () => {
+    const u = new URL(location.href);
+    if (sel.value) u.searchParams.set("family", sel.value);
+    else u.searchParams.delete("family");
+    history.replaceState(null, "", u);
+    data.family = sel.value;
+    showHistory();
+  });
+  showHistory();
+}
+
+async function showHistory() {
+  const q = data.family ? `?family=${encodeURIComponent(data.family)}` : "";
+  const { json } = await api("GET", `/api/history${q}`);
+  const recs = json.records || [];
+  $("#history-plot").replaceChildren(recs.length ? h("img", { src: `/api/history-svg${q}`, alt: "predicted against measured, record by record" }) : "");
+  const head = ["date", "job", "family", "winding", "terminal Ω predicted", "measured", "no-load rpm predicted", "measured", "checks"];
+  $("#history").replaceChildren(
+    recs.length
+      ? h(
+          "table",
+          { class: "records" },
+          h(
+            "thead",
+            {},
+            h(
+              "tr",
+              {},
+              head.map((x) => h("th", {}, x)),
+            ),
+          ),
+          h(
+            "tbody",
+            {},
+            recs.map((r) =>
+              h(
+                "tr",
+                {},
+                h("td", {}, r.date),
+                h("td", {}, r.job_id),
+                h("td", {}, r.family ?? "—"),
+                h("td", {}, windingLine(r.turns_per_coil, r.wire, r.strands_in_hand)),
+                h("td", {}, fmt(r.terminal_predicted_ohm, 4)),
+                h("td", {}, fmt(r.terminal_measured_ohm, 4)),
+                h("td", {}, fmt(r.no_load_speed_predicted_rpm)),
+                h("td", {}, fmt(r.no_load_speed_measured_rpm)),
+                h("td", { class: r.checks_ok ? "ok" : "bad" }, r.checks_ok ? "passed" : `failed: ${r.checks_failed.join(", ")}`),
+              ),
+            ),
+          ),
+        )
+      : h("p", {}, "No records in the logbook yet."),
+  );
+}
+
+// ---------------------------------------------------------------- the job list
+
+/** Each job's last plan verdict, from `check --json`, one job after another. */
+async function initList() {
+  for (const cell of $$("[data-check]")) {
+    const { status, json } = await api("GET", `/api/check/${enc(cell.dataset.check)}`);
+    const w = (json.warnings || []).length;
+    const [cls, text] =
+      status === 200
+        ? json.feasible
+          ? ["ok", "a winding meets the goal"]
+          : ["warn", "no winding meets the goal"]
+        : ["bad", (json.errors || []).map((e) => `${e.message} [${e.code}]`)[0] || "cannot be planned"];
+    cell.replaceChildren(
+      h("span", { class: `badge ${cls}` }, status === 200 ? text : "invalid"),
+      w ? h("span", { class: "sub" }, ` ${w} warning${w > 1 ? "s" : ""}`) : "",
+      status === 200 ? "" : h("div", { class: "sub" }, text),
+    );
+    cell.dataset.verdict = status === 200 ? (json.feasible ? "feasible" : "infeasible") : "invalid";
+  }
+}
+
+// ---------------------------------------------------------------- a new job
+
+function initNew() {
+  const form = $("#new-form");
+  form.addEventListener("submit", async (ev) => {
+    ev.preventDefault();
+    const id = form.elements.id.value.trim();
+    const { status, json } = await api("POST", "/api/new", { style: form.elements.style.value, id });
+    if (status === 200) location.href = `/job/jobs/${encodeURIComponent(id)}.yaml`;
+    else $("#new-status").textContent = (json.errors || []).map((e) => `${e.message} [${e.code}]`).join("; ");
+  });
+}
+
+const init = { list: initList, job: initJob, bench: initBench, history: initHistory, new: initNew }[document.body.dataset.page];
+if (init) init();

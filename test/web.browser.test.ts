@@ -1,0 +1,144 @@
+/**
+ * The workbench in a real browser: Debian's Chromium driven by playwright-core (no browser download),
+ * against `armwind serve` started as a user starts it (the built CLI) on a copy of the demo folder.
+ * Few flows, each waiting for what the page shows (no sleeps).
+ */
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { spawn, type ChildProcess } from "node:child_process";
+import { cpSync, existsSync, mkdtempSync, readFileSync, rmSync } from "node:fs";
+import { tmpdir } from "node:os";
+import { join } from "node:path";
+import { createInterface } from "node:readline";
+import { chromium, type Browser, type Page } from "playwright-core";
+import { CLI, ROOT } from "./helpers/cli.js";
+
+const CHROMIUM = process.env.ARMWIND_CHROMIUM ?? "/usr/bin/chromium";
+const have = existsSync(CHROMIUM);
+
+interface Started {
+  child: ChildProcess;
+  url: string;
+  lines: string[];
+}
+
+/** `armwind serve …` as a process; resolves with its first lines once it listens. */
+function startServe(args: string[], wantLines = 1): Promise<Started> {
+  return new Promise((done, fail) => {
+    const child = spawn(process.execPath, [CLI, "serve", "--port", "0", ...args], {
+      stdio: ["ignore", "pipe", "pipe"],
+      env: { ...process.env, ARMWIND_LOGBOOK: "" },
+    });
+    const lines: string[] = [];
+    const rl = createInterface({ input: child.stdout! });
+    rl.on("line", (l) => {
+      lines.push(l);
+      if (lines.length === wantLines) done({ child, url: lines[0].replace(/^listening on /, ""), lines });
+    });
+    child.on("exit", (code) => fail(new Error(`armwind serve exited ${code}`)));
+  });
+}
+
+let shop: string;
+let local: Started;
+let browser: Browser;
+
+async function page(): Promise<Page> {
+  const ctx = await browser.newContext({ viewport: { width: 820, height: 1180 } });
+  return ctx.newPage();
+}
+
+describe.skipIf(!have && !process.env.CI)("the workbench in Chromium", () => {
+  beforeAll(async () => {
+    shop = mkdtempSync(join(tmpdir(), "armwind-browser-"));
+    cpSync(join(ROOT, "jobs"), join(shop, "jobs"), { recursive: true });
+    local = await startServe(["--dir", shop]);
+    // evil.example resolves to this machine, as a DNS-rebinding attacker's name would
+    browser = await chromium.launch({ executablePath: CHROMIUM, args: ["--host-resolver-rules=MAP evil.example 127.0.0.1"] });
+  });
+
+  afterAll(async () => {
+    await browser?.close();
+    local?.child.kill("SIGTERM");
+    if (shop) rmSync(shop, { recursive: true, force: true });
+  });
+
+  it("prints its address first, on the loopback", () => {
+    expect(local.lines[0]).toMatch(/^listening on http:\/\/127\.0\.0\.1:\d+\/$/);
+  });
+
+  it("lists the jobs; opening a demo and changing the goal changes the plan", async () => {
+    const p = await page();
+    await p.goto(local.url);
+    await p.click("a.job:text('blind-motor-0031')");
+    await p.waitForSelector("#chosen");
+    const before = await p.textContent("#chosen");
+    expect(before).toMatch(/^\d+ turns of /);
+    await p.fill('[data-field="target.no_load_speed"]', "6000 rpm");
+    await p.waitForFunction((b) => document.querySelector("#chosen")?.textContent !== b, before);
+    const after = await p.textContent("#chosen");
+    expect(Number(after!.split(" ")[0])).toBeGreaterThan(Number(before!.split(" ")[0]));
+    // a unit that makes no sense is shown at its field
+    await p.fill('[data-field="target.no_load_speed"]', "6000 kg");
+    await p.waitForSelector('output[data-for="target.no_load_speed"] .error');
+    expect(await p.textContent('output[data-for="target.no_load_speed"]')).toContain("[bad_quantity]");
+    await p.context().close();
+  });
+
+  it("readings with one coil short: that coil is named and marked on the diagram", async () => {
+    const p = await page();
+    await p.goto(`${local.url}bench/jobs/blind-motor-0031.yaml`);
+    await p.waitForSelector("[data-reading]");
+    await p.fill('input[name="temperature"]', "21 C");
+    const readings = ["1.329", "1.327", "1.234", "1.330", "1.327"];
+    for (let i = 0; i < readings.length; i++) await p.fill(`[data-reading="${i}"]`, readings[i]);
+    await p.waitForSelector('.suspect-label[data-suspect="3"]');
+    expect(await p.textContent(".suspects")).toContain("coil 3");
+    expect(await p.locator(".suspect-label").count()).toBe(1);
+    await p.context().close();
+  });
+
+  it("saves a job and reloads it with its comments intact", async () => {
+    const p = await page();
+    await p.goto(`${local.url}job/jobs/robot-3slot-0007.yaml`);
+    await p.waitForSelector("#chosen");
+    const before = readFileSync(join(shop, "jobs/robot-3slot-0007.yaml"), "utf8");
+    await p.fill('[data-field="customer"]', "Bench test customer (invented)");
+    await p.click("#save");
+    await p.waitForSelector("#save-status.ok");
+    await p.reload();
+    expect(await p.inputValue('[data-field="customer"]')).toBe("Bench test customer (invented)");
+    const after = readFileSync(join(shop, "jobs/robot-3slot-0007.yaml"), "utf8");
+    const comments = (t: string) => t.split("\n").filter((l) => l.includes("#"));
+    expect(comments(after)).toEqual(comments(before));
+    await p.context().close();
+  });
+
+  it("refuses a foreign Host and a path outside the folder", async () => {
+    const p = await page();
+    const port = new URL(local.url).port;
+    const foreign = await p.goto(`http://evil.example:${port}/`);
+    expect(foreign?.status()).toBe(421);
+    const outside = await p.goto(`${local.url}job/..%2F..%2Fetc%2Fpasswd`);
+    expect(outside?.status()).toBe(403);
+    await p.context().close();
+  });
+
+  it("serving the network: refused without the token, the printed link lets the tablet in", async () => {
+    const net = await startServe(["--dir", shop, "--host", "0.0.0.0", "--allow-host", "127.0.0.1"], 2);
+    try {
+      const port = new URL(net.url).port;
+      const link = /(http:\/\/\S+\?token=\S+)/.exec(net.lines[1])![1];
+      const p = await page();
+      const refused = await p.goto(`http://127.0.0.1:${port}/`);
+      expect(refused?.status()).toBe(401);
+      const token = new URL(link).searchParams.get("token");
+      await p.goto(`http://127.0.0.1:${port}/?token=${token}`);
+      // the token is now a cookie: the page's own API calls get through
+      await p.waitForSelector("[data-verdict]");
+      expect(p.url()).not.toContain("token=");
+      await p.context().close();
+    } finally {
+      net.child.kill("SIGTERM");
+    }
+  });
+});
