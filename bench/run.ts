@@ -2,7 +2,8 @@
  * `npm run bench`: speed figures, printed, never asserted in tests.
  *  1. the candidate sweep over the whole catalogue with 4 strands in hand (≥ 100 000 candidates);
  *  2. a whole `armwind card` process against a whole Node process writing a one-page PDF with bare pdfkit;
- *  3. reading a logbook of a thousand records for `history` (when bench/history.ts exists).
+ *  3. reading a logbook of a thousand records for `history` (when bench/history.ts exists);
+ *  4. a 400-bar lap plan and diagnose on 400 bars, in-process (bench/ring.ts).
  * Run after `npm run build` (the npm script does it): the card process is the built CLI.
  */
 import { spawnSync } from "node:child_process";
@@ -16,6 +17,7 @@ import { calibrateOriginal } from "../src/design/calibration.js";
 import { makeEvaluator } from "../src/design/evaluate.js";
 import { stockWires, supplyOf } from "../src/design/plan.js";
 import { sweep } from "../src/design/sweep.js";
+import { benchRing } from "./ring.js";
 
 const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)];
 
@@ -75,3 +77,4 @@ console.log(`armwind bench, ${new Date().toISOString().slice(0, 10)}, Node ${pro
 benchSweep();
 benchCard();
 await benchHistory();
+benchRing();

@@ -12,7 +12,7 @@
  * Units: resistances in Ω; deviations and tolerances as fractions.
  */
 import { inputError, type Warning } from "../errors.js";
-import { barToBar } from "./ring.js";
+import { barToBar, solveDense } from "./ring.js";
 import {
   DEFAULT_METER_RESOLUTION_OHM,
   FOUR_WIRE_FACTOR,
@@ -110,34 +110,7 @@ function bisect(f: (S: number) => number, lo: number, hi: number): number {
   return (lo + hi) / 2;
 }
 
-/** Solve M x = b by Gaussian elimination with partial pivoting (small dense systems); null when singular. */
-function solve(M: number[][], b: number[]): number[] | null {
-  const n = b.length;
-  const A = M.map((r) => [...r]);
-  const y = [...b];
-  for (let c = 0; c < n; c++) {
-    let piv = c;
-    for (let r = c + 1; r < n; r++) if (Math.abs(A[r][c]) > Math.abs(A[piv][c])) piv = r;
-    if (Math.abs(A[piv][c]) < 1e-12) return null;
-    [A[piv], A[c]] = [A[c], A[piv]];
-    [y[piv], y[c]] = [y[c], y[piv]];
-    for (let r = c + 1; r < n; r++) {
-      const f = A[r][c] / A[c][c];
-      if (f === 0) continue;
-      for (let k = c; k < n; k++) A[r][k] -= f * A[c][k];
-      y[r] -= f * y[c];
-    }
-  }
-  const x = new Array<number>(n).fill(0);
-  for (let r = n - 1; r >= 0; r--) {
-    let s = y[r];
-    for (let k = r + 1; k < n; k++) s -= A[r][k] * x[k];
-    x[r] = s / A[r][r];
-  }
-  return x;
-}
-
-/** Least squares min ‖A x − b‖ by the normal equations (A: rows × n, n small). */
+/** Least squares min ‖A x − b‖ by the normal equations (A: rows × n), solved by the ring's one dense solver. */
 function leastSquares(A: number[][], b: number[], n: number): number[] | null {
   const N = Array.from({ length: n }, () => new Array<number>(n).fill(0));
   const v = new Array<number>(n).fill(0);
@@ -148,20 +121,150 @@ function leastSquares(A: number[][], b: number[], n: number): number[] | null {
       for (let j = 0; j < n; j++) N[i][j] += row[i] * row[j];
     }
   });
-  return solve(N, v);
+  return solveDense(N, v);
+}
+
+/**
+ * The chain steps s (Ω, chain positions 0 … C−1) from their window sums: X[i] is the sum of the k
+ * consecutive steps of window i. Differences of neighbouring windows give s[f+k] − s[f]; walking
+ * f = 0, k, 2k … (mod C) reaches every step because gcd(k, C) = 1 for a simplex wave (p·y_c = C ± 1),
+ * and the total Σs = ΣX/k fixes the constant. Linear in C; the unique solution of the circulant system.
+ */
+export function stepsFromWindows(wins: number[][], X: number[], C: number): number[] {
+  const k = wins[0].length;
+  const W = new Float64Array(C);
+  wins.forEach((w, i) => (W[w[0]] = X[i]));
+  if (k === 1) return Array.from(W);
+  const d = new Float64Array(C).fill(NaN);
+  d[0] = 0;
+  let q = 0;
+  for (let t = 1; t < C; t++) {
+    const next = (q + k) % C;
+    d[next] = d[q] + W[(q + 1) % C] - W[q];
+    q = next;
+  }
+  if (d.some((x) => Number.isNaN(x))) throw new Error(`internal error: windows of ${k} do not reach every one of ${C} steps (gcd ≠ 1)`);
+  const total = X.reduce((a, x) => a + x, 0) / k;
+  const shift = (total - d.reduce((a, x) => a + x, 0)) / C;
+  return Array.from(d, (x) => x + shift);
+}
+
+/**
+ * Chain steps with the step at position e open: a window without e reads its own sum, a window with
+ * e reads the rest of the ring in series. One coil between adjacent bars: the least-squares
+ * solution in closed form, s_j = r_j − (Σr − r_e)/C; a wave (k > 1): the normal equations.
+ */
+function openSteps(wins: number[][], readings: number[], e: number): number[] {
+  const C = wins.length;
+  const out = new Array<number>(C).fill(NaN);
+  out[e] = Infinity;
+  if (wins[0].length === 1) {
+    let sum = 0;
+    let re = NaN;
+    wins.forEach((w, i) => {
+      if (w[0] === e) re = readings[i];
+      else sum += readings[i];
+    });
+    const shift = (sum - re) / C;
+    wins.forEach((w, i) => {
+      if (w[0] !== e) out[w[0]] = readings[i] - shift;
+    });
+    return out;
+  }
+  const idx = (s: number) => (s < e ? s : s - 1);
+  const rows: number[][] = [];
+  const rhs: number[] = [];
+  wins.forEach((w, i) => {
+    const row = new Array<number>(C - 1).fill(0);
+    if (w.includes(e)) {
+      for (let s = 0; s < C; s++) if (!w.includes(s)) row[idx(s)] = 1;
+    } else for (const s of w) row[idx(s)] = 1;
+    rows.push(row);
+    rhs.push(readings[i]);
+  });
+  const x = leastSquares(rows, rhs, C - 1);
+  if (x) for (let s = 0; s < C; s++) if (s !== e) out[s] = x[idx(s)];
+  return out;
+}
+
+/** The step that the highest readings share: the open coil when the readings fit no closed ring. */
+function likeliestOpen(wins: number[][], readings: number[]): number {
+  const C = wins.length;
+  const least = new Array<number>(C).fill(Infinity);
+  wins.forEach((w, i) => {
+    for (const s of w) least[s] = Math.min(least[s], readings[i]);
+  });
+  let best = 0;
+  for (let e = 1; e < C; e++) if (least[e] > least[best]) best = e;
+  return best;
+}
+
+/**
+ * The ring total S (Ω) and the window sums X_i (Ω) from finite readings: X_i = S/2 − √(S²/4 − S·r_i)
+ * (the root below S/2), S where Σ X_i = k·S (bisection); on a ring (k = 1) one coil may hold more
+ * than half the ring (its reading on the upper root). Null when no closed ring of finite coils fits.
+ */
+function windowSums(readings: number[], k: number): number[] | null {
+  const rmax = Math.max(...readings);
+  const h = (S: number) => readings.reduce((s, r) => s + smallRoot(S, r), 0) - k * S;
+  const lo = 4 * rmax;
+  if (h(lo) >= 0) {
+    let hi = lo * 2;
+    for (let i = 0; i < 200 && h(hi) >= 0; i++) hi *= 2;
+    const S = bisect(h, lo, hi);
+    return readings.map((r) => smallRoot(S, r));
+  }
+  if (k !== 1) return null;
+  const imax = readings.indexOf(rmax);
+  const hb = (s: number) => bigRoot(s, rmax) + readings.reduce((a, r, i) => (i === imax ? a : a + smallRoot(s, r)), 0) - s;
+  let hi = lo * 2;
+  for (let i = 0; i < 60 && hb(hi) <= 0; i++) hi *= 2;
+  if (!(hb(hi) > 0)) return null;
+  const S = bisect((x) => -hb(x), lo, hi);
+  return readings.map((r, i) => (i === imax ? bigRoot(S, r) : smallRoot(S, r)));
+}
+
+/** Chain steps when some readings are open: on a ring each finite reading is its coil; on a wave they cannot be told apart. */
+function stepsWithOpenReadings(layout: WindingLayout, wins: number[][], readings: number[], inf: number[], notes: string[]): number[] | null {
+  const C = layout.bars;
+  if (layout.coils_between_adjacent_bars !== 1) {
+    notes.push(`open readings on a wave winding (${inf.map((i) => `r${i + 1}`).join(", ")}): the circuit is broken in more than one place and the coils cannot be told apart from these readings`);
+    return null;
+  }
+  const steps = new Array<number>(C);
+  wins.forEach((w, i) => (steps[w[0]] = Number.isFinite(readings[i]) ? readings[i] : Infinity));
+  if (inf.length === 1) {
+    notes.push(`only r${inf[0] + 1} reads open: a single open coil would read the sum of the others across its bars, so check the meter contact and the lead on bars ${inf[0] + 1} and ${mod1(inf[0] + 2, C)}`);
+  } else notes.push(`${inf.length} readings open: the ring is broken in ${inf.length} places; the other coils read directly`);
+  return steps;
+}
+
+/** Chain steps from finite readings: the closed ring's window sums, else the ring with one coil open. */
+function stepsFromFinite(layout: WindingLayout, wins: number[][], readings: number[], coilAt: number[], notes: string[]): number[] {
+  const C = layout.bars;
+  if (Math.max(...readings) === 0) {
+    notes.push("every reading is 0: the bars are shorted together (or the meter leads touch each other)");
+    return new Array<number>(C).fill(0);
+  }
+  const X = windowSums(readings, layout.coils_between_adjacent_bars);
+  if (X) return stepsFromWindows(wins, X, C);
+  const e = likeliestOpen(wins, readings);
+  notes.push(`the readings fit a ring only with coil ${coilAt[e]} open (the reading across it is the rest of the ring in series)`);
+  return openSteps(wins, readings, e);
 }
 
 /**
  * The coil resistances (Ω) that produce the C bar-to-bar readings `readings` (Ω, r1 … rC).
  * Tooth and simplex lap: r_i = R_i(S − R_i)/S, S the ring total; simplex wave: the same for the
  * chain sums X_i of p coils, then the circulant system of chain sums (gcd(p, C) = 1 makes it
- * solvable). Slightly inconsistent readings (noise) still solve: negative coils are clamped to 0
- * and the residual reported. A reading near 0 gives a coil near 0 (bars bridged); an infinite
- * reading, or one as large as all the others together, is an open coil (Infinity), the others then
- * read directly. Limit: a ring (p = 1) lets one coil hold more than half the ring (upper root); a
- * wave's chains are all taken on the lower root, so a chain of p coils holding more than half the
- * ring (only a nearly open coil does that) is treated as an open coil, with its residual reported. Lap windings with equalizers fitted cannot be inverted coil by coil: an
- * `ArmwindError` (code `inversion_not_possible`) says so.
+ * solvable; `stepsFromWindows`, linear in C). Slightly inconsistent readings (noise) still solve:
+ * negative coils are clamped to 0 and the residual reported. A reading near 0 gives a coil near 0
+ * (bars bridged); an infinite reading, or one as large as all the others together, is an open coil
+ * (Infinity), the others then read directly. Limit: a ring (p = 1) lets one coil hold more than half
+ * the ring (upper root); a wave's chains are all taken on the lower root, so a chain of p coils
+ * holding more than half the ring (only a nearly open coil does that) is treated as an open coil,
+ * with its residual reported. Lap windings with equalizers fitted cannot be inverted coil by coil:
+ * an `ArmwindError` (code `inversion_not_possible`) says so.
  */
 export function solveCoils(layout: WindingLayout, readings: number[]): CoilSolution {
   checkReadings(layout, readings);
@@ -172,138 +275,40 @@ export function solveCoils(layout: WindingLayout, readings: number[]): CoilSolut
       "with equalizers fitted the bar-to-bar readings do not determine each coil; compare the readings pair by pair with the expected ones instead",
     );
   }
-  const C = layout.bars;
-  const k = layout.coils_between_adjacent_bars;
   const wins = windows(layout);
   const { coilAt } = chain(layout);
   const notes: string[] = [];
+  const inf = readings.map((r, i) => (Number.isFinite(r) ? -1 : i)).filter((i) => i >= 0);
+  const steps = inf.length > 0 ? stepsWithOpenReadings(layout, wins, readings, inf, notes) : stepsFromFinite(layout, wins, readings, coilAt, notes);
   const coil = new Array<number>(layout.coils.length).fill(NaN);
   const open: number[] = [];
-  const finite = readings.filter((r) => Number.isFinite(r));
-  const meanR = finite.length ? finite.reduce((s, x) => s + x, 0) / finite.length : NaN;
-  const inf = readings.map((r, i) => (Number.isFinite(r) ? -1 : i)).filter((i) => i >= 0);
-
-  // steps: chain-step resistances (0-based chain positions) once solved
-  let steps: number[] | null = null;
-
-  const openSolve = (e: number) => {
-    // coil on chain step e open: a window without e reads its own sum, a window with e reads the rest in series
-    const rows: number[][] = [];
-    const rhs: number[] = [];
-    const idx = (s: number) => (s < e ? s : s - 1);
-    wins.forEach((w, i) => {
-      if (!Number.isFinite(readings[i])) return;
-      const row = new Array<number>(C - 1).fill(0);
-      if (w.includes(e)) {
-        for (let s = 0; s < C; s++) if (!w.includes(s)) row[idx(s)] = 1;
-      } else for (const s of w) row[idx(s)] = 1;
-      rows.push(row);
-      rhs.push(readings[i]);
-    });
-    const x = leastSquares(rows, rhs, C - 1);
-    const out = new Array<number>(C).fill(NaN);
-    if (x) for (let s = 0; s < C; s++) if (s !== e) out[s] = x[idx(s)];
-    out[e] = Infinity;
-    return out;
-  };
-
-  if (inf.length > 0) {
-    if (k === 1) {
-      steps = wins.map((_w, i) => (Number.isFinite(readings[i]) ? readings[i] : Infinity));
-      if (inf.length === 1) {
-        notes.push(
-          `only r${inf[0] + 1} reads open: a single open coil would read the sum of the others across its bars, so check the meter contact and the lead on bars ${inf[0] + 1} and ${mod1(inf[0] + 2, C)}`,
-        );
-      } else notes.push(`${inf.length} readings open: the ring is broken in ${inf.length} places; the other coils read directly`);
-    } else {
-      notes.push(`open readings on a wave winding (${inf.map((i) => `r${i + 1}`).join(", ")}): the circuit is broken in more than one place and the coils cannot be told apart from these readings`);
-    }
-  } else {
-    const rmax = Math.max(...readings);
-    if (rmax === 0) {
-      steps = new Array<number>(C).fill(0);
-      notes.push("every reading is 0: the bars are shorted together (or the meter leads touch each other)");
-    } else {
-      const h = (S: number) => readings.reduce((s, r) => s + smallRoot(S, r), 0) - k * S;
-      const lo = 4 * rmax;
-      let X: number[] | null = null;
-      let S = NaN;
-      if (h(lo) >= 0) {
-        let hi = lo * 2;
-        for (let i = 0; i < 200 && h(hi) >= 0; i++) hi *= 2;
-        S = bisect(h, lo, hi);
-        X = readings.map((r) => smallRoot(S, r));
-      } else if (k === 1) {
-        // one coil above half the ring: its reading takes the upper root, unless it is open
-        const imax = readings.indexOf(rmax);
-        const hb = (s: number) => bigRoot(s, rmax) + readings.reduce((a, r, i) => (i === imax ? a : a + smallRoot(s, r)), 0) - s;
-        let hi = lo * 2;
-        for (let i = 0; i < 60 && hb(hi) <= 0; i++) hi *= 2;
-        if (hb(hi) > 0) {
-          // hb < 0 at lo, > 0 at hi
-          S = bisect((s) => -hb(s), lo, hi);
-          X = readings.map((r, i) => (i === imax ? bigRoot(S, r) : smallRoot(S, r)));
-        }
-      }
-      if (X) {
-        const A = wins.map((w) => {
-          const row = new Array<number>(C).fill(0);
-          for (const s of w) row[s] = 1;
-          return row;
-        });
-        steps = solve(A, X);
-        if (!steps) throw new Error(`internal error: singular chain-sum system (p = ${k}, C = ${C})`);
-      } else {
-        // the readings fit no closed ring of finite coils: the coil common to the highest readings is open
-        let best = 0;
-        let bestScore = -Infinity;
-        for (let e = 0; e < C; e++) {
-          let m = Infinity;
-          wins.forEach((w, i) => {
-            if (w.includes(e)) m = Math.min(m, readings[i]);
-          });
-          if (m > bestScore) {
-            bestScore = m;
-            best = e;
-          }
-        }
-        steps = openSolve(best);
-        notes.push(`the readings fit a ring only with coil ${coilAt[best]} open (the reading across it is the rest of the ring in series)`);
-      }
-    }
-  }
   if (steps) {
     let clamped = 0;
     steps.forEach((r, s) => {
-      let v = r;
-      if (v < 0) {
-        clamped++;
-        v = 0;
-      }
+      const v = Math.max(0, r);
+      if (r < 0) clamped++;
       coil[coilAt[s] - 1] = v;
       if (v === Infinity) open.push(coilAt[s]);
     });
     if (clamped) notes.push(`${clamped} coil${clamped > 1 ? "s" : ""} came out below 0 Ω from inconsistent readings and ${clamped > 1 ? "were" : "was"} set to 0`);
   }
   open.sort((a, b) => a - b);
-  const live = layout.coils.filter((c) => !c.dead).map((c) => coil[c.index - 1]);
-  const ring = live.reduce((s, x) => s + x, 0);
-  let resid = NaN;
-  if (live.every((x) => !Number.isNaN(x))) {
-    const back = barToBar(layout, coil.map((x, i) => (layout.coils[i].dead ? 0 : x)));
-    resid = 0;
-    readings.forEach((r, i) => {
-      if (Number.isFinite(r) && Number.isFinite(back[i])) resid = Math.max(resid, Math.abs(back[i] - r));
-    });
-  }
-  return {
-    coil_ohm: coil,
-    ring_ohm: ring,
-    residual_ohm: resid,
-    residual_fraction: resid / meanR,
-    open_coils: open,
-    notes,
-  };
+  const finite = readings.filter((r) => Number.isFinite(r));
+  const meanR = finite.length ? finite.reduce((a, x) => a + x, 0) / finite.length : NaN;
+  const resid = residual(layout, coil, readings);
+  const ring = layout.coils.filter((c) => !c.dead).reduce((a, c) => a + coil[c.index - 1], 0);
+  return { coil_ohm: coil, ring_ohm: ring, residual_ohm: resid, residual_fraction: resid / meanR, open_coils: open, notes };
+}
+
+/** Largest difference (Ω) between a finite reading and what the solved coils give back (the forward ring solve); NaN when a coil is unknown. */
+function residual(layout: WindingLayout, coil: number[], readings: number[]): number {
+  if (!layout.coils.every((c) => c.dead || !Number.isNaN(coil[c.index - 1]))) return NaN;
+  const back = barToBar(layout, coil.map((x, i) => (layout.coils[i].dead ? 0 : x)));
+  let resid = 0;
+  readings.forEach((r, i) => {
+    if (Number.isFinite(r) && Number.isFinite(back[i])) resid = Math.max(resid, Math.abs(back[i] - r));
+  });
+  return resid;
 }
 
 // ---------------------------------------------------------------------------------------------

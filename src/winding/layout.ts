@@ -324,26 +324,7 @@ export function layoutWinding(spec: WindingSpec): WindingLayout {
 
   // riding counts: coils laid later ride over the end turns of earlier coils whose slot arc they share
   // (the clockwise arc from go slot to return slot); tooth coils ride over none. Common practice, no published source.
-  if (style !== "tooth") {
-    const arc = (c: Coil) => {
-      const set = new Set<number>();
-      for (let i = 0; i < span; i++) set.add(mod1(c.go_slot + i, S)); // half-slot points go+0.5 … go+span−0.5
-      return set;
-    };
-    const arcs = coils.map(arc);
-    for (let k = 0; k < coils.length; k++) {
-      let n = 0;
-      for (let j = 0; j < k; j++) {
-        for (const x of arcs[k]) {
-          if (arcs[j].has(x)) {
-            n++;
-            break;
-          }
-        }
-      }
-      coils[k].rides_over = n;
-    }
-  }
+  if (style !== "tooth") ridingCounts(coils, span, S);
 
   const pitch = S / P;
   if (style !== "tooth" && span < SHORT_SPAN_FRACTION * pitch) {
@@ -383,6 +364,27 @@ export function layoutWinding(spec: WindingSpec): WindingLayout {
     throw new Error(`internal error: simplex wave with gcd(p, C) = ${gcd(p, C)}`);
   }
   return layout;
+}
+
+/**
+ * How many earlier coils each coil rides over: those whose clockwise slot arc (span slots from the
+ * go slot) shares a slot with its own. Two arcs of `span` slots share one when their go slots are
+ * fewer than `span` slots apart either way round, so each coil counts the earlier coils per go slot
+ * in that window: O(C · span), not O(C² · span).
+ */
+function ridingCounts(coils: Coil[], span: number, S: number): void {
+  const earlier = new Int32Array(S + 1);
+  const offsets: number[] = [];
+  if (span > 0) {
+    if (2 * span - 1 >= S) for (let o = 0; o < S; o++) offsets.push(o);
+    else for (let o = -(span - 1); o <= span - 1; o++) offsets.push(o);
+  }
+  for (const c of coils) {
+    let n = 0;
+    for (const o of offsets) n += earlier[mod1(c.go_slot + o, S)];
+    c.rides_over = n;
+    earlier[c.go_slot]++;
+  }
 }
 
 /** Notes about brush width: which coils a brush shorts while they commutate, and what it does to the readings. */

@@ -1,8 +1,16 @@
 /**
  * The commutator ring as a resistor network: bars are nodes, each live coil an edge from its
  * start bar to its end bar, fitted equalizers ideal (0 Ω) links between the bars of a group.
- * Effective resistances come from the nodal equations (Kirchhoff's current law on the weighted
- * graph Laplacian, a dense solve; C up to a few hundred).
+ *
+ * A simplex tooth, lap or wave winding without equalizers closes into ONE cycle through every bar
+ * (lap: in winding order; wave: in circuit order). On a cycle, Kirchhoff's laws give every reading
+ * in closed form: with the + bars joined and the − bars joined, the arcs between consecutive
+ * marked bars whose ends differ in sign are independent paths in parallel, each the series sum of
+ * its coils (an arc between two bars of the same sign carries no current). With prefix sums of
+ * the coil resistances along the cycle, a reading costs O(marked bars), so the C bar-to-bar
+ * readings and a full turn of the rotor are linear in C (`CycleNetwork`). Equalizers add chords
+ * of 0 Ω and break the cycle: that network is solved from the nodal equations (Kirchhoff's current
+ * law on the weighted graph Laplacian, a dense solve; `Network`).
  *
  * Units: resistances in Ω; bar numbers 1 … C.
  */
@@ -55,7 +63,7 @@ export function equalizedLapBarToBar(coilOhm: number, bars: number, polePairs: n
 // linear algebra
 
 /** Solve A x = b in place by Gaussian elimination with partial pivoting; null when A is singular. */
-function solveDense(A: number[][], b: number[]): number[] | null {
+export function solveDense(A: number[][], b: number[]): number[] | null {
   const n = b.length;
   for (let c = 0; c < n; c++) {
     let piv = c;
@@ -144,7 +152,7 @@ export function ringEdges(layout: WindingLayout, coilOhm: number[]): RingEdge[] 
  * out. When the rest is connected, the grounded Laplacian is inverted once and every query is a
  * small system over the brush nodes; otherwise each query is solved directly.
  */
-export class Network {
+export class Network implements RingSolver {
   private readonly n: number;
   private readonly parent: number[];
   /** Finite, positive edges between merged classes (class ids 0 … m−1). */
@@ -289,9 +297,92 @@ export class Network {
   }
 }
 
-/** The network of a layout with the given coil resistances (Ω, coil index order). */
-export function ringNetwork(layout: WindingLayout, coilOhm: number[]): Network {
-  return new Network(layout.bars, ringEdges(layout, coilOhm));
+/** A reading between two sets of bars (Ω): all + bars joined as one brush, all − bars as the other. */
+export interface RingSolver {
+  between(plus: number[], minus: number[]): number;
+}
+
+/**
+ * The ring as a cycle of bars (no equalizers): `order[j]` is the j-th bar along the closed circuit and
+ * `ohm[j]` the coil from order[j] to order[j+1] (Ω; Infinity open, 0 shorted). Kirchhoff on a cycle:
+ * the arcs between consecutive marked bars of opposite sign are in parallel, each the series sum of
+ * its coils; O(marked bars · log) per reading after O(C) prefix sums.
+ */
+export class CycleNetwork implements RingSolver {
+  private readonly pos: Int32Array;
+  /** prefix[j]: sum of the finite coil resistances before step j (Ω); opens[j]: open coils before step j. */
+  private readonly prefix: Float64Array;
+  private readonly opens: Int32Array;
+  private readonly n: number;
+
+  constructor(bars: number, order: number[], ohm: number[]) {
+    this.n = order.length;
+    this.pos = new Int32Array(bars + 1).fill(-1);
+    order.forEach((b, j) => (this.pos[b] = j));
+    this.prefix = new Float64Array(this.n + 1);
+    this.opens = new Int32Array(this.n + 1);
+    for (let j = 0; j < this.n; j++) {
+      const open = !Number.isFinite(ohm[j]);
+      this.prefix[j + 1] = this.prefix[j] + (open ? 0 : ohm[j]);
+      this.opens[j + 1] = this.opens[j] + (open ? 1 : 0);
+    }
+  }
+
+  /** Series resistance (Ω) along the cycle from position a forward to position b (a ≠ b); Infinity across an open coil. */
+  private arc(a: number, b: number): number {
+    if (b > a) return this.opens[b] - this.opens[a] > 0 ? Infinity : this.prefix[b] - this.prefix[a];
+    const open = this.opens[this.n] - this.opens[a] + this.opens[b];
+    return open > 0 ? Infinity : this.prefix[this.n] - this.prefix[a] + this.prefix[b];
+  }
+
+  between(plus: number[], minus: number[]): number {
+    // each marked bar as 2·position + (1 for +, 0 for −), sorted: neighbours in the sort are neighbours on the cycle
+    const m = plus.length + minus.length;
+    const marks = new Int32Array(m);
+    for (let i = 0; i < plus.length; i++) marks[i] = 2 * this.pos[plus[i]] + 1;
+    for (let i = 0; i < minus.length; i++) marks[plus.length + i] = 2 * this.pos[minus[i]];
+    marks.sort();
+    let g = 0;
+    let any = false;
+    for (let i = 0; i < m; i++) {
+      const a = marks[i];
+      const b = marks[(i + 1) % m];
+      if ((a & 1) === (b & 1)) continue;
+      if (a >> 1 === b >> 1) return 0; // one bar under both brushes
+      any = true;
+      const r = this.arc(a >> 1, b >> 1);
+      if (r === 0) return 0;
+      g += 1 / r;
+    }
+    return any && g > 0 ? 1 / g : Infinity;
+  }
+}
+
+/** The cycle of a layout without equalizers (bars in circuit order, each step's coil resistance), or null when its coils do not close one cycle through every bar. */
+export function ringCycle(layout: WindingLayout, coilOhm: number[]): { order: number[]; ohm: number[] } | null {
+  if (layout.equalizers) return null;
+  const order: number[] = [];
+  const ohm: number[] = [];
+  const co = layout.circuit_order;
+  for (let j = 0; j < co.length; j++) {
+    const c = layout.coils[co[j] - 1];
+    const next = layout.coils[co[(j + 1) % co.length] - 1];
+    if (c.dead || c.start_bar === null || c.end_bar !== next.start_bar) return null;
+    order.push(c.start_bar);
+    ohm.push(coilOhm[c.index - 1]);
+  }
+  return order.length === layout.bars && new Set(order).size === layout.bars ? { order, ohm } : null;
+}
+
+/**
+ * The network of a layout with the given coil resistances (Ω, coil index order): the linear cycle
+ * solver when the coils close one cycle (tooth, simplex lap and wave without equalizers), else the
+ * nodal solve. Both are Kirchhoff; the tests hold them to an independent nodal solution.
+ */
+export function ringNetwork(layout: WindingLayout, coilOhm: number[]): RingSolver {
+  const edges = ringEdges(layout, coilOhm); // validates the resistances
+  const cycle = ringCycle(layout, coilOhm);
+  return cycle ? new CycleNetwork(layout.bars, cycle.order, cycle.ohm) : new Network(layout.bars, edges);
 }
 
 /** Effective resistance (Ω) between two bars of a layout's ring. */
