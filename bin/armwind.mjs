@@ -1,3 +1,5 @@
 #!/usr/bin/env node
-// The installed command: runs the compiled CLI (built by `npm install` through the prepare script).
-import "../dist/cli/main.js";
+// The installed command: runs the CLI bundle built by `npm install` (prepare → scripts/build.mjs).
+import { loadBundle } from "./bundle.mjs";
+
+loadBundle();

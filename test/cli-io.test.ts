@@ -1,5 +1,5 @@
 /**
- * The command line's edges, through the real command (`node dist/cli/main.js`, built by the global
+ * The command line's edges, through the real command (`node bin/armwind.mjs`, built by the global
  * setup): exit statuses 0, 1, 2, 3 of DESIGN.md; problems as one `file:line:column: path: message
  * [code]` line each on stderr with no stack trace; the `--json` error object; standard input as
  * `-`; no colour escapes anywhere (NO_COLOR, no-color.org; armwind prints no colour at all).

@@ -9,7 +9,7 @@ import { ArmwindError } from "../src/errors.js";
 import { trapezoidArea, trapezoidPerimeter, freeArea } from "../src/armature/slot.js";
 import { copperFill, HEX_PACKING, SQUARE_PACKING } from "../src/armature/fill.js";
 import { lengthFromMass, mltFromWireLength } from "../src/armature/turn.js";
-import { toothLayerBuild, passesOpening } from "../src/armature/build.js";
+import { toothLayerBuild, slotLayerBuild, passesOpening } from "../src/armature/build.js";
 import { coilResistance } from "../src/design/context.js";
 import { ROOT, loadJobFile, loadJobText } from "./helpers/cli.js";
 
@@ -55,13 +55,33 @@ describe("geometry (plane geometry)", () => {
     expect(SQUARE_PACKING).toBeCloseTo(0.7854, 4);
     expect(HEX_PACKING).toBeCloseTo(0.9069, 4);
   });
-  it("layer build: turns per layer along the tooth and layers against half the root width (common practice)", () => {
-    const b = toothLayerBuild(45, 1, 0.3e-3, 4.2e-3, 2.5e-3, 0.1e-3);
-    expect(b.turnsPerLayer).toBe(Math.floor(4.0e-3 / 0.3e-3));
-    expect(b.layers).toBe(Math.ceil(45 / 13));
-    expect(b.fits).toBe(b.layers * 0.3e-3 <= 1.25e-3 - 0.1e-3);
+  it("layer build in a trapezoid slot: outer layers run where the slot is wide enough, not against the root width (geometry; common practice, no published source)", () => {
+    // robot demo slot: depth 4.2, top 6.5, root 2.5, liner 0.1 mm; 0.3 mm wire along 4.2 − 0.2 = 4.0 mm → 13 a layer.
+    // Layer j needs a slot width 2·((j+1)·0.3 + 0.1): 0.8, 1.4, 2.0 mm (all below the 2.5 mm root: 13 each),
+    // layer 4 needs 2.6 mm, reached at y = 4.2·(2.6 − 2.5)/4.0 = 0.105 mm: length 4.1 − 0.105 = 3.995 → 13.
+    const b = toothLayerBuild(45, 1, 0.3e-3, 4.2e-3, 6.5e-3, 2.5e-3, 0.1e-3);
+    expect(b.perLayer).toEqual([13, 13, 13, 6]);
+    expect(b.fits).toBe(true);
+    // the old model (every layer against half the root width less the liner, 1.15 mm) refused this: 4 × 0.3 = 1.2 mm
+    expect(b.layers * 0.3e-3).toBeGreaterThan(1.25e-3 - 0.1e-3);
+    // a parallel slot 2.5 mm wide holds three layers of 0.3 mm (half width 1.25 − 0.1 = 1.15 mm): 39 turns, not 45
+    const narrow = toothLayerBuild(45, 1, 0.3e-3, 4.2e-3, 2.5e-3, 2.5e-3, 0.1e-3);
+    expect(narrow.perLayer).toEqual([13, 13, 13]);
+    expect(narrow.fits).toBe(false);
     expect(passesOpening(0.3e-3, 3, 1.0e-3)).toBe(true);
     expect(passesOpening(0.3e-3, 4, 1.0e-3)).toBe(false);
+  });
+  it("lap slot rows take the width where each row is narrowest (geometry)", () => {
+    // depth 6.5, top 4.2, root 2.6, liner 0.2 mm; 0.5 mm wire. Row j spans y = 0.2 + 0.5j … +0.5;
+    // width at its lower edge 2.6 + 1.6·y/6.5 − 0.4 (the slot widens upward): row 0 at y 0.2 → 2.249 mm → 4 a row;
+    // row 3 at y 1.7 → 2.618 → 5; row 7 at y 3.7 → 3.111 → 6; row 11 at y 5.7 → 3.603 → 7; a 13th row (to 6.7 mm) leaves the 6.3 mm room
+    const b = slotLayerBuild(60, 0.5e-3, 6.5e-3, 4.2e-3, 2.6e-3, 0.2e-3);
+    expect(b.perLayer).toEqual([4, 4, 4, 5, 5, 5, 5, 6, 6, 6, 6, 4]); // the last row holds the 60 − 56 left
+    expect(b.room).toBeCloseTo(6.3e-3, 12);
+    expect(b.fits).toBe(true);
+    // 4·3 + 5·4 + 6·4 + 7 = 63 conductors in 12 rows; 64 do not fit
+    expect(slotLayerBuild(63, 0.5e-3, 6.5e-3, 4.2e-3, 2.6e-3, 0.2e-3).fits).toBe(true);
+    expect(slotLayerBuild(64, 0.5e-3, 6.5e-3, 4.2e-3, 2.6e-3, 0.2e-3).fits).toBe(false);
   });
 });
 
@@ -78,11 +98,11 @@ describe("the plan", () => {
     expect(p.motor.ke).toBeCloseTo((p.calibration.ke! * p.design.turns) / p.original.turns, 12);
     expect(p.motor.kv).toBeCloseTo(60 / (2 * Math.PI * p.motor.ke), 9);
   });
-  it("the chosen candidate meets the goal and no shown candidate that meets it has less resistance (DESIGN.md ranking)", () => {
+  it("the chosen candidate meets the goal and no shown candidate at its turns count has less resistance (DESIGN.md ranking)", () => {
     const p = planJob(blind());
     expect(p.feasible).toBe(true);
-    expect(Math.abs(p.goal.error_fraction!)).toBeLessThanOrEqual(p.job.target.tolerance);
-    for (const c of p.candidates.filter((c) => c.meets_goal)) expect(c.terminal_ohm).toBeGreaterThanOrEqual(p.design.terminal_ohm - 1e-12);
+    expect(Math.abs(p.goal.error_fraction!)).toBeLessThanOrEqual(p.job.target.tolerance.above);
+    for (const c of p.candidates.filter((c) => c.meets_goal && c.turns === p.design.turns)) expect(c.terminal_ohm).toBeGreaterThanOrEqual(p.design.terminal_ohm - 1e-12);
     expect(p.design.copper_fill).toBeLessThanOrEqual(p.fill_limit + 1e-12);
   });
   it("cut length is the winding plus two leads a coil, plus the spare margin", () => {
@@ -128,7 +148,7 @@ describe("the plan", () => {
     const limit = p.job.target.stall_current!;
     expect(p.feasible).toBe(true);
     expect(p.motor.stallCurrentCold!).toBeLessThanOrEqual(limit + 1e-9);
-    expect(p.motor.stallCurrentCold!).toBeGreaterThanOrEqual(limit * (1 - p.job.target.tolerance));
+    expect(p.motor.stallCurrentCold!).toBeGreaterThanOrEqual(limit * (1 - p.job.target.tolerance.below));
     // hot is lower still (IEC 60028: resistance rises with temperature)
     expect(p.motor.stallCurrent!).toBeLessThan(p.motor.stallCurrentCold!);
     for (const c of p.candidates.filter((c) => c.meets_goal)) expect(c.stall_current_cold!).toBeLessThanOrEqual(limit + 1e-9);

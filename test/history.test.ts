@@ -42,10 +42,10 @@ describe("armwind history", () => {
     expect(out.warnings[0]).toMatchObject({ code: "record_damaged", file: "broken-2026-12-01-1.yaml" });
     expect(io.stderr.join("\n")).toMatch(/broken-2026-12-01-1\.yaml: damaged record/);
     const blind = out.records.find((r: { job_id: string }) => r.job_id === "blind-motor-0031");
-    expect(blind).toMatchObject({ family: "blind-5slot", style: "tooth", slots: 5, bars: 5, turns_per_coil: 64, wire: "32 AWG heavy", strands_in_hand: 1 });
-    // measured terminal 2.01 Ω at 21 °C is 2.01/1.00393 at 20 °C (IEC 60028)
-    expect(blind.terminal_measured_ohm).toBeCloseTo(2.01 / 1.00393, 9);
-    expect(blind.no_load_speed_measured_rpm).toBeCloseTo(9080, 6);
+    expect(blind).toMatchObject({ family: "blind-5slot", style: "tooth", slots: 5, bars: 5, turns_per_coil: 65, wire: "32 AWG heavy", strands_in_hand: 1 });
+    // measured terminal 2.05 Ω at 21 °C is 2.05/1.00393 at 20 °C (IEC 60028)
+    expect(blind.terminal_measured_ohm).toBeCloseTo(2.05 / 1.00393, 9);
+    expect(blind.no_load_speed_measured_rpm).toBeCloseTo(8940, 6);
     // sorted by date
     const dates = out.records.map((r: { date: string }) => r.date);
     expect(dates).toEqual([...dates].sort());
@@ -62,7 +62,7 @@ describe("armwind history", () => {
     const io = fakeIo();
     expect(await main(["history", "--logbook", BOOK], io)).toBe(0);
     const text = io.stdout.join("\n");
-    expect(text).toMatch(/blind-motor-0031\s+2026-12-01\s+blind-5slot, tooth 5\/5\s+64 × 32 AWG heavy\s+1\.994 \/ 2\.002/);
+    expect(text).toMatch(/blind-motor-0031\s+2026-12-01\s+blind-5slot, tooth 5\/5\s+65 × 32 AWG heavy\s+2\.030 \/ 2\.042/);
     expect(text).toMatch(/drill-lap-0112 .*7\.444 \/ 7\.472\s+—\s+—\s+ok/);
   });
 

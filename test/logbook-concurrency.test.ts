@@ -2,7 +2,7 @@
  * The store under pressure: twenty `armwind log` processes at once for the same job and date leave
  * twenty complete records and nothing else; a process killed in the middle of its write leaves no
  * record; while writers run, every file under a record's name is already complete.
- * Runs the built CLI (dist/, built by the test setup) as a user would.
+ * Runs the installed command (bin/armwind.mjs, built by the test setup) as a user would.
  */
 import { spawn } from "node:child_process";
 import { mkdtempSync, readdirSync, readFileSync, statSync } from "node:fs";
@@ -38,6 +38,8 @@ describe("the logbook store", () => {
     // watch the folder while they run: anything under a record's name must already be whole
     let watching = true;
     const seenIncomplete: string[] = [];
+    // a name seen whole is not read again (records are never rewritten), so the watcher does not starve the writers
+    const seenWhole = new Set<string>();
     const watcher = (async () => {
       while (watching) {
         let names: string[] = [];
@@ -47,10 +49,11 @@ describe("the logbook store", () => {
           names = [];
         }
         for (const n of names) {
-          if (n.startsWith(".")) continue;
+          if (n.startsWith(".") || seenWhole.has(n)) continue;
           try {
             const r = recordSchema.safeParse(parse(readFileSync(join(dir, n), "utf8")));
             if (!r.success) seenIncomplete.push(n);
+            else seenWhole.add(n);
           } catch {
             seenIncomplete.push(n);
           }

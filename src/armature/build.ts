@@ -16,7 +16,10 @@ export function passesOpening(overall: number, strands: number, opening: number)
 }
 
 export interface LayerBuild {
+  /** Turns (tooth) or conductors (lap/wave) in the first layer, the one against the tooth flank or the slot root. */
   turnsPerLayer: number;
+  /** What each layer used holds, first to last. */
+  perLayer: number[];
   layers: number;
   /** Build depth of the coil from the tooth flank (tooth) or height of the conductors in the slot (lap/wave), m. */
   build: number;
@@ -25,29 +28,74 @@ export interface LayerBuild {
   fits: boolean;
 }
 
-/**
- * Tooth coil: turns are laid along the tooth's radial length h (m, slot depth less liner); each turn
- * of k strands takes k·d; layers build out into the slot, where half the narrowest width (the root,
- * less the liner) is the room, as the neighbouring coil takes the other half.
- */
-export function toothLayerBuild(turns: number, strands: number, overall: number, slotDepth: number, widthRoot: number, liner: number): LayerBuild {
-  const along = slotDepth - 2 * liner;
-  const turnsPerLayer = Math.max(0, Math.floor(along / (strands * overall) + 1e-9));
-  const layers = turnsPerLayer > 0 ? Math.ceil(turns / turnsPerLayer) : Infinity;
-  const build = layers * overall;
-  const room = widthRoot / 2 - liner;
-  return { turnsPerLayer, layers, build, room, fits: Number.isFinite(layers) && build <= room + 1e-12 };
+/** Slot width (m) at height y (m) above the root of a trapezoid slot of depth h, root width wb, top width wt. */
+function widthAt(y: number, h: number, wt: number, wb: number): number {
+  return wb + ((wt - wb) * y) / h;
+}
+
+/** Lay `items` into layers of the given capacities (a capacity of 0 ends the build). */
+function fill(items: number, capacity: (j: number) => number, maxLayers: number): { perLayer: number[]; placed: number } {
+  const perLayer: number[] = [];
+  let placed = 0;
+  for (let j = 0; j < maxLayers && placed < items; j++) {
+    const c = capacity(j);
+    if (c <= 0) break;
+    const used = Math.min(c, items - placed);
+    perLayer.push(used);
+    placed += used;
+  }
+  return { perLayer, placed };
 }
 
 /**
- * Lap/wave slot: conductors laid in rows across the mean slot width (less the liners); rows stack
- * towards the opening and must stay within the slot depth less the liner.
+ * Tooth coil in a trapezoid slot (depth h, width wt at the air-gap side, wb at the root, liner t; m):
+ * turns of k strands of overall diameter d are laid along the tooth flank (its radial length h − 2t);
+ * layers build out from the flank into the slot, and the coil may take half the slot's width at
+ * each height, less the liner (the neighbouring coil takes the other half). Layer j (its outer
+ * edge (j + 1)·d from the flank) runs only along the heights where w(y)/2 − t ≥ (j + 1)·d, so in a
+ * slot that widens towards the gap the outer layers are shorter, not absent.
+ * Geometry of the trapezoid; common practice, no published source.
+ */
+export function toothLayerBuild(turns: number, strands: number, overall: number, slotDepth: number, widthTop: number, widthBottom: number, liner: number): LayerBuild {
+  const h = slotDepth;
+  const lo = liner;
+  const hi = h - liner;
+  const pitch = strands * overall;
+  const capacity = (j: number) => {
+    const need = 2 * ((j + 1) * overall + liner); // slot width the layer needs
+    let a = lo;
+    let b = hi;
+    if (widthTop === widthBottom) {
+      if (widthTop < need) return 0;
+    } else {
+      const y = (h * (need - widthBottom)) / (widthTop - widthBottom); // where w(y) = need
+      if (widthTop > widthBottom) a = Math.max(a, y);
+      else b = Math.min(b, y);
+    }
+    return b > a ? Math.max(0, Math.floor((b - a) / pitch + 1e-9)) : 0;
+  };
+  const room = Math.max(widthTop, widthBottom) / 2 - liner;
+  const { perLayer, placed } = fill(turns, capacity, Math.ceil(room / overall) + 1);
+  const layers = perLayer.length;
+  return { turnsPerLayer: perLayer[0] ?? 0, perLayer, layers, build: layers * overall, room, fits: placed >= turns };
+}
+
+/**
+ * Lap/wave slot (trapezoid, as above): conductors of overall diameter d laid in rows across the slot,
+ * from the root towards the opening; each row takes the slot's width where the row is narrowest,
+ * less a liner on each side; the rows must stay within the slot depth less the liner.
+ * Geometry of the trapezoid; common practice, no published source.
  */
 export function slotLayerBuild(conductors: number, overall: number, slotDepth: number, widthTop: number, widthBottom: number, liner: number): LayerBuild {
-  const width = (widthTop + widthBottom) / 2 - 2 * liner;
-  const perRow = Math.max(0, Math.floor(width / overall + 1e-9));
-  const layers = perRow > 0 ? Math.ceil(conductors / perRow) : Infinity;
-  const build = layers * overall;
   const room = slotDepth - liner;
-  return { turnsPerLayer: perRow, layers, build, room, fits: Number.isFinite(layers) && build <= room + 1e-12 };
+  const capacity = (j: number) => {
+    const y0 = liner + j * overall;
+    const y1 = y0 + overall;
+    if (y1 > room + 1e-12) return 0;
+    const w = Math.min(widthAt(y0, slotDepth, widthTop, widthBottom), widthAt(y1, slotDepth, widthTop, widthBottom)) - 2 * liner;
+    return Math.max(0, Math.floor(w / overall + 1e-9));
+  };
+  const { perLayer, placed } = fill(conductors, capacity, Math.ceil(room / overall) + 1);
+  const layers = perLayer.length;
+  return { turnsPerLayer: perLayer[0] ?? 0, perLayer, layers, build: layers * overall, room, fits: placed >= conductors };
 }

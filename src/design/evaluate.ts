@@ -19,9 +19,12 @@ import { passesOpening, slotLayerBuild, toothLayerBuild, type LayerBuild } from 
 import { bundleThickness, meanTurnLength, ridingIncrement } from "../armature/turn.js";
 import { copperFactor, COPPER_DENSITY } from "../wire/copper.js";
 import type { Wire } from "../wire/types.js";
-import { barToBar, ringNetwork, singleBrushBars, terminalResistance } from "../winding/ring.js";
+import { barToBar, coilCurrentShare, ringNetwork, singleBrushBars, terminalResistance } from "../winding/ring.js";
 import type { WindingLayout } from "../winding/types.js";
-import { currentDensity } from "../motor/density.js";
+import { currentDensityByShare, densityLimit, type DensityLimit } from "../motor/density.js";
+import type { Tolerance } from "../job/schema.js";
+import { resolveWire } from "../wire/catalogue.js";
+import { withinTolerance } from "./rank.js";
 import { keScaledByTurns } from "../motor/emf.js";
 import type { OperatingPoint } from "../motor/model.js";
 import { coilResistance, coilTurnLengths, layingOverall, meanOf, supplyOf, type ArmatureContext } from "./context.js";
@@ -79,8 +82,17 @@ export interface Evaluator {
   /** Copper fill limit in force. */
   fillLimit: number;
   goal: GoalKind;
-  /** Target in SI (rad/s, rad/s per V, A, rad/s for the duty speed, m² for restore). */
+  /** Target in SI (rad/s, rad/s per V, A, rad/s for the duty speed, m² for restore and fixed). */
   target: number;
+  tolerance: Tolerance;
+  /** The current-density limit in force and where it comes from. */
+  density: DensityLimit;
+  /** Share of the terminal current that heats one coil (1/a with equal paths; src/winding/ring.ts `coilCurrentShare`). */
+  currentShare: number;
+  /** Checks the original winding itself fails (its space fill when above the limit; the layer model). */
+  originalFails: { space_fill: number | null; layer_build: boolean };
+  /** The space-fill limit in force (the job's, at most hexagonal packing). */
+  spaceLimit: number;
   /** Terminal resistance of a ring of equal coils of 1 Ω (brushes each on one bar). */
   ringFactor: number;
   supply: number;
@@ -105,6 +117,12 @@ interface Setup {
   /** The terminal reading (Ω) of coils whose turn lengths are base + g_i·b (m), times K (Ω/m): see `terminalModel`. */
   terminalOf: (base: number, b: number, K: number) => number;
   trapezoid: boolean;
+  tolerance: Tolerance;
+  /** Share of the terminal current that heats one coil (`coilCurrentShare`). */
+  share: number;
+  density: DensityLimit;
+  /** A restore at the original's turns: the space and layer checks warn (planJob), they do not reject. */
+  geometryChecked: boolean;
 }
 
 /** Riding increment of each coil per metre of bundle thickness (0 for a dead coil): src/armature/turn.ts `ridingIncrement`, linear in the bundle. */
@@ -179,6 +197,8 @@ function goalTarget(ctx: ArmatureContext, convertRatio: number | null): number {
       return ctx.original.strands * ctx.original.wire.area;
     case "convert":
       return (ctx.original.strands * ctx.original.wire.area) / (convertRatio ?? 1);
+    case "fixed":
+      return t.fixed!.strands * resolveWire(t.fixed!.wire).area;
     case "no_load_speed":
       return t.no_load_speed!;
     case "kv":
@@ -198,10 +218,17 @@ function setupFor(ctx: ArmatureContext, cal: Calibration, supply: number, conver
   const slot = ctx.slot;
   const ringFactor = terminalResistance(layout, layout.coils.map(() => 1)).single;
   const likeRestore = t.goal === "restore" || t.goal === "convert";
+  const physics = motorPhysicsFor(ctx.job);
+  const share = coilCurrentShare(layout).rms;
+  const atPoint = t.duty !== undefined || t.rated_current !== undefined;
   return {
     ctx,
     cal,
-    physics: motorPhysicsFor(ctx.job),
+    physics,
+    tolerance: t.tolerance,
+    share,
+    density: densityLimit(t.limits.current_density, atPoint, originalDensity(ctx, cal, physics, supply, share)),
+    geometryChecked: t.goal !== "restore",
     supply,
     goal: t.goal,
     target: goalTarget(ctx, convertRatio),
@@ -228,15 +255,15 @@ function fitChecks(s: Setup, w: Winding, reasons: RejectCode[]): { copper_fill: 
     return { copper_fill: cf, space_fill: null, build: null };
   }
   const sf = spaceFill(conductors, overall, slot.free_area);
-  if (sf > s.spaceLimit + 1e-12) reasons.push("space_fill");
+  if (sf > s.spaceLimit + 1e-12 && s.geometryChecked) reasons.push("space_fill");
   if (!passesOpening(overall, w.strands, slot.opening)) reasons.push("slot_opening");
   let build: LayerBuild | null = null;
   if (s.trapezoid) {
     build =
       layout.spec.style === "tooth"
-        ? toothLayerBuild(w.turns, w.strands, overall, slot.depth!, slot.width_bottom!, slot.liner)
+        ? toothLayerBuild(w.turns, w.strands, overall, slot.depth!, slot.width_top!, slot.width_bottom!, slot.liner)
         : slotLayerBuild(conductors, overall, slot.depth!, slot.width_top!, slot.width_bottom!, slot.liner);
-    if (!build.fits) reasons.push("layer_build");
+    if (!build.fits && s.geometryChecked) reasons.push("layer_build");
   }
   return { copper_fill: cf, space_fill: sf, build };
 }
@@ -286,13 +313,16 @@ function goalFigures(s: Setup, w: Winding, terminal20: number): GoalFigures {
   switch (s.goal) {
     case "restore":
     case "convert":
+    case "fixed":
       out.achieved = w.strands * w.wire.area;
       break;
     case "no_load_speed":
       if (ke !== null) out.achieved = physics.noLoad(ke, terminal20, cal, supply)?.speed ?? null;
       break;
     case "kv":
-      if (ke !== null) out.achieved = 1 / ke; // Kv in rad/s per volt (60/(2π·Ke) rpm/V)
+      // Kv in rad/s per volt: the constant 1/Ke (60/(2π·Ke) rpm/V), or no-load speed ÷ supply (docs "Kv")
+      if (ke !== null && t.kv_basis === "no_load") out.achieved = (physics.noLoad(ke, terminal20, cal, supply)?.speed ?? 0) / supply;
+      else if (ke !== null) out.achieved = 1 / ke;
       break;
     case "stall_current":
       out.achieved = out.stall_current_cold;
@@ -306,7 +336,7 @@ function goalFigures(s: Setup, w: Winding, terminal20: number): GoalFigures {
       break;
   }
   const dc = out.dutyPoint?.current ?? t.rated_current ?? null;
-  if (dc !== null) out.current_density = currentDensity(dc, ctx.layout.paths, w.strands, w.wire.area);
+  if (dc !== null) out.current_density = currentDensityByShare(dc, s.share, w.strands, w.wire.area);
   return out;
 }
 
@@ -314,7 +344,8 @@ function goalFigures(s: Setup, w: Winding, terminal20: number): GoalFigures {
 function verdict(s: Setup, g: GoalFigures, reasons: RejectCode[]): { error: number | null; meets: boolean } {
   const t = s.ctx.job.target;
   const lim = t.limits;
-  if (lim.current_density !== undefined && g.current_density !== null && g.current_density > lim.current_density) reasons.push("current_density");
+  const cap = s.density.limit;
+  if (cap !== null && g.current_density !== null && g.current_density > cap) reasons.push("current_density");
   if (lim.hot_stall_current !== undefined && g.stall_current_hot !== null && g.stall_current_hot > lim.hot_stall_current) reasons.push("hot_stall_current");
   if (g.achieved === null) return { error: null, meets: false };
   const error = (g.achieved - s.target) / s.target;
@@ -322,10 +353,12 @@ function verdict(s: Setup, g: GoalFigures, reasons: RejectCode[]): { error: numb
   if (s.likeRestore) {
     meets = g.achieved >= RESTORE_MIN_AREA * s.target;
     if (!meets) reasons.push("below_original_copper");
-  } else if (s.goal === "stall_current") {
-    // "at most this much", hot and cold: the cold (larger) stall current within the tolerance below the limit, never above it
-    meets = error <= 1e-12 && error >= -t.tolerance;
-  } else meets = Math.abs(error) <= t.tolerance;
+  } else if (s.goal === "fixed") {
+    meets = true; // the user chose it: a limit it breaks is a warning (planJob), not a rejection
+  } else {
+    // stall_current is a limit: its bare tolerance t is { below: t, above: 0 } (src/job/schema.ts)
+    meets = withinTolerance(error, t.tolerance);
+  }
   return { error: Number.isFinite(error) ? error : null, meets };
 }
 
@@ -347,7 +380,7 @@ function candidate(s: Setup, w: Winding, mlt: number, coilOhm: number, terminal2
     ke: g.ke,
     achieved: g.achieved,
     error: v.error,
-    meets_goal: v.meets && reasons.length === 0,
+    meets_goal: v.meets && (s.goal === "fixed" || reasons.length === 0),
     rejected_because: reasons,
     copper_mass: COPPER_DENSITY * w.wire.area * w.strands * w.turns * mlt * s.ctx.liveCoils,
     current_density: g.current_density,
@@ -380,7 +413,7 @@ function dutyOf(s: Setup, w: Winding, ke: number | null, terminalHot: number): D
     efficiency: p.efficiency,
     input_w: p.inputW,
     output_w: p.outputW,
-    current_density: currentDensity(p.current, s.ctx.layout.paths, w.strands, w.wire.area),
+    current_density: currentDensityByShare(p.current, s.share, w.strands, w.wire.area),
   };
 }
 
@@ -416,9 +449,52 @@ export function makeEvaluator(ctx: ArmatureContext, cal: Calibration, supply = s
     fillLimit: s.fillLimit,
     goal: s.goal,
     target: s.target,
+    tolerance: s.tolerance,
+    density: s.density,
+    currentShare: s.share,
+    originalFails: originalChecks(s),
+    spaceLimit: s.spaceLimit,
     ringFactor: s.ringFactor,
     supply,
   };
+}
+
+/**
+ * The checks the original winding itself fails: its space fill (when above the limit, else null)
+ * and whether the layer model says its turns do not fit (trapezoid slots only), with the old
+ * wire's overall diameter as laid (src/design/context.ts `layingOverall`).
+ */
+function originalChecks(s: Setup): { space_fill: number | null; layer_build: boolean } {
+  const { ctx } = s;
+  const o = ctx.original;
+  const overall = layingOverall(o.wire).overall;
+  const conductors = ctx.sides * o.turns * o.strands;
+  const sf = spaceFill(conductors, overall, ctx.slot.free_area);
+  let layer = false;
+  if (s.trapezoid) {
+    const sl = ctx.slot;
+    const b =
+      ctx.layout.spec.style === "tooth"
+        ? toothLayerBuild(o.turns, o.strands, overall, sl.depth!, sl.width_top!, sl.width_bottom!, sl.liner)
+        : slotLayerBuild(conductors, overall, sl.depth!, sl.width_top!, sl.width_bottom!, sl.liner);
+    layer = !b.fits;
+  }
+  return { space_fill: sf > s.spaceLimit + 1e-12 ? sf : null, layer_build: layer };
+}
+
+/**
+ * The original winding's current density in each strand (A/m²) where the limit is checked: its
+ * duty current at the duty torque (hot, calibrated model), else the rated current; null when
+ * neither can be known. J = I·share/(k·A) (src/motor/density.ts).
+ */
+function originalDensity(ctx: ArmatureContext, cal: Calibration, physics: MotorPhysics, supply: number, share: number): number | null {
+  const t = ctx.job.target;
+  const o = ctx.original;
+  let current: number | null = t.rated_current ?? null;
+  if (t.duty && cal.ke !== null && physics.field === "constant") {
+    current = physics.atTorque(cal.ke, o.terminal20 * copperFactor(t.hot_temperature), cal, supply, t.duty.torque)?.current ?? null;
+  }
+  return current === null ? null : currentDensityByShare(current, share, o.strands, o.wire.area);
 }
 
 /**

@@ -62,7 +62,7 @@ export function stockWires(job: Job): { wires: Wire[]; warnings: Warning[] } {
 }
 
 function goalReport(ev: Evaluator, c: Candidate, tolerance: Job["target"]["tolerance"]): GoalReport {
-  return { kind: ev.goal, target: ev.target, achieved: c.achieved, error_fraction: c.error, tolerance };
+  return { kind: ev.goal, target: ev.target, achieved: c.achieved, error_fraction: c.error, tolerance, fixed: ev.goal === "fixed" ? { turns: c.turns, wire: c.wire.label, strands: c.strands } : null };
 }
 
 /** The sweep over the stock (restore: the original's turns only; convert: the original's × the conversion ratio). */
@@ -71,7 +71,8 @@ function runSweep(ev: Evaluator, ctx: ArmatureContext, wires: Wire[], ratio: num
   return sweep(ev, {
     wires,
     maxInHand: job.max_in_hand,
-    fixedTurns: ev.goal === "restore" ? job.original.turns : ratio !== null ? Math.max(1, Math.round(job.original.turns * ratio)) : undefined,
+    fixedTurns: ev.goal === "restore" ? job.original.turns : ev.goal === "fixed" ? job.target.fixed!.turns : ratio !== null ? Math.max(1, Math.round(job.original.turns * ratio)) : undefined,
+    fixedStrands: ev.goal === "fixed" ? job.target.fixed!.strands : undefined,
     sides: ctx.sides,
     freeArea: ctx.slot.free_area,
   });
@@ -228,7 +229,7 @@ export function planJob(job: Job, options: PlanOptions = {}): Plan {
   if (job.original.wire.assumed) warnings.push({ code: "wire_assumed", path: "original.wire", message: job.original.wire.assumed });
   warnings.push(...calibrationWarnings);
   const { volts: supply, kind: supplyKind } = supplyOf(job);
-  const stock = stockWires(job);
+  const stock = fixedOrStock(job);
   warnings.push(...stock.warnings);
   if (ev.goal !== "restore" && ev.goal !== "convert" && cal.ke === null) {
     warnings.push({ code: "goal_uncalibrated", path: "target.goal", message: `the ${ev.goal.replace(/_/g, " ")} cannot be predicted without a calibrated Ke; the plan falls back to the most copper that fits` });
@@ -244,6 +245,7 @@ export function planJob(job: Job, options: PlanOptions = {}): Plan {
   const series = seriesOf(job, seriesSetup, chosen, ctx, ratio, warnings);
   motorWarnings(job, supply, chosen, original, seriesSetup, warnings);
   originalFillWarnings(ctx, ev.goal, warnings);
+  warnings.push(...limitWarnings(ev, chosen));
   const coils: CoilPlan[] = ctx.layout.coils.map((c, i) => ({ ...c, turns: chosen.turns, mlt: chosen.coil_mlt[i], ohm: chosen.coil_ohms[i] }));
   return {
     job,
@@ -275,6 +277,78 @@ export function planJob(job: Job, options: PlanOptions = {}): Plan {
     warnings: dedupeWarnings(warnings),
     learning: options.logbook ? { records: options.logbook.records, moves: options.logbook.moves ?? [] } : null,
   };
+}
+
+/** Goal `fixed`: the chosen wire alone (its build or grade said when assumed); else the stock. */
+function fixedOrStock(job: Job): { wires: Wire[]; warnings: Warning[] } {
+  const f = job.target.fixed;
+  if (job.target.goal !== "fixed" || !f) return stockWires(job);
+  const warnings: Warning[] = [];
+  if (f.wire.assumed) warnings.push({ code: "wire_assumed", path: "target.fixed.wire", message: f.wire.assumed });
+  return { wires: [resolveWire(f.wire)], warnings };
+}
+
+/** What to re-measure when a check disagrees with a winding that fitted. */
+const REMEASURE: Partial<Record<RejectCode, { path: string; what: string }>> = {
+  space_fill: { path: "armature.slot", what: "the slot's area (or its widths and depth), the liner and the old wire's overall diameter" },
+  layer_build: { path: "armature.slot", what: "the slot's depth and its widths at the top and at the root, and the liner" },
+};
+
+/**
+ * Warnings for the limits in force: the current-density default; the limits a `fixed` winding
+ * breaks (planned anyway); the checks a `restore`'s original itself fails (planned anyway, naming
+ * the geometry to re-measure). DESIGN.md "Choosing among candidates".
+ */
+function limitWarnings(ev: Evaluator, chosen: Candidate): Warning[] {
+  const out: Warning[] = [];
+  const d = ev.density;
+  if (d.basis === "default" || d.basis === "original") {
+    out.push({
+      code: "current_density_default",
+      path: "target.limits.current_density",
+      message:
+        d.basis === "default"
+          ? `no current_density limit given: ${d.limit! / 1e6} A/mm² in each strand applies (common practice for small fan-cooled motors, no published source); write current_density: none to turn it off`
+          : `no current_density limit given: the original winding's own ${(d.limit! / 1e6).toPrecision(3)} A/mm² at that point applies (above the usual 10 A/mm², and it survived); write current_density: none to turn it off`,
+    });
+  }
+  if (ev.goal === "fixed") {
+    for (const r of chosen.rejected_because) {
+      out.push({ code: "limit_broken", path: `target.limits.${r === "below_original_copper" ? "copper_fill" : r}`, message: `the winding chosen breaks a limit: ${reasonText(r)}; it is planned as given` });
+    }
+  }
+  if (ev.goal === "restore") out.push(...restoreGeometryWarnings(ev, chosen));
+  return out;
+}
+
+/**
+ * A restore is wound at the original's turns, which fitted: where the space-fill or layer check
+ * says the chosen winding (or the original itself) does not fit the slot, the slot's recorded
+ * geometry or the old wire's assumed overall diameter is what is wrong. Warn, naming what to re-measure.
+ */
+function restoreGeometryWarnings(ev: Evaluator, chosen: Candidate): Warning[] {
+  const out: Warning[] = [];
+  const o = ev.originalFails;
+  const spaceFails = chosen.space_fill !== null && chosen.space_fill > ev.spaceLimit + 1e-12;
+  if (spaceFails || o.space_fill !== null) {
+    const sf = Math.max(chosen.space_fill ?? 0, o.space_fill ?? 0);
+    const m = REMEASURE.space_fill!;
+    out.push({
+      code: "original_disagrees",
+      path: m.path,
+      message: `the wires' overall circles would fill ${(sf * 100).toFixed(1)} % of the free slot area, above the ${(ev.spaceLimit * 100).toFixed(0)} % limit, yet the original was wound at these turns: the restore is planned; re-measure ${m.what}`,
+    });
+  }
+  const layerFails = chosen.build !== null && !chosen.build.fits;
+  if (layerFails || o.layer_build) {
+    const m = REMEASURE.layer_build!;
+    out.push({
+      code: "original_disagrees",
+      path: m.path,
+      message: `the layer model says ${layerFails ? `${chosen.turns} turns of ${chosen.wire.label}` : "the original's turns"} do not fit the slot${o.layer_build ? ", nor did the original's" : ""}, yet the original was wound at these turns: the restore is planned; re-measure ${m.what}`,
+    });
+  }
+  return out;
 }
 
 function dedupeWarnings(ws: Warning[]): Warning[] {

@@ -1,14 +1,13 @@
 /**
  * The candidate sweep: every turns count that could fit × every stock wire × 1 … max_in_hand
- * strands, each evaluated, and ranked as DESIGN.md's "choosing among candidates" says:
- * those within tolerance of the goal meet it; among them the least resistance (most copper) wins,
- * then fewer strands, then less copper mass (restore: the copper area closest to the original's;
- * duty: the least input power); when none meets it the nearest wins.
+ * strands, each evaluated, and ranked as DESIGN.md's "choosing among candidates" says (the rule
+ * lives in ./rank.ts): the turns count nearest the goal, then the most copper at that count.
  */
 import { maxConductorsForFill } from "../armature/fill.js";
 import type { Wire } from "../wire/types.js";
 import type { Evaluator } from "./evaluate.js";
 import type { Candidate, RejectCode } from "./types.js";
+import { compareMissing, MeetingRank, TopList } from "./rank.js";
 
 /** Turns beyond the fill limit that are still swept, so that near misses show: 15 % (armwind's own choice). */
 const OVERSHOOT = 0.15;
@@ -18,8 +17,10 @@ export const MAX_TURNS = 5000;
 export interface SweepOptions {
   wires: Wire[];
   maxInHand: number;
-  /** Restore: only these turns. */
+  /** Restore and fixed: only these turns. */
   fixedTurns?: number;
+  /** Fixed: only this many strands in hand. */
+  fixedStrands?: number;
   sides: number;
   freeArea: number;
 }
@@ -33,59 +34,16 @@ export interface SweepResult {
   meeting: number;
 }
 
-/** Compare two candidates that both meet the goal: negative when `a` is better. */
-export function compareMeeting(goal: Evaluator["goal"], a: Candidate, b: Candidate): number {
-  if (goal === "restore" || goal === "convert") {
-    const d = Math.abs(a.error!) - Math.abs(b.error!);
-    if (Math.abs(d) > 1e-9) return d;
-  } else if (goal === "duty" && a.duty_input_w !== null && b.duty_input_w !== null) {
-    const d = a.duty_input_w - b.duty_input_w;
-    if (Math.abs(d) > 1e-9 * Math.max(1, a.duty_input_w)) return d;
-  }
-  const r = a.terminal_ohm - b.terminal_ohm;
-  if (Math.abs(r) > 1e-12 * Math.max(1, a.terminal_ohm)) return r;
-  if (a.strands !== b.strands) return a.strands - b.strands;
-  return a.copper_mass - b.copper_mass;
-}
-
-/** Compare two candidates that miss: the nearer to the goal first, then fewer rejections. */
-export function compareMissing(a: Candidate, b: Candidate): number {
-  const ea = a.error === null ? Infinity : Math.abs(a.error);
-  const eb = b.error === null ? Infinity : Math.abs(b.error);
-  const fa = a.rejected_because.length === 0 ? 0 : 1;
-  const fb = b.rejected_because.length === 0 ? 0 : 1;
-  if (fa !== fb) return fa - fb;
-  if (ea !== eb) return ea - eb;
-  return a.terminal_ohm - b.terminal_ohm;
-}
-
-/** A best-first list of at most `size` items under `cmp`, kept by insertion (the sweep keeps only what it shows). */
-class TopList<T> {
-  readonly items: T[] = [];
-  constructor(
-    private readonly size: number,
-    private readonly cmp: (a: T, b: T) => number,
-  ) {}
-  offer(x: T): void {
-    const items = this.items;
-    if (items.length >= this.size && this.cmp(x, items[items.length - 1]) >= 0) return;
-    let i = items.length;
-    while (i > 0 && this.cmp(x, items[i - 1]) < 0) i--;
-    items.splice(i, 0, x);
-    if (items.length > this.size) items.pop();
-  }
-}
-
 export function sweep(ev: Evaluator, opts: SweepOptions, keep = 20): SweepResult {
-  const meeting = new TopList<Candidate>(keep, (a, b) => compareMeeting(ev.goal, a, b));
-  const nearest = new TopList<Candidate>(keep, compareMissing);
-  const nearFit = new TopList<Candidate>(5, compareMissing);
-  const nearOver = new TopList<Candidate>(5, compareMissing);
+  const meeting = new MeetingRank(ev.goal, keep);
+  const missing = compareMissing(ev.tolerance);
+  const nearest = new TopList<Candidate>(keep, missing);
+  const nearFit = new TopList<Candidate>(5, missing);
+  const nearOver = new TopList<Candidate>(5, missing);
   const rejections: Partial<Record<RejectCode, number>> = {};
   let total = 0;
-  let meetingCount = 0;
   for (const wire of opts.wires) {
-    for (let k = 1; k <= opts.maxInHand; k++) {
+    for (let k = opts.fixedStrands ?? 1; k <= (opts.fixedStrands ?? opts.maxInHand); k++) {
       let lo = 1;
       let hi: number;
       if (opts.fixedTurns !== undefined) {
@@ -100,7 +58,6 @@ export function sweep(ev: Evaluator, opts: SweepOptions, keep = 20): SweepResult
         for (const r of c.rejected_because) rejections[r] = (rejections[r] ?? 0) + 1;
         if (c.meets_goal) {
           meeting.offer(c);
-          meetingCount++;
         } else {
           nearest.offer(c);
           (c.rejected_because.length === 0 ? nearFit : nearOver).offer(c);
@@ -108,9 +65,10 @@ export function sweep(ev: Evaluator, opts: SweepOptions, keep = 20): SweepResult
       }
     }
   }
-  const best = meeting.items[0] ?? nearest.items[0] ?? null;
-  const shown = meetingCount === 0 ? nearest.items : [...meeting.items, ...nearFit.items, ...nearOver.items];
-  return { best, shown: dedupe(shown), total, rejections, meeting: meetingCount };
+  const ranked = meeting.ranked();
+  const best = ranked[0] ?? nearest.items[0] ?? null;
+  const shown = meeting.count === 0 ? nearest.items : [...ranked, ...nearFit.items, ...nearOver.items];
+  return { best, shown: dedupe(shown), total, rejections, meeting: meeting.count };
 }
 
 function dedupe(cs: Candidate[]): Candidate[] {

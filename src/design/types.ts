@@ -63,8 +63,10 @@ export interface GoalReport {
   achieved: number | null;
   /** (achieved − target)/target, signed; null when unknowable. */
   error_fraction: number | null;
-  /** The tolerance as the job gave it. */
+  /** The tolerance band, fractions below and above the target (a bare t in the job is ±t; stall_current: −t, never above). */
   tolerance: Job["target"]["tolerance"];
+  /** Goal fixed: the winding the user chose; else null. */
+  fixed: { turns: number; wire: string; strands: number } | null;
 }
 
 export interface CoilPlan extends Coil {

@@ -6,10 +6,15 @@ import type { GoalReport } from "../design/types.js";
 import { pctGiven } from "./number.js";
 import { GOAL_UNIT, goalValue } from "./units.js";
 
-/** A tolerance as written: a bare t is ±t (a `stall_current` limit: −t, never above); `{ below, above }` is −below/+above. */
+/**
+ * A tolerance as written: a bare t is ±t (a `stall_current` limit: −t, never above); `{ below, above }`
+ * is −below/+above, a side of 0 "never above" or "never below".
+ */
 export function toleranceText(kind: GoalReport["kind"], tol: number | { below: number; above: number }): string {
-  if (typeof tol === "number") return kind === "stall_current" ? `−${pctGiven(tol)} %` : `±${pctGiven(tol)} %`;
+  if (typeof tol === "number") return kind === "stall_current" ? `−${pctGiven(tol)} %, never above` : `±${pctGiven(tol)} %`;
   if (tol.below === tol.above) return `±${pctGiven(tol.below)} %`;
+  if (tol.above === 0) return `−${pctGiven(tol.below)} %, never above`;
+  if (tol.below === 0) return `+${pctGiven(tol.above)} %, never below`;
   return `−${pctGiven(tol.below)} %/+${pctGiven(tol.above)} %`;
 }
 
@@ -26,6 +31,10 @@ export function goalSummary(goal: GoalReport): string {
   const err = goal.error_fraction;
   if (achieved === null || err === null) return `the ${goal.kind.replace(/_/g, " ")} cannot be predicted: nothing calibrates the motor`;
   const signed = `${err >= 0 ? "+" : "−"}${Math.abs(err * 100).toFixed(1)} %`;
+  if (goal.fixed) {
+    const f = goal.fixed;
+    return `the winding chosen: ${f.turns} turns of ${f.wire}${f.strands > 1 ? `, ${f.strands} in hand` : ""} (copper area ${fig(achieved)} mm²)`;
+  }
   if (goal.kind === "restore") return `copper area ${fig(achieved)} mm² against the original's ${fig(target)} mm² (${signed})`;
   if (goal.kind === "convert") return `copper area ${fig(achieved)} mm² against the converted winding's ${fig(target)} mm² (${signed})`;
   const atMost = goal.kind === "stall_current" ? "at most " : "";

@@ -33,6 +33,7 @@ export function convert(x: number | null | undefined, f: (x: number) => number):
 /** The unit a goal's target and achieved values are given in, outside the core (the `--json` key `goal.unit`). */
 export const GOAL_UNIT: Record<GoalKind, string> = {
   restore: "mm2",
+  fixed: "mm2",
   no_load_speed: "rpm",
   kv: "rpm/V",
   stall_current: "A",
@@ -47,6 +48,7 @@ export const GOAL_UNIT: Record<GoalKind, string> = {
 export function goalValue(kind: GoalKind, si: number | null | undefined): number | null {
   switch (kind) {
     case "restore":
+    case "fixed":
     case "convert":
       return convert(si, toMm2);
     case "no_load_speed":

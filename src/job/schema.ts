@@ -246,7 +246,45 @@ const dutySchema = z.strictObject({
   speed: qty("speed", { positive: true }),
 });
 
-export const GOALS = ["restore", "no_load_speed", "kv", "stall_current", "duty", "convert"] as const;
+export const GOALS = ["restore", "no_load_speed", "kv", "stall_current", "duty", "convert", "fixed"] as const;
+
+/** The two senses of Kv (DESIGN.md "Kv"): the motor constant 60/(2π·Ke), or no-load speed ÷ supply. */
+export const KV_BASES = ["constant", "no_load"] as const;
+
+/**
+ * A tolerance on the goal: a bare fraction (± that much; for `stall_current`, a limit, t below and
+ * nothing above) or `{ below, above }`, each side a fraction 0 … 0.5 (0: that side not allowed).
+ * DESIGN.md "Choosing among candidates".
+ */
+const toleranceSchema = z.union([
+  fraction({ max: 0.5, positive: true }),
+  z
+    .strictObject({
+      below: fraction({ max: 0.5 }),
+      above: fraction({ max: 0.5 }),
+    })
+    .meta({ description: "one-sided or asymmetric tolerance: { below: 0.02, above: 0.08 }" }),
+]);
+
+/** A tolerance as the core uses it: the fraction allowed below and above the goal. */
+export interface Tolerance {
+  below: number;
+  above: number;
+}
+
+/** Bare t → ±t, except for a `stall_current` limit, never exceeded: { below: t, above: 0 } (DESIGN.md). */
+export function toleranceOf(given: number | Tolerance, goal: (typeof GOALS)[number]): Tolerance {
+  if (typeof given !== "number") return given;
+  return goal === "stall_current" ? { below: given, above: 0 } : { below: given, above: given };
+}
+
+const fixedSchema = z
+  .strictObject({
+    turns: count(1, "turns per coil of the chosen winding").max(100000),
+    wire: wireRole("stock"),
+    strands: count(1, "strands in hand").max(20).prefault(1),
+  })
+  .meta({ description: "goal fixed: the winding chosen, { turns: 45, wire: 0.25 mm grade 2, strands: 1 }" });
 
 
 const jobShape = z.strictObject({
@@ -308,18 +346,23 @@ const jobShape = z.strictObject({
       kv: qty("speed_per_volt", { positive: true }).optional(),
       stall_current: qty("current", { positive: true }).optional(),
       duty: dutySchema.optional(),
-      tolerance: fraction({ max: 0.5, positive: true }).prefault(0.03),
+      fixed: fixedSchema.optional(),
+      kv_basis: z.enum(KV_BASES).prefault("constant").meta({ description: "goal kv: constant (60/(2π·Ke), default) or no_load (no-load speed ÷ supply)" }),
+      tolerance: toleranceSchema.prefault(0.03),
       rated_current: qty("current", { positive: true }).optional(),
       limits: z
         .strictObject({
           copper_fill: fraction({ max: 0.9, positive: true }).prefault(0.4),
           space_fill: fraction({ max: 0.907, positive: true }).prefault(0.7),
-          current_density: qty("current_density", { positive: true }).optional(),
+          current_density: z
+            .union([z.literal("none").meta({ description: "none: no current-density limit" }), qty("current_density", { positive: true })])
+            .optional(),
           hot_stall_current: qty("current", { positive: true }).optional(),
         })
         .prefault({}),
       hot_temperature: qty("temperature", TEMP).prefault(80),
-    }),
+    })
+    .transform((t) => ({ ...t, tolerance: toleranceOf(t.tolerance, t.goal) })),
     wire_stock: z.array(wireRole("stock")).min(1).optional(),
     max_in_hand: count(1, "most strands wound together").max(8).prefault(1),
   });
@@ -331,6 +374,7 @@ export const jobSchema = jobShape.superRefine((job, ctx) => {
       kv: t.kv,
       stall_current: t.stall_current,
       duty: t.duty,
+      fixed: t.fixed,
     };
     if (t.goal in need && need[t.goal] === undefined) {
       const ex: Record<string, string> = {
@@ -338,6 +382,7 @@ export const jobSchema = jobShape.superRefine((job, ctx) => {
         kv: "kv: 600 rpm/V",
         stall_current: "stall_current: 3 A",
         duty: "duty: { torque: 4 mN m, speed: 5000 rpm }",
+        fixed: "fixed: { turns: 45, wire: 0.25 mm grade 2, strands: 1 }",
       };
       ctx.addIssue({
         code: "custom",
@@ -347,6 +392,14 @@ export const jobSchema = jobShape.superRefine((job, ctx) => {
       });
     }
     seriesRules(job, ctx);
+    if (t.limits.current_density === "none" && t.duty === undefined && t.rated_current === undefined) {
+      ctx.addIssue({
+        code: "custom",
+        path: ["target", "limits", "current_density"],
+        message: "current_density: none turns off a limit that applies only with a duty or a rated_current, and this job gives neither; remove the line, or add rated_current: 0.9 A",
+        params: { code: "limit_unused" },
+      });
+    }
     if (job.armature.field_poles % 2 !== 0) {
       ctx.addIssue({
         code: "custom",

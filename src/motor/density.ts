@@ -33,3 +33,38 @@ export function stallCurrentDensity(supply: number, brushDrop: number, resistivi
   requirePositive(pathWireLength, "wire length of one path", "wire");
   return Math.max(0, supply - brushDrop) / (resistivity * pathWireLength);
 }
+
+/**
+ * Current density in each strand from the share of the terminal current one coil carries
+ * (`coilCurrentShare` of the ring: 1/a for equal paths): J = I · share / (k · A), A/m².
+ * I terminal current (A), k strands in hand, A bare area of one strand (m²). With equal paths this
+ * is `currentDensity(I, a, k, A)`. Source: definition of current density; DESIGN.md.
+ */
+export function currentDensityByShare(current: number, share: number, strands: number, strandArea: number): number {
+  requirePositive(share, "share of the current", "winding");
+  return currentDensity(current, 1 / share, strands, strandArea);
+}
+
+/** Default limit on the current density in each strand: 10 A/mm² (common practice for small fan-cooled motors, no published source). */
+export const DEFAULT_DENSITY_LIMIT = 10e6;
+
+export interface DensityLimit {
+  /** A/m², or null when no limit applies. */
+  limit: number | null;
+  /** given: the job's; default: 10 A/mm²; original: the original winding's own (higher) density; none: turned off; no_point: no duty or rated current to check at. */
+  basis: "given" | "default" | "original" | "none" | "no_point";
+}
+
+/**
+ * The current-density limit in force (DESIGN.md `target.limits.current_density`): the job's value
+ * when given; `none` turns it off; with no duty or rated current there is nothing to check it at;
+ * else 10 A/mm², or the original winding's own density at that point when higher (it survived).
+ * `originalDensity` in A/m² (null when it cannot be known).
+ */
+export function densityLimit(given: number | "none" | undefined, atPoint: boolean, originalDensity: number | null): DensityLimit {
+  if (typeof given === "number") return { limit: given, basis: "given" };
+  if (given === "none") return { limit: null, basis: "none" };
+  if (!atPoint) return { limit: null, basis: "no_point" };
+  if (originalDensity !== null && originalDensity > DEFAULT_DENSITY_LIMIT) return { limit: originalDensity, basis: "original" };
+  return { limit: DEFAULT_DENSITY_LIMIT, basis: "default" };
+}

@@ -525,3 +525,51 @@ export function terminalResistance(layout: WindingLayout, coilOhm: number[]): Te
 function fmtBars(x: number): string {
   return Number.isInteger(x) ? String(x) : x.toFixed(2);
 }
+
+/** How the terminal current divides among the coils (fractions of it), for the current density. */
+export interface CurrentShare {
+  /** Root mean square over a turn of the rotor of one coil's share of the terminal current: what heats it. */
+  rms: number;
+  /** The largest share any coil carries at some rotor position (the shortest arc between brushes). */
+  peak: number;
+  /** True when the paths are unequal (a lap with fewer brushes than poles and no equalizers). */
+  unequal: boolean;
+}
+
+/**
+ * The share of the terminal current in each coil. Equal paths (tooth and 2-pole lap rings, wave,
+ * lap with P brushes or with equalizers): 1/a of it in every coil. A P-pole lap with fewer brushes
+ * than poles and no equalizers: brush j on bar 1 + ⌊j·C/P⌋ (as `terminalResistance`), + and −
+ * alternately; each arc between a + and a − brush has the same EMF (it spans an odd number of pole
+ * pitches, the inner ones cancelling in pairs) and the same voltage across it, so the arcs carry
+ * currents inversely as their coil counts m_i: share_i = (1/m_i) / Σ(1/m_j) (Kirchhoff, equal
+ * coils); an arc between like brushes carries none. A coil spends m_i/C of a turn in arc i, so the
+ * share that heats it is √(Σ m_i/C · share_i²). Two brushes on four poles: arcs C/4 and 3C/4 carry
+ * ¾ and ¼; the heating share √(¼·(¾)² + ¾·(¼)²) = √3/4 ≈ 0.433, against ¼ with four paths.
+ * Source: Kirchhoff's laws on the ring of equal coils; the RMS over a turn is armwind's own step.
+ */
+export function coilCurrentShare(layout: WindingLayout): CurrentShare {
+  const C = layout.bars;
+  const P = layout.spec.poles;
+  const count = layout.spec.brushes.count;
+  if (layout.spec.style !== "lap" || layout.equalizers || count >= P) {
+    return { rms: 1 / layout.paths, peak: 1 / layout.paths, unequal: false };
+  }
+  const pos: number[] = [];
+  for (let j = 0; j < count; j++) pos.push(1 + Math.floor((j * C) / P));
+  const arcs = pos.map((p, j) => {
+    const next = j + 1 < count ? pos[j + 1] : pos[0] + C;
+    const live = j + 1 < count || count % 2 === 0; // the closing arc joins unlike brushes only for an even count
+    return { m: next - p, live };
+  });
+  const g = arcs.reduce((s, a) => s + (a.live && a.m > 0 ? 1 / a.m : 0), 0);
+  let ms = 0;
+  let peak = 0;
+  for (const a of arcs) {
+    if (!a.live || a.m <= 0) continue;
+    const share = 1 / a.m / g;
+    ms += (a.m / C) * share * share;
+    peak = Math.max(peak, share);
+  }
+  return { rms: Math.sqrt(ms), peak, unequal: true };
+}

@@ -12,8 +12,8 @@ import { jobSchema, type Job } from "../../src/job/schema.js";
 import type { Io } from "../../src/cli/io.js";
 
 export const ROOT = resolve(import.meta.dirname, "../..");
-/** The built command, as `bin/armwind.mjs` runs it (built by `npm install`, and by the slow project's global setup). */
-export const CLI = join(ROOT, "dist/cli/main.js");
+/** The installed command: bin/armwind.mjs runs the bundle dist/armwind.cjs (built by `npm install`, and by the slow project's global setup). */
+export const CLI = join(ROOT, "bin/armwind.mjs");
 
 export interface CliResult {
   status: number;

@@ -1,0 +1,80 @@
+#!/usr/bin/env node
+/**
+ * The build (`npm run build`, and `npm install` through `prepare`):
+ *  1. `tsc -p tsconfig.build.json` → dist/ (module per file; kept for tools that import the compiled modules);
+ *  2. esbuild bundles the CLI into one script, dist/armwind.cjs, which bin/armwind.mjs runs:
+ *     every dependency inside except what must stay on disk (see `external`); modules loaded with
+ *     `await import()` (each command, the card, pdfkit) are compiled in but run only when asked;
+ *     fontkit's brotli decoder (WOFF2 only; the card embeds TrueType unpacked from WOFF 1.0) is
+ *     replaced by a stub that refuses WOFF2;
+ *  3. a V8 code cache for the bundle, dist/armwind.cjs.cache, made by running a plan and a card in
+ *     this process (bin/armwind.mjs hands it to vm.Script; Node 20 has no module compile cache).
+ * ARMWIND_NO_CODE_CACHE=1 skips step 3.
+ */
+import { execFileSync } from "node:child_process";
+import { readFileSync, rmSync } from "node:fs";
+import { dirname, join, relative, resolve } from "node:path";
+import { fileURLToPath } from "node:url";
+
+const ROOT = resolve(dirname(fileURLToPath(import.meta.url)), "..");
+const DIST = join(ROOT, "dist");
+
+execFileSync(process.execPath, [join(ROOT, "node_modules/typescript/bin/tsc"), "-p", join(ROOT, "tsconfig.build.json")], { stdio: "inherit", cwd: ROOT });
+
+const esbuild = await import("esbuild");
+
+/** `import.meta.url` of each bundled file: its own place on disk, found from the bundle's folder at run time. */
+const metaUrl = {
+  name: "import-meta-url",
+  setup(build) {
+    build.onLoad({ filter: /\.(m?[jt]s|cjs)$/ }, (args) => {
+      const text = readFileSync(args.path, "utf8");
+      if (!text.includes("import.meta")) return undefined;
+      const rel = relative(DIST, args.path).split("\\").join("/");
+      const url = `__armwindUrl(${JSON.stringify(rel)})`;
+      const contents = text.replaceAll("import.meta.url", url).replaceAll("import.meta.dirname", `__armwindDir(${JSON.stringify(rel)})`);
+      const ext = args.path.split(".").pop();
+      return { contents, loader: ext === "ts" ? "ts" : "js", resolveDir: dirname(args.path) };
+    });
+  },
+};
+
+/** fontkit's brotli decoder serves WOFF2 only; the card never loads a WOFF2 font. */
+const noBrotli = {
+  name: "no-brotli",
+  setup(build) {
+    build.onResolve({ filter: /^brotli(\/decompress(\.js)?)?$/ }, () => ({ path: "brotli", namespace: "armwind-stub" }));
+    build.onLoad({ filter: /.*/, namespace: "armwind-stub" }, () => ({
+      contents: 'export default function decompress() { throw new Error("WOFF2 fonts are not supported (armwind embeds WOFF 1.0 and TrueType fonts)"); }',
+      loader: "js",
+    }));
+  },
+};
+
+rmSync(join(DIST, "armwind.cjs.cache"), { force: true });
+const result = await esbuild.build({
+  entryPoints: [join(ROOT, "src/cli/main.ts")],
+  outfile: join(DIST, "armwind.cjs"),
+  bundle: true,
+  platform: "node",
+  target: "node20",
+  format: "cjs",
+  plugins: [metaUrl, noBrotli],
+  logLevel: "warning",
+  legalComments: "none",
+  // a file's own place from the bundle's folder (a module's local `require` may shadow the bundle's, so these are named apart)
+  // (function declarations at the end, so that "use strict" stays the bundle's first statement)
+  footer: {
+    js: [
+      'function __armwindUrl(rel) { return require("node:url").pathToFileURL(require("node:path").join(__armwindDist, rel)).href; }',
+      'function __armwindDir(rel) { return require("node:path").dirname(require("node:path").join(__armwindDist, rel)); }',
+    ].join("\n"),
+  },
+  metafile: true,
+});
+const bytes = result.metafile.outputs[relative(ROOT, join(DIST, "armwind.cjs"))]?.bytes;
+
+if (process.env.ARMWIND_NO_CODE_CACHE !== "1") {
+  execFileSync(process.execPath, [join(ROOT, "scripts/code-cache.mjs")], { stdio: "inherit", cwd: ROOT });
+}
+console.log(`build: dist/ (tsc) and dist/armwind.cjs (${bytes ? (bytes / 1024).toFixed(0) + " KiB" : "bundle"})`);
