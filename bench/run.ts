@@ -3,7 +3,8 @@
  *  1. the candidate sweep over the whole catalogue with 4 strands in hand (≥ 100 000 candidates);
  *  2. a whole `armwind card` process against a whole Node process writing a one-page PDF with bare pdfkit;
  *  3. reading a logbook of a thousand records for `history` (when bench/history.ts exists);
- *  4. a 400-bar lap plan and diagnose on 400 bars, in-process (bench/ring.ts).
+ *  4. a 400-bar lap plan and diagnose on 400 bars, in-process (bench/ring.ts);
+ *  5. the workbench: a form change to its new plan, and the first page from a cold `armwind serve` (bench/web.ts).
  * Run after `npm run build` (the npm script does it): the card process is the built CLI.
  */
 import { spawnSync } from "node:child_process";
@@ -78,3 +79,4 @@ benchSweep();
 benchCard();
 await benchHistory();
 benchRing();
+await import("./web.js");

@@ -81,6 +81,16 @@ function checkSpec(spec: WindingSpec): void {
     if (C !== S) {
       throw inputError("bars_mismatch", "armature.bars", `a tooth winding has one bar per tooth: bars must equal slots (${S}), got ${C}`);
     }
+    if (P > S) {
+      // a tooth then spans more than a pole pitch: a coil's two sides lie under poles of the same
+      // polarity and partly cancel, and brushes a pole pitch apart would meet on one bar
+      const fit = P - 2 * Math.ceil((P - S) / 2);
+      throw inputError(
+        "poles_invalid",
+        "armature.field_poles",
+        `a tooth winding needs at least as many teeth as field poles: ${P} poles on ${S} teeth put each coil across more than a pole pitch, where its sides cancel; count the stator's poles again (at most ${fit} here) or the slots`,
+      );
+    }
     return;
   }
 
