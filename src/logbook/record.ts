@@ -59,7 +59,7 @@ export interface RecordPredicted {
   coil_ohm: number[];
   bar_to_bar_ohm: number[];
   terminal_ohm: number;
-  terminal_min_ohm: number;
+  terminal_min_ohm: number | null;
   terminal_max_ohm: number;
   /** At the job's supply, winding at 20 °C. */
   supply_v: number;
