@@ -8,6 +8,7 @@ import { extname, relative, resolve } from "node:path";
 import { guarded, type Io } from "./io.js";
 import { logbookDir } from "./learning.js";
 import { readLogbook, type Logbook } from "../logbook/store.js";
+import { cacheFolder, refreshIndex } from "../logbook/family-index.js";
 import { drawingSvg, historyCsv, historyDrawing, historyRows, type HistoryRow } from "../logbook/history.js";
 import { writeAtomic } from "./write.js";
 import { ArmwindError, inputError } from "../errors.js";
@@ -59,6 +60,7 @@ export function historyCommand(yargs: Argv, io: Io, setStatus: (n: number) => vo
           const book = readLogbook(logbookDir(io, argv.logbook));
           // listing is all history does: a folder it cannot read is an error here (a plan goes on without it)
           if (book.unreadable) throw new ArmwindError({ code: "file_unreadable", path: "", file: book.dir, message: book.warnings[0].message.replace(/; going on without its records$/, "") });
+          refreshIndex(book, cacheFolder(io.env));
           for (const w of book.warnings) io.err(`armwind: warning: ${w.message} [${w.code}]`);
           const records = argv.family === undefined ? book.records : book.records.filter((r) => r.record.job.family === argv.family);
           const rows = historyRows(records);

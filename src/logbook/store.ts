@@ -175,6 +175,14 @@ export interface LogbookWarning {
   path: string;
 }
 
+export interface ReadOptions {
+  /** Read only these files of the folder (src/logbook/family-index.ts: a family's records), not every file. */
+  names?: string[];
+}
+
+/** File names in numeric order (…-2- before …-10-): one collator for every comparison (a locale lookup per call is slow). */
+export const byFileName = new Intl.Collator("en", { numeric: true }).compare;
+
 export interface Logbook {
   dir: string;
   /** Whether the folder exists at all. */
@@ -194,10 +202,10 @@ export interface Logbook {
  * folder that cannot be listed gives no records and a `logbook_unreadable` warning: a plan then
  * goes on without learning.
  */
-export function readLogbook(dir: string): Logbook {
+export function readLogbook(dir: string, opts: ReadOptions = {}): Logbook {
   let names: string[];
   try {
-    names = readdirSync(dir);
+    names = opts.names ?? readdirSync(dir);
   } catch (e) {
     const code = (e as NodeJS.ErrnoException).code;
     if (code === "ENOENT" || code === "ENOTDIR") return { dir, exists: false, records: [], warnings: [] };
@@ -218,7 +226,7 @@ export function readLogbook(dir: string): Logbook {
     if ("warning" in r) warnings.push(r.warning);
     else records.push({ file: name, record: r.record });
   }
-  records.sort((a, b) => (a.record.date < b.record.date ? -1 : a.record.date > b.record.date ? 1 : a.file.localeCompare(b.file, "en", { numeric: true })));
+  records.sort((a, b) => (a.record.date < b.record.date ? -1 : a.record.date > b.record.date ? 1 : byFileName(a.file, b.file)));
   return { dir, exists: true, records, warnings };
 }
 
