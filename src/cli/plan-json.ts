@@ -1,5 +1,5 @@
 /**
- * The `plan --json` output: DESIGN.md's contract. Keys snake_case, units as the last part of each
+ * The `plan --json` output: docs/contracts.md's contract. Keys snake_case, units as the last part of each
  * key, numbers unrounded, unknowable figures null (never absent).
  */
 import type { Candidate, MotorReport, Plan } from "../design/types.js";
@@ -40,7 +40,7 @@ function seriesPointJson(p: SeriesPoint | null) {
   };
 }
 
-/** DESIGN.md's `motor.series` for one side (original or new), null members where the job lacks the data. */
+/** docs/contracts.md's `motor.series` for one side (original or new), null members where the job lacks the data. */
 function seriesJson(plan: Plan, which: "original" | "rewound") {
   const sp = plan.series;
   if (!sp) {

@@ -4,7 +4,7 @@
  * JSON Schema that editors use (`armwind schema`, generated from this file).
  *
  * Quantities are parsed here, once, into SI (°C for temperatures); wire names into `WireSpec`s.
- * Key names are DESIGN.md's contract.
+ * Key names are docs/contracts.md's contract.
  */
 import { z } from "zod";
 import { parseQuantity, type QuantityKind, defaultUnit, example } from "./units.js";
@@ -267,13 +267,13 @@ const freeText = z.string().max(TEXT_MAX_LENGTH);
 
 export const GOALS = ["restore", "no_load_speed", "kv", "stall_current", "duty", "convert", "fixed"] as const;
 
-/** The two senses of Kv (DESIGN.md "Kv"): the motor constant 60/(2π·Ke), or no-load speed ÷ supply. */
+/** The two senses of Kv (docs/contracts.md "Kv"): the motor constant 60/(2π·Ke), or no-load speed ÷ supply. */
 export const KV_BASES = ["constant", "no_load"] as const;
 
 /**
  * A tolerance on the goal: a bare fraction (± that much; for `stall_current`, a limit, t below and
  * nothing above) or `{ below, above }`, each side a fraction 0 … 0.5 (0: that side not allowed).
- * DESIGN.md "Choosing among candidates".
+ * docs/contracts.md "Choosing among candidates".
  */
 const toleranceSchema = z.union([
   fraction({ max: 0.5, positive: true }),
@@ -291,7 +291,7 @@ export interface Tolerance {
   above: number;
 }
 
-/** Bare t → ±t, except for a `stall_current` limit, never exceeded: { below: t, above: 0 } (DESIGN.md). */
+/** Bare t → ±t, except for a `stall_current` limit, never exceeded: { below: t, above: 0 } (docs/contracts.md). */
 export function toleranceOf(given: number | Tolerance, goal: (typeof GOALS)[number]): Tolerance {
   if (typeof given !== "number") return given;
   return goal === "stall_current" ? { below: given, above: 0 } : { below: given, above: given };
@@ -438,7 +438,7 @@ export const jobSchema = jobShape.superRefine((job, ctx) => {
 
 type JobOut = z.output<typeof jobShape>;
 
-/** Rules for series motors, their field and their goals (DESIGN.md, "Series and universal motors"). */
+/** Rules for series motors, their field and their goals (docs/contracts.md, "Series and universal motors"). */
 function seriesRules(job: JobOut, ctx: z.RefinementCtx): void {
   const t = job.target;
   const series = job.armature.field === "series";

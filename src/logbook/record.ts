@@ -1,5 +1,5 @@
 /**
- * The logbook record (DESIGN.md "The measured file and the logbook record"): the measured file,
+ * The logbook record (docs/contracts.md "The measured file and the logbook record"): the measured file,
  * what the plan predicted for the winding laid, the comparison, what the readings say about the
  * armature (for the next plan of the same family), and the bits of the job that history and
  * learning need. Numbers in the `--json` contract's units (unit as the last part of each key).

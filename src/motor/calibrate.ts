@@ -2,7 +2,7 @@
  * Calibration of the motor model from measurements on the original winding: the `fit…`
  * functions that estimate the parameters of `model.ts`, each returning the value, a short basis
  * sentence and a rough relative uncertainty, and `calibrate`, which picks the Ke source in the
- * order DESIGN.md gives (generator, no-load, logbook, nameplate, magnet).
+ * order docs/contracts.md gives (generator, no-load, logbook, nameplate, magnet).
  *
  * All inputs are SI numbers (V, A, rad/s, Ω at the temperature of the test). Measurements that
  * contradict each other throw `ArmwindError` code `inconsistent_tests` naming the numbers.
@@ -124,7 +124,7 @@ function noLoadUncertainty(t: NoLoadTest, emf: number, ia: number, ohm: number, 
  * Ke from one no-load test: Ke = (V − V_b − I_a·R) / ω0, V·s/rad, with I_a = I0 − I_field the
  * armature current (a shunt field's current subtracted), R the terminal resistance at the test
  * temperature (Ω), V_b the brush drop (V), ω0 rad/s. Source: the steady-state armature equation
- * V = Ke·ω + I·R + V_b (DESIGN.md). Uncertainty: tachometer and voltmeter, ±50 % on the brush
+ * V = Ke·ω + I·R + V_b (docs/contracts.md). Uncertainty: tachometer and voltmeter, ±50 % on the brush
  * drop, 5 % + 3 % on the I·R term, each divided by the back-EMF (common practice).
  * Zero or negative back-EMF throws `inconsistent_tests` naming the numbers.
  */
@@ -202,7 +202,7 @@ export function fitKeFromNoLoadTests(
 /**
  * Rough Ke from the nameplate: Ke ≈ (V − V_b − I·R_hot) / ω_rated, V·s/rad (supply V, rated
  * current A, rated speed rad/s, hot terminal resistance Ω, brush drop V). Source: the armature
- * equation at the rated point (DESIGN.md). Uncertainty 15 %: ratings are rounded and the
+ * equation at the rated point (docs/contracts.md). Uncertainty 15 %: ratings are rounded and the
  * winding's temperature at the rated point is a guess (common practice, no published source).
  */
 export function fitKeFromNameplate(
@@ -228,7 +228,7 @@ export function fitKeFromNameplate(
  * T_c = mean Kt·I_a, B = 0. Two or more at different speeds: straight-line least squares.
  * Returns T_c in N·m and B in N·m·s/rad. A negative B or T_c beyond what the current readings'
  * uncertainty allows throws `inconsistent_tests` naming the two tests; within it, it is set to
- * zero and the other refitted. Source: Coulomb plus viscous friction (DESIGN.md); least squares.
+ * zero and the other refitted. Source: Coulomb plus viscous friction (docs/contracts.md); least squares.
  * Uncertainty: the current reading (default 3 %) plus Ke's own, at the tests' speeds; beyond them
  * the loss is an extrapolation.
  */
@@ -384,7 +384,7 @@ export interface Calibration {
 /**
  * Calibrate Ke (V·s/rad) and the loss torque from whatever the original offers, best source first:
  * generator test, no-load tests, the logbook of the same family, nameplate (rough), magnet estimate
- * (DESIGN.md, "Calibration of Ke"). When both the generator and the no-load tests exist their
+ * (docs/contracts.md, "Calibration of Ke"). When both the generator and the no-load tests exist their
  * disagreement above 5 % is a warning (common practice, no published source). The loss torque comes
  * from the no-load tests with the chosen Kt, else from the logbook, else it is null.
  */
