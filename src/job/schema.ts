@@ -13,6 +13,24 @@ import { COUNTS, ID_MAX_LENGTH, KIND_RANGES, RESERVED_NAMES, TEMPERATURE, TEXT_M
 
 const TEMP = { min: TEMPERATURE.min, max: TEMPERATURE.max, minText: TEMPERATURE.minText, maxText: TEMPERATURE.maxText };
 
+/**
+ * The job file's enumerations, declared once: the schema uses them and every module takes its type
+ * from here (winding style, progression, direction, field, supply kind, brush material).
+ */
+export const windingStyleSchema = z.enum(["tooth", "lap", "wave"]);
+export type WindingStyle = z.infer<typeof windingStyleSchema>;
+export const progressionSchema = z.enum(["progressive", "retrogressive"]);
+export type Progression = z.infer<typeof progressionSchema>;
+export const senseSchema = z.enum(["cw", "ccw"]);
+export type Sense = z.infer<typeof senseSchema>;
+export const armatureFieldSchema = z.enum(["permanent_magnet", "shunt", "series"]);
+export type ArmatureField = z.infer<typeof armatureFieldSchema>;
+export const supplyKindSchema = z.enum(["dc", "ac"]);
+export type SupplyKind = z.infer<typeof supplyKindSchema>;
+export const brushMaterialSchema = z.enum(["carbon", "metal"]);
+export type BrushMaterial = z.infer<typeof brushMaterialSchema>;
+
+
 interface QtyOptions {
   /** Strictly greater than zero. */
   positive?: boolean;
@@ -160,7 +178,7 @@ const magnetSchema = z
 const brushesSchema = z.strictObject({
   count: count(2, "number of brushes (2, or P on a lap winding with P poles)").prefault(2),
   width_bars: z.number().positive().max(4).meta({ description: "brush width in bars (1 = one bar wide)" }).prefault(1),
-  material: z.enum(["carbon", "metal"]).meta({ description: "carbon (drop about 2 V in total) or metal (a few tenths)" }).optional(),
+  material: brushMaterialSchema.meta({ description: "carbon (drop about 2 V in total) or metal (a few tenths)" }).optional(),
 });
 
 /** A bench reading's frequency: AC at this frequency, 0 Hz for DC; absent: the target supply's kind. */
@@ -240,7 +258,7 @@ const supplySchema = z.union([
   z
     .strictObject({
       value: qty("voltage", { positive: true, max: 1000, maxText: "1000 V" }),
-      kind: z.enum(["dc", "ac"]).prefault("dc"),
+      kind: supplyKindSchema.prefault("dc"),
       frequency: qty("frequency", { positive: true }).optional(),
     })
     .meta({ description: "a supply: { value: 230 V, kind: ac, frequency: 50 Hz }" }),
@@ -318,7 +336,7 @@ const jobShape = z.strictObject({
       slots: count(COUNTS.slots.min, "slots (= teeth)").max(COUNTS.slots.max),
       bars: count(COUNTS.bars.min, "commutator bars (segments)").max(COUNTS.bars.max),
       field_poles: count(COUNTS.poles.min, "poles of the stator field (2, 4, 6 …)").max(COUNTS.poles.max),
-      field: z.enum(["permanent_magnet", "shunt", "series"]),
+      field: armatureFieldSchema,
       stack_length: qty("length", { positive: true, max: 1, maxText: "1 m" }),
       rotor_diameter: qty("length", { positive: true, max: 1, maxText: "1 m" }),
       tooth_width: qty("length", { positive: true, max: 0.5, maxText: "500 mm" }).optional(),
@@ -327,14 +345,14 @@ const jobShape = z.strictObject({
     }),
     field_winding: fieldWindingSchema.optional(),
     winding: z.strictObject({
-      style: z.enum(["tooth", "lap", "wave"]),
+      style: windingStyleSchema,
       span: count(0, "coil span in slots (tooth: 1)").max(200).optional(),
       coils_per_slot: count(COUNTS.coils_per_slot.min, "coils per slot u (bars = u × slots)").max(COUNTS.coils_per_slot.max).prefault(1),
       dead_coil: z.boolean().prefault(false),
       equalizers: z.boolean().prefault(false),
-      progression: z.enum(["progressive", "retrogressive"]).prefault("progressive"),
+      progression: progressionSchema.prefault("progressive"),
       lead_throw: z.number().min(-400).max(400).meta({ description: "bars clockwise from coil 1's centre line to bar 1 (copied from the old winding)" }).prefault(0),
-      direction: z.enum(["cw", "ccw"]).prefault("cw"),
+      direction: senseSchema.prefault("cw"),
       mean_turn_length: qty("length", { positive: true, max: 5, maxText: "5 m" }).optional(),
       lead_allowance: qty("length", { min: 0, max: 2, maxText: "2 m" }).prefault("50 mm"),
       spare_margin: fraction({ max: 2 }).prefault(0.1),

@@ -16,6 +16,7 @@ import { inputError, type Warning } from "../errors.js";
 import { fmt, requireNonNegative, requirePositive, rpm } from "./check.js";
 import { keFromEmfEquation, type EmfInputs } from "./emf.js";
 import type { LossTorque } from "./model.js";
+import type { ArmatureField } from "../job/schema.js";
 
 /** An estimate: the value, the sentence that says how it was found, a rough relative uncertainty. */
 export interface Fit<T = number> {
@@ -353,12 +354,13 @@ export interface CalibrationInputs {
   /** Magnet estimate through the EMF equation. */
   magnet?: EmfInputs;
   /** Field of the machine (for warnings). Default permanent_magnet. */
-  field?: "permanent_magnet" | "shunt" | "series";
+  field?: ArmatureField;
   /** Relative uncertainty of the no-load current readings (default 0.03). */
   currentUncertainty?: number;
 }
 
-export interface Calibration {
+/** The fit of Ke and the losses from the original's measurements (the design's `Calibration`, src/design/types.ts, is built from it). */
+export interface KeCalibration {
   /** V·s/rad, null when nothing calibrates it. */
   ke: number | null;
   source: KeSource;
@@ -388,11 +390,11 @@ export interface Calibration {
  * disagreement above 5 % is a warning (common practice, no published source). The loss torque comes
  * from the no-load tests with the chosen Kt, else from the logbook, else it is null.
  */
-export function calibrate(inputs: CalibrationInputs): Calibration {
+export function calibrate(inputs: CalibrationInputs): KeCalibration {
   requireNonNegative(inputs.brushDrop, "brush drop", "winding.brush_drop");
   const reasons: string[] = [];
   const warnings: Warning[] = [];
-  const fits: Calibration["fits"] = {};
+  const fits: KeCalibration["fits"] = {};
   const tests = inputs.noLoad ?? [];
 
   if (inputs.generator) fits.generator = fitKeFromGenerator(inputs.generator.speed, inputs.generator.volts);

@@ -1,9 +1,9 @@
 /** Types of the winding layout: coil tables, numbering as docs/contracts.md fixes it. */
 import type { Warning } from "../errors.js";
 
-export type WindingStyle = "tooth" | "lap" | "wave";
-export type Progression = "progressive" | "retrogressive";
-export type Sense = "cw" | "ccw";
+import type { Progression, Sense, WindingStyle } from "../job/schema.js";
+
+export type { Progression, Sense, WindingStyle };
 
 export interface WindingSpec {
   style: WindingStyle;
