@@ -384,27 +384,11 @@ export interface KeCalibration {
 }
 
 /**
- * Calibrate Ke (V·s/rad) and the loss torque from whatever the original offers, best source first:
- * generator test, no-load tests, the logbook of the same family, nameplate (rough), magnet estimate
- * (docs/contracts.md, "Calibration of Ke"). When both the generator and the no-load tests exist their
- * disagreement above 5 % is a warning (common practice, no published source). The loss torque comes
- * from the no-load tests with the chosen Kt, else from the logbook, else it is null.
+ * The Ke source, best first (docs/contracts.md, "Calibration of Ke"): generator test, no-load tests,
+ * the logbook of the same family, nameplate (rough), magnet estimate; the reasons and warnings that
+ * go with the choice (generator and no-load disagreeing by more than 5 %, a rough source).
  */
-export function calibrate(inputs: CalibrationInputs): KeCalibration {
-  requireNonNegative(inputs.brushDrop, "brush drop", "winding.brush_drop");
-  const reasons: string[] = [];
-  const warnings: Warning[] = [];
-  const fits: KeCalibration["fits"] = {};
-  const tests = inputs.noLoad ?? [];
-
-  if (inputs.generator) fits.generator = fitKeFromGenerator(inputs.generator.speed, inputs.generator.volts);
-  if (tests.length > 0)
-    fits.noLoad = fitKeFromNoLoadTests(
-      tests,
-      tests.map((t) => t.terminalOhm),
-      inputs.brushDrop,
-    );
-
+function chooseKe(inputs: CalibrationInputs, fits: KeCalibration["fits"], reasons: string[], warnings: Warning[]): { chosen: Fit | undefined; source: KeSource } {
   let chosen: Fit | undefined;
   let source: KeSource = "none";
   if (fits.generator) {
@@ -475,6 +459,11 @@ export function calibrate(inputs: CalibrationInputs): KeCalibration {
     });
   }
 
+  return { chosen, source };
+}
+
+/** Warnings the field adds: a series motor's Ke holds only at the test's field current; a shunt test without its field current. */
+function fieldWarnings(inputs: CalibrationInputs, tests: NoLoadTestWithOhm[], warnings: Warning[]): void {
   if (inputs.field === "series" && (tests.length > 0 || inputs.generator)) {
     warnings.push({
       code: "series_field",
@@ -491,6 +480,10 @@ export function calibrate(inputs: CalibrationInputs): KeCalibration {
     });
   }
 
+}
+
+/** The loss torque: from the no-load tests with the chosen Kt, else the logbook's, else unknown (null). */
+function lossOf(inputs: CalibrationInputs, tests: NoLoadTestWithOhm[], chosen: Fit | undefined, fits: KeCalibration["fits"], reasons: string[]): { loss: LossTorque | null; lossBasis: string | null } {
   let loss: LossTorque | null = null;
   let lossBasis: string | null = null;
   if (chosen && tests.length > 0) {
@@ -509,6 +502,34 @@ export function calibrate(inputs: CalibrationInputs): KeCalibration {
     reasons.push("no no-load test: the loss torque is unknown");
   }
 
+  return { loss, lossBasis };
+}
+
+/**
+ * Calibrate Ke (V·s/rad) and the loss torque from whatever the original offers, best source first:
+ * generator test, no-load tests, the logbook of the same family, nameplate (rough), magnet estimate
+ * (docs/contracts.md, "Calibration of Ke"). When both the generator and the no-load tests exist their
+ * disagreement above 5 % is a warning (common practice, no published source). The loss torque comes
+ * from the no-load tests with the chosen Kt, else from the logbook, else it is null.
+ */
+export function calibrate(inputs: CalibrationInputs): KeCalibration {
+  requireNonNegative(inputs.brushDrop, "brush drop", "winding.brush_drop");
+  const reasons: string[] = [];
+  const warnings: Warning[] = [];
+  const fits: KeCalibration["fits"] = {};
+  const tests = inputs.noLoad ?? [];
+
+  if (inputs.generator) fits.generator = fitKeFromGenerator(inputs.generator.speed, inputs.generator.volts);
+  if (tests.length > 0)
+    fits.noLoad = fitKeFromNoLoadTests(
+      tests,
+      tests.map((t) => t.terminalOhm),
+      inputs.brushDrop,
+    );
+
+  const { chosen, source } = chooseKe(inputs, fits, reasons, warnings);
+  fieldWarnings(inputs, tests, warnings);
+  const { loss, lossBasis } = lossOf(inputs, tests, chosen, fits, reasons);
   return {
     ke: chosen ? chosen.value : null,
     source,
