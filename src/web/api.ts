@@ -1,7 +1,7 @@
 /**
  * The workbench's API: each endpoint runs the CLI command it stands for, in-process, with the shop
  * folder as working folder, and answers with exactly what that command prints with `--json`
- * (DESIGN.md, the workbench's HTTP contract). Only the job file's editing (open, preview, save with
+ * (docs/contracts.md, the workbench's HTTP contract). Only the job file's editing (open, preview, save with
  * the changed-on-disk check) is the workbench's own.
  */
 import { createHash } from "node:crypto";
