@@ -6,7 +6,18 @@
 import type { Plan } from "../../design/types.js";
 import type { Sheet } from "../sheet.js";
 import { ohm, rpm, sig } from "../text.js";
-import { DEFAULT_METER_RESOLUTION_OHM, NULL_LEADS, SPREAD, fourWireAdvice, levelRuleText, levelWindow, median, needsFourWire as needsFourWireRule, spreadRuleText } from "../../bench/rules.js";
+import { seriesBenchChecks } from "./series.js";
+import {
+  DEFAULT_METER_RESOLUTION_OHM,
+  NULL_LEADS,
+  SPREAD,
+  fourWireAdvice,
+  levelRuleText,
+  levelWindow,
+  median,
+  needsFourWire as needsFourWireRule,
+  spreadRuleText,
+} from "../../bench/rules.js";
 
 /** A plain number without padding zeros (5, 0.01, 10) for rules and limits. */
 const plain = (x: number) => String(Number(x.toPrecision(4)));
@@ -93,7 +104,13 @@ export function benchPage(s: Sheet, plan: Plan): void {
         cx += cols[2];
         s.at(windowText(row.v), cx, y + 4, { size: T.table + 1, bold: true });
         cx += cols[3];
-        s.doc.save().lineWidth(0.6).moveTo(cx, y + rh - 2).lineTo(x + setW - 4, y + rh - 2).stroke().restore();
+        s.doc
+          .save()
+          .lineWidth(0.6)
+          .moveTo(cx, y + rh - 2)
+          .lineTo(x + setW - 4, y + rh - 2)
+          .stroke()
+          .restore();
       }
     }
     s.y = yStart + perCol * rh + 6;
@@ -105,7 +122,8 @@ export function benchPage(s: Sheet, plan: Plan): void {
 
   // each group of checks is measured whole and kept together with its heading and its sign-off
   type Check = [title: string, body: string, blanks: [string, string, number][]];
-  const checkHeight = ([, body, blanks]: Check) => T.subheading * 1.5 + s.measure(body, { size: T.body, width: s.width - 24 }) + 4 + (blanks.length ? s.L.blank.height + 10 : 4);
+  const checkHeight = ([, body, blanks]: Check) =>
+    T.subheading * 1.5 + s.measure(body, { size: T.body, width: s.width - 24 }) + 4 + (blanks.length ? s.L.blank.height + 10 : 4);
   const check = ([title, body, blanks]: Check) => {
     const bh = s.measure(body, { size: T.body, width: s.width - 24 });
     s.need(checkHeight([title, body, blanks]));
@@ -149,14 +167,25 @@ export function benchPage(s: Sheet, plan: Plan): void {
       [
         "Terminal resistance",
         `Across the brushes (or bars ${1} and ${1 + Math.floor(C / 2)}): expected ${ohm(r.terminal_ohm)} Ω at 20 °C, ${r.terminal_min_ohm === null ? `up to ${ohm(r.terminal_max_ohm)} Ω as the rotor turns (no least reading: at some position a + and a − brush touch the same bar and short the supply; read with each brush on one bar)` : `between ${ohm(r.terminal_min_ohm)} and ${ohm(r.terminal_max_ohm)} Ω as the rotor turns`}; ${ohm(r.terminal_hot_ohm)} Ω at ${sig(r.hot_temperature)} °C.`,
-        [["reading", "Ω", 150], ["at", "°C", 90]],
+        [
+          ["reading", "Ω", 150],
+          ["at", "°C", 90],
+        ],
       ],
       [
         "Ground (insulation) check",
         `Every bar to the shaft and to the core: no continuity. Test with an insulation tester at the voltage the standard your shop follows sets (e.g. IEC 60034-1); this card does not set a test voltage. Trained people only (see Cautions).`,
-        [["test voltage", "V", 130], ["insulation", "MΩ", 140], ["pass / fail", "", 110]],
+        [
+          ["test voltage", "V", 130],
+          ["insulation", "MΩ", 140],
+          ["pass / fail", "", 110],
+        ],
       ],
-      ["Growler (shorted turns)", `Turn the armature in the growler with a hacksaw blade held over each slot: the blade buzzes over a coil with shorted turns (common practice).`, [["result", "", 260]]],
+      [
+        "Growler (shorted turns)",
+        `Turn the armature in the growler with a hacksaw blade held over each slot: the blade buzzes over a coil with shorted turns (common practice).`,
+        [["result", "", 260]],
+      ],
       [
         "Polarity (reversed coil, wrong lead throw)",
         `A reversed coil or a wrong lead throw still reads normal bar to bar. Feed a low DC current between two bars (or use the growler) and run a compass along the slots: the needle must reverse evenly, pole by pole, with no coil out of step (common practice).`,
@@ -170,22 +199,33 @@ export function benchPage(s: Sheet, plan: Plan): void {
     [
       "Bar to bar again, after skimming and undercutting",
       `Skimming and undercutting can leave copper between bars: read r1 … r${C} again; each within ±${plain(tol * 100)} % of your median.`,
-      [["median", "Ω", 150], ["all within", "", 120]],
+      [
+        ["median", "Ω", 150],
+        ["all within", "", 120],
+      ],
     ],
   ];
   if (plan.job.armature.field === "series") {
-    run.push(["No-load run: NOT for this motor", `Series field (universal motor): never run it unloaded — its speed has no limit without load and it can burst. Check running only under a load, briefly.`, []]);
+    // series motors: load run, no-load run only where the cautions allow, locked rotor at a reduced voltage (card/pages/series.ts)
+    for (const c of seriesBenchChecks(plan)) run.push([c.title, c.body, c.blanks]);
   } else {
     run.push([
       "No-load current and speed",
       `At ${sig(plan.supply)} V ${plan.supply_kind.toUpperCase()}, motor assembled and balanced, no load: expected ${sig(m.noLoadCurrent)} A and ${rpm(m.noLoadSpeed)} rpm. Guard the shaft.`,
-      [["supply", "V", 100], ["current", "A", 110], ["speed", "rpm", 130]],
+      [
+        ["supply", "V", 100],
+        ["current", "A", 110],
+        ["speed", "rpm", 130],
+      ],
+    ]);
+    run.push([
+      "Brief stall current",
+      `Seconds only, rotor held safely (see Cautions). Expected at ${sig(plan.supply)} V: ${sig(m.stallCurrentCold)} A cold, ${sig(m.stallCurrent)} A hot. At a reduced supply V the cold stall current is about (V − ${sig(plan.calibration.brush_drop)} V brush drop) ÷ ${ohm(r.terminal_ohm)} Ω.`,
+      [
+        ["supply", "V", 100],
+        ["current", "A", 110],
+      ],
     ]);
   }
-  run.push([
-    "Brief stall current",
-    `Seconds only, rotor held safely (see Cautions). Expected at ${sig(plan.supply)} V: ${sig(m.stallCurrentCold)} A cold, ${sig(m.stallCurrent)} A hot. At a reduced supply V the cold stall current is about (V − ${sig(plan.calibration.brush_drop)} V brush drop) ÷ ${ohm(r.terminal_ohm)} Ω.`,
-    [["supply", "V", 100], ["current", "A", 110]],
-  ]);
   group("3. After varnish, cure, skim and balance: the run", run, "result");
 }
