@@ -41,7 +41,7 @@ export function orderSteps(plan: Plan, spoolMass?: number): [string, string][] {
     [
       "The run",
       series
-        ? `Brief stall current at a reduced supply, then a run under load only: a series (universal) motor must never run unloaded (bench sheet, section 3).`
+        ? `A locked-rotor check at a reduced voltage, then a run under load: a series (universal) motor must never race unloaded (bench sheet, section 3).`
         : `No-load current and speed, then a brief stall at a reduced supply (bench sheet, section 3). Guard the shaft.`,
     ],
     ["Record it", `armwind new measured <job file> writes the readings file to fill in; armwind log <job file> --measured <that file> keeps it in the logbook.`],
