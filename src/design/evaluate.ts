@@ -382,7 +382,7 @@ function candidate(s: Setup, w: Winding, mlt: number, coilOhm: number, terminal2
     error: v.error,
     meets_goal: v.meets && (s.goal === "fixed" || reasons.length === 0),
     rejected_because: reasons,
-    copper_mass: COPPER_DENSITY * w.wire.area * w.strands * w.turns * mlt * s.ctx.liveCoils,
+    copper_mass: COPPER_DENSITY * w.wire.area * w.strands * w.turns * mlt * s.ctx.woundCoils,
     current_density: g.current_density,
     stall_current_hot: g.stall_current_hot,
     stall_current_cold: g.stall_current_cold,

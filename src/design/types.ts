@@ -192,6 +192,9 @@ export interface Plan {
     mlt: number;
     terminal_ohm: number;
     terminal_measured: boolean;
+    /** Overall diameter the old build is laid at for the turn-length model, m, and where it came from. */
+    overall: number;
+    overall_basis: string;
   };
   duty: DutyReport | null;
   original_duty: DutyReport | null;
