@@ -151,11 +151,21 @@ export function benchPage(s: Sheet, plan: Plan): void {
       `At ${sig(plan.supply)} V ${plan.supply_kind.toUpperCase()}, motor assembled, no load: expected ${sig(m.noLoadCurrent)} A and ${rpm(m.noLoadSpeed)} rpm. Guard the shaft.`,
       [["supply", "V", 100], ["current", "A", 110], ["speed", "rpm", 130]],
     );
+    if ((plan.job.original.tests ?? []).filter((t) => (t as { kind?: string }).kind !== "load").length < 2) {
+      check(
+        "Second no-load run, at about half the supply",
+        `At about ${sig(plan.supply / 2)} V: current and speed. With one no-load test the loss torque is held constant; two at different speeds give the part that grows with speed, so the next plan of this armature predicts idle current better (log them with the rewind).`,
+        [["supply", "V", 100], ["current", "A", 110], ["speed", "rpm", 130]],
+      );
+    }
   }
   const m = plan.motor;
+  const reducedOnly = series || plan.mains;
   check(
     "Brief stall current",
-    `Seconds only, rotor held safely (see Cautions). Expected at ${sig(plan.supply)} V: ${sig(m.stallCurrentCold)} A cold, ${sig(m.stallCurrent)} A hot. At a reduced supply V the cold stall current is about (V − ${sig(plan.calibration.brush_drop)} V brush drop) ÷ ${ohm(r.terminal_ohm)} Ω.`,
+    reducedOnly
+      ? `Seconds only, rotor held safely (see Cautions), at a reduced DC supply only — never at ${sig(plan.supply)} V${plan.mains ? " mains" : ""}. At a reduced supply V the cold stall current is about (V − ${sig(plan.calibration.brush_drop)} V brush drop) ÷ ${series ? `(${ohm(r.terminal_ohm)} Ω armature + the field's resistance)` : `${ohm(r.terminal_ohm)} Ω`}.`
+      : `Seconds only, rotor held safely (see Cautions). Expected at ${sig(plan.supply)} V: ${sig(m.stallCurrentCold)} A cold, ${sig(m.stallCurrent)} A hot. At a reduced supply V the cold stall current is about (V − ${sig(plan.calibration.brush_drop)} V brush drop) ÷ ${ohm(r.terminal_ohm)} Ω.`,
     [["supply", "V", 100], ["current", "A", 110]],
   );
   s.y += 6;

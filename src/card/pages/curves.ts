@@ -7,7 +7,7 @@ import { reasonText } from "../../design/plan.js";
 import { FONT_BOLD, FONT_REGULAR, type Sheet } from "../sheet.js";
 import { kvFromKe } from "../../motor/emf.js";
 import { goalFigure, goalName, goalSummary, goalUnit, ohm, pct, sig } from "../text.js";
-import { curvesDrawing, hasCurves } from "../../plot/curves.js";
+import { curvesDrawing, hasCurves, hasEfficiency } from "../../plot/curves.js";
 import { paintDrawing } from "../../plot/drawing.js";
 
 export function curvesPage(s: Sheet, plan: Plan): void {
@@ -30,7 +30,7 @@ export function curvesPage(s: Sheet, plan: Plan): void {
     return;
   }
   s.para(
-    `${sig(plan.supply)} V ${plan.supply_kind.toUpperCase()}, winding hot (${sig(plan.resistance.hot_temperature)} °C), from no load to stall. Original dashed, new solid${plan.duty ? "; ● the duty point of the new winding, ○ of the original" : ""}.`,
+    `${sig(plan.supply)} V ${plan.supply_kind.toUpperCase()}, winding hot (${sig(plan.resistance.hot_temperature)} °C), from no load to stall. Original dashed, new solid${plan.duty ? "; ● the duty point of the new winding, ○ of the original" : ""}.${hasEfficiency(plan) ? "" : " Efficiency is not drawn: with no no-load test the losses are unknown (a no-load test at the supply and one at about half of it give them)."}`,
     { size: T.body },
   );
   // legend

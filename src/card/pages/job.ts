@@ -1,4 +1,5 @@
 /** Page 1, the job: who and what, THE WINDING in large type, the cut list, what it will read and do, the lead throw, warnings. */
+import { KV_DEFINITIONS, kvRows } from "../../format/kv.js";
 import type { MotorReport, Plan } from "../../design/types.js";
 import type { Sheet } from "../sheet.js";
 import { calibrationText, fieldText, goalName, goalSummary, mltSourceText, mm, ohm, pct, rpm, sig, strandsText, torqueUnit, wireSizes } from "../text.js";
@@ -180,7 +181,7 @@ function motorTable(s: Sheet, plan: Plan): void {
   const rows: string[][] = [
     ["winding", `${plan.original.turns} × ${plan.original.wire.label}${plan.original.strands > 1 ? ` × ${plan.original.strands}` : ""}`, `${d.turns} × ${d.wire.label}${d.strands > 1 ? ` × ${d.strands}` : ""}`],
     ["terminal Ω at 20 °C", `${ohm(plan.original.terminal_ohm)}${plan.original.terminal_measured ? " (measured)" : ""}`, ohm(plan.resistance.terminal_ohm)],
-    row("Kv, rpm/V", (r) => sig(r.kv)),
+    ...kvRows(plan).map(([label, f]) => row(label, f)),
     row("no-load speed, rpm", (r) => rpm(r.noLoadSpeed)),
     row("no-load current, A", (r) => sig(r.noLoadCurrent)),
     row("stall current hot, A", (r) => sig(r.stallCurrent)),
@@ -207,4 +208,5 @@ function motorTable(s: Sheet, plan: Plan): void {
     rows,
     { size: s.L.type.table + 0.5, boldCols: new Set([2]), keepTogether: true },
   );
+  if (kvRows(plan).length) s.para(KV_DEFINITIONS, { size: s.L.type.body - 0.5 });
 }
