@@ -17,6 +17,7 @@ export const SLOW = [
   "test/cli-io.test.ts",
   "test/logbook-concurrency.test.ts",
   "test/render.test.ts",
+  "test/rank.test.ts", // starts the built command (runCli)
 ];
 
 export default defineConfig({

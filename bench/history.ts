@@ -39,11 +39,11 @@ for (let run = 0; run < 5; run++) {
 }
 console.log(`history: ${count} records (${(bytes / 1024).toFixed(0)} KiB) read, validated, tabled, CSV and SVG`);
 console.log(`  median of 5 runs ${median(times).toFixed(0)} ms (aim: well under 1000 ms)`);
-if (existsSync("dist/cli/main.js")) {
+if (existsSync("bin/armwind.mjs")) {
   const p: number[] = [];
   for (let run = 0; run < 3; run++) {
     const t0 = performance.now();
-    const r = spawnSync(process.execPath, ["dist/cli/main.js", "history", "--json", "--logbook", dir], { encoding: "utf8", maxBuffer: 1 << 28 });
+    const r = spawnSync(process.execPath, ["bin/armwind.mjs", "history", "--json", "--logbook", dir], { encoding: "utf8", maxBuffer: 1 << 28 });
     p.push(performance.now() - t0);
     if (r.status !== 0) throw new Error(`history exited ${r.status}: ${r.stderr}`);
   }

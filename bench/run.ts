@@ -1,15 +1,14 @@
 /**
  * `npm run bench`: speed figures, printed, never asserted in tests.
  *  1. the candidate sweep over the whole catalogue with 4 strands in hand (≥ 100 000 candidates);
- *  2. a whole `armwind card` process against a whole Node process writing a one-page PDF with bare pdfkit;
+ *  2. start-up aims: plan and --help against `node -e ''`, card against a bare pdfkit page (bench/startup.ts);
+ *     logbook aims over 10 000 records: learning's extra time, history (bench/logbook.ts);
  *  3. reading a logbook of a thousand records for `history` (when bench/history.ts exists);
- *  4. a 400-bar lap plan and diagnose on 400 bars, in-process (bench/ring.ts).
+ *  4. a 400-bar lap plan and diagnose on 400 bars, in-process (bench/ring.ts);
+ *  5. the workbench: a form change to its new plan, and the first page from a cold `armwind serve` (bench/web.ts).
  * Run after `npm run build` (the npm script does it): the card process is the built CLI.
  */
-import { spawnSync } from "node:child_process";
-import { existsSync, mkdtempSync, readFileSync } from "node:fs";
-import { tmpdir } from "node:os";
-import { join } from "node:path";
+import { existsSync, readFileSync } from "node:fs";
 import { loadYaml } from "../src/job/load.js";
 import { jobSchema } from "../src/job/schema.js";
 import { buildContext } from "../src/design/context.js";
@@ -18,6 +17,8 @@ import { makeEvaluator } from "../src/design/evaluate.js";
 import { stockWires, supplyOf } from "../src/design/plan.js";
 import { sweep } from "../src/design/sweep.js";
 import { benchRing } from "./ring.js";
+import { benchStartup } from "./startup.js";
+import { benchLogbook } from "./logbook.js";
 
 const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)];
 
@@ -44,26 +45,7 @@ function benchSweep() {
   console.log(`  median of 7 runs ${t.toFixed(1)} ms in all, ${((t * 1e6) / total).toFixed(0)} ns per candidate (aim: under 100 ms)`);
 }
 
-function timeProcess(args: string[], runs: number): number {
-  const times: number[] = [];
-  for (let i = 0; i < runs; i++) {
-    const t0 = performance.now();
-    const r = spawnSync(process.execPath, args, { encoding: "utf8" });
-    times.push(performance.now() - t0);
-    if (r.status !== 0) throw new Error(`${args.join(" ")} exited ${r.status}: ${r.stderr}`);
-  }
-  return median(times);
-}
 
-function benchCard() {
-  const dir = mkdtempSync(join(tmpdir(), "armwind-bench-"));
-  const runs = 7;
-  timeProcess(["bench/bare-pdfkit.mjs", join(dir, "bare.pdf")], 1);
-  const bare = timeProcess(["bench/bare-pdfkit.mjs", join(dir, "bare.pdf")], runs);
-  const card = timeProcess(["dist/cli/main.js", "card", "jobs/blind-motor-0031.yaml", "-o", dir], runs);
-  console.log(`card: whole 'armwind card' process ${card.toFixed(0)} ms; bare pdfkit one-page process ${bare.toFixed(0)} ms (medians of ${runs})`);
-  console.log(`  ratio ${(card / bare).toFixed(2)} (aim: within 1.5)`);
-}
 
 async function benchHistory() {
   if (!existsSync("bench/history.ts")) {
@@ -75,6 +57,9 @@ async function benchHistory() {
 
 console.log(`armwind bench, ${new Date().toISOString().slice(0, 10)}, Node ${process.version}`);
 benchSweep();
-benchCard();
+const aims = [...benchStartup(), ...benchLogbook()];
 await benchHistory();
+console.log("\naims of issue 15 (whole processes; the ring aims follow):");
+for (const l of aims) console.log(l);
 benchRing();
+await import("./web.js");

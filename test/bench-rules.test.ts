@@ -176,3 +176,14 @@ describe("diagnose and plan from the command line", () => {
     expect(m.bar_to_bar).toEqual([1.3, Infinity, Infinity, 1.3]);
   });
 });
+
+describe("the robot demo's 1-bar brushes on 3 bars (issue 10 item 1)", () => {
+  it("plan --json: terminal_min_ohm null and a brush_short warning; never 0 Ω", async () => {
+    const io = fakeIo();
+    await main(["plan", join(ROOT, "jobs/robot-3slot-0007.yaml"), "--no-learn", "--json"], io);
+    const out = JSON.parse(io.stdout.join(""));
+    expect(out.resistance.terminal_min_ohm).toBeNull();
+    expect(out.warnings.map((w: { code: string }) => w.code)).toContain("brush_short");
+  });
+});
+

@@ -62,8 +62,8 @@ describe("armwind history", () => {
     const io = fakeIo();
     expect(await main(["history", "--logbook", BOOK], io)).toBe(0);
     const text = io.stdout.join("\n");
-    expect(text).toMatch(/blind-motor-0031\s+2026-12-01\s+blind-5slot, tooth 5\/5\s+65 × 32 AWG heavy\s+2\.030 \/ 2\.042/);
-    expect(text).toMatch(/drill-lap-0112 .*7\.444 \/ 7\.472\s+—\s+—\s+ok/);
+    expect(text).toMatch(/blind-motor-0031\s+2026-12-01\s+blind-5slot, tooth 5\/5\s+65 × 32 AWG heavy\s+1\.963 \/ 2\.042/);
+    expect(text).toMatch(/drill-lap-0112 .*7\.445 \/ 7\.472\s+—\s+—\s+ok/);
   });
 
   it("CSV (RFC 4180): a header, one line per record, fields with commas or quotes quoted", () => {

@@ -220,7 +220,12 @@ describe("armwind log", () => {
     expect(await main(["log", BLIND, "--measured", f, "--logbook", join(dir, "book"), "--json"], io)).toBe(4);
     const out = JSON.parse(io.stdout.join(""));
     expect(out.ok).toBe(false);
-    expect(out.record.comparison.checks.find((c: { check: string }) => c.check === "bar_to_bar.spread").verdict).toBe("fail");
+    // DESIGN.md: status 4 keeps the one shape: errors empty, the failed checks, the record's file name
+    expect(out.errors).toEqual([]);
+    expect(out.record).toBe(join(dir, "book", "blind-motor-0031-2026-12-01-1.yaml"));
+    expect(out.failures.map((x: { check: string }) => x.check)).toContain("bar_to_bar.spread");
+    expect(out.logged.comparison.checks.find((c: { check: string }) => c.check === "bar_to_bar.spread").verdict).toBe("fail");
+    expect(io.stderr.join("\n")).toMatch(/the record was written: .*blind-motor-0031-2026-12-01-1\.yaml/);
     expect(readdirSync(join(dir, "book"))).toEqual(["blind-motor-0031-2026-12-01-1.yaml"]);
   });
 

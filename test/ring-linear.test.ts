@@ -90,6 +90,31 @@ describe("forward readings: the cycle solver equals the nodal solution (Kirchhof
   });
 });
 
+describe("terminal resistance over a turn (issue 10 item 1)", () => {
+  it("3 bars: brushes at most half a bar wide never touch one bar together, least R_coil/2 (Kirchhoff); wider: brush_short, no least reading", () => {
+    for (const w of [0.1, 0.3, 0.5]) {
+      const l = layoutWinding(spec({ style: "tooth", slots: 3, bars: 3, span: 1, brushes: { count: 2, width_bars: w } }));
+      const t = terminalResistance(l, [2, 2, 2]);
+      expect(t.brush_short).toBe(false);
+      expect(t.min).toBeCloseTo(1, 12);
+      expect(l.warnings.some((x) => x.code === "brush_short")).toBe(false);
+    }
+    for (const w of [0.6, 0.9, 1]) {
+      const l = layoutWinding(spec({ style: "tooth", slots: 3, bars: 3, span: 1, brushes: { count: 2, width_bars: w } }));
+      const t = terminalResistance(l, [2, 2, 2]);
+      expect(t.brush_short).toBe(true);
+      expect(t.min).toBeNull();
+      expect(t.max).toBeGreaterThan(0);
+      expect(l.warnings.find((x) => x.code === "brush_short")?.path).toBe("winding.brushes.width_bars");
+    }
+  });
+
+  it("5 bars with brushes a bar wide (the blind demo's) never short: the least reading stays", () => {
+    const l = layoutWinding(spec({ style: "tooth", slots: 5, bars: 5, span: 1 }));
+    expect(terminalResistance(l, [1, 1, 1, 1, 1]).min).toBeCloseTo(2 / 3, 12);
+  });
+});
+
 describe("inversion: readings of up to 400 bars give their coils back", () => {
   it("random rings; readings from the forward solve, checked against the nodal solution on sampled pairs above", () => {
     fc.assert(

@@ -50,7 +50,7 @@ describe("closed forms against the network (equal coils)", () => {
     const t = terminalResistance(even, new Array(12).fill(1));
     close(t.single, ringSplit(1, 12, 6));
     close(t.bridged, ringSplit(1, 10, 5));
-    close(t.min, t.bridged);
+    close(t.min!, t.bridged);
     close(t.max, t.single);
     // odd C = 5 (tooth): single 2/3 split = 1.2 R; one brush bridging: 2 R ∥ 2 R = R; both bridging:
     // 1 R ∥ 2 R = 2/3 R. Brushes a bar wide 180° apart: one is on a single bar only at alignment, the
@@ -59,12 +59,12 @@ describe("closed forms against the network (equal coils)", () => {
     const to = terminalResistance(odd, new Array(5).fill(1));
     close(to.single, ringSplit(1, 5, 2));
     close(to.bridged, 2 / 3);
-    close(to.min, 2 / 3);
+    close(to.min!, 2 / 3);
     close(to.max, 1);
     // narrow (metal finger) brushes: both on single bars at some positions, so the reading swings R … 1.2 R
     const narrow = layoutWinding(spec({ style: "tooth", slots: 5, bars: 5, span: 1, brushes: { count: 2, width_bars: 0.3 } }));
     const tn = terminalResistance(narrow, new Array(5).fill(1));
-    close(tn.min, 1);
+    close(tn.min!, 1);
     close(tn.max, 1.2);
     close(to.bridged, nodal(odd, new Array(5).fill(1), [1, 2], [3, 4]));
   });

@@ -7,10 +7,11 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { spawn, type ChildProcess } from "node:child_process";
 import { cpSync, existsSync, mkdtempSync, readFileSync, rmSync } from "node:fs";
 import { tmpdir } from "node:os";
-import { join } from "node:path";
+import { basename, join } from "node:path";
 import { createInterface } from "node:readline";
 import { chromium, type Browser, type Page } from "playwright-core";
-import { CLI, ROOT } from "./helpers/cli.js";
+import { CLI, demoJobFiles, ROOT, runCli } from "./helpers/cli.js";
+import { GOALS } from "../src/job/schema.js";
 
 const CHROMIUM = process.env.ARMWIND_CHROMIUM ?? "/usr/bin/chromium";
 const have = existsSync(CHROMIUM);
@@ -66,6 +67,16 @@ describe.skipIf(!have && !process.env.CI)("the workbench in Chromium", () => {
     expect(local.lines[0]).toMatch(/^listening on http:\/\/127\.0\.0\.1:\d+\/$/);
   });
 
+  it("answers what the built command prints, run in the served folder, for every demo job", async () => {
+    for (const f of demoJobFiles()) {
+      const job = `jobs/${basename(f)}`;
+      const cli = runCli(["plan", job, "--json"], { cwd: shop, env: { ARMWIND_LOGBOOK: join(shop, "jobs/logbook") } });
+      const web = await fetch(`${local.url}api/plan/${job}`);
+      expect(web.status, job).toBe(200);
+      expect(await web.text(), job).toBe(cli.stdout);
+    }
+  });
+
   it("lists the jobs; opening a demo and changing the goal changes the plan", async () => {
     const p = await page();
     await p.goto(local.url);
@@ -81,6 +92,22 @@ describe.skipIf(!have && !process.env.CI)("the workbench in Chromium", () => {
     await p.fill('[data-field="target.no_load_speed"]', "6000 kg");
     await p.waitForSelector('output[data-for="target.no_load_speed"] .error');
     expect(await p.textContent('output[data-for="target.no_load_speed"]')).toContain("[bad_quantity]");
+    await p.context().close();
+  });
+
+  it.skipIf(!(GOALS as readonly string[]).includes("fixed"))("another candidate, chosen on the chart, is fixed into the job as goal: fixed", async () => {
+    const p = await page();
+    await p.goto(`${local.url}job/jobs/blind-motor-0031.yaml`);
+    await p.waitForSelector("#chosen");
+    const chosen = await p.textContent("#chosen");
+    const other = p.locator("circle.cand.meets").first();
+    const turns = await other.getAttribute("data-turns");
+    const wire = await other.getAttribute("data-wire");
+    const strands = Number(await other.getAttribute("data-strands"));
+    await other.click();
+    await p.click("#fix");
+    await p.waitForFunction((c) => document.querySelector("#chosen")?.textContent !== c, chosen);
+    expect(await p.textContent("#chosen")).toBe(`${turns} turns of ${wire}${strands > 1 ? ` × ${strands} in hand` : ""}`);
     await p.context().close();
   });
 

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { ArmwindError } from "../src/errors.js";
-import { barAngle, checkInvariants, diagramAngles, layoutWinding, slotAngle } from "../src/winding/layout.js";
+import { barAngle, checkInvariants, diagramAngles, layoutWinding, slotAngle, viewingConvention } from "../src/winding/layout.js";
 import type { WindingSpec } from "../src/winding/types.js";
 import { spec } from "./helpers/winding.js";
 
@@ -82,13 +82,26 @@ describe("textbook winding rules", () => {
 describe("coil tables (DESIGN.md numbering)", () => {
   it("tooth: coil k round tooth k, bar k to k+1, two sides a slot", () => {
     const l = layoutWinding(spec({ style: "tooth", slots: 5, bars: 5, span: 1, direction: "ccw" }));
+    // DESIGN.md "Numbering and directions": a ccw coil k goes into slot k+1 and returns through slot k
+    // (its go and return slots follow the sense; tooth k lies between slots k and k+1 either way)
     expect(l.coils.map((c) => [c.go_slot, c.return_slot, c.start_bar, c.end_bar, c.direction])).toEqual([
-      [1, 2, 1, 2, "ccw"],
-      [2, 3, 2, 3, "ccw"],
-      [3, 4, 3, 4, "ccw"],
-      [4, 5, 4, 5, "ccw"],
-      [5, 1, 5, 1, "ccw"],
+      [2, 1, 1, 2, "ccw"],
+      [3, 2, 2, 3, "ccw"],
+      [4, 3, 3, 4, "ccw"],
+      [5, 4, 4, 5, "ccw"],
+      [1, 5, 5, 1, "ccw"],
     ]);
+    expect(l.coils.map((c) => [c.go_layer, c.return_layer])[0]).toEqual(["left", "right"]);
+    // cw: into slot k, back through slot k+1
+    const cw = layoutWinding(spec({ style: "tooth", slots: 5, bars: 5, span: 1, direction: "cw" }));
+    expect(cw.coils.map((c) => [c.go_slot, c.return_slot])).toEqual([
+      [1, 2],
+      [2, 3],
+      [3, 4],
+      [4, 5],
+      [5, 1],
+    ]);
+    expect(viewingConvention(l)).toMatch(/commutator end/);
     expect(l.paths).toBe(2);
     expect(l.coil_sides_per_slot).toBe(2);
     expect(l.back_pitch).toBeNull();

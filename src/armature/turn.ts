@@ -70,6 +70,22 @@ export function lengthFromMass(mass: number, bareDiameter: number): number {
 }
 
 /**
+ * Density of the enamel film of magnet wire, kg/m³: 1300 (polyurethane and polyester-imide films
+ * lie about 1.2 to 1.4 g/cm³; from memory).
+ */
+export const ENAMEL_DENSITY = 1300;
+
+/**
+ * Length (m) of enamelled wire of bare diameter d and overall diameter D (m) that weighs `mass` (kg),
+ * enamel and all: m / (ρ_Cu · π/4 · d² + ρ_enamel · π/4 · (D² − d²)). The overall diameter of a
+ * grade or build is the standard's maximum, so the enamel's share is an upper bound (a few per cent
+ * of the mass for fine wire, well under one for thick).
+ */
+export function lengthFromEnamelledMass(mass: number, bareDiameter: number, overallDiameter: number): number {
+  return mass / (COPPER_DENSITY * roundArea(bareDiameter) + ENAMEL_DENSITY * (roundArea(overallDiameter) - roundArea(bareDiameter)));
+}
+
+/**
  * Extra turn length (m) of a lap or wave coil laid over `ridesOver` earlier coils: its end turns
  * climb over their bundles, rising by b·ridesOver/(u·span) at each end (up and down, both ends):
  * ΔMLT = 4·b·ridesOver/(u·span), at most 8·b. Common practice, no published source.

@@ -7,6 +7,7 @@
 import PDFDocument from "pdfkit";
 import type { CardLayout, Paper } from "./layout.js";
 import { cardFonts } from "./fonts.js";
+import { breakLongWords } from "./wrap.js";
 const REG = "DejaVu";
 const BOLD = "DejaVu-Bold";
 /** Names under which the card registers its regular and bold fonts. */
@@ -126,7 +127,13 @@ export class Sheet {
   /** Height a wrapped text takes at a width and style. */
   measure(text: string, style: TextStyle = {}): number {
     this.font(style);
-    return this.doc.heightOfString(text, { width: style.width ?? this.width, lineGap: style.lineGap ?? 1 });
+    const width = style.width ?? this.width;
+    return this.doc.heightOfString(this.breakable(text, width), { width, lineGap: style.lineGap ?? 1 });
+  }
+
+  /** Text whose long unbroken words are cut to `width` in the current font (linear cost: src/card/wrap.ts). */
+  private breakable(text: string, width: number): string {
+    return breakLongWords(text, width, (s) => this.doc.widthOfString(s));
   }
 
   widthOf(text: string, style: TextStyle = {}): number {
@@ -140,7 +147,7 @@ export class Sheet {
     const h = this.measure(text, { ...style, width });
     this.need(h);
     this.font(style);
-    this.doc.text(text, style.x ?? this.left, this.y, { width, align: style.align ?? "left", lineGap: style.lineGap ?? 1 });
+    this.doc.text(this.breakable(text, width), style.x ?? this.left, this.y, { width, align: style.align ?? "left", lineGap: style.lineGap ?? 1 });
     this.y += h + (style.after ?? (style.size ?? this.L.type.body) / 3);
     return h;
   }
@@ -148,7 +155,7 @@ export class Sheet {
   /** Text at a fixed place, no page logic, no wrapping unless a width is given. */
   at(text: string, x: number, y: number, style: TextStyle = {}): void {
     this.font(style);
-    this.doc.text(text, x, y, {
+    this.doc.text(style.width !== undefined ? this.breakable(text, style.width) : text, x, y, {
       width: style.width,
       align: style.align ?? "left",
       lineBreak: style.width !== undefined,

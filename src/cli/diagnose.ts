@@ -7,14 +7,17 @@
  * own median. Exit 4 when a reading fails a bench rule.
  */
 import type { Argv } from "yargs";
+import { resolve } from "node:path";
 import { planJob } from "../design/plan.js";
 import { windingSpec } from "../design/context.js";
 import { layoutWinding } from "../winding/layout.js";
 import { isLayoutOnly, layoutJobSchema, layoutJobSpec } from "../winding/layout-job.js";
 import { ArmwindError, inputError, type Problem } from "../errors.js";
 import { parseQuantity } from "../job/units.js";
+import { rangeProblem } from "../job/ranges.js";
 import { loadYaml } from "../job/load.js";
-import { readText, guarded, loadJobText, isStdin, type Io, type Where } from "./io.js";
+import { readText, readUserFile, guarded, loadJobText, isStdin, type Io, type Where } from "./io.js";
+import { RECORD_FILE_LIMIT } from "../files.js";
 import { logbookOptionsFor } from "./learning.js";
 import { loadMeasured } from "./log.js";
 import { predictWound, type WoundInput } from "../logbook/predict.js";
@@ -55,21 +58,22 @@ export function parseBars(text: string, bars: number): number[] {
     if (isOpenText(s)) return Infinity;
     const r = parseQuantity(s === "" ? "x" : s, "resistance");
     if (!r.ok) {
-      problems.push({ code: "bad_quantity", path: `bars[${i}]`, message: `${readingName(i)} "${s}": ${r.message}; or OL / open for an open circuit` });
+      problems.push({ code: "bad_quantity", path: `--bars[${i}]`, message: `${readingName(i)} "${s}": ${r.message}; or OL / open for an open circuit` });
       return NaN;
     }
-    if (r.value < 0) problems.push({ code: "out_of_range", path: `bars[${i}]`, message: `${readingName(i)} must be 0 Ω or more, got "${s}"` });
+    const outside = rangeProblem("resistance", r.value, 0);
+    if (outside) problems.push({ code: "out_of_range", path: `--bars[${i}]`, message: `${readingName(i)} "${s}": ${outside}` });
     return r.value;
   });
   if (problems.length) throw new ArmwindError(problems);
   if (out.length !== bars) {
-    throw inputError("readings_count", "bars", `${out.length} bar-to-bar readings for ${bars} bars; give r1 … r${bars} separated by commas (r_i between bar i and bar i+1, r${bars} between bar ${bars} and bar 1)`);
+    throw inputError("readings_count", "--bars", `${out.length} bar-to-bar readings for ${bars} bars; give r1 … r${bars} separated by commas (r_i between bar i and bar i+1, r${bars} between bar ${bars} and bar 1)`);
   }
   return out;
 }
 
 function loadRecordFile(io: Io, file: string, job: { id: string; armature: { bars: number } }): LogRecord {
-  const text = readText(io, file);
+  const text = isStdin(file) ? readText(io, file) : readUserFile(resolve(io.cwd, file), { limit: RECORD_FILE_LIMIT, name: file });
   const r = loadYaml(text, file, recordSchema);
   const rec = r.value as unknown as LogRecord;
   const problems: Problem[] = [];
@@ -236,7 +240,9 @@ function gatherInput(io: Io, argv: DiagnoseArgs, loaded: { job: Job | null; id: 
     readings = parseBars(argv.bars!, loaded.bars);
     if (argv.temperature !== undefined) {
       const t = parseQuantity(argv.temperature, "temperature");
-      if (!t.ok) throw inputError("bad_quantity", "temperature", `--temperature ${argv.temperature}: ${t.message}`);
+      if (!t.ok) throw inputError("bad_quantity", "--temperature", `--temperature ${argv.temperature}: ${t.message}`);
+      const outside = rangeProblem("temperature", t.value);
+      if (outside) throw inputError("out_of_range", "--temperature", `--temperature ${argv.temperature}: ${outside}`);
       temperature = t.value;
       given = true;
     }
@@ -274,7 +280,10 @@ export function diagnoseCommand(yargs: Argv, io: Io, setStatus: (n: number) => v
         await guarded(io, argv.json, (where) => {
           const ways = [argv.bars, argv.measured, argv.record].filter((x) => x !== undefined).length;
           if (ways !== 1) throw inputError("readings_missing", "", "give the readings one way: --bars r1,r2,…, --measured FILE or --record FILE");
-          if (argv.temperature !== undefined && argv.bars === undefined) throw inputError("option_conflict", "temperature", "--temperature goes with --bars (measured files and records carry their own)");
+          if (argv.temperature !== undefined && argv.bars === undefined) throw inputError("option_conflict", "--temperature", "--temperature goes with --bars (measured files and records carry their own)");
+          if (argv.tolerance !== undefined && !(argv.tolerance > 0 && argv.tolerance < 1)) {
+            throw inputError("tolerance_invalid", "--tolerance", `--tolerance ${argv.tolerance}: a fraction between 0 and 1 is needed, like 0.05 for ±5 %`);
+          }
           const loaded = loadAnyJob(io, argv.job, where);
           const input = gatherInput(io, argv, loaded);
           const layout = layoutWinding(loaded.spec);

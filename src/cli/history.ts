@@ -8,9 +8,10 @@ import { extname, relative, resolve } from "node:path";
 import { guarded, type Io } from "./io.js";
 import { logbookDir } from "./learning.js";
 import { readLogbook, type Logbook } from "../logbook/store.js";
+import { cacheFolder, refreshIndex } from "../logbook/family-index.js";
 import { drawingSvg, historyCsv, historyDrawing, historyRows, type HistoryRow } from "../logbook/history.js";
 import { writeAtomic } from "./write.js";
-import { inputError } from "../errors.js";
+import { ArmwindError, inputError } from "../errors.js";
 import { ohm, sig, table } from "./format.js";
 
 const pair = (p: number | null, m: number | null, f: (x: number | null) => string) => (p === null && m === null ? "—" : `${f(p)} / ${f(m)}`);
@@ -52,11 +53,14 @@ export function historyCommand(yargs: Argv, io: Io, setStatus: (n: number) => vo
     async (argv) => {
       setStatus(
         await guarded(io, argv.json, async () => {
-          if (argv.json && argv.csv) throw inputError("option_conflict", "csv", "--json and --csv: choose one");
+          if (argv.json && argv.csv) throw inputError("option_conflict", "--csv", "--json and --csv: choose one");
           if (argv.plot !== undefined && ![".svg", ".pdf"].includes(extname(argv.plot).toLowerCase())) {
-            throw inputError("bad_plot_file", "plot", `--plot ${argv.plot}: the plot is written as SVG or PDF; name the file FILE.svg or FILE.pdf`);
+            throw inputError("bad_plot_file", "--plot", `--plot ${argv.plot}: the plot is written as SVG or PDF; name the file FILE.svg or FILE.pdf`);
           }
           const book = readLogbook(logbookDir(io, argv.logbook));
+          // listing is all history does: a folder it cannot read is an error here (a plan goes on without it)
+          if (book.unreadable) throw new ArmwindError({ code: "file_unreadable", path: "", file: book.dir, message: book.warnings[0].message.replace(/; going on without its records$/, "") });
+          refreshIndex(book, cacheFolder(io.env));
           for (const w of book.warnings) io.err(`armwind: warning: ${w.message} [${w.code}]`);
           const records = argv.family === undefined ? book.records : book.records.filter((r) => r.record.job.family === argv.family);
           const rows = historyRows(records);

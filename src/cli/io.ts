@@ -1,10 +1,19 @@
 /**
  * The shell's edges: reading job files (or standard input as "-"), printing problems, exit
  * statuses, and the `--json` error shape of DESIGN.md.
+ *
+ * Reading: every file armwind opens by name goes through `readUserFile` (a regular file only, never
+ * waited on, read with a size limit); standard input through `readStdin` (a pipe is fine, the same
+ * limit). Writing to the terminal: `writeStream`, the one output routine (a reader that closes
+ * early ends the command quietly, a full disk is exit status 3 with one line).
  */
-import { readFileSync } from "node:fs";
 import { resolve } from "node:path";
 import { ArmwindError, formatProblem, type Problem } from "../errors.js";
+import { readStdin, readUserFile, TEXT_FILE_LIMIT } from "../files.js";
+import { OutputError, writeStream } from "./output.js";
+
+export { readUserFile } from "../files.js";
+export { OutputError } from "./output.js";
 import { loadYaml, oneLine } from "../job/load.js";
 import { jobSchema, type Job } from "../job/schema.js";
 import { z } from "zod";
@@ -24,24 +33,23 @@ export interface Io {
 }
 
 export const processIo = (): Io => ({
-  out: (s) => process.stdout.write(s.endsWith("\n") ? s : s + "\n"),
-  err: (s) => process.stderr.write(s.endsWith("\n") ? s : s + "\n"),
-  stdin: () => readFileSync(0, "utf8"),
+  out: (s) => writeStream(1, s.endsWith("\n") ? s : s + "\n"),
+  err: (s) => writeStream(2, s.endsWith("\n") ? s : s + "\n"),
+  stdin: () => readStdin(TEXT_FILE_LIMIT),
   env: process.env,
   cwd: process.cwd(),
 });
 
-/** Read a file's text, or standard input for "-"; a missing file is a located problem. */
+/**
+ * Read a job, measured or profile file's text, or standard input for "-": a regular file only (a
+ * FIFO, device or folder is refused, never waited on), at most `TEXT_FILE_LIMIT` bytes; every
+ * problem is one located line (`file_unreadable`, `not_a_file`, `file_too_large`).
+ */
 export function readText(io: Io, file: string, path = ""): string {
   // yargs hands a lone "-" over as an empty string
   if (file === "-" || file === "") return io.stdin();
-  try {
-    return readFileSync(resolve(io.cwd, file), "utf8");
-  } catch (e) {
-    const code = (e as NodeJS.ErrnoException).code;
-    const what = code === "ENOENT" ? "no such file" : code === "EISDIR" ? "is a folder, not a file" : code === "EACCES" ? "cannot be read (permission denied)" : `cannot be read (${code ?? "error"})`;
-    throw new ArmwindError({ code: "file_unreadable", message: `${what}`, path, file });
-  }
+  // relative to the command's working folder (the workbench serves a folder as if run there)
+  return readUserFile(resolve(io.cwd, file), { path, name: file });
 }
 
 export const isStdin = (file: string): boolean => file === "-" || file === "";
@@ -82,7 +90,8 @@ export function loadJobText(
 /** Attach file, line and column to problems that carry only a field path (thrown by the core). */
 export function locateProblems(problems: Problem[], file: string | undefined, locate?: (path: (string | number)[]) => { line: number; column: number }): Problem[] {
   return problems.map((p) => {
-    if (p.file || !file) return p;
+    // a problem of a command-line option (path "--bars[2]") is not in the file
+    if (p.file || !file || p.path.startsWith("--")) return p;
     const parts: (string | number)[] = [];
     for (const m of p.path.matchAll(/([^.[\]]+)|\[(\d+)\]/g)) parts.push(m[2] !== undefined ? Number(m[2]) : m[1]);
     const at = locate ? locate(parts) : { line: 1, column: 1 };
@@ -127,6 +136,8 @@ export async function guarded(io: Io, json: boolean, body: (where: Where) => Pro
   try {
     return await body(where);
   } catch (e) {
+    // the terminal itself failed: main ends the command (quietly for a closed pipe, exit 3 for a full disk)
+    if (e instanceof OutputError) throw e;
     if (e instanceof ArmwindError) {
       const located = new ArmwindError(locateProblems(e.problems, where.file, where.locate), e.status);
       return reportError(io, located, json);

@@ -4,7 +4,7 @@ import type { Job } from "../job/schema.js";
 import type { PlanOptions } from "../design/plan.js";
 import type { Io } from "./io.js";
 import { shopLogbook } from "./shop.js";
-import { readLogbook } from "../logbook/store.js";
+import { cacheFolder, recordsOfFamily } from "../logbook/family-index.js";
 import { learnFromRecords } from "../logbook/learn.js";
 
 /**
@@ -23,7 +23,8 @@ export function logbookDir(io: Io, given?: string): string {
  */
 export function logbookOptionsFor(io: Io, job: Job, dir?: string, opts: { before?: string } = {}): PlanOptions {
   if (!job.armature.family) return {};
-  const book = readLogbook(logbookDir(io, dir));
+  // only the family's records (an index in the user's cache folder knows which files those are)
+  const book = recordsOfFamily(logbookDir(io, dir), job.armature.family, cacheFolder(io.env));
   for (const w of book.warnings) io.err(`armwind: warning: ${w.message} [${w.code}]`);
   const records = opts.before ? book.records.filter((r) => r.record.date < opts.before!) : book.records;
   const learned = learnFromRecords(job, records);

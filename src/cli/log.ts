@@ -68,6 +68,24 @@ function checkName(c: CheckRow): string {
   )[c.check] ?? c.check;
 }
 
+/** The checks out of tolerance, for `--json`: each with its reading, the prediction and the rule. */
+export function logFailures(record: LogRecord) {
+  return record.comparison.checks
+    .filter((c) => c.verdict !== "ok" && c.verdict !== "not_checked")
+    .map((c) => ({
+      check: c.check,
+      reading: checkName(c),
+      unit: c.unit,
+      predicted_value: c.predicted_value,
+      measured_value: c.measured_value,
+      measured_20c_value: c.measured_20c_value,
+      deviation_fraction: c.deviation_fraction,
+      tolerance_fraction: c.tolerance_fraction,
+      verdict: c.verdict,
+      rule: c.tolerance_source,
+    }));
+}
+
 /** The terminal report of a logged record. */
 export function logText(record: LogRecord, file: string, jobFile = `${record.job.id}.yaml`): string {
   const L: string[] = [];
@@ -75,7 +93,7 @@ export function logText(record: LogRecord, file: string, jobFile = `${record.job
   L.push(`Logged ${record.job.id} of ${record.date} as ${file}`);
   L.push(`Winding laid: ${w.turns} turns × ${w.wire.label}${w.strands > 1 ? ` × ${w.strands} in hand` : ""}${w.differs_from_plan ? ` (not as planned: ${w.differences.join(", ")})` : " (as planned)"}`);
   const cmp = record.comparison;
-  L.push(`Readings at ${cmp.temperature_c} °C; resistances corrected to 20 °C (÷ ${cmp.correction_factor.toFixed(4)}, IEC 60028)`);
+  L.push(`Readings at ${sig(cmp.temperature_c)} °C; resistances corrected to 20 °C (÷ ${cmp.correction_factor.toFixed(4)}, IEC 60028)`);
   L.push("");
   const rows = cmp.checks.map((c) => [
     checkName(c),
@@ -139,8 +157,10 @@ export function logCommand(yargs: Argv, io: Io, setStatus: (n: number) => void) 
             const hold = Number(io.env.ARMWIND_LOG_HOLD_MS ?? 0);
             const path = writeRecordFile(dir, job.id, m.date, recordYaml(record), { holdMs: Number.isFinite(hold) ? hold : 0 });
             const shown = relative(io.cwd, path).startsWith("..") ? path : relative(io.cwd, path);
-            if (argv.json) io.out(JSON.stringify({ ok: record.comparison.ok, file: shown, record }, null, 2));
+            // DESIGN.md: `record` is the file written (also `file`), `failures` the checks out of tolerance; the record itself is `logged`
+            if (argv.json) io.out(JSON.stringify({ ok: record.comparison.ok, errors: [], failures: logFailures(record), record: shown, file: shown, logged: record }, null, 2));
             else io.out(logText(record, shown, file));
+            if (!record.comparison.ok) io.err(`armwind: a bench check failed; the record was written: ${shown}`);
             return record.comparison.ok ? 0 : 4;
           },
         ),

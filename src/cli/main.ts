@@ -3,6 +3,7 @@
 import yargs, { type Argv } from "yargs";
 import { hideBin } from "yargs/helpers";
 import { processIo, type Io } from "./io.js";
+import { endForOutputError, OutputError, writeStream } from "./output.js";
 import { VERSION } from "./version.js";
 
 export async function main(args: string[], io = processIo()): Promise<number> {
@@ -37,6 +38,8 @@ export async function main(args: string[], io = processIo()): Promise<number> {
       if (output) io.out(output);
     });
   } catch (e) {
+    // standard output closed early (quiet, 0) or could not be written (one line, 3)
+    if (e instanceof OutputError) return endForOutputError(e);
     if (!(e instanceof UsageError)) throw e;
     io.err(`armwind: ${e.message} (armwind --help lists commands and options)`);
     return 1;
@@ -63,12 +66,27 @@ const COMMANDS: { names: string[]; register: Register }[] = [
 
 const isMain = process.argv[1] && /main\.(js|ts)$|armwind(\.mjs)?$/.test(process.argv[1]);
 if (isMain) {
+  // yargs prints help and usage through console.log: a reader that closes early (EPIPE) or a full
+  // disk there ends the command as the output routine would, never with a stack trace
+  for (const [stream, fd] of [[process.stdout, 1], [process.stderr, 2]] as const) {
+    stream.on("error", (e: NodeJS.ErrnoException) => {
+      process.exitCode = endForOutputError(new OutputError(fd, e.code ?? "error"));
+    });
+  }
   main(hideBin(process.argv)).then(
     (code) => {
       process.exitCode = code;
     },
     (e: unknown) => {
-      process.stderr.write(`armwind: internal error: ${e instanceof Error ? e.message : String(e)}\n`);
+      if (e instanceof OutputError) {
+        process.exitCode = endForOutputError(e);
+        return;
+      }
+      try {
+        writeStream(2, `armwind: internal error: ${e instanceof Error ? e.message.split("\n")[0] : String(e)}\n`);
+      } catch {
+        /* standard error is gone: the status says it */
+      }
       process.exitCode = 70;
     },
   );

@@ -232,6 +232,8 @@ export function planJson(plan: Plan) {
       mean_turn_length_mm: plan.original.mlt * 1e3,
       terminal_ohm: plan.original.terminal_ohm,
       terminal_measured: plan.original.terminal_measured,
+      laid_overall_diameter_mm: mm(plan.original.overall),
+      overall_basis: plan.original.overall_basis,
     },
     calibration: {
       source: plan.calibration.source,

@@ -30,6 +30,7 @@ export function planText(plan: Plan): string {
   L.push("");
   L.push("Cut list");
   L.push(`  mean turn ${mm(plan.wire.mlt)} mm (${plan.wire.mlt_source.replace(/_/g, " ")}); one coil ${sig(plan.wire.per_coil)} m; winding ${sig(plan.wire.winding)} m`);
+  L.push(`  old wire ${plan.original.overall_basis}`);
   L.push(
     `  CUT ${sig(plan.wire.cut)} m${d.strands > 1 ? ` in all (${sig(plan.wire.cut_per_strand)} m from each of ${d.strands} spools)` : ""} with ${sig(plan.wire.lead_allowance * 1e3)} mm leads and ${pct(plan.wire.spare_margin)} spare; copper ${sig(plan.wire.copper_mass * 1e3)} g`,
   );

@@ -7,26 +7,26 @@
 import { inputError, type Warning } from "../errors.js";
 import type { Job } from "../job/schema.js";
 import { slotGeometry, type SlotGeometry } from "../armature/slot.js";
-import { bundleThickness, fitEndTurnFactor, lengthFromMass, meanTurnLength, mltFromWireLength, ridingIncrement, type CoreDims } from "../armature/turn.js";
+import { bundleThickness, fitEndTurnFactor, lengthFromEnamelledMass, meanTurnLength, mltFromWireLength, ridingIncrement, type CoreDims } from "../armature/turn.js";
 import { copperFill } from "../armature/fill.js";
 import { layoutWinding } from "../winding/layout.js";
 import type { WindingLayout, WindingSpec } from "../winding/types.js";
-import { resolveWire } from "../wire/catalogue.js";
+import { commonOverall, resolveWire } from "../wire/catalogue.js";
 import type { Wire } from "../wire/types.js";
 import { COPPER_RESISTIVITY_20, copperFactor } from "../wire/copper.js";
 import { terminalResistance } from "../winding/ring.js";
 import type { WirePlan } from "./types.js";
 
-/** Overall/bare ratio assumed for a wire whose insulation is unknown: 1.08 (typical grade 2 of small sizes, from memory). */
-const UNKNOWN_OVERALL_RATIO = 1.08;
-
 /**
- * The overall diameter (m) the turn-length model lays a wire at: the wire's own (catalogue grade or
- * build, or measured) when known, else an assumed one, and the sentence that says which.
+ * The overall diameter (m) the turn-length model lays a wire at, and the sentence that says where it
+ * came from: the wire's own (its IEC 60317 grade or NEMA film build in the catalogue, or measured)
+ * when known; a wire named by its copper alone (an original "0.22 mm") is taken as the common
+ * motor-winding wire of its size (src/wire/catalogue.ts `commonOverall`: grade 2, AWG heavy build).
  */
-export function layingOverall(wire: Pick<Wire, "label" | "bare_diameter" | "overall_diameter" | "overall_source">): { overall: number; basis: string } {
-  if (wire.overall_diameter !== null) return { overall: wire.overall_diameter, basis: `${wire.label}: overall diameter ${wire.overall_source}` };
-  return { overall: wire.bare_diameter * UNKNOWN_OVERALL_RATIO, basis: `${wire.label}: insulation not known, overall taken as ${UNKNOWN_OVERALL_RATIO} × bare (from memory)` };
+export function layingOverall(wire: Pick<Wire, "label" | "system" | "size" | "bare_diameter" | "overall_diameter" | "overall_source">): { overall: number; basis: string } {
+  if (wire.overall_diameter !== null) return { overall: wire.overall_diameter, basis: `${wire.label}: ${(wire.overall_diameter * 1e3).toFixed(4)} mm overall (${wire.overall_source})` };
+  const c = commonOverall(wire);
+  return { overall: c.value, basis: `${wire.label}: insulation not given, taken as ${c.insulation}, ${(c.value * 1e3).toFixed(4)} mm overall (${c.source}); give the grade or build, or { bare, overall } measured` };
 }
 
 /** The turn-length model's calibration: factor on the end-turn part, where it came from, a measured turn. */
@@ -69,6 +69,8 @@ export interface ArmatureContext extends TurnLengthGeometry {
   readonly slot: SlotGeometry;
   /** Live coils (a dead coil excluded). */
   readonly liveCoils: number;
+  /** Coils wound (a wave winding's dead coil included: it is wound and cut like the others). */
+  readonly woundCoils: number;
   /** Coil sides per slot: tooth 2, lap/wave 2u. */
   readonly sides: number;
   readonly original: OriginalFigures;
@@ -206,18 +208,19 @@ export function fitToOldTurn(geo: Omit<TurnLengthGeometry, keyof TurnLengthCalib
 
 /**
  * Calibration of the turn length from the job alone: the measured turn, else the old wire pulled
- * off (its length, or its mass over the copper density and area), else the model (factor 1).
+ * off (its length, or its weighed mass, enamel and all, over the mass of a metre of the enamelled
+ * wire), else the model (factor 1). The old wire is all the coils wound, a dead coil included.
  */
-function turnLengthFromJob(job: Job, geo: Omit<TurnLengthGeometry, keyof TurnLengthCalibration>, liveCoils: number, oWire: Wire, oldBuild: number, warnings: Warning[]): TurnLengthCalibration {
+function turnLengthFromJob(job: Job, geo: Omit<TurnLengthGeometry, keyof TurnLengthCalibration>, woundCoils: number, oWire: Wire, oldOverall: number, oldBuild: number, warnings: Warning[]): TurnLengthCalibration {
   const o = job.original;
   if (job.winding.mean_turn_length !== undefined) return { mltFactor: 1, mltSource: "measured", mltMeasured: job.winding.mean_turn_length };
   let oldMlt: number;
   let source: "wire_length" | "wire_mass";
   if (o.wire_length !== undefined) {
-    oldMlt = mltFromWireLength(o.wire_length, o.strands, o.turns, liveCoils);
+    oldMlt = mltFromWireLength(o.wire_length, o.strands, o.turns, woundCoils);
     source = "wire_length";
   } else if (o.wire_mass !== undefined) {
-    oldMlt = mltFromWireLength(lengthFromMass(o.wire_mass, oWire.bare_diameter), o.strands, o.turns, liveCoils);
+    oldMlt = mltFromWireLength(lengthFromEnamelledMass(o.wire_mass, oWire.bare_diameter, oldOverall), o.strands, o.turns, woundCoils);
     source = "wire_mass";
   } else return { mltFactor: 1, mltSource: "model", mltMeasured: null };
   const path = source === "wire_length" ? "original.wire_length" : "original.wire_mass";
@@ -263,13 +266,14 @@ export function buildContext(job: Job, options: ContextOptions = {}): ArmatureCo
   warnings.push(...layout.warnings);
   const { core, along } = coreGeometry(job, slot, warnings);
   const liveCoils = layout.coils.filter((c) => !c.dead).length;
+  const woundCoils = layout.coils.length;
   const sides = layout.coil_sides_per_slot;
   const o = job.original;
   const oWire = resolveWire(o.wire);
   const { overall: oOverall, basis: overallBasis } = layingOverall(oWire);
   const oldBuild = bundleThickness(o.turns, o.strands, oOverall, along);
   const shape = { layout, core, along };
-  let cal = turnLengthFromJob(job, shape, liveCoils, oWire, oldBuild, warnings);
+  let cal = turnLengthFromJob(job, shape, woundCoils, oWire, oOverall, oldBuild, warnings);
   const terminalMeasured = o.terminal_resistance !== undefined;
   const measured20 = o.terminal_resistance ? o.terminal_resistance.value / copperFactor(o.terminal_resistance.at) : null;
   if (measured20 !== null && cal.mltSource === "model") cal = fitToTerminal({ ...shape, ...cal }, job, oOverall, oWire, oldBuild, measured20) ?? cal;
@@ -291,7 +295,7 @@ export function buildContext(job: Job, options: ContextOptions = {}): ArmatureCo
     terminalComputed20: chain.terminal,
     terminalMeasured,
   });
-  return Object.freeze({ job, slot, layout, core, along, liveCoils, sides, ...cal, original, warnings: Object.freeze(warnings) });
+  return Object.freeze({ job, slot, layout, core, along, liveCoils, woundCoils, sides, ...cal, original, warnings: Object.freeze(warnings) });
 }
 
 /** Warnings on the turn length: a measured terminal resistance far from the computed one; the model alone. */

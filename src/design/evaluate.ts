@@ -51,8 +51,8 @@ export interface RingReadings {
   single: number;
   /** Brushes each bridging two bars. */
   bridged: number;
-  /** Least and largest over a turn of the rotor (the ring module's figures). */
-  min: number;
+  /** Least and largest over a turn of the rotor (the ring module's figures); min null when the brushes can short the supply through one bar (brush_short). */
+  min: number | null;
   max: number;
   /** How the brushes were placed. */
   basis: string;
@@ -382,7 +382,7 @@ function candidate(s: Setup, w: Winding, mlt: number, coilOhm: number, terminal2
     error: v.error,
     meets_goal: v.meets && (s.goal === "fixed" || reasons.length === 0),
     rejected_because: reasons,
-    copper_mass: COPPER_DENSITY * w.wire.area * w.strands * w.turns * mlt * s.ctx.liveCoils,
+    copper_mass: COPPER_DENSITY * w.wire.area * w.strands * w.turns * mlt * s.ctx.woundCoils,
     current_density: g.current_density,
     stall_current_hot: g.stall_current_hot,
     stall_current_cold: g.stall_current_cold,
@@ -427,7 +427,9 @@ function evaluateFull(s: Setup, w: Winding, options: FullOptions = {}): FullEval
     bar_to_bar: barToBar(layout, coilOhms),
     single: t.single,
     bridged: t.bridged,
-    min: Math.min(t.min, t.bridged, t.single),
+    // the least over a turn of these brushes, or null when they can short the supply through one bar;
+    // the "bridged" set is left out: brushes under a bar wide never reach it (on 3 bars it is a short)
+    min: t.min === null ? null : Math.min(t.min, t.single),
     max: Math.max(t.max, t.single),
     basis: t.validity,
   };

@@ -147,15 +147,15 @@ function sensitivityRows(ev: Evaluator, chosen: Candidate, wires: Wire[]): Sensi
 }
 
 /**
- * The cut list (m, kg): one coil N·k·MLT, the winding over the live coils, two leads per coil and
- * strand, and the spare margin on everything: cut = (winding + leads)·(1 + margin); copper mass
- * ρ_Cu·A·cut (IEC 60028 density).
+ * The cut list (m, kg): one coil N·k·MLT, the winding over every coil wound (a wave winding's dead
+ * coil is wound and cut like the others), two leads per coil and strand, and the spare margin on
+ * everything: cut = (winding + leads)·(1 + margin); copper mass ρ_Cu·A·cut (IEC 60028 density).
  */
 function wirePlan(ctx: ArmatureContext, chosen: Candidate): WirePlan {
   const w = ctx.job.winding;
   const perCoil = chosen.turns * chosen.strands * chosen.mlt;
-  const windingLen = perCoil * ctx.liveCoils;
-  const leads = 2 * w.lead_allowance * ctx.liveCoils * chosen.strands;
+  const windingLen = perCoil * ctx.woundCoils;
+  const leads = 2 * w.lead_allowance * ctx.woundCoils * chosen.strands;
   const cut = (windingLen + leads) * (1 + w.spare_margin);
   return {
     mlt: chosen.mlt,
@@ -264,7 +264,7 @@ export function planJob(job: Job, options: PlanOptions = {}): Plan {
     series,
     motor: chosen.motor,
     original_motor: original.motor,
-    original: { wire: o.wire, turns: o.turns, strands: o.strands, copper_fill: o.copperFill, mlt: o.mlt, terminal_ohm: o.terminal20, terminal_measured: o.terminalMeasured },
+    original: { wire: o.wire, turns: o.turns, strands: o.strands, copper_fill: o.copperFill, mlt: o.mlt, terminal_ohm: o.terminal20, terminal_measured: o.terminalMeasured, overall: o.overall, overall_basis: o.overallBasis },
     duty: chosen.duty,
     original_duty: original.duty,
     candidates,

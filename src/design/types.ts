@@ -85,7 +85,8 @@ export interface ResistancePlan {
   /** Their mean, Ω. */
   bar_to_bar_ohm: number;
   terminal_ohm: number;
-  terminal_min_ohm: number;
+  /** Least over a turn of the rotor, Ω; null when the brushes can short the supply through one bar (brush_short). */
+  terminal_min_ohm: number | null;
   terminal_max_ohm: number;
   terminal_hot_ohm: number;
   /** Hot temperature, °C. */
@@ -197,6 +198,9 @@ export interface Plan {
     mlt: number;
     terminal_ohm: number;
     terminal_measured: boolean;
+    /** Overall diameter the old build is laid at for the turn-length model, m, and where it came from. */
+    overall: number;
+    overall_basis: string;
   };
   duty: DutyReport | null;
   original_duty: DutyReport | null;

@@ -30,7 +30,10 @@ export function loadYaml<S extends z.ZodType>(text: string, file: string, schema
         const at = pos(e.pos[0]);
         return {
           code: "bad_yaml",
-          message: yamlMessage(e.message),
+          message:
+            e.code === "MULTIPLE_DOCS"
+              ? "the file holds more than one YAML document (a line --- starts another here); one file holds one document: remove this part or give it its own file"
+              : yamlMessage(e.message),
           path: "",
           file,
           ...at,
@@ -105,7 +108,11 @@ function aliasProblem(doc: Document, e: unknown, file: string, pos: (offset: num
  * of spaces; show breaks as \n, collapse the spaces, and cut a very long message short.
  */
 export function oneLine(message: string): string {
-  const flat = message.replace(/\r\n|[\r\n\u2028\u2029]/g, "\\n").replace(/[\t\v\f ]{2,}|\t/g, " ");
+  const flat = message
+    .replace(/\r\n|[\r\n\u2028\u2029]/g, "\\n")
+    .replace(/[\t\v\f ]{2,}|\t/g, " ")
+    // other control characters (a NUL, an escape that would drive the terminal) shown as \u0000
+    .replace(/\p{Cc}/gu, (c) => `\\u${c.charCodeAt(0).toString(16).padStart(4, "0")}`);
   return flat.length > 300 ? `${flat.slice(0, 297)}…` : flat;
 }
 
@@ -287,7 +294,11 @@ function issuesToProblems(issues: readonly Issue[], schema: z.ZodType, raw: unkn
       case "too_big": {
         const isCount = issue.origin === "number" || issue.origin === "int";
         const bound = (issue as { minimum?: unknown; maximum?: unknown }).minimum ?? (issue as { maximum?: unknown }).maximum;
-        if (issue.origin === "array" && issue.code === "too_small") {
+        if (issue.origin === "string" && issue.code === "too_big") {
+          out.push({ code: "out_of_range", parts, message: `the text is ${typeof value === "string" ? value.length : "too many"} characters long; at most ${String(bound)} are read here` });
+        } else if (issue.origin === "array" && issue.code === "too_big") {
+          out.push({ code: "out_of_range", parts, message: `the list has ${Array.isArray(value) ? value.length : "too many"} items; at most ${String(bound)} are read here` });
+        } else if (issue.origin === "array" && issue.code === "too_small") {
           out.push({ code: "out_of_range", parts, message: `the list is empty; give at least ${String(bound)} item, or leave the key out` });
         } else if (isCount) {
           out.push({

@@ -9,8 +9,9 @@
 import { z } from "zod";
 import { parseQuantity, type QuantityKind, defaultUnit, example } from "./units.js";
 import { parseWireSpec } from "../wire/parse.js";
+import { COUNTS, ID_MAX_LENGTH, KIND_RANGES, RESERVED_NAMES, TEMPERATURE, TEXT_MAX_LENGTH } from "./ranges.js";
 
-const TEMP = { min: -60, max: 250, minText: "-60 C", maxText: "250 C" };
+const TEMP = { min: TEMPERATURE.min, max: TEMPERATURE.max, minText: TEMPERATURE.minText, maxText: TEMPERATURE.maxText };
 
 interface QtyOptions {
   /** Strictly greater than zero. */
@@ -42,16 +43,20 @@ export function qty(kind: QuantityKind, opts: QtyOptions = {}) {
         return z.NEVER;
       }
       const x = r.value;
+      // the kind's physical range (src/job/ranges.ts) bounds every field that does not narrow it
+      const range = KIND_RANGES[kind];
+      const max = opts.max ?? range.max;
+      const min = opts.min ?? range.min;
       if (opts.positive && !(x > 0)) {
         ctx.addIssue({ code: "custom", message: `must be greater than zero, got ${JSON.stringify(v)}`, params: { code: "out_of_range" } });
         return z.NEVER;
       }
-      if (opts.min !== undefined && x < opts.min) {
-        ctx.addIssue({ code: "custom", message: `must be at least ${opts.minText ?? opts.min}, got ${JSON.stringify(v)}`, params: { code: "out_of_range" } });
+      if (min !== undefined && x < min) {
+        ctx.addIssue({ code: "custom", message: `must be at least ${opts.min !== undefined ? (opts.minText ?? opts.min) : range.minText}, got ${JSON.stringify(v)}`, params: { code: "out_of_range" } });
         return z.NEVER;
       }
-      if (opts.max !== undefined && x > opts.max) {
-        ctx.addIssue({ code: "custom", message: `must be at most ${opts.maxText ?? opts.max}, got ${JSON.stringify(v)}`, params: { code: "out_of_range" } });
+      if (x > max) {
+        ctx.addIssue({ code: "custom", message: `must be at most ${opts.max !== undefined ? (opts.maxText ?? opts.max) : range.maxText}, got ${JSON.stringify(v)}`, params: { code: "out_of_range" } });
         return z.NEVER;
       }
       return x;
@@ -172,7 +177,7 @@ const noLoadTestSchema = z
     speed: qty("speed", { positive: true }).optional(),
     torque: qty("torque", { positive: true }).optional(),
     output_power: qty("power", { positive: true }).optional(),
-    temperature: qty("temperature", { min: -60, max: 250, minText: "-60 C", maxText: "250 C" }).optional(),
+    temperature: qty("temperature").optional(),
     field_current: qty("current", { min: 0 }).optional(),
   })
   .superRefine((t, ctx) => {
@@ -246,6 +251,20 @@ const dutySchema = z.strictObject({
   speed: qty("speed", { positive: true }),
 });
 
+/**
+ * A job id names files (cards, records) and may travel to a shared drive: letters, digits, '.',
+ * '_' and '-', at most ID_MAX_LENGTH characters, not a name Windows keeps for a device (CON, NUL…).
+ */
+export const jobId = z.string().superRefine((id, ctx) => {
+  const bad = (message: string, code = "bad_id") => ctx.addIssue({ code: "custom", message, params: { code } });
+  if (id.length > ID_MAX_LENGTH) bad(`is ${id.length} characters long; an id names files, so keep it to ${ID_MAX_LENGTH} or fewer`);
+  else if (!/^[A-Za-z0-9][A-Za-z0-9._-]*$/.test(id)) bad("must be letters, digits, '.', '_' or '-' (it names files), starting with a letter or digit");
+  else if (RESERVED_NAMES.test(id)) bad(`"${id}" is a device name on Windows (CON, PRN, AUX, NUL, COM1…, LPT1…): a card or record named by it cannot be written to a shared drive; choose another id`);
+});
+
+/** Free text (title, customer, notes), at most TEXT_MAX_LENGTH characters. */
+const freeText = z.string().max(TEXT_MAX_LENGTH);
+
 export const GOALS = ["restore", "no_load_speed", "kv", "stall_current", "duty", "convert", "fixed"] as const;
 
 /** The two senses of Kv (DESIGN.md "Kv"): the motor constant 60/(2π·Ke), or no-load speed ÷ supply. */
@@ -280,9 +299,9 @@ export function toleranceOf(given: number | Tolerance, goal: (typeof GOALS)[numb
 
 const fixedSchema = z
   .strictObject({
-    turns: count(1, "turns per coil of the chosen winding").max(100000),
+    turns: count(COUNTS.turns.min, "turns per coil of the chosen winding").max(COUNTS.turns.max),
     wire: wireRole("stock"),
-    strands: count(1, "strands in hand").max(20).prefault(1),
+    strands: count(COUNTS.strands.min, "strands in hand").max(COUNTS.strands.max).prefault(1),
   })
   .meta({ description: "goal fixed: the winding chosen, { turns: 45, wire: 0.25 mm grade 2, strands: 1 }" });
 
@@ -290,18 +309,15 @@ const fixedSchema = z
 const jobShape = z.strictObject({
     $schema: z.string().optional().meta({ description: "editor hint, ignored" }),
     version: z.literal(1).meta({ description: "job file version: 1" }),
-    id: z
-      .string()
-      .regex(/^[A-Za-z0-9][A-Za-z0-9._-]{0,79}$/, "must be letters, digits, '.', '_' or '-' (it names files), starting with a letter or digit")
-      .meta({ description: "unique job id, used in file names and the logbook" }),
-    title: z.string().min(1),
-    customer: z.string().optional(),
-    notes: z.string().optional(),
+    id: jobId.meta({ description: "unique job id, used in file names and the logbook" }),
+    title: freeText.min(1),
+    customer: freeText.optional(),
+    notes: freeText.optional(),
     armature: z.strictObject({
       family: z.string().min(1).optional().meta({ description: "rewinds of the same armature share calibration" }),
-      slots: count(2, "slots (= teeth)").max(200),
-      bars: count(2, "commutator bars (segments)").max(400),
-      field_poles: count(2, "poles of the stator field (2, 4, 6 …)").max(24),
+      slots: count(COUNTS.slots.min, "slots (= teeth)").max(COUNTS.slots.max),
+      bars: count(COUNTS.bars.min, "commutator bars (segments)").max(COUNTS.bars.max),
+      field_poles: count(COUNTS.poles.min, "poles of the stator field (2, 4, 6 …)").max(COUNTS.poles.max),
       field: z.enum(["permanent_magnet", "shunt", "series"]),
       stack_length: qty("length", { positive: true, max: 1, maxText: "1 m" }),
       rotor_diameter: qty("length", { positive: true, max: 1, maxText: "1 m" }),
@@ -313,7 +329,7 @@ const jobShape = z.strictObject({
     winding: z.strictObject({
       style: z.enum(["tooth", "lap", "wave"]),
       span: count(0, "coil span in slots (tooth: 1)").max(200).optional(),
-      coils_per_slot: count(1, "coils per slot u (bars = u × slots)").max(8).prefault(1),
+      coils_per_slot: count(COUNTS.coils_per_slot.min, "coils per slot u (bars = u × slots)").max(COUNTS.coils_per_slot.max).prefault(1),
       dead_coil: z.boolean().prefault(false),
       equalizers: z.boolean().prefault(false),
       progression: z.enum(["progressive", "retrogressive"]).prefault("progressive"),
@@ -326,14 +342,14 @@ const jobShape = z.strictObject({
       brush_drop: qty("voltage", { min: 0, max: 10, maxText: "10 V" }).optional(),
     }),
     original: z.strictObject({
-      turns: count(1, "turns per coil of the original winding").max(100000),
+      turns: count(COUNTS.turns.min, "turns per coil of the original winding").max(COUNTS.turns.max),
       wire: wireRole("original"),
-      strands: count(1, "strands in hand").max(20).prefault(1),
+      strands: count(COUNTS.strands.min, "strands in hand").max(COUNTS.strands.max).prefault(1),
       wire_length: qty("wire_length", { positive: true }).optional(),
       wire_mass: qty("mass", { positive: true }).optional(),
       nameplate: nameplateSchema.optional(),
       armature_inductance: qty("inductance", { positive: true }).optional(),
-      tests: z.array(noLoadTestSchema).optional(),
+      tests: z.array(noLoadTestSchema).max(COUNTS.tests.max).optional(),
       generator: z.strictObject({ speed: qty("speed", { positive: true }), volts: qty("voltage", { positive: true }) }).optional(),
       terminal_resistance: z
         .strictObject({ value: qty("resistance", { positive: true }), at: qty("temperature", TEMP).prefault(20) })
@@ -363,8 +379,8 @@ const jobShape = z.strictObject({
       hot_temperature: qty("temperature", TEMP).prefault(80),
     })
     .transform((t) => ({ ...t, tolerance: toleranceOf(t.tolerance, t.goal) })),
-    wire_stock: z.array(wireRole("stock")).min(1).optional(),
-    max_in_hand: count(1, "most strands wound together").max(8).prefault(1),
+    wire_stock: z.array(wireRole("stock")).min(1).max(COUNTS.wire_stock.max).optional(),
+    max_in_hand: count(COUNTS.in_hand.min, "most strands wound together").max(COUNTS.in_hand.max).prefault(1),
   });
 
 export const jobSchema = jobShape.superRefine((job, ctx) => {
@@ -392,6 +408,7 @@ export const jobSchema = jobShape.superRefine((job, ctx) => {
       });
     }
     seriesRules(job, ctx);
+    checkSlotFitsRotor(job.armature, ctx);
     if (t.limits.current_density === "none" && t.duty === undefined && t.rated_current === undefined) {
       ctx.addIssue({
         code: "custom",
@@ -454,6 +471,32 @@ function seriesRules(job: JobOut, ctx: z.RefinementCtx): void {
   const lr = job.field_winding?.locked_rotor;
   if (lr && lr.frequency === undefined && typeof t.supply === "object" && t.supply.kind === "ac") {
     issue(["field_winding", "locked_rotor", "frequency"], "say whether the locked-rotor reading was on AC (frequency: 50 Hz) or DC (frequency: 0 Hz)", "missing_field");
+  }
+}
+
+/**
+ * The slots must fit in the rotor: all slots' free area together less than the rotor's
+ * cross-section π/4·D², a trapezoid slot no deeper than the rotor's radius (geometry; catches a
+ * slot area written in the wrong unit, like 1e300 mm² on a 20 mm rotor).
+ */
+function checkSlotFitsRotor(a: { slots: number; rotor_diameter: number; slot: { area?: number; depth?: number } }, ctx: z.RefinementCtx) {
+  const disc = (Math.PI / 4) * a.rotor_diameter ** 2;
+  const mm2 = (x: number) => `${Number((x * 1e6).toPrecision(3))} mm²`;
+  if (a.slot.area !== undefined && a.slot.area * a.slots > disc) {
+    ctx.addIssue({
+      code: "custom",
+      path: ["armature", "slot", "area"],
+      message: `${a.slots} slots of ${mm2(a.slot.area)} are more than the whole cross-section of a ${Number((a.rotor_diameter * 1e3).toPrecision(4))} mm rotor (${mm2(disc)}); the free area of one slot is a few per cent of it (check the unit: mm2)`,
+      params: { code: "inconsistent_geometry" },
+    });
+  }
+  if (a.slot.depth !== undefined && a.slot.depth > a.rotor_diameter / 2) {
+    ctx.addIssue({
+      code: "custom",
+      path: ["armature", "slot", "depth"],
+      message: `a slot ${Number((a.slot.depth * 1e3).toPrecision(4))} mm deep does not fit in a rotor of ${Number((a.rotor_diameter * 1e3).toPrecision(4))} mm diameter (at most its radius)`,
+      params: { code: "inconsistent_geometry" },
+    });
   }
 }
 

@@ -43,6 +43,8 @@ export function recordEndTurnFactor(ctx: ArmatureContext, r: Pick<LogRecord, "wi
     bare_diameter: w.bare_diameter_mm / 1e3,
     overall_diameter: w.overall_diameter_mm === null ? null : w.overall_diameter_mm / 1e3,
     overall_source: w.overall_diameter_mm === null ? "none" : "published",
+    system: "measured",
+    size: "",
   });
   const f = fitToOldTurn(ctx, r.derived.mean_turn_length_mm / 1e3, bundleThickness(r.winding.turns, r.winding.strands, overall, ctx.along));
   return Number.isFinite(f) && f > 0 ? f : null;

@@ -43,7 +43,7 @@ export interface Prediction {
   /** Expected bar-to-bar readings r1 … rC at 20 °C, Ω. */
   bar_to_bar: number[];
   /** Terminal resistance at 20 °C, Ω: each brush on a single bar, both bridging, and the range over a turn. */
-  terminal: { single: number; bridged: number; min: number; max: number };
+  terminal: { single: number; bridged: number; min: number | null; max: number };
   /** Ke of the wound winding, V·s/rad, null when nothing calibrates it. */
   ke: number | null;
   brush_drop: number;

@@ -10,6 +10,8 @@ import type { Job } from "../job/schema.js";
 import type { Plan } from "../design/types.js";
 import { toRpm } from "../format/units.js";
 import { kvFromKe } from "../motor/emf.js";
+import { jobId } from "../job/schema.js";
+import { COUNTS, ID_MAX_LENGTH, RECORD_RANGES } from "../job/ranges.js";
 import { compareReadings, type Comparison, type Derived } from "./compare.js";
 import type { Measured } from "./measured.js";
 import { predictNoLoad, predictStall, type Prediction } from "./predict.js";
@@ -57,7 +59,7 @@ export interface RecordPredicted {
   coil_ohm: number[];
   bar_to_bar_ohm: number[];
   terminal_ohm: number;
-  terminal_min_ohm: number;
+  terminal_min_ohm: number | null;
   terminal_max_ohm: number;
   /** At the job's supply, winding at 20 °C. */
   supply_v: number;
@@ -163,50 +165,75 @@ export function buildRecord(job: Job, plan: Plan, prediction: Prediction, m: Mea
 }
 
 // ---------------------------------------------------------------------------------------------
-// reading a record back: what history and learning rely on must be there and of the right kind
+// reading a record back: what history and learning rely on must be there, of the right kind, and
+// within its physical range (src/job/ranges.ts): a record outside it is damaged, not learned from
 
 const num = z.number().refine(Number.isFinite, "must be a finite number");
-const numOrNull = num.nullable();
+/** A finite number within a range of RECORD_RANGES (the unit is the key's last part). */
+const within = (r: { min: number; max: number }) => num.min(r.min).max(r.max);
+const R = RECORD_RANGES;
+/** Values of the comparison table, in the unit its row names: finite and not absurd. */
+const value = within({ min: -1e12, max: 1e12 }).nullable();
 const checkRow = z.looseObject({
-  check: z.string(),
-  unit: z.string(),
-  predicted_value: numOrNull,
-  measured_value: numOrNull,
-  measured_20c_value: numOrNull,
-  deviation_fraction: numOrNull,
+  check: z.string().max(200),
+  unit: z.string().max(40),
+  predicted_value: value,
+  measured_value: value,
+  measured_20c_value: value,
+  deviation_fraction: within(R.fraction).nullable(),
   verdict: z.enum(["ok", "high", "low", "fail", "not_checked"]),
 });
+
+/** A calendar date YYYY-MM-DD that exists (not 2026-13-45). */
+export const isCalendarDate = (s: string): boolean => {
+  const m = /^(\d{4})-(\d{2})-(\d{2})$/.exec(s);
+  return m !== null && new Date(Date.UTC(Number(m[1]), Number(m[2]) - 1, Number(m[3]))).toISOString().slice(0, 10) === s;
+};
+
+const count = (c: { min: number; max: number }) => z.int().min(c.min).max(c.max);
 
 export const recordSchema = z.looseObject({
   version: z.literal(1),
   kind: z.literal(RECORD_KIND),
-  date: z.string().regex(/^\d{4}-\d{2}-\d{2}$/),
-  logged_at: z.string(),
+  date: z.string().refine(isCalendarDate, "must be a date YYYY-MM-DD"),
+  logged_at: z.string().max(100),
   job: z.looseObject({
-    id: z.string().min(1),
-    family: z.string().nullable(),
+    id: jobId,
+    family: z.string().max(ID_MAX_LENGTH * 4).nullable(),
     style: z.enum(["tooth", "lap", "wave"]),
-    slots: z.int().min(1),
-    bars: z.int().min(1),
-    original_turns: z.int().min(1),
+    slots: count(COUNTS.slots),
+    bars: count(COUNTS.bars),
+    original_turns: count(COUNTS.turns),
   }),
   winding: z.looseObject({
-    turns: z.int().min(1),
-    strands: z.int().min(1),
-    wire: z.looseObject({ label: z.string(), bare_diameter_mm: num.positive(), overall_diameter_mm: numOrNull }),
-    mean_turn_length_mm: num.positive(),
+    turns: count(COUNTS.turns),
+    strands: count(COUNTS.strands),
+    wire: z.looseObject({ label: z.string().max(200), bare_diameter_mm: within(R.bare_diameter_mm), overall_diameter_mm: within(R.overall_diameter_mm).nullable() }),
+    mean_turn_length_mm: within(R.mean_turn_length_mm),
   }),
-  measured: z.looseObject({ temperature_c: num, bar_to_bar_ohm: z.array(numOrNull).min(1) }),
-  predicted: z.looseObject({ terminal_ohm: num, brush_drop_v: num }),
-  comparison: z.looseObject({ ok: z.boolean(), checks: z.array(checkRow) }),
+  // a reading may be null: OL or open on the meter
+  measured: z.looseObject({ temperature_c: within(R.temperature_c), bar_to_bar_ohm: z.array(within(R.ohm).nullable()).min(1).max(COUNTS.bars.max) }),
+  predicted: z.looseObject({ terminal_ohm: within(R.ohm), brush_drop_v: within(R.volts) }),
+  comparison: z.looseObject({ ok: z.boolean(), checks: z.array(checkRow).max(COUNTS.bars.max + 100) }),
   derived: z.looseObject({
-    mean_turn_length_mm: num.positive(),
-    ke_v_s_per_rad: numOrNull,
-    loss_torque_n_m: numOrNull,
-    loss_speed_rpm: numOrNull,
+    mean_turn_length_mm: within(R.mean_turn_length_mm),
+    ke_v_s_per_rad: within(R.ke_v_s_per_rad).nullable(),
+    loss_torque_n_m: within(R.torque_n_m).nullable(),
+    loss_speed_rpm: within(R.speed_rpm).nullable(),
     readings_sound: z.boolean(),
   }),
 });
+
+/** One line for the first thing wrong with a record: "winding.mean_turn_length_mm: 1e+300 is above 5000". */
+export function recordIssue(issue: z.core.$ZodIssue): string {
+  const path = issue.path.map((p, i) => (typeof p === "number" ? `[${p}]` : `${i ? "." : ""}${String(p)}`)).join("") || "the record";
+  if (issue.code === "too_big" || issue.code === "too_small") {
+    const bound = issue.code === "too_big" ? `above ${String(issue.maximum)}` : `below ${String(issue.minimum)}`;
+    const what = issue.origin === "array" ? "the list is too long" : issue.origin === "string" ? "the text is too long" : `out of range (${bound})`;
+    return `${path}: ${what}`;
+  }
+  return `${path}: ${issue.message}`;
+}
 
 /** A record as read back (validated where history and learning look; the rest as written). */
 export type ReadRecord = z.output<typeof recordSchema> & LogRecord;

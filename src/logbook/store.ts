@@ -3,29 +3,43 @@
  * logbook's shell (it touches files; the rest of src/logbook is pure).
  *
  * Writing never half-writes and never replaces: the record goes into a hidden temporary file in the
- * same folder, is flushed to disk, and is then given its final name with a hard link, which fails
- * with EEXIST when another writer took that name first (then n + 1 is tried). A rename would
- * silently replace another writer's record. The temporary name is unlinked afterwards; a process
- * killed before the link leaves only a hidden `.…tmp` file, never a partial record.
+ * same folder (named with this host and process id), is flushed to disk, and is then given its
+ * final name with a hard link, which fails with EEXIST when another writer took that name first
+ * (then n + 1 is tried). A rename would silently replace another writer's record. Where the file
+ * system refuses hard links (some network shares), the final name is created exclusively instead
+ * and the record copied into it (a reader that meets it unfinished finds it damaged). The
+ * temporary name is unlinked afterwards; a process killed before the link leaves only a hidden
+ * `.…tmp` file, never a partial record, and the next writer on the same host removes it once its
+ * process is gone (never another host's: a logbook may be shared by several benches).
+ *
+ * Reading trusts nothing in the folder: a record is read only if it is a regular file of at most
+ * RECORD_FILE_LIMIT bytes (a FIFO or a link to a device is a damaged record, never waited on),
+ * every number is checked against its physical range (src/job/ranges.ts), and a record whose
+ * name belongs to another job is set aside with a warning.
  */
-import { closeSync, constants, copyFileSync, fsyncSync, linkSync, mkdirSync, openSync, readdirSync, readFileSync, unlinkSync, writeSync } from "node:fs";
+import { closeSync, constants, copyFileSync, fsyncSync, linkSync, openSync, readdirSync, unlinkSync, writeSync } from "node:fs";
 import { join } from "node:path";
-import { randomBytes } from "node:crypto";
 import { parse } from "yaml";
 import { ArmwindError } from "../errors.js";
-import { recordSchema, type ReadRecord } from "./record.js";
+import { isTempName, makeFolders, readUserFile, RECORD_FILE_LIMIT, removeLeftovers, tempName } from "../files.js";
+import { recordIssue, recordSchema, type ReadRecord } from "./record.js";
 
 /** `<job id>-<date>-<n>.yaml`. */
 export function recordFileName(jobId: string, date: string, n: number): string {
   return `${jobId}-${date}-${n}.yaml`;
 }
 
-const RECORD_NAME = /^[A-Za-z0-9][A-Za-z0-9._-]*-\d{4}-\d{2}-\d{2}-\d+\.yaml$/;
+/** `<job id>-<date>-<n>.yaml`, or with a bench name before n (`<job id>-<date>-<bench>-<n>.yaml`). */
+const RECORD_NAME = /^[A-Za-z0-9][A-Za-z0-9._-]*-\d{4}-\d{2}-\d{2}-(?:[A-Za-z0-9._-]+-)?\d+\.yaml$/;
 
 export interface WriteOptions {
   /** Test hook: sleep this long (ms) with half the temporary file written, so a test can kill the process mid-write. */
   holdMs?: number;
+  /** Test hook: behave as on a file system that refuses hard links (the exclusive-create fallback). */
+  noLink?: boolean;
 }
+
+const LINK_REFUSED = new Set(["EPERM", "ENOTSUP", "EOPNOTSUPP", "ENOSYS", "EMLINK", "EXDEV"]);
 
 function writeFailed(file: string, e: unknown): ArmwindError {
   const code = (e as NodeJS.ErrnoException).code;
@@ -39,7 +53,7 @@ function writeFailed(file: string, e: unknown): ArmwindError {
           : code === "EROFS"
             ? "the file system is read-only"
             : (code ?? (e instanceof Error ? e.message : String(e)));
-  return new ArmwindError({ code: "write_failed", message: `cannot write the logbook record ${file}: ${why}; choose another folder with --logbook DIR`, path: "", file }, 3);
+  return new ArmwindError({ code: "write_failed", message: `cannot write the logbook record: ${why}; choose another folder with --logbook DIR`, path: "", file }, 3);
 }
 
 function sleepSync(ms: number) {
@@ -52,11 +66,13 @@ function sleepSync(ms: number) {
  */
 export function writeRecordFile(dir: string, jobId: string, date: string, text: string, opts: WriteOptions = {}): string {
   try {
-    mkdirSync(dir, { recursive: true });
+    // one folder at a time: Node 20's recursive mkdir spins for ever under /proc
+    makeFolders(dir);
   } catch (e) {
     throw writeFailed(dir, e);
   }
-  const tmp = join(dir, `.${jobId}-${date}.${process.pid}.${randomBytes(6).toString("hex")}.tmp`);
+  removeLeftovers(dir);
+  const tmp = tempName(dir, `${jobId}-${date}`);
   const data = Buffer.from(text, "utf8");
   try {
     const fd = openSync(tmp, "wx", 0o644);
@@ -80,19 +96,21 @@ export function writeRecordFile(dir: string, jobId: string, date: string, text: 
     } catch {
       /* nothing to remove */
     }
-    throw writeFailed(tmp, e);
+    // the folder is what the user can do something about, not the hidden temporary name
+    throw writeFailed(dir, e);
   }
   try {
     let n = nextNumber(dir, jobId, date);
     for (let tries = 0; tries < 100000; tries++, n++) {
       const file = join(dir, recordFileName(jobId, date, n));
       try {
+        if (opts.noLink) throw Object.assign(new Error("hard links refused (test)"), { code: "EPERM" });
         linkSync(tmp, file);
         return file;
       } catch (e) {
         const code = (e as NodeJS.ErrnoException).code;
         if (code === "EEXIST") continue;
-        if (code === "EPERM" || code === "ENOTSUP" || code === "EOPNOTSUPP" || code === "ENOSYS") {
+        if (code !== undefined && LINK_REFUSED.has(code)) {
           // file systems without hard links: an exclusive copy (still never replaces a record)
           try {
             copyFileSync(tmp, file, constants.COPYFILE_EXCL);
@@ -150,60 +168,96 @@ export function parseRecordText(text: string): unknown {
 }
 
 export interface LogbookWarning {
-  code: "record_damaged";
+  code: "record_damaged" | "record_mismatch" | "logbook_unreadable";
   message: string;
-  /** The record's file name. */
+  /** The record's file name (the folder for logbook_unreadable). */
   file: string;
   path: string;
 }
+
+export interface ReadOptions {
+  /** Read only these files of the folder (src/logbook/family-index.ts: a family's records), not every file. */
+  names?: string[];
+}
+
+/** File names in numeric order (…-2- before …-10-): one collator for every comparison (a locale lookup per call is slow). */
+export const byFileName = new Intl.Collator("en", { numeric: true }).compare;
 
 export interface Logbook {
   dir: string;
   /** Whether the folder exists at all. */
   exists: boolean;
+  /** The folder exists but cannot be listed (permission denied…): no records, a `logbook_unreadable` warning. */
+  unreadable?: boolean;
   records: { file: string; record: ReadRecord }[];
   warnings: LogbookWarning[];
 }
 
 /**
- * Read every record in `dir` (sorted by date, then file name). A record that does not parse or lacks
- * what history and learning need is a warning naming its file; the others still list. Hidden files
- * (temporary files of writers in progress, or of killed ones) are not records.
+ * Read every record in `dir` (sorted by date, then file name). A record that cannot be read, does
+ * not parse, lacks what history and learning need, or holds a number outside its physical range
+ * is a `record_damaged` warning naming its file; a record whose name belongs to another job or
+ * date a `record_mismatch` warning; neither is listed or learned from, the others still are.
+ * Hidden files (temporary files of writers in progress, or of killed ones) are not records. A
+ * folder that cannot be listed gives no records and a `logbook_unreadable` warning: a plan then
+ * goes on without learning.
  */
-export function readLogbook(dir: string): Logbook {
+export function readLogbook(dir: string, opts: ReadOptions = {}): Logbook {
   let names: string[];
   try {
-    names = readdirSync(dir);
+    names = opts.names ?? readdirSync(dir);
   } catch (e) {
     const code = (e as NodeJS.ErrnoException).code;
     if (code === "ENOENT" || code === "ENOTDIR") return { dir, exists: false, records: [], warnings: [] };
-    throw new ArmwindError({ code: "file_unreadable", message: `the logbook folder ${dir} cannot be read (${code ?? "error"})`, path: "", file: dir });
+    const why = code === "EACCES" || code === "EPERM" ? "permission denied" : (code ?? "error");
+    return {
+      dir,
+      exists: false,
+      unreadable: true,
+      records: [],
+      warnings: [{ code: "logbook_unreadable", file: dir, path: "", message: `the logbook folder ${dir} cannot be read (${why}); going on without its records` }],
+    };
   }
   const records: { file: string; record: ReadRecord }[] = [];
   const warnings: LogbookWarning[] = [];
   for (const name of names.sort()) {
-    if (name.startsWith(".") || !name.endsWith(".yaml")) continue;
-    const file = join(dir, name);
-    const damaged = (why: string) => warnings.push({ code: "record_damaged", file: name, path: "", message: `${name}: damaged record, left out (${why})` });
-    if (!RECORD_NAME.test(name)) {
-      damaged("the name is not <job id>-<date>-<n>.yaml");
-      continue;
-    }
-    let raw: unknown;
-    try {
-      raw = parseRecordText(readFileSync(file, "utf8"));
-    } catch (e) {
-      damaged(e instanceof Error ? `not valid YAML: ${e.message.split("\n")[0]}` : "cannot be read");
-      continue;
-    }
-    const r = recordSchema.safeParse(raw);
-    if (!r.success) {
-      const i = r.error.issues[0];
-      damaged(raw === null || typeof raw !== "object" ? "empty or not a mapping" : `${i.path.join(".") || "the record"}: ${i.message}`);
-      continue;
-    }
-    records.push({ file: name, record: r.data as ReadRecord });
+    if (isTempName(name) || name.startsWith(".") || !name.endsWith(".yaml")) continue;
+    const r = readRecordFile(dir, name);
+    if ("warning" in r) warnings.push(r.warning);
+    else records.push({ file: name, record: r.record });
   }
-  records.sort((a, b) => (a.record.date < b.record.date ? -1 : a.record.date > b.record.date ? 1 : a.file.localeCompare(b.file, "en", { numeric: true })));
+  records.sort((a, b) => (a.record.date < b.record.date ? -1 : a.record.date > b.record.date ? 1 : byFileName(a.file, b.file)));
   return { dir, exists: true, records, warnings };
+}
+
+/** One record file of the folder, read and checked; a warning when it is not to be trusted. */
+function readRecordFile(dir: string, name: string): { record: ReadRecord } | { warning: LogbookWarning } {
+  const damaged = (why: string) => ({ warning: { code: "record_damaged" as const, file: name, path: "", message: `${name}: damaged record, left out (${why})` } });
+  if (!RECORD_NAME.test(name)) return damaged("the name is not <job id>-<date>-<n>.yaml");
+  let text: string;
+  try {
+    text = readUserFile(join(dir, name), { limit: RECORD_FILE_LIMIT });
+  } catch (e) {
+    return damaged(e instanceof ArmwindError ? e.problems[0].message : "cannot be read");
+  }
+  let raw: unknown;
+  try {
+    raw = parseRecordText(text);
+  } catch (e) {
+    return damaged(e instanceof Error ? `not valid YAML: ${e.message.split("\n")[0]}` : "not valid YAML");
+  }
+  const r = recordSchema.safeParse(raw);
+  if (!r.success) return damaged(raw === null || typeof raw !== "object" ? "empty or not a mapping" : recordIssue(r.error.issues[0]));
+  const record = r.data as ReadRecord;
+  if (!name.startsWith(`${record.job.id}-${record.date}-`)) {
+    return {
+      warning: {
+        code: "record_mismatch",
+        file: name,
+        path: "job.id",
+        message: `${name}: the record inside is of job "${record.job.id}" of ${record.date}, not what its name says; left out (rename it ${record.job.id}-${record.date}-<n>.yaml if it is right)`,
+      },
+    };
+  }
+  return { record };
 }

@@ -156,7 +156,7 @@ async function historySvg(r: Req, ctx: Context): Promise<Res> {
 
 /** Readings typed at the bench → `diagnose JOB --bars … --temperature … --json`. */
 async function diagnoseReadings(r: Req, ctx: Context, f: { rel: string }): Promise<Res> {
-  const b = parseBody<{ bars?: unknown[]; temperature?: string; tolerance?: number }>(r);
+  const b = parseBody<{ bars?: unknown[]; temperature?: string; resolution?: string; tolerance?: number }>(r);
   if (isRes(b)) return b;
   const bars = (b.bars ?? []).map((x) =>
     String(x ?? "")
@@ -165,6 +165,7 @@ async function diagnoseReadings(r: Req, ctx: Context, f: { rel: string }): Promi
   );
   const args = ["diagnose", f.rel, `--bars=${bars.join(",")}`, "--json"];
   if (b.temperature) args.push(`--temperature=${b.temperature}`);
+  if (b.resolution) args.push(`--resolution=${b.resolution}`);
   if (typeof b.tolerance === "number") args.push(`--tolerance=${b.tolerance}`);
   return cliResponse(await runCli(ctx.dir, args));
 }

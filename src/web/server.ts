@@ -136,6 +136,9 @@ export function serve(opts: ServeOptions): Promise<Served> {
       (e: unknown) => send(res, problem(500, "internal_error", e instanceof Error ? e.message : String(e))),
     );
   });
+  // a tablet may sit idle between readings: keep its connection longer than Node's 5 s default, so a
+  // request sent on a connection the server is just closing is rare
+  server.keepAliveTimeout = 65_000;
   return new Promise((done, fail) => {
     server.once("error", fail);
     server.listen(opts.port, opts.host, () => {
@@ -147,7 +150,11 @@ export function serve(opts: ServeOptions): Promise<Served> {
         server,
         url: `http://${shownHost}:${port}/`,
         token,
-        close: () => new Promise((c) => server.close(() => c())),
+        close: () =>
+          new Promise((c) => {
+            server.close(() => c());
+            server.closeAllConnections();
+          }),
       });
     });
   });

@@ -14,6 +14,7 @@
  * Units: counts and bar/slot numbers only; angles in radians.
  */
 import { inputError, type Warning } from "../errors.js";
+import { brushShortWarning } from "./ring.js";
 import type { Coil, Layer, WindingLayout, WindingSpec } from "./types.js";
 
 /** Span limit: a coil may exceed the pole pitch S/P by at most one slot (common practice, no published source). */
@@ -80,6 +81,16 @@ function checkSpec(spec: WindingSpec): void {
     if (u !== 1) throw inputError("coils_per_slot_invalid", "winding.coils_per_slot", `a tooth winding has one coil per tooth: coils_per_slot must be 1 (got ${u})`);
     if (C !== S) {
       throw inputError("bars_mismatch", "armature.bars", `a tooth winding has one bar per tooth: bars must equal slots (${S}), got ${C}`);
+    }
+    if (P > S) {
+      // a tooth then spans more than a pole pitch: a coil's two sides lie under poles of the same
+      // polarity and partly cancel, and brushes a pole pitch apart would meet on one bar
+      const fit = P - 2 * Math.ceil((P - S) / 2);
+      throw inputError(
+        "poles_invalid",
+        "armature.field_poles",
+        `a tooth winding needs at least as many teeth as field poles: ${P} poles on ${S} teeth put each coil across more than a pole pitch, where its sides cancel; count the stator's poles again (at most ${fit} here) or the slots`,
+      );
     }
     return;
   }
@@ -232,12 +243,16 @@ export function layoutWinding(spec: WindingSpec): WindingLayout {
 
   if (style === "tooth") {
     for (let k = 1; k <= S; k++) {
+      // DESIGN.md "Numbering and directions": seen from outside at the tooth tip, commutator end up,
+      // slot k+1 lies to the left of slot k; cw goes into slot k and back through slot k+1, ccw the reverse.
+      // Coil k's side in slot k sits in that slot's clockwise ("right") half, its side in slot k+1 in the other.
+      const cw = spec.direction === "cw";
       coils.push({
         index: k,
-        go_slot: k,
-        return_slot: mod1(k + 1, S),
-        go_layer: "right",
-        return_layer: "left",
+        go_slot: cw ? k : mod1(k + 1, S),
+        return_slot: cw ? mod1(k + 1, S) : k,
+        go_layer: cw ? "right" : "left",
+        return_layer: cw ? "left" : "right",
         go_position: 1,
         return_position: 1,
         start_bar: k,
@@ -248,7 +263,7 @@ export function layoutWinding(spec: WindingSpec): WindingLayout {
       });
     }
     notes.push(
-      `Tooth winding: coil k is wound ${spec.direction === "cw" ? "clockwise" : "anticlockwise"} round tooth k (looking at the tooth tip), from bar k to bar k+1; each slot holds the go side of coil k in its clockwise half and the return side of coil k−1 in the other.`,
+      `Tooth winding: coil k is wound ${spec.direction === "cw" ? "clockwise" : "anticlockwise"} round tooth k (looking at the tooth tip from outside, commutator end up), from bar k to bar k+1, ${spec.direction === "cw" ? "into slot k and back through slot k+1" : "into slot k+1 and back through slot k"}; each slot k holds coil k's side in its clockwise half and coil k−1's in the other.`,
     );
   } else if (style === "lap") {
     const prog = spec.progression === "progressive";
@@ -356,6 +371,8 @@ export function layoutWinding(spec: WindingSpec): WindingLayout {
     warnings,
   };
   layout.circuit_order = circuitOrder(layout);
+  const short = brushShortWarning(layout);
+  if (short) warnings.push(short);
   const broken = checkInvariants(layout);
   if (broken.length) {
     throw new Error(`internal error: winding table breaks its invariants: ${broken.join("; ")}`);
@@ -521,6 +538,16 @@ export function slotAngle(layout: WindingLayout, slot: number): number {
 }
 
 /**
+ * The viewing convention in one sentence, for wherever coils are drawn or listed (DESIGN.md
+ * "Numbering and directions").
+ */
+export function viewingConvention(layout: WindingLayout): string {
+  const base = "Slots and bars are numbered clockwise as seen from the commutator end.";
+  if (layout.spec.style !== "tooth") return `${base} Each coil goes into its first slot and returns through the second; the slots fix its sense.`;
+  return `${base} Cw and ccw are the sense round the tooth seen from outside, looking at the tooth tip with the commutator end at the top (slot k+1 then lies to the left of slot k): cw goes into slot k and back through slot k+1, ccw into slot k+1 and back through slot k.`;
+}
+
+/**
  * Angle (rad, clockwise from the centre of slot 1, seen from the commutator end) of the centre of
  * bar `bar`. Bar 1 sits `lead_throw` bars clockwise from the bar on coil 1's centre line (midway
  * between its go and return slots, span·π/S); bars follow clockwise at 2π/C each (DESIGN.md
@@ -530,7 +557,7 @@ export function barAngle(layout: WindingLayout, bar: number): number {
   const S = layout.spec.slots;
   const C = layout.bars;
   const c1 = layout.coils[0];
-  const gap = (c1.return_slot - c1.go_slot + S) % S; // span (tooth: 1)
+  const gap = layout.spec.style === "tooth" ? 1 : (c1.return_slot - c1.go_slot + S) % S; // span (tooth: 1, whichever sense)
   const centre = (gap * Math.PI) / S;
   return norm(centre + ((layout.spec.lead_throw + bar - 1) * 2 * Math.PI) / C);
 }

@@ -14,7 +14,7 @@
  *
  * Units: resistances in Ω; bar numbers 1 … C.
  */
-import { inputError } from "../errors.js";
+import { inputError, type Warning } from "../errors.js";
 import type { WindingLayout } from "./types.js";
 
 const mod1 = (n: number, m: number) => ((((n - 1) % m) + m) % m) + 1;
@@ -407,15 +407,60 @@ export interface TerminalResistance {
   single: number;
   /** Every brush bridging two adjacent bars, Ω. */
   bridged: number;
-  /** Least and greatest over a turn of the rotor (steps of 1/8 bar), brushes of the spec's width, Ω. */
-  min: number;
+  /**
+   * Least and greatest over a turn of the rotor (steps of 1/8 bar), brushes of the spec's width, Ω.
+   * `min` is null when at some position a + and a − brush touch the same bar (`brush_short`): the
+   * supply is then shorted through that bar, and no least reading exists (never 0 Ω on the card).
+   */
+  min: number | null;
   max: number;
+  /** True when a + and a − brush touch one bar together at some rotor position (see `brushesShort`). */
+  brush_short: boolean;
   /** How the brushes were placed, and when the closed forms do not hold. */
   validity: string;
 }
 
 /** Rotor positions per bar pitch for the min/max search. */
 export const ROTOR_STEPS_PER_BAR = 8;
+
+/**
+ * The bars under each brush at each rotor position of a full turn (steps of 1/8 bar): brush j
+ * centred j·C/P bars from the first, touching every bar it overlaps for the spec's `width_bars`.
+ */
+export function* rotorPositions(layout: WindingLayout): Generator<number[][]> {
+  const C = layout.bars;
+  const P = layout.spec.poles;
+  const count = layout.spec.brushes.count;
+  const w = layout.spec.brushes.width_bars;
+  for (let x8 = 0; x8 < ROTOR_STEPS_PER_BAR * C; x8++) {
+    const x = x8 / ROTOR_STEPS_PER_BAR;
+    const brushes: number[][] = [];
+    for (let j = 0; j < count; j++) brushes.push(barsUnderBrush(C, 1 + x + (j * C) / P, w));
+    yield brushes;
+  }
+}
+
+/**
+ * True when, at some rotor position, a + brush and a − brush touch the same bar: the supply is
+ * shorted through it (DESIGN.md: on a 3-bar ring, brushes half a turn apart wider than half a bar).
+ * Two neighbouring brushes C/P bars apart can both reach one bar when wider than C/P − 1 bars.
+ */
+export function brushesShort(layout: WindingLayout): boolean {
+  for (const brushes of rotorPositions(layout)) if (sharesBar(brushes)) return true;
+  return false;
+}
+
+/** The `brush_short` warning of a layout whose brushes can short the supply through one bar, or null. */
+export function brushShortWarning(layout: WindingLayout): Warning | null {
+  if (!brushesShort(layout)) return null;
+  const C = layout.bars;
+  const limit = C / layout.spec.poles - 1;
+  return {
+    code: "brush_short",
+    path: "winding.brushes.width_bars",
+    message: `brushes ${fmtBars(layout.spec.brushes.width_bars)} bars wide on ${C} bars: at some rotor position a + and a − brush touch the same bar and short the supply through it, so the terminal reading has no least value (brushes at most ${fmtBars(limit)} bar${limit === 1 ? "" : "s"} wide never do; Kirchhoff); read the terminal resistance with each brush on a single bar`,
+  };
+}
 
 /** Bars (1 … C) that a brush of width w bars centred at position c (bar n centred at n, bars 1 wide, gaps ignored) touches. */
 export function barsUnderBrush(C: number, centre: number, width: number): number[] {
@@ -467,7 +512,6 @@ export function terminalResistance(layout: WindingLayout, coilOhm: number[]): Te
   const C = layout.bars;
   const P = layout.spec.poles;
   const count = layout.spec.brushes.count;
-  const w = layout.spec.brushes.width_bars;
   const validity: string[] = [];
 
   const measure = (brushes: number[][]) => {
@@ -504,11 +548,10 @@ export function terminalResistance(layout: WindingLayout, coilOhm: number[]): Te
   }
   let min = Infinity;
   let max = -Infinity;
-  for (let x8 = 0; x8 < ROTOR_STEPS_PER_BAR * C; x8++) {
-    const x = x8 / ROTOR_STEPS_PER_BAR;
-    const brushes: number[][] = [];
-    for (let j = 0; j < count; j++) brushes.push(barsUnderBrush(C, 1 + x + (j * C) / P, w));
+  let short = false;
+  for (const brushes of rotorPositions(layout)) {
     const r = measure(brushes);
+    if (r === 0 && sharesBar(brushes)) short = true;
     if (r < min) min = r;
     if (r > max) max = r;
   }
@@ -519,7 +562,17 @@ export function terminalResistance(layout: WindingLayout, coilOhm: number[]): Te
   } else {
     validity.push("equal coils follow the closed forms (ring R·(C−1)/C, wave R·p·(C−p)/C, split R·m·(C−m)/C)");
   }
-  return { single, bridged, min, max, validity: validity.join("; ") };
+  if (short) validity.push("a + and a − brush touch one bar at some rotor position (brush_short): no least terminal reading");
+  return { single, bridged, min: short ? null : min, max, brush_short: short, validity: validity.join("; ") };
+}
+
+/** True when a + brush and a − brush (alternate brushes) share a bar. */
+function sharesBar(brushes: number[][]): boolean {
+  const plus = new Set<number>();
+  brushes.forEach((bars, j) => {
+    if (j % 2 === 0) for (const b of bars) plus.add(b);
+  });
+  return brushes.some((bars, j) => j % 2 === 1 && bars.some((b) => plus.has(b)));
 }
 
 function fmtBars(x: number): string {

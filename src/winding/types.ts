@@ -33,8 +33,9 @@ export interface Coil {
   /**
    * Layer of the go side: "top" / "bottom" for two-layer lap and wave windings (go side top,
    * return side bottom); for tooth windings the half of the slot: "right" is the clockwise half
-   * seen from the commutator end (coil k's go side in slot k), "left" the anticlockwise half
-   * (coil k's return side in slot k+1). The JSON `layer` of DESIGN.md is `go_layer`.
+   * seen from the commutator end (coil k's side in slot k: its go side for cw, its return side
+   * for ccw), "left" the anticlockwise half (coil k's side in slot k+1). The JSON `layer` of
+   * DESIGN.md is `go_layer`.
    */
   go_layer: Layer;
   return_layer: Layer;

@@ -8,7 +8,7 @@ import { inputError } from "../errors.js";
 import { AWG_MAX_N, AWG_MIN_N, FILM_BUILDS, awgDiameter, awgName, awgNumber, awgNumbers, awgOverall } from "./awg.js";
 import { kgPerMetre, ohmPerMetre, roundArea } from "./copper.js";
 import { findNominalMetric, metricName, metricNominals, metricOverall } from "./metric.js";
-import { GRADES, type Grade } from "./overall.js";
+import { GRADES, METRIC_ANCHORS, overallFromAnchors, type Grade } from "./overall.js";
 import { swgDiameter, swgName, swgNames, swgOverall } from "./swg.js";
 import type { CatalogueEntry, FilmBuild, OverallSource, Wire, WireSpec, WireSystem } from "./types.js";
 
@@ -192,6 +192,34 @@ export function defaultStock(): Wire[] {
   for (const d of metricNominals()) keep(resolveWire({ system: "metric", size: metricName(d), grade: 2 }));
   for (const name of swgNames()) keep(resolveWire({ system: "swg", size: name, grade: 2 }));
   return out;
+}
+
+/**
+ * The overall diameter (m) of the common motor-winding wire of a size named by its copper alone (an
+ * original "0.22 mm", "33 AWG"): the build or grade the stock reading assumes (src/wire/parse.ts:
+ * AWG heavy build, metric and SWG grade 2), looked up in the catalogue; a measured bare diameter, or
+ * an AWG size NEMA MW 1000 does not cover, takes grade 2 at its diameter between the IEC 60317-0-1
+ * rows; beyond the rows, the nearest row's film thickness added to the bare diameter. Never a fixed ratio.
+ */
+export function commonOverall(wire: Pick<Wire, "system" | "size" | "bare_diameter">): { value: number; source: string; insulation: string } {
+  const d = wire.bare_diameter;
+  let hit: { value: number | null; source: OverallSource } = NO_OVERALL;
+  let insulation = "grade 2";
+  if (wire.system === "awg") {
+    const n = awgNumber(wire.size);
+    if (n !== undefined) {
+      hit = awgOverall(n, "heavy");
+      insulation = "heavy build";
+    }
+  } else if (wire.system === "swg" && swgName(wire.size) !== undefined) hit = swgOverall(wire.size, 2);
+  if (hit.value === null) {
+    hit = overallFromAnchors(d, 2, METRIC_ANCHORS);
+    insulation = "grade 2";
+  }
+  if (hit.value !== null) return { value: hit.value, source: hit.source, insulation };
+  const rows = METRIC_ANCHORS.filter((a) => a.max_mm[1] !== null);
+  const near = rows.reduce((b, a) => (Math.abs(a.d_mm - d * 1e3) < Math.abs(b.d_mm - d * 1e3) ? a : b));
+  return { value: d + (near.max_mm[1]! - near.d_mm) / 1e3, source: `film of the nearest grade 2 row, ${near.d_mm} mm`, insulation };
 }
 
 export type { FilmBuild, Grade };

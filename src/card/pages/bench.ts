@@ -123,7 +123,7 @@ export function benchPage(s: Sheet, plan: Plan): void {
   s.subheading("2. The other checks");
   check(
     "Terminal resistance",
-    `Across the brushes (or bars ${1} and ${1 + Math.floor(C / 2)}): expected ${ohm(r.terminal_ohm)} Ω at 20 °C, between ${ohm(r.terminal_min_ohm)} and ${ohm(r.terminal_max_ohm)} Ω as the rotor turns; ${ohm(r.terminal_hot_ohm)} Ω at ${sig(r.hot_temperature)} °C.`,
+    `Across the brushes (or bars ${1} and ${1 + Math.floor(C / 2)}): expected ${ohm(r.terminal_ohm)} Ω at 20 °C, ${r.terminal_min_ohm === null ? `up to ${ohm(r.terminal_max_ohm)} Ω as the rotor turns (no least reading: at some position a + and a − brush touch the same bar and short the supply; read with each brush on one bar)` : `between ${ohm(r.terminal_min_ohm)} and ${ohm(r.terminal_max_ohm)} Ω as the rotor turns`}; ${ohm(r.terminal_hot_ohm)} Ω at ${sig(r.hot_temperature)} °C.`,
     [["reading", "Ω", 150], ["at", "°C", 90]],
   );
   check(

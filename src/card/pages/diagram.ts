@@ -118,8 +118,10 @@ function toothDiagram(s: Sheet, plan: Plan): void {
   const order = [...plan.coils].sort((x, y) => (x.index === 1 ? 1 : y.index === 1 ? -1 : 0));
   for (const c of order) {
     const inset = Math.min(pitch * 0.2, 0.3) * 0.5;
-    const a0 = slotAngle(lay, c.go_slot) + inset;
-    let a1 = slotAngle(lay, c.return_slot) - inset;
+    // the coil's arc runs clockwise from its first slot to its second; a ccw tooth coil goes in at the second
+    const reversed = lay.spec.style === "tooth" && c.direction === "ccw";
+    const a0 = slotAngle(lay, reversed ? c.return_slot : c.go_slot) + inset;
+    let a1 = slotAngle(lay, reversed ? c.go_slot : c.return_slot) - inset;
     if (a1 < a0) a1 += TAU;
     const heavy = c.index === 1;
     const w = heavy ? s.L.line_width.heavy + 0.6 : emph(c) ? 1.3 : 0.5;
@@ -128,8 +130,8 @@ function toothDiagram(s: Sheet, plan: Plan): void {
     sector(s, cx, cy, rootR + 4, R - 3, a0, a1);
     d.stroke().restore();
     if (isDead(c)) continue;
-    const goIn = polar(cx, cy, rootR + 4, a0);
-    const retOut = polar(cx, cy, rootR + 4, a1);
+    const goIn = polar(cx, cy, rootR + 4, reversed ? a1 : a0);
+    const retOut = polar(cx, cy, rootR + 4, reversed ? a0 : a1);
     const sb = polar(cx, cy, rb1, barAngle(lay, c.start_bar!));
     const eb = polar(cx, cy, rb1, barAngle(lay, c.end_bar!));
     d.save().lineWidth(w).strokeColor(col).moveTo(sb[0], sb[1]).lineTo(goIn[0], goIn[1]).stroke().restore();

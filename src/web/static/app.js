@@ -298,7 +298,12 @@ function pick(c) {
           id: "fix",
           onclick: () => {
             setField("target.goal", "fixed");
-            setField("target.fixed", `{ turns: ${c.turns_per_coil}, wire: ${c.wire}, strands: ${c.strands_in_hand} }`);
+            // the form has a field for each part of `fixed` when the schema describes it as a map
+            if ($('[data-field="target.fixed.turns"]')) {
+              setField("target.fixed.turns", String(c.turns_per_coil));
+              setField("target.fixed.wire", c.wire);
+              setField("target.fixed.strands", String(c.strands_in_hand));
+            } else setField("target.fixed", `{ turns: ${c.turns_per_coil}, wire: ${c.wire}, strands: ${c.strands_in_hand} }`);
             $("#save-status").textContent = "unsaved changes";
             preview();
           },
@@ -360,7 +365,11 @@ async function judge() {
   }
   const seq = ++bench.seq;
   const temperature = form.elements.temperature.value.trim();
-  const { status, json } = await api("POST", `/api/diagnose/${enc(data.file)}`, { bars: rs, temperature: temperature || undefined });
+  const { status, json } = await api("POST", `/api/diagnose/${enc(data.file)}`, {
+    bars: rs,
+    temperature: temperature || undefined,
+    resolution: form.elements.meter_resolution.value.trim() || undefined,
+  });
   if (seq < bench.shown) return;
   bench.shown = seq;
   for (const l of $$(".reading")) l.classList.remove("fail", "pass", "invalid"), ($(".judge", l).textContent = "");
@@ -377,11 +386,10 @@ async function judge() {
   }
   showProblems(form, []);
   bench.last = json;
-  markReadings(json);
   const suspects = json.suspects || [];
   drawDiagram(suspects.flatMap((s) => s.coils));
   $("#verdict").replaceChildren(
-    h("p", { class: `verdict ${json.ok ? "ok" : "bad"}` }, json.ok ? "every coil within tolerance" : "out of tolerance"),
+    h("p", { class: `verdict ${json.ok ? "ok" : "bad"}` }, json.ok ? "every reading within the bench rules" : "a reading is out of tolerance"),
     suspects.length
       ? h(
           "ul",
@@ -391,24 +399,32 @@ async function judge() {
       : h("p", {}, "No coil stands out."),
     ...(json.notes || []).map((n) => h("p", { class: "sub" }, n)),
   );
+  markReadings(json);
 }
 
+/** Each reading as diagnose judged it: its own pass/fail (the bench rules) and its distance from the set's median. */
 function markReadings(d) {
   const labels = $$(".reading");
-  const failed = new Set();
-  for (const f of d.failures || []) {
-    const m = /r(\d+)/.exec(f.reading ?? f.check ?? f.path ?? "") || /\[(\d+)\]/.exec(f.path ?? "");
-    if (m) failed.add(f.reading || f.check ? Number(m[1]) - 1 : Number(m[1]));
-  }
   (d.readings || []).forEach((r, i) => {
     const l = labels[i];
     if (!l) return;
-    const bad = r.verdict ? r.verdict !== "ok" && r.verdict !== "pass" : failed.has(i);
+    const bad = r.pass === false;
     l.classList.add(bad ? "fail" : "pass");
-    const off = r.of_median ?? r.of_average;
+    const off = r.of_median_fraction;
     $(".judge", l).textContent =
-      `${bad ? "out" : "within"}${off !== undefined ? `: ${off >= 1 ? "+" : "−"}${fmt(Math.abs(off - 1) * 100, 2)} % of the set` : ""}`;
+      `${bad ? "out" : "within"}${typeof off === "number" ? `: ${off >= 0 ? "+" : "−"}${fmt(Math.abs(off) * 100, 2)} % of median` : ""}`;
   });
+  const level = d.level;
+  if (level && typeof level.deviation_fraction === "number") {
+    $("#verdict").append(
+      h(
+        "p",
+        { class: level.pass ? "sub" : "bad" },
+        `median ${fmt(d.median_ohm, 4)} Ω against ${fmt(level.expected_median_ohm, 4)} Ω expected (${level.deviation_fraction >= 0 ? "+" : "−"}${fmt(Math.abs(level.deviation_fraction) * 100, 2)} %, window ±${fmt(level.window_fraction * 100, 2)} %): ${level.pass ? "within" : "out"}`,
+      ),
+    );
+  }
+  for (const f of d.failures || []) $("#verdict").append(h("p", { class: "bad" }, f.message ?? JSON.stringify(f)));
 }
 
 /** The commutator seen from its end: bars round a ring, each coil an arc from its start bar to its end bar; suspects in red. */
