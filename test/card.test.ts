@@ -153,6 +153,28 @@ describe("renderCard on every demo job and the variants", () => {
     expect(a.equals(b)).toBe(true);
   });
 
+  it("the drill demo (universal motor) has its curves, rated-load figures and a reduced-voltage locked-rotor check, no mains stall current", async () => {
+    const file = join(JOBS, "drill-lap-0112.yaml");
+    const plan = planOf(readFileSync(file, "utf8"), file);
+    const sp = plan.series!;
+    const pdf = await readPdf(await renderCard(plan, { paper: "a4", ...OPTS }));
+    const curves = pdf.pages.find((p) => /CURVES/.test(p.text))!;
+    expect(curves.text).toContain("light load");
+    expect(curves.text).toContain("torque, mN·m");
+    // rated-load figures in the motor table and the load run
+    expect(pdf.all).toContain(`at rated load ${sig(sp.ratedTorque! * 1e3)} mN·m`);
+    expect(pdf.all).toContain(`expected ${sig(sp.rewound.rated!.current)} A`);
+    // the locked-rotor check at its reduced voltage, with the expected current
+    const lr = sp.lockedRotor!;
+    expect(lr.supply.volts).toBeLessThanOrEqual(50);
+    expect(pdf.all).toContain(`Locked-rotor check at ${lr.supply.volts} V 50 Hz AC (not at mains)`);
+    expect(pdf.all).toContain(`expected ${sig(sp.rewound.lockedRotorCurrent)} A`);
+    // no stall figure at the mains supply, and the mains cautions stay
+    expect(pdf.all).not.toMatch(/stall current (hot|cold)/);
+    expect(pdf.all).not.toContain("Brief stall current");
+    expect(pdf.all).toContain("Mains voltage: 230 V AC");
+  });
+
   it("a series motor gets no curves but the reason", async () => {
     const lap = cases.find((c) => c.name.startsWith("variant lap"))!;
     const pdf = await readPdf(await renderCard(planOf(lap.text, lap.name), { paper: "a4", ...OPTS }));

@@ -80,10 +80,18 @@ describe("card", () => {
     expect(lines.filter((l) => l.includes("stroke-dasharray")).length).toBeGreaterThanOrEqual(4 + 1);
     expect(lines.filter((l) => !l.includes("stroke-dasharray")).length).toBeGreaterThanOrEqual(4 + 1);
   });
-  it("writes no curves image for a series motor (no safe no-load speed)", async () => {
+  it("writes the series motor's curves image when the job describes its field (light load to rated)", async () => {
     const out = tmp();
     expect((await runMain(["card", join(ROOT, "jobs/drill-lap-0112.yaml"), "-o", out])).status).toBe(0);
-    expect(readdirSync(out)).toEqual(["drill-lap-0112.pdf"]);
+    expect(readdirSync(out).sort()).toEqual(["drill-lap-0112-curves.svg", "drill-lap-0112.pdf"]);
+    expect(readFileSync(join(out, "drill-lap-0112-curves.svg"), "utf8")).toContain("light load to rated");
+  });
+  it("writes no curves image for a series motor whose field the job does not describe", async () => {
+    const out = tmp();
+    const job = join(out, "drill.yaml");
+    writeFileSync(job, readFileSync(join(ROOT, "jobs/drill-lap-0112.yaml"), "utf8").replace(/field_winding:[\s\S]*?turns_per_pole: 110\n/, ""));
+    expect((await runMain(["card", job, "-o", out])).status).toBe(0);
+    expect(readdirSync(out).sort()).toEqual(["drill-lap-0112.pdf", "drill.yaml"]);
   });
 });
 

@@ -40,9 +40,9 @@ export function calibrateOriginal(ctx: ArmatureContext, logbook?: LogbookCalibra
   const r20 = ctx.original.terminal20;
   const inputs: CalibrationInputs = { brushDrop: bd.volts, field: job.armature.field };
   if (o.generator) inputs.generator = { speed: o.generator.speed, volts: o.generator.volts };
-  // a series motor whose field the job describes is calibrated by the series model (design/series.ts):
-  // its running readings say nothing about a constant-field Ke
-  const seriesModel = job.armature.field === "series" && job.field_winding !== undefined;
+  // a series motor is calibrated by the series model (design/series.ts, given its field_winding): its
+  // running readings say nothing about a constant-field Ke, and readings at two currents disagree on it
+  const seriesModel = job.armature.field === "series";
   const noLoadTests = seriesModel ? [] : (o.tests ?? []).filter((t) => t.kind === "no_load");
   if (noLoadTests.length > 0) {
     inputs.noLoad = noLoadTests.map((t) => ({

@@ -308,7 +308,9 @@ export function planSeries(job: Job, setup: SeriesSetup, w: SeriesRewind): { pla
   for (const [which, s] of [["original", o], ["new", n]] as const) {
     if (s.warning) warnings.push({ code: "duty_beyond_stall", path: "original.nameplate", message: `the ${which} winding ${s.warning}` });
   }
-  const check = checkSupply(job, setup, newCold, n.rated?.current ?? o.rated?.current ?? null);
+  // the check drives about the rated current: the original's through the circuit the rewind restores,
+  // or for a conversion the new winding's on its new supply
+  const check = job.target.goal === "convert" ? checkSupply(job, setup, newCold, n.rated?.current ?? null) : checkSupply(job, setup, origCold, o.rated?.current ?? null);
   const lrOf = (m: SeriesMotor) => (check ? lockedRotorCurrent(m, check.supply) : null);
   const universal = setup.supply.frequency > 0;
   let noLoad: SeriesPoint | null = null;

@@ -15,7 +15,8 @@
  * reading every record, never a wrong plan: the records read are still checked for their family.
  */
 import { createHash } from "node:crypto";
-import { mkdirSync, readdirSync, readFileSync, renameSync, rmSync, writeFileSync } from "node:fs";
+import { mkdirSync, readdirSync, renameSync, rmSync, writeFileSync } from "node:fs";
+import { readUserFile } from "../files.js";
 import { homedir } from "node:os";
 import { basename, dirname, join, resolve } from "node:path";
 import { readLogbook, type Logbook } from "./store.js";
@@ -65,7 +66,8 @@ const listingOf = (names: string[]) => createHash("sha256").update(names.join("\
 
 function readJson<T>(file: string): T | undefined {
   try {
-    return JSON.parse(readFileSync(file, "utf8")) as T;
+    // a regular file only, never waited on (a FIFO planted in the cache folder), at most 64 MiB
+    return JSON.parse(readUserFile(file, { limit: 64 * 1024 * 1024 })) as T;
   } catch {
     return undefined; // no index yet, or a damaged one: the slow path reads and rewrites it
   }

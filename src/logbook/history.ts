@@ -5,7 +5,7 @@
  */
 import type { LogRecord } from "./record.js";
 import { checkOf } from "./record.js";
-import { checkLabel } from "../bench/rules.js";
+import { NO_LOAD_CURRENT, NO_LOAD_SPEED, TERMINAL, checkLabel } from "../bench/rules.js";
 import { niceTicks } from "../plot/ticks.js";
 
 export interface HistoryRow {
@@ -113,19 +113,19 @@ function tickText(v: number, step: number): string {
   return v.toFixed(decimals);
 }
 
-/** Predicted against measured, one panel per figure (terminal Ω at 20 °C, no-load current, no-load speed). */
-export function historyDrawing(rows: HistoryRow[], title: string): Drawing {
-  const panels: Panel[] = [
+/** The three panels of the history plot, each with the bench rule's tolerance (src/bench/rules.ts). */
+function historyPanels(rows: HistoryRow[]): Panel[] {
+  return [
     {
       title: "Terminal resistance at 20 °C",
       unit: "Ω",
-      tolerance: 0.1,
+      tolerance: TERMINAL.fraction,
       points: rows.filter((r) => r.terminal_predicted_ohm !== null && r.terminal_measured_ohm !== null).map((r) => ({ x: r.terminal_predicted_ohm!, y: r.terminal_measured_ohm!, ok: r.checks_ok })),
     },
     {
       title: "No-load current",
       unit: "A",
-      tolerance: 0.3,
+      tolerance: NO_LOAD_CURRENT.fraction,
       points: rows
         .filter((r) => r.no_load_current_predicted_a !== null && r.no_load_current_measured_a !== null)
         .map((r) => ({ x: r.no_load_current_predicted_a!, y: r.no_load_current_measured_a!, ok: r.checks_ok })),
@@ -133,12 +133,17 @@ export function historyDrawing(rows: HistoryRow[], title: string): Drawing {
     {
       title: "No-load speed",
       unit: "rpm",
-      tolerance: 0.1,
+      tolerance: NO_LOAD_SPEED.fraction,
       points: rows
         .filter((r) => r.no_load_speed_predicted_rpm !== null && r.no_load_speed_measured_rpm !== null)
         .map((r) => ({ x: r.no_load_speed_predicted_rpm!, y: r.no_load_speed_measured_rpm!, ok: r.checks_ok })),
     },
   ];
+}
+
+/** Predicted against measured, one panel per figure (terminal Ω at 20 °C, no-load current, no-load speed). */
+export function historyDrawing(rows: HistoryRow[], title: string): Drawing {
+  const panels = historyPanels(rows);
   const W = 842;
   const H = 595;
   const shapes: Shape[] = [];
@@ -162,7 +167,7 @@ export function historyDrawing(rows: HistoryRow[], title: string): Drawing {
     kind: "text",
     x: 40,
     y: H - 40,
-    text: "Tolerances (common practice, no published source): terminal resistance ±10 %, no-load current ±30 %, no-load speed ±10 %.",
+    text: `Tolerances (bench rules; common practice, no published source): terminal resistance ±${TERMINAL.fraction * 100} %, no-load current ±${NO_LOAD_CURRENT.fraction * 100} %, no-load speed ±${NO_LOAD_SPEED.fraction * 100} %.`,
     size: 7,
     anchor: "start",
   });

@@ -25,9 +25,19 @@ export function torqueUnit(maxNm: number): { unit: string; k: number } {
   return maxNm < 1 ? { unit: "mN·m", k: 1e3 } : { unit: "N·m", k: 1 };
 }
 
-/** Whether the plan has curves to draw (not for series motors or an uncalibrated motor). */
+/**
+ * The curves to draw, original and new: a series motor's from light load to rated (design/series.ts),
+ * any other motor's from no load to stall. A series motor whose field the job does not describe has none.
+ */
+export function curveSets(plan: Plan): { o: CurvePoint[]; n: CurvePoint[] } {
+  if (plan.job.armature.field === "series") return { o: plan.series?.original.curve ?? [], n: plan.series?.rewound.curve ?? [] };
+  return { o: plan.original_motor.curve, n: plan.motor.curve };
+}
+
+/** Whether the plan has curves to draw (not for an uncalibrated motor, nor a series motor without its field data). */
 export function hasCurves(plan: Plan): boolean {
-  return plan.job.armature.field !== "series" && plan.motor.curve.length > 1 && plan.original_motor.curve.length > 1;
+  const { o, n } = curveSets(plan);
+  return o.length > 1 && n.length > 1;
 }
 
 export interface CurvesOptions {
@@ -42,7 +52,7 @@ export interface CurvesOptions {
 
 /** Whether the efficiency curve can be drawn: the losses are known (docs "Unknown is null": a curve that needs unknown data is not drawn). */
 export function hasEfficiency(plan: Plan): boolean {
-  return plan.calibration.loss_known;
+  return plan.job.armature.field === "series" || plan.calibration.loss_known; // a series motor's curves are the series model's (design/series.ts)
 }
 
 /** Four charts in a 2 × 2 grid filling width × height (points); the efficiency chart left out when the losses are unknown. */
@@ -50,13 +60,12 @@ export function curvesDrawing(plan: Plan, opts: CurvesOptions): Drawing {
   const shapes: Shape[] = [];
   const keys = (opts.keys ?? (["speed", "current", "efficiency", "output"] as CurveKey[])).filter((k) => k !== "efficiency" || hasEfficiency(plan));
   const size = opts.size ?? 8;
-  const o = plan.original_motor.curve;
-  const n = plan.motor.curve;
+  const { o, n } = curveSets(plan);
   const maxT = Math.max(...o.map((p) => p.torque), ...n.map((p) => p.torque), plan.duty?.torque ?? 0);
   const tu = torqueUnit(maxT);
   let top = 0;
   if (opts.legend) {
-    shapes.push({ kind: "text", x: 0, y: size + 4, text: `${plan.job.id}: motor curves at ${sig(plan.supply)} V ${plan.supply_kind.toUpperCase()}, winding hot (${sig(plan.resistance.hot_temperature)} °C)`, size: size + 2, anchor: "start", bold: true });
+    shapes.push({ kind: "text", x: 0, y: size + 4, text: `${plan.job.id}: motor curves at ${sig(plan.supply)} V ${plan.supply_kind.toUpperCase()}, winding hot (${sig(plan.resistance.hot_temperature)} °C)${plan.series ? ", light load to rated" : ""}`, size: size + 2, anchor: "start", bold: true });
     const ly = size * 2 + 14;
     shapes.push({ kind: "polyline", points: [[0, ly], [36, ly]], width: 1.2, dash: 5 });
     shapes.push({ kind: "text", x: 42, y: ly + 3, text: "original winding", size, anchor: "start" });

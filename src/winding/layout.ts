@@ -220,6 +220,141 @@ function twoLayerCoil(index: number, start: number, end: number, u: number, span
   };
 }
 
+/** What each style's builder gives: the coil table, its pitches and paths, notes and warnings. */
+interface StyleTable {
+  coils: Coil[];
+  paths: number;
+  yc: number;
+  yb: number | null;
+  yf: number | null;
+  perAdjacent: number;
+  groups: number[][];
+  notes: string[];
+  warnings: Warning[];
+}
+
+function emptyTable(): StyleTable {
+  return { coils: [], paths: 2, yc: 1, yb: null, yf: null, perAdjacent: 1, groups: [], notes: [], warnings: [] };
+}
+
+/** Tooth windings: coil k round tooth k, bar k to bar k+1, go and return slots following the sense (DESIGN.md "Numbering and directions"). */
+function toothTable(spec: WindingSpec): StyleTable {
+  const { slots: S, bars: C } = spec;
+  const t = emptyTable();
+  const { coils, notes } = t;
+  for (let k = 1; k <= S; k++) {
+    // DESIGN.md "Numbering and directions": seen from outside at the tooth tip, commutator end up,
+    // slot k+1 lies to the left of slot k; cw goes into slot k and back through slot k+1, ccw the reverse.
+    // Coil k's side in slot k sits in that slot's clockwise ("right") half, its side in slot k+1 in the other.
+    const cw = spec.direction === "cw";
+    coils.push({
+      index: k,
+      go_slot: cw ? k : mod1(k + 1, S),
+      return_slot: cw ? mod1(k + 1, S) : k,
+      go_layer: cw ? "right" : "left",
+      return_layer: cw ? "left" : "right",
+      go_position: 1,
+      return_position: 1,
+      start_bar: k,
+      end_bar: mod1(k + 1, C),
+      direction: spec.direction,
+      dead: false,
+      rides_over: 0,
+    });
+  }
+  notes.push(
+    `Tooth winding: coil k is wound ${spec.direction === "cw" ? "clockwise" : "anticlockwise"} round tooth k (looking at the tooth tip from outside, commutator end up), from bar k to bar k+1, ${spec.direction === "cw" ? "into slot k and back through slot k+1" : "into slot k+1 and back through slot k"}; each slot k holds coil k's side in its clockwise half and coil k−1's in the other.`,
+  );
+  return t;
+}
+
+/** Simplex lap windings: coil k from bar k to bar k±1, go slot ⌈k/u⌉; equalizer groups for P > 2. */
+function lapTable(spec: WindingSpec): StyleTable {
+  const { bars: C, slots: S, poles: P, span, coils_per_slot: u } = spec;
+  const p = P / 2;
+  const t = emptyTable();
+  const { coils, notes, warnings, groups } = t;
+  const prog = spec.progression === "progressive";
+  t.yc = prog ? 1 : -1;
+  for (let k = 1; k <= C; k++) coils.push(twoLayerCoil(k, k, mod1(prog ? k + 1 : k - 1, C), u, span, S));
+  const yb = 2 * u * span + 1;
+  t.yb = yb;
+  t.yf = prog ? yb - 2 : yb + 2;
+  t.paths = P;
+  if (p > 1) {
+    const step = C / p; // 2C/P bars between equipotential points
+    for (let b = 1; b <= step; b++) {
+      const g: number[] = [];
+      for (let j = 0; j < p; j++) g.push(b + j * step);
+      groups.push(g);
+    }
+    notes.push(
+      `Equalizer groups: bars ${step} apart (2C/P) are at the same potential; ${groups.length} groups of ${p} bars (${groups
+        .slice(0, 3)
+        .map((g) => g.join("–"))
+        .join(", ")}${groups.length > 3 ? " …" : ""}). Equalizer connections are rings or jumpers behind the commutator (or at the back end) joining the risers of each group; the trade often fits every second or third group.`,
+    );
+    if (!spec.equalizers) {
+      warnings.push({
+        code: "lap_without_equalizers",
+        path: "winding.equalizers",
+        message: `a ${P}-pole lap winding without equalizers lets circulating currents flow between its ${P} paths when the poles are unequal (sparking, heating); fit equalizers to the ${groups.length} groups of bars ${step} apart, or confirm the original had none`,
+      });
+    }
+    if (spec.brushes.count < P && !spec.equalizers) {
+      warnings.push({
+        code: "lap_brushes_fewer_than_poles",
+        path: "winding.brushes.count",
+        message: `a ${P}-pole lap winding uses its ${P} paths with ${P} brushes (or with equalizers fitted); with ${spec.brushes.count} brushes the computed paths (${P}) and the terminal readings disagree`,
+      });
+    }
+  } else if (spec.equalizers) {
+    warnings.push({ code: "equalizers_not_needed", path: "winding.equalizers", message: "a 2-pole lap winding has no equipotential bars to equalize; equalizers ignored" });
+  }
+  return t;
+}
+
+/** Simplex wave windings: coils in circuit order, commutator pitch (C ± 1)/p, a dead coil last. */
+function waveTable(spec: WindingSpec): StyleTable {
+  const { bars: C, slots: S, poles: P, span, coils_per_slot: u } = spec;
+  const p = P / 2;
+  const t = emptyTable();
+  const { coils, notes, warnings } = t;
+  const yc = spec.progression === "progressive" ? (C + 1) / p : (C - 1) / p;
+  t.yc = yc;
+  t.perAdjacent = p;
+  for (let k = 1; k <= C; k++) coils.push(twoLayerCoil(k, mod1(1 + (k - 1) * yc, C), mod1(1 + k * yc, C), u, span, S));
+  if (spec.dead_coil) {
+    coils.push({
+      index: C + 1,
+      go_slot: S,
+      return_slot: mod1(S + span, S),
+      go_layer: "top",
+      return_layer: "bottom",
+      go_position: u,
+      return_position: u,
+      start_bar: null,
+      end_bar: null,
+      direction: null,
+      dead: true,
+      rides_over: 0,
+    });
+    notes.push(
+      `Dead coil: coil ${C + 1} (slot ${S} to slot ${mod1(S + span, S)}, last position) is wound like the others for balance, but its ends are cut short, insulated and left unconnected; ${u * S} coils on ${C} bars.`,
+    );
+  }
+  t.yb = 2 * u * span + 1;
+  t.yf = 2 * yc - t.yb;
+  t.paths = 2;
+  notes.push(
+    `Wave winding: each coil's finish goes ${yc} bars on (commutator pitch (C ${spec.progression === "progressive" ? "+" : "−"} 1)/p); ${p} coils lie in series between adjacent bars; 2 parallel paths whatever the poles.`,
+  );
+  if (spec.equalizers) {
+    warnings.push({ code: "equalizers_not_needed", path: "winding.equalizers", message: "a simplex wave winding needs no equalizers (its 2 paths each pass under every pole); equalizers ignored" });
+  }
+  return t;
+}
+
 /**
  * Lay out the winding: the coil table in winding order with go/return slots, layers, bars,
  * pitches, paths, equalizer groups, riding counts, notes and warnings.
@@ -229,113 +364,14 @@ function twoLayerCoil(index: number, start: number, end: number, u: number, span
  */
 export function layoutWinding(spec: WindingSpec): WindingLayout {
   checkSpec(spec);
-  const { style, slots: S, bars: C, poles: P, span, coils_per_slot: u } = spec;
+  const { style, slots: S, poles: P, span, coils_per_slot: u } = spec;
   const p = P / 2;
-  const notes: string[] = [];
-  const warnings: Warning[] = [];
-  const coils: Coil[] = [];
-  let paths = 2;
-  let yc = 1;
-  let yb: number | null = null;
-  let yf: number | null = null;
-  let perAdjacent = 1;
-  const groups: number[][] = [];
-
-  if (style === "tooth") {
-    for (let k = 1; k <= S; k++) {
-      // DESIGN.md "Numbering and directions": seen from outside at the tooth tip, commutator end up,
-      // slot k+1 lies to the left of slot k; cw goes into slot k and back through slot k+1, ccw the reverse.
-      // Coil k's side in slot k sits in that slot's clockwise ("right") half, its side in slot k+1 in the other.
-      const cw = spec.direction === "cw";
-      coils.push({
-        index: k,
-        go_slot: cw ? k : mod1(k + 1, S),
-        return_slot: cw ? mod1(k + 1, S) : k,
-        go_layer: cw ? "right" : "left",
-        return_layer: cw ? "left" : "right",
-        go_position: 1,
-        return_position: 1,
-        start_bar: k,
-        end_bar: mod1(k + 1, C),
-        direction: spec.direction,
-        dead: false,
-        rides_over: 0,
-      });
-    }
-    notes.push(
-      `Tooth winding: coil k is wound ${spec.direction === "cw" ? "clockwise" : "anticlockwise"} round tooth k (looking at the tooth tip from outside, commutator end up), from bar k to bar k+1, ${spec.direction === "cw" ? "into slot k and back through slot k+1" : "into slot k+1 and back through slot k"}; each slot k holds coil k's side in its clockwise half and coil k−1's in the other.`,
-    );
-  } else if (style === "lap") {
-    const prog = spec.progression === "progressive";
-    yc = prog ? 1 : -1;
-    for (let k = 1; k <= C; k++) coils.push(twoLayerCoil(k, k, mod1(prog ? k + 1 : k - 1, C), u, span, S));
-    yb = 2 * u * span + 1;
-    yf = prog ? yb - 2 : yb + 2;
-    paths = P;
-    if (p > 1) {
-      const step = C / p; // 2C/P bars between equipotential points
-      for (let b = 1; b <= step; b++) {
-        const g: number[] = [];
-        for (let j = 0; j < p; j++) g.push(b + j * step);
-        groups.push(g);
-      }
-      notes.push(
-        `Equalizer groups: bars ${step} apart (2C/P) are at the same potential; ${groups.length} groups of ${p} bars (${groups
-          .slice(0, 3)
-          .map((g) => g.join("–"))
-          .join(", ")}${groups.length > 3 ? " …" : ""}). Equalizer connections are rings or jumpers behind the commutator (or at the back end) joining the risers of each group; the trade often fits every second or third group.`,
-      );
-      if (!spec.equalizers) {
-        warnings.push({
-          code: "lap_without_equalizers",
-          path: "winding.equalizers",
-          message: `a ${P}-pole lap winding without equalizers lets circulating currents flow between its ${P} paths when the poles are unequal (sparking, heating); fit equalizers to the ${groups.length} groups of bars ${step} apart, or confirm the original had none`,
-        });
-      }
-      if (spec.brushes.count < P && !spec.equalizers) {
-        warnings.push({
-          code: "lap_brushes_fewer_than_poles",
-          path: "winding.brushes.count",
-          message: `a ${P}-pole lap winding uses its ${P} paths with ${P} brushes (or with equalizers fitted); with ${spec.brushes.count} brushes the computed paths (${P}) and the terminal readings disagree`,
-        });
-      }
-    } else if (spec.equalizers) {
-      warnings.push({ code: "equalizers_not_needed", path: "winding.equalizers", message: "a 2-pole lap winding has no equipotential bars to equalize; equalizers ignored" });
-    }
-  } else {
-    // wave
-    yc = spec.progression === "progressive" ? (C + 1) / p : (C - 1) / p;
-    perAdjacent = p;
-    for (let k = 1; k <= C; k++) coils.push(twoLayerCoil(k, mod1(1 + (k - 1) * yc, C), mod1(1 + k * yc, C), u, span, S));
-    if (spec.dead_coil) {
-      coils.push({
-        index: C + 1,
-        go_slot: S,
-        return_slot: mod1(S + span, S),
-        go_layer: "top",
-        return_layer: "bottom",
-        go_position: u,
-        return_position: u,
-        start_bar: null,
-        end_bar: null,
-        direction: null,
-        dead: true,
-        rides_over: 0,
-      });
-      notes.push(
-        `Dead coil: coil ${C + 1} (slot ${S} to slot ${mod1(S + span, S)}, last position) is wound like the others for balance, but its ends are cut short, insulated and left unconnected; ${u * S} coils on ${C} bars.`,
-      );
-    }
-    yb = 2 * u * span + 1;
-    yf = 2 * yc - yb;
-    paths = 2;
-    notes.push(
-      `Wave winding: each coil's finish goes ${yc} bars on (commutator pitch (C ${spec.progression === "progressive" ? "+" : "−"} 1)/p); ${p} coils lie in series between adjacent bars; 2 parallel paths whatever the poles.`,
-    );
-    if (spec.equalizers) {
-      warnings.push({ code: "equalizers_not_needed", path: "winding.equalizers", message: "a simplex wave winding needs no equalizers (its 2 paths each pass under every pole); equalizers ignored" });
-    }
-  }
+  const C = spec.bars;
+  const t = style === "tooth" ? toothTable(spec) : style === "lap" ? lapTable(spec) : waveTable(spec);
+  const { coils, notes, warnings, groups, paths, perAdjacent } = t;
+  const yc = t.yc;
+  const yb = t.yb;
+  const yf = t.yf;
 
   // riding counts: coils laid later ride over the end turns of earlier coils whose slot arc they share
   // (the clockwise arc from go slot to return slot); tooth coils ride over none. Common practice, no published source.

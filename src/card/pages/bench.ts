@@ -6,6 +6,7 @@
 import type { Plan } from "../../design/types.js";
 import type { Sheet } from "../sheet.js";
 import { ohm, rpm, sig } from "../text.js";
+import { seriesBenchChecks } from "./series.js";
 import { DEFAULT_METER_RESOLUTION_OHM, NULL_LEADS, SPREAD, fourWireAdvice, levelRuleText, levelWindow, median, needsFourWire as needsFourWireRule, spreadRuleText } from "../../bench/rules.js";
 
 /** A plain number without padding zeros (5, 0.01, 10) for rules and limits. */
@@ -139,11 +140,8 @@ export function benchPage(s: Sheet, plan: Plan): void {
   );
   const series = plan.job.armature.field === "series";
   if (series) {
-    check(
-      "No-load run: NOT for this motor",
-      `Series field (universal motor): never run it unloaded — its speed has no limit without load and it can burst. Check running only under a load, briefly.`,
-      [],
-    );
+    // series motors: load run, no-load run only where the cautions allow, locked rotor at a reduced voltage (card/pages/series.ts)
+    for (const c of seriesBenchChecks(plan)) check(c.title, c.body, c.blanks);
   } else {
     const m = plan.motor;
     check(
@@ -158,16 +156,14 @@ export function benchPage(s: Sheet, plan: Plan): void {
         [["supply", "V", 100], ["current", "A", 110], ["speed", "rpm", 130]],
       );
     }
+    check(
+      "Brief stall current",
+      plan.mains
+        ? `Seconds only, rotor held safely (see Cautions), at a reduced DC supply only — never at ${sig(plan.supply)} V mains. At a reduced supply V the cold stall current is about (V − ${sig(plan.calibration.brush_drop)} V brush drop) ÷ ${ohm(r.terminal_ohm)} Ω.`
+        : `Seconds only, rotor held safely (see Cautions). Expected at ${sig(plan.supply)} V: ${sig(m.stallCurrentCold)} A cold, ${sig(m.stallCurrent)} A hot. At a reduced supply V the cold stall current is about (V − ${sig(plan.calibration.brush_drop)} V brush drop) ÷ ${ohm(r.terminal_ohm)} Ω.`,
+      [["supply", "V", 100], ["current", "A", 110]],
+    );
   }
-  const m = plan.motor;
-  const reducedOnly = series || plan.mains;
-  check(
-    "Brief stall current",
-    reducedOnly
-      ? `Seconds only, rotor held safely (see Cautions), at a reduced DC supply only — never at ${sig(plan.supply)} V${plan.mains ? " mains" : ""}. At a reduced supply V the cold stall current is about (V − ${sig(plan.calibration.brush_drop)} V brush drop) ÷ ${series ? `(${ohm(r.terminal_ohm)} Ω armature + the field's resistance)` : `${ohm(r.terminal_ohm)} Ω`}.`
-      : `Seconds only, rotor held safely (see Cautions). Expected at ${sig(plan.supply)} V: ${sig(m.stallCurrentCold)} A cold, ${sig(m.stallCurrent)} A hot. At a reduced supply V the cold stall current is about (V − ${sig(plan.calibration.brush_drop)} V brush drop) ÷ ${ohm(r.terminal_ohm)} Ω.`,
-    [["supply", "V", 100], ["current", "A", 110]],
-  );
   s.y += 6;
   s.need(s.L.blank.height + 12);
   const ys = s.y;

@@ -39,8 +39,8 @@ export function cautions(plan: Plan): [string, string][] {
   }
   if (plan.job.armature.field === "series") {
     out.push([
-      "Series field (universal motor): never run it unloaded",
-      "Its speed has no limit without load: unloaded it races and can burst the armature or fling the commutator. Run it only coupled to its load, briefly, and stand clear of the plane of rotation.",
+      "Series field (universal motor): never run it unloaded, except as below",
+      "Its speed has no limit without load: unloaded it races and can burst the armature or fling the commutator. Run it coupled to its load, briefly, and stand clear of the plane of rotation. A small universal motor assembled in its housing with its own fan may run unloaded for a few seconds (the fan holds its speed); a large series DC motor never; a vehicle starter only as its service data say (common practice). Hold the rotor for a locked-rotor check only at the reduced voltage the bench page gives, never at mains.",
     ]);
   }
   return out;

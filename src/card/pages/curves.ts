@@ -20,7 +20,7 @@ export function curvesPage(s: Sheet, plan: Plan): void {
         s.at(head, x, y, { size: T.subheading + 2, bold: true, width: w });
         const text =
           plan.job.armature.field === "series"
-            ? "Its field current is its armature current, so it has no constant speed–torque line and no safe no-load speed: unloaded it races until it bursts. Never run it unloaded; judge the rewind by the bench checks and a brief run under load. The armature figures on page 1 (resistances, Ke scaling with turns) still hold."
+            ? "Its field current is its armature current, so its curves need the field: give field_winding (the field's resistance, and on AC its inductance or a locked-rotor reading) with a no-load test or the nameplate. Never run it unloaded; judge the rewind by the bench checks and a brief run under load. The armature figures on page 1 (resistances, Ke scaling with turns) still hold."
             : "Without a generator test, a no-load test, a nameplate, logbook records or magnet data the motor constant is unknown; the card shows resistances and the cut list only.";
         s.at(text, x, y + 22, { size: T.body + 1, width: w });
         return 22 + s.measure(text, { size: T.body + 1, width: w });
@@ -30,7 +30,7 @@ export function curvesPage(s: Sheet, plan: Plan): void {
     return;
   }
   s.para(
-    `${sig(plan.supply)} V ${plan.supply_kind.toUpperCase()}, winding hot (${sig(plan.resistance.hot_temperature)} °C), from no load to stall. Original dashed, new solid${plan.duty ? "; ● the duty point of the new winding, ○ of the original" : ""}.${hasEfficiency(plan) ? "" : " Efficiency is not drawn: with no no-load test the losses are unknown (a no-load test at the supply and one at about half of it give them)."}`,
+    `${sig(plan.supply)} V ${plan.supply_kind.toUpperCase()}, winding hot (${sig(plan.resistance.hot_temperature)} °C), ${plan.series ? `from light load (a tenth of the rated torque) to rated: a series motor has no safe no-load end, and its stall is checked only at a reduced voltage (bench page)${plan.series.convert ? `; the original at its own ${sig(plan.series.originalSupply.volts)} V` : ""}` : "from no load to stall"}. Original dashed, new solid${plan.duty ? "; ● the duty point of the new winding, ○ of the original" : ""}.${hasEfficiency(plan) ? "" : " Efficiency is not drawn: with no no-load test the losses are unknown (a no-load test at the supply and one at about half of it give them)."}`,
     { size: T.body },
   );
   // legend

@@ -3,6 +3,7 @@ import { KV_DEFINITIONS, kvRows } from "../../format/kv.js";
 import type { MotorReport, Plan } from "../../design/types.js";
 import type { Sheet } from "../sheet.js";
 import { calibrationText, fieldText, goalName, goalSummary, mltSourceText, mm, ohm, pct, rpm, sig, strandsText, torqueUnit, wireSizes } from "../text.js";
+import { seriesMotorRows, supplyText } from "./series.js";
 
 export function jobPage(s: Sheet, plan: Plan): void {
   const j = plan.job;
@@ -147,7 +148,13 @@ export function jobPage(s: Sheet, plan: Plan): void {
   for (const v of r.validity) s.para(`Note: ${v}`, { size: T.small });
   motorTable(s, plan);
   const c = plan.calibration;
-  s.para(
+  if (plan.series) {
+    const sp = plan.series;
+    s.para(
+      `Series motor figures at ${supplyText(sp.supply)}, rated load hot (${sig(plan.resistance.hot_temperature)} °C), locked rotor cold; the rated torque from the ${sp.ratedSource?.replace("_", " ") ?? "—"}. ${sp.basis.join("; ")}. Brush drop: ${c.brush_drop_basis}.`,
+      { size: T.small, grey: 0.25 },
+    );
+  } else s.para(
     `Motor figures at ${sig(plan.supply)} V ${plan.supply_kind.toUpperCase()}, calibrated from the ${calibrationText[c.source] ?? c.source}` +
       `${c.uncertainty !== null ? `, uncertainty about ±${sig(c.uncertainty * 100, 2)} % in Ke` : ", uncertainty not known"}. ${c.basis}. Brush drop: ${c.brush_drop_basis}.`,
     { size: T.small, grey: 0.25 },
@@ -178,9 +185,16 @@ function motorTable(s: Sheet, plan: Plan): void {
   const torque = (x: number | null) => (x === null ? "—" : sig(x * tu.k));
   const row = (label: string, f: (r: MotorReport) => string): string[] => [label, f(o), f(m)];
   const d = plan.design;
-  const rows: string[][] = [
+  const head: string[][] = [
     ["winding", `${plan.original.turns} × ${plan.original.wire.label}${plan.original.strands > 1 ? ` × ${plan.original.strands}` : ""}`, `${d.turns} × ${d.wire.label}${d.strands > 1 ? ` × ${d.strands}` : ""}`],
     ["terminal Ω at 20 °C", `${ohm(plan.original.terminal_ohm)}${plan.original.terminal_measured ? " (measured)" : ""}`, ohm(plan.resistance.terminal_ohm)],
+  ];
+  // a series motor: the series model's figures (card/pages/series.ts), no Kv, no stall figure at the supply
+  const sp = plan.series;
+  const seriesTu = torqueUnit(sp?.ratedTorque || 0.001);
+  const seriesTorque = (x: number | null) => (x === null ? "—" : sig(x * seriesTu.k));
+  const rows: string[][] = sp ? [...head, ...seriesMotorRows(sp, seriesTorque, seriesTu.unit)] : [
+    ...head,
     ...kvRows(plan).map(([label, f]) => row(label, f)),
     row("no-load speed, rpm", (r) => rpm(r.noLoadSpeed)),
     row("no-load current, A", (r) => sig(r.noLoadCurrent)),
@@ -190,7 +204,7 @@ function motorTable(s: Sheet, plan: Plan): void {
     row("peak efficiency", (r) => pct(r.peakEfficiency)),
     row("max output, W", (r) => sig(r.maxOutputW)),
   ];
-  if (plan.duty) {
+  if (plan.duty && !sp) {
     const od = plan.original_duty;
     const du = plan.duty;
     rows.push([`at duty ${torque(du.torque)} ${tu.unit}: speed, rpm (target ${rpm(du.target_speed)})`, rpm(od?.speed), rpm(du.speed)]);
