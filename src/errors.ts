@@ -17,7 +17,7 @@ export interface Problem {
   column?: number;
 }
 
-/** Exit statuses of DESIGN.md: 1 bad input, 2 no winding meets the goal, 3 a file could not be written, 4 a bench check failed. */
+/** Exit statuses of docs/contracts.md: 1 bad input, 2 no winding meets the goal, 3 a file could not be written, 4 a bench check failed. */
 export type ExitStatus = 0 | 1 | 2 | 3 | 4;
 
 export class ArmwindError extends Error {

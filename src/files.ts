@@ -10,7 +10,7 @@
  *  - `readStdin` reads standard input ("-"), which may be a pipe, with the same limit.
  *  - Temporary files carry the host name and the process id (`tempName`), so a writer can remove
  *    the leftovers of its own host's processes that are gone (`removeLeftovers`) and never touches
- *    another bench's files in a shared folder (DESIGN.md, "The measured file and the logbook record").
+ *    another bench's files in a shared folder (docs/contracts.md, "The measured file and the logbook record").
  */
 import { closeSync, constants, existsSync, fstatSync, mkdirSync, openSync, readdirSync, readSync, statSync, unlinkSync, type Stats } from "node:fs";
 import { hostname } from "node:os";

@@ -37,6 +37,8 @@ let shop: string;
 let shopServed: Served;
 
 beforeAll(async () => {
+  // the servers use the folder's own jobs/logbook, never a logbook named in the environment
+  delete process.env.ARMWIND_LOGBOOK;
   local = await serve({ dir: ROOT, port: 0, host: "127.0.0.1" });
   // a shop folder of our own for the tests that write
   shop = mkdtempSync(join(tmpdir(), "armwind-web-"));
@@ -250,5 +252,49 @@ describe("saving a job", () => {
     const e = JSON.parse(r.body).errors[0];
     expect(e).toMatchObject({ code: "bad_quantity", path: "armature.stack_length", file });
     expect(readFileSync(join(shop, file), "utf8")).toBe(before.text);
+  });
+});
+
+describe("logging and new jobs", () => {
+  const measured = (n: number) => ({
+    version: 1,
+    job: "blind-motor-0031",
+    date: "2026-12-02",
+    temperature: "21 C",
+    meter_resolution: "0.001 ohm",
+    bar_to_bar: ["1.329", "1.327", "1.330", "1.330", "1.327"],
+    notes: `bench ${n} (invented)`,
+  });
+
+  it("two benches logging at once both land, each in its own record", async () => {
+    const [a, b] = await Promise.all(
+      [1, 2].map((n) => http(`${shopServed.url}api/log/jobs/blind-motor-0031.yaml`, { method: "POST", body: JSON.stringify(measured(n)) })),
+    );
+    expect(a.status).toBe(200);
+    expect(b.status).toBe(200);
+    const files = [JSON.parse(a.body).file, JSON.parse(b.body).file];
+    expect(new Set(files).size).toBe(2);
+    for (const f of files) expect(readFileSync(join(shop, f), "utf8")).toContain("blind-motor-0031");
+    const notes = files.map((f) => JSON.parse(readFileSync(join(shop, f), "utf8").replace(/^#.*\n/gm, "")).measured.notes).sort();
+    expect(notes).toEqual(["bench 1 (invented)", "bench 2 (invented)"]);
+  });
+
+  it("a measured file that does not fit the job is 422 and nothing is logged", async () => {
+    const before = (await http(`${shopServed.url}api/history`)).body;
+    const r = await http(`${shopServed.url}api/log/jobs/blind-motor-0031.yaml`, {
+      method: "POST",
+      body: JSON.stringify({ ...measured(3), bar_to_bar: ["1.3", "1.3"] }),
+    });
+    expect(r.status).toBe(422);
+    expect(JSON.parse(r.body).errors[0].code).toBe("readings_count");
+    expect((await http(`${shopServed.url}api/history`)).body).toBe(before);
+  });
+
+  it("a new job starts from the template and checks as the CLI would", async () => {
+    const r = await http(`${shopServed.url}api/new`, { method: "POST", body: JSON.stringify({ style: "lap", id: "web-new-0001" }) });
+    expect(r.status).toBe(200);
+    expect(readFileSync(join(shop, "jobs/web-new-0001.yaml"), "utf8")).toMatch(/^id: web-new-0001/m);
+    const again = await http(`${shopServed.url}api/new`, { method: "POST", body: JSON.stringify({ style: "lap", id: "web-new-0001" }) });
+    expect(JSON.parse(again.body).errors[0].code).toBe("file_exists");
   });
 });

@@ -1,6 +1,6 @@
 /**
  * Slot fill of round wire. Copper fill = conductors × bare area / free slot area; space fill =
- * conductors × π/4 · overall² / free slot area (DESIGN.md "Fill"; common definitions of the
+ * conductors × π/4 · overall² / free slot area (docs/contracts.md "Fill"; common definitions of the
  * winding trade). A tooth slot holds two coil sides, a lap or wave slot 2·u.
  */
 

@@ -11,6 +11,7 @@
  * factor on the end-turn part for the old build, and the model carries it to the new build.
  */
 import { COPPER_DENSITY, roundArea } from "../wire/copper.js";
+import type { WindingStyle } from "../job/schema.js";
 
 export interface CoreDims {
   /** Stack length L, m. */
@@ -25,7 +26,7 @@ export interface CoreDims {
   liner: number;
 }
 
-export type Style = "tooth" | "lap" | "wave";
+export type Style = WindingStyle;
 
 /** Axial clearance of a lap or wave end turn from the core face, m (2 mm; common practice, no published source). */
 export const END_CLEARANCE = 0.002;

@@ -1,6 +1,6 @@
 /**
  * The bench rules: every tolerance and rule that judges a reading on a finished or suspect
- * armature, in one place, each with its source (DESIGN.md "Bench rules"). The card prints these
+ * armature, in one place, each with its source (docs/contracts.md "Bench rules"). The card prints these
  * words, `log` and `diagnose` apply these functions; nothing else holds a bench tolerance.
  *
  * Units: resistances in Ω; deviations, windows and tolerances as fractions.
@@ -103,7 +103,7 @@ export interface Spread {
 }
 
 /**
- * Bar to bar, spread (DESIGN.md "Bench rules"): each reading against the median of the set, not
+ * Bar to bar, spread (docs/contracts.md "Bench rules"): each reading against the median of the set, not
  * the mean (one bridged pair must not make the good pairs look high). A reading passes within
  * ±(5 % + one meter count / median) (common practice, no published source); outside, 10 % or more
  * above the median suggests a poor coil-to-riser connection, below it shorted turns, a miscount
@@ -156,7 +156,7 @@ export interface Level {
 }
 
 /**
- * Bar to bar, level (DESIGN.md "Bench rules"): the median of the readings against the plan's
+ * Bar to bar, level (docs/contracts.md "Bench rules"): the median of the readings against the plan's
  * expected reading, within ±5 % when the turn length was measured or calibrated (±15 % from the
  * end-turn model alone; common practice), plus the wire's conductor tolerance, plus one count.
  * Outside fails: the wire or the turn length was not what the plan assumed, and the coils are

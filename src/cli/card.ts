@@ -38,7 +38,7 @@ function isFolder(p: string): boolean {
   }
 }
 
-/** The paper: --paper, else $ARMWIND_PAPER (a4 or letter), else the shop profile's, else A4 (DESIGN.md's order). */
+/** The paper: --paper, else $ARMWIND_PAPER (a4 or letter), else the shop profile's, else A4 (docs/contracts.md's order). */
 export function cardPaper(option: string | undefined, env: string | undefined, profile: string | undefined): "a4" | "letter" {
   const envPaper = env && /^(a4|letter)$/i.test(env.trim()) ? env.trim().toLowerCase() : undefined;
   return (firstSet(option, envPaper, profile) ?? "a4") as "a4" | "letter";

@@ -1,6 +1,6 @@
 /**
  * The shell's edges: reading job files (or standard input as "-"), printing problems, exit
- * statuses, and the `--json` error shape of DESIGN.md.
+ * statuses, and the `--json` error shape of docs/contracts.md.
  *
  * Reading: every file armwind opens by name goes through `readUserFile` (a regular file only, never
  * waited on, read with a size limit); standard input through `readStdin` (a pipe is fine, the same
@@ -28,7 +28,7 @@ export interface Io {
   stdin: () => string;
   env: NodeJS.ProcessEnv;
   cwd: string;
-  /** The shop profile named by --shop (DESIGN.md "The shop profile"), when given. */
+  /** The shop profile named by --shop (docs/contracts.md "The shop profile"), when given. */
   shop?: string;
 }
 

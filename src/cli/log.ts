@@ -157,7 +157,7 @@ export function logCommand(yargs: Argv, io: Io, setStatus: (n: number) => void) 
             const hold = Number(io.env.ARMWIND_LOG_HOLD_MS ?? 0);
             const path = writeRecordFile(dir, job.id, m.date, recordYaml(record), { holdMs: Number.isFinite(hold) ? hold : 0 });
             const shown = relative(io.cwd, path).startsWith("..") ? path : relative(io.cwd, path);
-            // DESIGN.md: `record` is the file written (also `file`), `failures` the checks out of tolerance; the record itself is `logged`
+            // docs/contracts.md: `record` is the file written (also `file`), `failures` the checks out of tolerance; the record itself is `logged`
             if (argv.json) io.out(JSON.stringify({ ok: record.comparison.ok, errors: [], failures: logFailures(record), record: shown, file: shown, logged: record }, null, 2));
             else io.out(logText(record, shown, file));
             if (!record.comparison.ok) io.err(`armwind: a bench check failed; the record was written: ${shown}`);

@@ -1,5 +1,5 @@
 /**
- * The measured-readings file for one job (DESIGN.md "The measured file", version 1), as text with a
+ * The measured-readings file for one job (docs/contracts.md "The measured file", version 1), as text with a
  * comment on every line: the bar-to-bar readings r1 … rC as empty placeholders (each with its bars
  * and the expected value, so a reading is never confused with the prediction), the temperature,
  * the meter's resolution, the `wound:` section, and how to take each reading. Pure: plan in, text out.

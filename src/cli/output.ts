@@ -4,7 +4,7 @@
  *  - a reader that closes early (`armwind plan job.yaml | head`: EPIPE) ends the command quietly
  *    with status 0: the reader had what it wanted;
  *  - a full disk or another write error (ENOSPC, EIO, EFBIG…) ends it with exit status 3 and one
- *    line on standard error (DESIGN.md: 3, a file could not be written).
+ *    line on standard error (docs/contracts.md: 3, a file could not be written).
  * A non-blocking pipe (EAGAIN) is waited on.
  */
 import { writeSync } from "node:fs";

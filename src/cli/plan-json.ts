@@ -1,5 +1,5 @@
 /**
- * The `plan --json` output: DESIGN.md's contract. Keys snake_case, units as the last part of each
+ * The `plan --json` output: docs/contracts.md's contract. Keys snake_case, units as the last part of each
  * key, numbers unrounded, unknowable figures null (never absent).
  */
 import type { Candidate, MotorReport, Plan } from "../design/types.js";
@@ -7,7 +7,7 @@ import type { GoalKind } from "../design/types.js";
 import { supplyOf } from "../design/plan.js";
 import type { SeriesPoint } from "../motor/series.js";
 import { goalSummary } from "../format/goal.js";
-import { GOAL_UNIT, convert, goalValue, toAPerMm2, toMm, toRpm } from "../format/units.js";
+import { GOAL_UNIT, convert, goalValue, toAPerMm2, toGrams, toMm, toMm2, toRpm } from "../format/units.js";
 import { kvFromKe } from "../motor/emf.js";
 
 const n = (x: number | null | undefined): number | null => convert(x, (v) => v);
@@ -18,12 +18,12 @@ const density = (j: number | null | undefined) => convert(j, toAPerMm2);
 export function wireJson(w: Candidate["wire"]) {
   return {
     label: w.label,
-    bare_diameter_mm: w.bare_diameter * 1e3,
+    bare_diameter_mm: toMm(w.bare_diameter),
     overall_diameter_mm: mm(w.overall_diameter),
     source: w.overall_source,
     system: w.system,
     insulation: w.insulation,
-    area_mm2: w.area * 1e6,
+    area_mm2: toMm2(w.area),
     ohm_per_m: w.ohm_per_m,
   };
 }
@@ -40,7 +40,7 @@ function seriesPointJson(p: SeriesPoint | null) {
   };
 }
 
-/** DESIGN.md's `motor.series` for one side (original or new), null members where the job lacks the data. */
+/** docs/contracts.md's `motor.series` for one side (original or new), null members where the job lacks the data. */
 function seriesJson(plan: Plan, which: "original" | "rewound") {
   const sp = plan.series;
   if (!sp) {
@@ -121,145 +121,176 @@ function candidateJson(c: Candidate, goal: GoalKind, series: boolean) {
     error_fraction: n(c.error),
     stall_current_hot_a: n(c.stall_current_hot),
     current_density_a_per_mm2: density(c.current_density),
-    copper_mass_g: c.copper_mass * 1e3,
+    copper_mass_g: toGrams(c.copper_mass),
     meets_goal: c.meets_goal,
     rejected_because: c.rejected_because,
   };
 }
 
-export function planJson(plan: Plan) {
-  const d = plan.design;
-  const { kind } = supplyOf(plan.job);
-  const series = plan.job.armature.field === "series";
+/** `goal`: the goal's figures in `goal.unit` (src/format/units.ts), its tolerance as given and in words. */
+function goalJson(plan: Plan) {
+  const g = plan.goal;
   return {
-    ok: true,
-    job_id: plan.job.id,
-    title: plan.job.title,
-    feasible: plan.feasible,
-    goal: {
-      kind: plan.goal.kind,
-      unit: GOAL_UNIT[plan.goal.kind],
-      target_value: goalValue(plan.goal.kind, plan.goal.target),
-      achieved_value: goalValue(plan.goal.kind, plan.goal.achieved),
-      error_fraction: n(plan.goal.error_fraction),
-      tolerance: plan.goal.tolerance.below === plan.goal.tolerance.above ? plan.goal.tolerance.below : { below_fraction: plan.goal.tolerance.below, above_fraction: plan.goal.tolerance.above },
-      tolerance_below_fraction: plan.goal.tolerance.below,
-      tolerance_above_fraction: plan.goal.tolerance.above,
-      summary: goalSummary(plan.goal),
-    },
-    supply: { voltage_v: plan.supply, kind, mains: plan.mains },
-    design: {
-      turns_per_coil: d.turns,
-      strands_in_hand: d.strands,
-      wire: wireJson(d.wire),
-      copper_fill: d.copper_fill,
-      copper_fill_limit: plan.fill_limit,
-      space_fill: n(d.space_fill),
-      layers: d.build ? d.build.layers : null,
-      turns_per_layer: d.build ? d.build.turnsPerLayer : null,
-      build_mm: d.build ? d.build.build * 1e3 : null,
-      build_room_mm: d.build ? d.build.room * 1e3 : null,
-      current_density_a_per_mm2: density(d.current_density),
-    },
+    kind: g.kind,
+    unit: GOAL_UNIT[g.kind],
+    target_value: goalValue(g.kind, g.target),
+    achieved_value: goalValue(g.kind, g.achieved),
+    error_fraction: n(g.error_fraction),
+    tolerance: g.tolerance.below === g.tolerance.above ? g.tolerance.below : { below_fraction: g.tolerance.below, above_fraction: g.tolerance.above },
+    tolerance_below_fraction: g.tolerance.below,
+    tolerance_above_fraction: g.tolerance.above,
+    summary: goalSummary(g),
+  };
+}
+
+/** `design`: the chosen winding, its fills, layer build (mm) and current density (A/mm²). */
+function designJson(plan: Plan) {
+  const d = plan.design;
+  return {
+    turns_per_coil: d.turns,
+    strands_in_hand: d.strands,
+    wire: wireJson(d.wire),
+    copper_fill: d.copper_fill,
+    copper_fill_limit: plan.fill_limit,
+    space_fill: n(d.space_fill),
+    layers: d.build ? d.build.layers : null,
+    turns_per_layer: d.build ? d.build.turnsPerLayer : null,
+    build_mm: d.build ? mm(d.build.build) : null,
+    build_room_mm: d.build ? mm(d.build.room) : null,
+    current_density_a_per_mm2: density(d.current_density),
+  };
+}
+
+/** `winding` (the layout's pitches and notes) and `slot` (areas mm², opening mm). */
+function layoutJson(plan: Plan) {
+  const l = plan.layout;
+  return {
     winding: {
-      style: plan.layout.spec.style,
-      slots: plan.layout.spec.slots,
-      bars: plan.layout.bars,
-      poles: plan.layout.spec.poles,
-      span: plan.layout.spec.span,
-      coils_per_slot: plan.layout.spec.coils_per_slot,
-      progression: plan.layout.spec.progression,
-      lead_throw: plan.layout.spec.lead_throw,
-      commutator_pitch: plan.layout.commutator_pitch,
-      back_pitch: plan.layout.back_pitch,
-      front_pitch: plan.layout.front_pitch,
-      coil_sides_per_slot: plan.layout.coil_sides_per_slot,
-      equalizer_groups: plan.layout.equalizer_groups,
-      notes: plan.layout.notes,
+      style: l.spec.style,
+      slots: l.spec.slots,
+      bars: l.bars,
+      poles: l.spec.poles,
+      span: l.spec.span,
+      coils_per_slot: l.spec.coils_per_slot,
+      progression: l.spec.progression,
+      lead_throw: l.spec.lead_throw,
+      commutator_pitch: l.commutator_pitch,
+      back_pitch: l.back_pitch,
+      front_pitch: l.front_pitch,
+      coil_sides_per_slot: l.coil_sides_per_slot,
+      equalizer_groups: l.equalizer_groups,
+      notes: l.notes,
     },
     slot: {
-      free_area_mm2: plan.slot.free_area * 1e6,
-      gross_area_mm2: plan.slot.gross_area * 1e6,
-      liner_area_mm2: plan.slot.liner_area * 1e6,
-      opening_mm: plan.slot.opening * 1e3,
+      free_area_mm2: toMm2(plan.slot.free_area),
+      gross_area_mm2: toMm2(plan.slot.gross_area),
+      liner_area_mm2: toMm2(plan.slot.liner_area),
+      opening_mm: toMm(plan.slot.opening),
     },
-    coils: plan.coils.map((c) => ({
-      index: c.index,
-      go_slot: c.go_slot,
-      return_slot: c.return_slot,
-      layer: c.go_layer,
-      return_layer: c.return_layer,
-      start_bar: c.start_bar,
-      end_bar: c.end_bar,
-      turns: c.turns,
-      direction: c.direction,
-      mean_turn_length_mm: c.mlt * 1e3,
-      resistance_ohm: c.dead ? null : c.ohm,
-      dead: c.dead,
-    })),
-    paths: plan.paths,
+  };
+}
+
+/** `coils`: the coil table, each coil's turn length (mm) and resistance (Ω at 20 °C; null for a dead coil). */
+function coilsJson(plan: Plan) {
+  return plan.coils.map((c) => ({
+    index: c.index,
+    go_slot: c.go_slot,
+    return_slot: c.return_slot,
+    layer: c.go_layer,
+    return_layer: c.return_layer,
+    start_bar: c.start_bar,
+    end_bar: c.end_bar,
+    turns: c.turns,
+    direction: c.direction,
+    mean_turn_length_mm: toMm(c.mlt),
+    resistance_ohm: c.dead ? null : c.ohm,
+    dead: c.dead,
+  }));
+}
+
+/** `resistance` (Ω, 20 °C unless hot) and `wire` (the cut list: m, g). */
+function readingsAndCutJson(plan: Plan) {
+  const r = plan.resistance;
+  const w = plan.wire;
+  return {
     resistance: {
-      coil_ohm: plan.resistance.coil_ohm,
-      bar_to_bar_ohm: plan.resistance.bar_to_bar_ohm,
-      bar_to_bar_each_ohm: plan.resistance.bar_to_bar,
-      terminal_ohm: plan.resistance.terminal_ohm,
-      terminal_min_ohm: plan.resistance.terminal_min_ohm,
-      terminal_max_ohm: plan.resistance.terminal_max_ohm,
-      terminal_hot_ohm: plan.resistance.terminal_hot_ohm,
-      hot_temperature_c: plan.resistance.hot_temperature,
-      validity: plan.resistance.validity,
-      terminal_basis: plan.resistance.terminal_basis,
+      coil_ohm: r.coil_ohm,
+      bar_to_bar_ohm: r.bar_to_bar_ohm,
+      bar_to_bar_each_ohm: r.bar_to_bar,
+      terminal_ohm: r.terminal_ohm,
+      terminal_min_ohm: r.terminal_min_ohm,
+      terminal_max_ohm: r.terminal_max_ohm,
+      terminal_hot_ohm: r.terminal_hot_ohm,
+      hot_temperature_c: r.hot_temperature,
+      validity: r.validity,
+      terminal_basis: r.terminal_basis,
     },
     wire: {
-      mean_turn_length_mm: plan.wire.mlt * 1e3,
-      mean_turn_length_source: plan.wire.mlt_source,
-      per_coil_m: plan.wire.per_coil,
-      winding_m: plan.wire.winding,
-      leads_m: plan.wire.leads,
-      cut_m: plan.wire.cut,
-      cut_per_strand_m: plan.wire.cut_per_strand,
-      copper_mass_g: plan.wire.copper_mass * 1e3,
-      spare_margin: plan.wire.spare_margin,
+      mean_turn_length_mm: toMm(w.mlt),
+      mean_turn_length_source: w.mlt_source,
+      per_coil_m: w.per_coil,
+      winding_m: w.winding,
+      leads_m: w.leads,
+      cut_m: w.cut,
+      cut_per_strand_m: w.cut_per_strand,
+      copper_mass_g: toGrams(w.copper_mass),
+      spare_margin: w.spare_margin,
     },
-    motor: motorJson(plan.motor, plan.calibration.source, series ? seriesJson(plan, "rewound") : undefined),
-    original_motor: motorJson(plan.original_motor, plan.calibration.source, series ? seriesJson(plan, "original") : undefined),
-    series: seriesExtraJson(plan),
+  };
+}
+
+/** `original` (the recorded winding, and the overall diameter its build was laid at) and `calibration`. */
+function originalJson(plan: Plan) {
+  const o = plan.original;
+  const c = plan.calibration;
+  return {
     original: {
-      turns_per_coil: plan.original.turns,
-      strands_in_hand: plan.original.strands,
-      wire: wireJson(plan.original.wire),
-      copper_fill: plan.original.copper_fill,
-      mean_turn_length_mm: plan.original.mlt * 1e3,
-      terminal_ohm: plan.original.terminal_ohm,
-      terminal_measured: plan.original.terminal_measured,
-      laid_overall_diameter_mm: mm(plan.original.overall),
-      overall_basis: plan.original.overall_basis,
+      turns_per_coil: o.turns,
+      strands_in_hand: o.strands,
+      wire: wireJson(o.wire),
+      copper_fill: o.copper_fill,
+      mean_turn_length_mm: toMm(o.mlt),
+      terminal_ohm: o.terminal_ohm,
+      terminal_measured: o.terminal_measured,
+      laid_overall_diameter_mm: mm(o.overall),
+      overall_basis: o.overall_basis,
     },
     calibration: {
-      source: plan.calibration.source,
-      ke_v_s_per_rad: n(plan.calibration.ke),
-      uncertainty_fraction: n(plan.calibration.uncertainty),
-      basis: plan.calibration.basis,
-      loss_torque_n_m: plan.calibration.loss.tc,
-      loss_viscous_n_m_s_per_rad: plan.calibration.loss.b,
-      loss_basis: plan.calibration.loss_basis,
-      generator_no_load_disagreement_fraction: n(plan.calibration.disagreement),
-      brush_drop_v: plan.calibration.brush_drop,
-      brush_drop_basis: plan.calibration.brush_drop_basis,
+      source: c.source,
+      ke_v_s_per_rad: n(c.ke),
+      uncertainty_fraction: n(c.uncertainty),
+      basis: c.basis,
+      loss_torque_n_m: c.loss.tc,
+      loss_viscous_n_m_s_per_rad: c.loss.b,
+      loss_basis: c.loss_basis,
+      generator_no_load_disagreement_fraction: n(c.disagreement),
+      brush_drop_v: c.brush_drop,
+      brush_drop_basis: c.brush_drop_basis,
     },
-    duty: plan.duty
-      ? {
-          torque_n_m: plan.duty.torque,
-          target_speed_rpm: rpm(plan.duty.target_speed),
-          current_a: n(plan.duty.current),
-          speed_rpm: rpm(plan.duty.speed),
-          efficiency: n(plan.duty.efficiency),
-          input_w: n(plan.duty.input_w),
-          output_w: n(plan.duty.output_w),
-          current_density_a_per_mm2: density(plan.duty.current_density),
-        }
-      : null,
-    candidates: plan.candidates.map((c) => candidateJson(c, plan.goal.kind, series)),
+  };
+}
+
+/** `duty`: the chosen winding at the load torque (speeds rpm, density A/mm²), null without a duty. */
+function dutyJson(plan: Plan) {
+  const d = plan.duty;
+  if (!d) return null;
+  return {
+    torque_n_m: d.torque,
+    target_speed_rpm: rpm(d.target_speed),
+    current_a: n(d.current),
+    speed_rpm: rpm(d.speed),
+    efficiency: n(d.efficiency),
+    input_w: n(d.input_w),
+    output_w: n(d.output_w),
+    current_density_a_per_mm2: density(d.current_density),
+  };
+}
+
+/** `candidates`, `sensitivity` (goal figures in `goal.unit`) and what the sweep rejected. */
+function sweepJson(plan: Plan, series: boolean) {
+  const kind = plan.goal.kind;
+  return {
+    candidates: plan.candidates.map((c) => candidateJson(c, kind, series)),
     candidates_total: plan.candidates_total,
     rejections: plan.rejections,
     binding: plan.binding,
@@ -270,10 +301,35 @@ export function planJson(plan: Plan) {
       strands_in_hand: s.strands,
       terminal_ohm: s.terminal_ohm,
       copper_fill: s.copper_fill,
-      achieved_value: goalValue(plan.goal.kind, s.achieved),
+      achieved_value: goalValue(kind, s.achieved),
       meets_goal: s.meets_goal,
       rejected_because: s.rejected_because,
     })),
+  };
+}
+
+/** The whole `plan --json` object (docs/contracts.md, "--json output"), section by section. */
+export function planJson(plan: Plan) {
+  const { kind } = supplyOf(plan.job);
+  const series = plan.job.armature.field === "series";
+  return {
+    ok: true,
+    job_id: plan.job.id,
+    title: plan.job.title,
+    feasible: plan.feasible,
+    goal: goalJson(plan),
+    supply: { voltage_v: plan.supply, kind, mains: plan.mains },
+    design: designJson(plan),
+    ...layoutJson(plan),
+    coils: coilsJson(plan),
+    paths: plan.paths,
+    ...readingsAndCutJson(plan),
+    motor: motorJson(plan.motor, plan.calibration.source, series ? seriesJson(plan, "rewound") : undefined),
+    original_motor: motorJson(plan.original_motor, plan.calibration.source, series ? seriesJson(plan, "original") : undefined),
+    series: seriesExtraJson(plan),
+    ...originalJson(plan),
+    duty: dutyJson(plan),
+    ...sweepJson(plan, series),
     learning: plan.learning
       ? { records: plan.learning.records, moves: plan.learning.moves.map((m) => ({ figure: m.figure, unit: m.unit, from_value: m.from, to_value: m.to })) }
       : null,

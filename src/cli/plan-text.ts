@@ -4,13 +4,12 @@ import { KV_DEFINITIONS, kvRows } from "../format/kv.js";
 import { reasonText } from "../design/plan.js";
 import { mm, ohm, pct, rpm, sig, table } from "../format/number.js";
 import { goalSummary } from "../format/goal.js";
-import { GOAL_UNIT, goalValue } from "../format/units.js";
+import { GOAL_UNIT, goalValue, toGrams } from "../format/units.js";
 
-
-export function planText(plan: Plan): string {
+/** The job, the layout and its notes; the winding to wind (or the closest), its goal and fills. */
+function headText(plan: Plan, L: string[]): void {
   const j = plan.job;
   const d = plan.design;
-  const L: string[] = [];
   L.push(`${j.id}: ${j.title}`);
   const sp = plan.layout.spec;
   L.push(
@@ -27,12 +26,17 @@ export function planText(plan: Plan): string {
     `  copper fill ${pct(d.copper_fill)} (limit ${pct(plan.fill_limit)}), space fill ${pct(d.space_fill)}` +
       (d.build ? `, ${d.build.layers} layers of ${d.build.turnsPerLayer}, build ${mm(d.build.build)} of ${mm(d.build.room)} mm` : ""),
   );
+}
+
+/** The cut list (mm, m, g) and the expected readings at 20 °C (Ω, 4 figures). */
+function cutAndReadingsText(plan: Plan, L: string[]): void {
+  const d = plan.design;
   L.push("");
   L.push("Cut list");
   L.push(`  mean turn ${mm(plan.wire.mlt)} mm (${plan.wire.mlt_source.replace(/_/g, " ")}); one coil ${sig(plan.wire.per_coil)} m; winding ${sig(plan.wire.winding)} m`);
   L.push(`  old wire ${plan.original.overall_basis}`);
   L.push(
-    `  CUT ${sig(plan.wire.cut)} m${d.strands > 1 ? ` in all (${sig(plan.wire.cut_per_strand)} m from each of ${d.strands} spools)` : ""} with ${sig(plan.wire.lead_allowance * 1e3)} mm leads and ${pct(plan.wire.spare_margin)} spare; copper ${sig(plan.wire.copper_mass * 1e3)} g`,
+    `  CUT ${sig(plan.wire.cut)} m${d.strands > 1 ? ` in all (${sig(plan.wire.cut_per_strand)} m from each of ${d.strands} spools)` : ""} with ${mm(plan.wire.lead_allowance)} mm leads and ${pct(plan.wire.spare_margin)} spare; copper ${sig(toGrams(plan.wire.copper_mass))} g`,
   );
   L.push("");
   L.push("Expected readings at 20 °C");
@@ -41,6 +45,11 @@ export function planText(plan: Plan): string {
     `  terminal ${ohm(plan.resistance.terminal_ohm)} Ω (${ohm(plan.resistance.terminal_min_ohm)} to ${ohm(plan.resistance.terminal_max_ohm)} Ω as the rotor turns), ${ohm(plan.resistance.terminal_hot_ohm)} Ω at ${sig(plan.resistance.hot_temperature)} °C`,
   );
   for (const v of plan.resistance.validity) L.push(`  note: ${v}`);
+}
+
+/** The original and the new motor side by side (rpm, A, mN·m, W), and at the duty point. */
+function motorText(plan: Plan, L: string[]): void {
+  const d = plan.design;
   L.push("");
   L.push(`Motor at ${sig(plan.supply)} V ${plan.supply_kind.toUpperCase()} (Ke from ${plan.calibration.source.replace(/_/g, "-")}${plan.calibration.uncertainty !== null ? `, ±${sig(plan.calibration.uncertainty * 100, 2)} %` : ""})`);
   const m = plan.motor;
@@ -72,6 +81,10 @@ export function planText(plan: Plan): string {
       .map((s) => "  " + s)
       .join("\n"),
   );
+}
+
+/** The best candidates and nearest misses (goal figure in goal.unit), rejections, sensitivity, learning, warnings. */
+function candidatesText(plan: Plan, L: string[]): void {
   L.push("");
   L.push(`Candidates: ${plan.candidates_total} looked at; best and nearest misses:`);
   const crow = plan.candidates.slice(0, 12).map((c) => [
@@ -97,7 +110,7 @@ export function planText(plan: Plan): string {
       L.push(`  ${s.label.padEnd(15)} ${String(s.turns).padStart(5)} × ${s.wire}: R ${ohm(s.terminal_ohm)} Ω, ${GOAL_UNIT[plan.goal.kind]} ${sig(goalValue(plan.goal.kind, s.achieved))}, fill ${pct(s.copper_fill)}${s.rejected_because.length ? ` (${s.rejected_because.map(reasonText).join("; ")})` : ""}`);
   }
   if (plan.learning) {
-    L.push(`Logbook: ${plan.learning.records} record(s) of family ${j.armature.family} corrected this plan`);
+    L.push(`Logbook: ${plan.learning.records} record(s) of family ${plan.job.armature.family} corrected this plan`);
     for (const mv of plan.learning.moves) L.push(`  ${mv.figure}: ${sig(mv.from)} → ${sig(mv.to)} ${mv.unit}`);
   }
   if (plan.warnings.length) {
@@ -105,5 +118,14 @@ export function planText(plan: Plan): string {
     L.push("Warnings:");
     for (const w of plan.warnings) L.push(`  ! ${w.path ? w.path + ": " : ""}${w.message} [${w.code}]`);
   }
+}
+
+/** The plan for the terminal (units converted here, at the edge: src/format). */
+export function planText(plan: Plan): string {
+  const L: string[] = [];
+  headText(plan, L);
+  cutAndReadingsText(plan, L);
+  motorText(plan, L);
+  candidatesText(plan, L);
   return L.join("\n");
 }

@@ -1,6 +1,6 @@
 /**
  * `armwind serve [--dir DIR] [--port N] [--host ADDR] [--allow-host NAME …]`: the workbench, a local
- * web page for the bench on the same core (DESIGN.md, the workbench's HTTP contract). Loopback by
+ * web page for the bench on the same core (docs/contracts.md, the workbench's HTTP contract). Loopback by
  * default; serving the network makes a token at each start and prints the link that carries it once.
  */
 import type { Argv } from "yargs";

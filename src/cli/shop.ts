@@ -1,6 +1,6 @@
 /**
  * Finding and reading the shop profile (the shell's part; what it gives a job is src/shop/merge.ts).
- * DESIGN.md: `--shop FILE`, else $ARMWIND_SHOP, else armwind.yaml in the working folder or the
+ * docs/contracts.md: `--shop FILE`, else $ARMWIND_SHOP, else armwind.yaml in the working folder or the
  * nearest parent. A profile with problems stops the command with them, located in the profile.
  */
 import { existsSync, statSync } from "node:fs";

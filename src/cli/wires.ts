@@ -1,5 +1,5 @@
 /**
- * `armwind wires`: the wire catalogue as a table for the terminal or as JSON (DESIGN.md, "Other
+ * `armwind wires`: the wire catalogue as a table for the terminal or as JSON (docs/contracts.md, "Other
  * commands with --json"). Pure: takes the options as given on the command line, returns what to
  * print and the exit status; the yargs shell prints it.
  */
@@ -131,7 +131,7 @@ export function runWires(args: WiresArgs): WiresResult {
   return { stdout: table(entries, filter), stderr: "", status: 0 };
 }
 
-/** One wire as `wires --json` gives it (DESIGN.md). */
+/** One wire as `wires --json` gives it (docs/contracts.md). */
 function toJson(e: CatalogueEntry) {
   const overall_diameter_mm: Record<string, number | null> = {};
   for (const [k, v] of Object.entries(e.overall)) overall_diameter_mm[k] = v === null ? null : mm(v);

@@ -1,5 +1,5 @@
 /**
- * Calibrate the motor from the original winding (DESIGN.md "Calibration of Ke"): gather what the
+ * Calibrate the motor from the original winding (docs/contracts.md "Calibration of Ke"): gather what the
  * job recorded, correct resistances to each test's temperature, and hand it to `motor/calibrate`.
  */
 import type { Job } from "../job/schema.js";

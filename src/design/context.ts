@@ -5,7 +5,7 @@
  * changed afterwards (frozen): a different correction is a different armature.
  */
 import { inputError, type Warning } from "../errors.js";
-import type { Job } from "../job/schema.js";
+import type { Job, SupplyKind } from "../job/schema.js";
 import { slotGeometry, type SlotGeometry } from "../armature/slot.js";
 import { bundleThickness, fitEndTurnFactor, lengthFromEnamelledMass, meanTurnLength, mltFromWireLength, ridingIncrement, type CoreDims } from "../armature/turn.js";
 import { copperFill } from "../armature/fill.js";
@@ -83,7 +83,7 @@ export interface ContextOptions {
 }
 
 /** The supply of the job: volts (DC, or AC r.m.s.) and its kind. */
-export function supplyOf(job: Job): { volts: number; kind: "dc" | "ac" } {
+export function supplyOf(job: Job): { volts: number; kind: SupplyKind } {
   const s = job.target.supply;
   return typeof s === "number" ? { volts: s, kind: "dc" } : { volts: s.value, kind: s.kind };
 }

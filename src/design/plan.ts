@@ -298,7 +298,7 @@ const REMEASURE: Partial<Record<RejectCode, { path: string; what: string }>> = {
 /**
  * Warnings for the limits in force: the current-density default; the limits a `fixed` winding
  * breaks (planned anyway); the checks a `restore`'s original itself fails (planned anyway, naming
- * the geometry to re-measure). DESIGN.md "Choosing among candidates".
+ * the geometry to re-measure). docs/contracts.md "Choosing among candidates".
  */
 function limitWarnings(ev: Evaluator, chosen: Candidate): Warning[] {
   const out: Warning[] = [];

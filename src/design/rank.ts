@@ -1,5 +1,5 @@
 /**
- * Choosing among candidates (DESIGN.md "Choosing among candidates"), one rule for every goal:
+ * Choosing among candidates (docs/contracts.md "Choosing among candidates"), one rule for every goal:
  *
  *  1. a candidate meets the goal when its error lies within the tolerance band
  *     [−below, +above] (a bare tolerance t is ±t; for `stall_current`, a limit, { below: t, above: 0 });

@@ -1,5 +1,5 @@
 /**
- * Series and universal motors in a plan (DESIGN.md, "Series and universal motors"): gather what
+ * Series and universal motors in a plan (docs/contracts.md, "Series and universal motors"): gather what
  * the job recorded about the field and the running motor, calibrate `motor/series`, and report
  * the original and the rewound motor side by side: rated-load figures, curves from light load to
  * rated, a locked-rotor check at a reduced voltage (never at mains) and, for `goal: convert`,

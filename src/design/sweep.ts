@@ -1,6 +1,6 @@
 /**
  * The candidate sweep: every turns count that could fit × every stock wire × 1 … max_in_hand
- * strands, each evaluated, and ranked as DESIGN.md's "choosing among candidates" says (the rule
+ * strands, each evaluated, and ranked as docs/contracts.md's "choosing among candidates" says (the rule
  * lives in ./rank.ts): the turns count nearest the goal, then the most copper at that count.
  */
 import { maxConductorsForFill } from "../armature/fill.js";

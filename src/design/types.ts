@@ -1,6 +1,6 @@
 /** The plan: everything the core computes for one job, in SI. The CLI and the card only format it. */
 import type { Warning } from "../errors.js";
-import type { Job } from "../job/schema.js";
+import type { Job, SupplyKind } from "../job/schema.js";
 import type { Wire } from "../wire/types.js";
 import type { Coil, WindingLayout } from "../winding/types.js";
 import type { SlotGeometry } from "../armature/slot.js";
@@ -214,7 +214,7 @@ export interface Plan {
   sensitivity: Sensitivity[];
   /** Supply voltage, V (DC, or AC r.m.s.). */
   supply: number;
-  supply_kind: "dc" | "ac";
+  supply_kind: SupplyKind;
   /** Above extra-low voltage (IEC 60449 band I). */
   mains: boolean;
   warnings: Warning[];

@@ -1,4 +1,4 @@
-/** Field paths as DESIGN.md writes them: dotted, indices in brackets (`wire_stock[2]`, `original.tests[0].supply`). */
+/** Field paths as docs/contracts.md writes them: dotted, indices in brackets (`wire_stock[2]`, `original.tests[0].supply`). */
 export type PathPart = string | number;
 
 export function formatPath(parts: readonly PathPart[]): string {

@@ -4,7 +4,7 @@
  * JSON Schema that editors use (`armwind schema`, generated from this file).
  *
  * Quantities are parsed here, once, into SI (°C for temperatures); wire names into `WireSpec`s.
- * Key names are DESIGN.md's contract.
+ * Key names are docs/contracts.md's contract.
  */
 import { z } from "zod";
 import { parseQuantity, type QuantityKind, defaultUnit, example } from "./units.js";
@@ -12,6 +12,24 @@ import { parseWireSpec } from "../wire/parse.js";
 import { COUNTS, ID_MAX_LENGTH, KIND_RANGES, RESERVED_NAMES, TEMPERATURE, TEXT_MAX_LENGTH } from "./ranges.js";
 
 const TEMP = { min: TEMPERATURE.min, max: TEMPERATURE.max, minText: TEMPERATURE.minText, maxText: TEMPERATURE.maxText };
+
+/**
+ * The job file's enumerations, declared once: the schema uses them and every module takes its type
+ * from here (winding style, progression, direction, field, supply kind, brush material).
+ */
+export const windingStyleSchema = z.enum(["tooth", "lap", "wave"]);
+export type WindingStyle = z.infer<typeof windingStyleSchema>;
+export const progressionSchema = z.enum(["progressive", "retrogressive"]);
+export type Progression = z.infer<typeof progressionSchema>;
+export const senseSchema = z.enum(["cw", "ccw"]);
+export type Sense = z.infer<typeof senseSchema>;
+export const armatureFieldSchema = z.enum(["permanent_magnet", "shunt", "series"]);
+export type ArmatureField = z.infer<typeof armatureFieldSchema>;
+export const supplyKindSchema = z.enum(["dc", "ac"]);
+export type SupplyKind = z.infer<typeof supplyKindSchema>;
+export const brushMaterialSchema = z.enum(["carbon", "metal"]);
+export type BrushMaterial = z.infer<typeof brushMaterialSchema>;
+
 
 interface QtyOptions {
   /** Strictly greater than zero. */
@@ -160,7 +178,7 @@ const magnetSchema = z
 const brushesSchema = z.strictObject({
   count: count(2, "number of brushes (2, or P on a lap winding with P poles)").prefault(2),
   width_bars: z.number().positive().max(4).meta({ description: "brush width in bars (1 = one bar wide)" }).prefault(1),
-  material: z.enum(["carbon", "metal"]).meta({ description: "carbon (drop about 2 V in total) or metal (a few tenths)" }).optional(),
+  material: brushMaterialSchema.meta({ description: "carbon (drop about 2 V in total) or metal (a few tenths)" }).optional(),
 });
 
 /** A bench reading's frequency: AC at this frequency, 0 Hz for DC; absent: the target supply's kind. */
@@ -240,7 +258,7 @@ const supplySchema = z.union([
   z
     .strictObject({
       value: qty("voltage", { positive: true, max: 1000, maxText: "1000 V" }),
-      kind: z.enum(["dc", "ac"]).prefault("dc"),
+      kind: supplyKindSchema.prefault("dc"),
       frequency: qty("frequency", { positive: true }).optional(),
     })
     .meta({ description: "a supply: { value: 230 V, kind: ac, frequency: 50 Hz }" }),
@@ -267,13 +285,13 @@ const freeText = z.string().max(TEXT_MAX_LENGTH);
 
 export const GOALS = ["restore", "no_load_speed", "kv", "stall_current", "duty", "convert", "fixed"] as const;
 
-/** The two senses of Kv (DESIGN.md "Kv"): the motor constant 60/(2π·Ke), or no-load speed ÷ supply. */
+/** The two senses of Kv (docs/contracts.md "Kv"): the motor constant 60/(2π·Ke), or no-load speed ÷ supply. */
 export const KV_BASES = ["constant", "no_load"] as const;
 
 /**
  * A tolerance on the goal: a bare fraction (± that much; for `stall_current`, a limit, t below and
  * nothing above) or `{ below, above }`, each side a fraction 0 … 0.5 (0: that side not allowed).
- * DESIGN.md "Choosing among candidates".
+ * docs/contracts.md "Choosing among candidates".
  */
 const toleranceSchema = z.union([
   fraction({ max: 0.5, positive: true }),
@@ -291,7 +309,7 @@ export interface Tolerance {
   above: number;
 }
 
-/** Bare t → ±t, except for a `stall_current` limit, never exceeded: { below: t, above: 0 } (DESIGN.md). */
+/** Bare t → ±t, except for a `stall_current` limit, never exceeded: { below: t, above: 0 } (docs/contracts.md). */
 export function toleranceOf(given: number | Tolerance, goal: (typeof GOALS)[number]): Tolerance {
   if (typeof given !== "number") return given;
   return goal === "stall_current" ? { below: given, above: 0 } : { below: given, above: given };
@@ -318,7 +336,7 @@ const jobShape = z.strictObject({
       slots: count(COUNTS.slots.min, "slots (= teeth)").max(COUNTS.slots.max),
       bars: count(COUNTS.bars.min, "commutator bars (segments)").max(COUNTS.bars.max),
       field_poles: count(COUNTS.poles.min, "poles of the stator field (2, 4, 6 …)").max(COUNTS.poles.max),
-      field: z.enum(["permanent_magnet", "shunt", "series"]),
+      field: armatureFieldSchema,
       stack_length: qty("length", { positive: true, max: 1, maxText: "1 m" }),
       rotor_diameter: qty("length", { positive: true, max: 1, maxText: "1 m" }),
       tooth_width: qty("length", { positive: true, max: 0.5, maxText: "500 mm" }).optional(),
@@ -327,14 +345,14 @@ const jobShape = z.strictObject({
     }),
     field_winding: fieldWindingSchema.optional(),
     winding: z.strictObject({
-      style: z.enum(["tooth", "lap", "wave"]),
+      style: windingStyleSchema,
       span: count(0, "coil span in slots (tooth: 1)").max(200).optional(),
       coils_per_slot: count(COUNTS.coils_per_slot.min, "coils per slot u (bars = u × slots)").max(COUNTS.coils_per_slot.max).prefault(1),
       dead_coil: z.boolean().prefault(false),
       equalizers: z.boolean().prefault(false),
-      progression: z.enum(["progressive", "retrogressive"]).prefault("progressive"),
+      progression: progressionSchema.prefault("progressive"),
       lead_throw: z.number().min(-400).max(400).meta({ description: "bars clockwise from coil 1's centre line to bar 1 (copied from the old winding)" }).prefault(0),
-      direction: z.enum(["cw", "ccw"]).prefault("cw"),
+      direction: senseSchema.prefault("cw"),
       mean_turn_length: qty("length", { positive: true, max: 5, maxText: "5 m" }).optional(),
       lead_allowance: qty("length", { min: 0, max: 2, maxText: "2 m" }).prefault("50 mm"),
       spare_margin: fraction({ max: 2 }).prefault(0.1),
@@ -438,7 +456,7 @@ export const jobSchema = jobShape.superRefine((job, ctx) => {
 
 type JobOut = z.output<typeof jobShape>;
 
-/** Rules for series motors, their field and their goals (DESIGN.md, "Series and universal motors"). */
+/** Rules for series motors, their field and their goals (docs/contracts.md, "Series and universal motors"). */
 function seriesRules(job: JobOut, ctx: z.RefinementCtx): void {
   const t = job.target;
   const series = job.armature.field === "series";

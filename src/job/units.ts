@@ -1,7 +1,7 @@
 /**
  * Quantities with units, parsed once at the edge into SI (m, m², V, A, rad/s, Ω, Wb, N·m, kg, …;
  * temperatures stay in °C, as the core names them). A bare number is read in the default unit of
- * its kind, as DESIGN.md's job file says (length mm, except wire lengths in m; area mm²; …).
+ * its kind, as docs/contracts.md's job file says (length mm, except wire lengths in m; area mm²; …).
  *
  * Conversion factors are exact definitions (1 in = 25.4 mm, 1 mil = 0.001 in, 1 rpm = 2π/60 rad/s,
  * °F → °C by (F − 32)·5/9): SI brochure and NIST SP 811.

@@ -93,9 +93,9 @@ export interface Comparison {
 export interface Derived {
   /** Effective mean turn length of the winding laid, mm: the predicted one scaled by measured/predicted bar-to-bar mean at 20 °C. */
   mean_turn_length_mm: number;
-  /** Ke of the winding laid from the no-load reading, V·s/rad: (V − V_brush − I0·R_T)/ω0 (DESIGN.md "Calibration of Ke"). */
+  /** Ke of the winding laid from the no-load reading, V·s/rad: (V − V_brush − I0·R_T)/ω0 (docs/contracts.md "Calibration of Ke"). */
   ke_v_s_per_rad: number | null;
-  /** Loss torque at the no-load speed, N·m: Kt·I0 with Kt = Ke (DESIGN.md "No-load loss torque"). */
+  /** Loss torque at the no-load speed, N·m: Kt·I0 with Kt = Ke (docs/contracts.md "No-load loss torque"). */
   loss_torque_n_m: number | null;
   /** The no-load speed the loss torque belongs to, rpm. */
   loss_speed_rpm: number | null;
@@ -249,7 +249,7 @@ function terminalCheck(p: Prediction, m: Measured): CheckRow {
   return { check: "terminal_resistance", unit: "ohm", predicted_value: p.terminal.single, measured_value: m.terminal_resistance, measured_20c_value: r20, deviation_fraction: dev, tolerance_fraction: tt.fraction, tolerance_source: tt.source, verdict, note };
 }
 
-/** No-load speed and current against the plan at the measured supply; what the reading says about Ke and the loss torque goes into `derived` (DESIGN.md "Calibration of Ke"). */
+/** No-load speed and current against the plan at the measured supply; what the reading says about Ke and the loss torque goes into `derived` (docs/contracts.md "Calibration of Ke"). */
 function noLoadChecks(p: Prediction, m: Measured, derived: Derived, notes: string[]): CheckRow[] {
   const T = m.temperature;
   const ns = NO_LOAD_SPEED;
@@ -291,7 +291,7 @@ function noLoadChecks(p: Prediction, m: Measured, derived: Derived, notes: strin
   return out;
 }
 
-/** A brief stall reading against (V − V_brush)/R at the winding's temperature (DESIGN.md "Steady state"). */
+/** A brief stall reading against (V − V_brush)/R at the winding's temperature (docs/contracts.md "Steady state"). */
 function stallCheck(p: Prediction, m: Measured): CheckRow {
   const st = STALL_CURRENT;
   if (!m.stall) return notChecked("stall.current", "A", null, st, "not run");

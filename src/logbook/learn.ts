@@ -5,12 +5,12 @@
  *  - Turn length: each sound record's effective mean turn length (from its measured bar-to-bar
  *    readings, corrected to 20 °C) fits the end-turn factor of the turn-length model for the build
  *    it had, f = (MLT − riding − 2L) / end-turn model (src/armature/turn.ts `fitEndTurnFactor`); the
- *    mean factor carries to the new build (DESIGN.md "Mean length of turn").
+ *    mean factor carries to the new build (docs/contracts.md "Mean length of turn").
  *  - Ke: each record's Ke from its no-load reading, scaled by turns to the job's original turns,
- *    Ke_orig = Ke_rec · N_orig / N_rec (DESIGN.md "Calibration of Ke"); the mean.
- *  - Loss torque: each record's T_c = Kt · I0 (Kt = Ke); the mean, as a Coulomb torque (DESIGN.md
+ *    Ke_orig = Ke_rec · N_orig / N_rec (docs/contracts.md "Calibration of Ke"); the mean.
+ *  - Loss torque: each record's T_c = Kt · I0 (Kt = Ke); the mean, as a Coulomb torque (docs/contracts.md
  *    "No-load loss torque": T_c alone from one test per record).
- * Each figure is used by the plan as DESIGN.md orders its sources (a generator or no-load test of
+ * Each figure is used by the plan as docs/contracts.md orders its sources (a generator or no-load test of
  * the job itself still wins for Ke and the losses); `moves` lists only the figures that moved.
  */
 import type { Job } from "../job/schema.js";

@@ -1,5 +1,5 @@
 /**
- * The measured file (DESIGN.md "The measured file and the logbook record", version 1): what the
+ * The measured file (docs/contracts.md "The measured file and the logbook record", version 1): what the
  * bench read on a finished rewind. One zod schema, quantities parsed into SI (°C for temperatures)
  * as the job file's are; the loader (`loadYaml`) locates every problem at file:line:column with its
  * field path. Checks that need the job (its id, its bar count) are `checkAgainstJob`.

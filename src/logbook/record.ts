@@ -1,12 +1,12 @@
 /**
- * The logbook record (DESIGN.md "The measured file and the logbook record"): the measured file,
+ * The logbook record (docs/contracts.md "The measured file and the logbook record"): the measured file,
  * what the plan predicted for the winding laid, the comparison, what the readings say about the
  * armature (for the next plan of the same family), and the bits of the job that history and
  * learning need. Numbers in the `--json` contract's units (unit as the last part of each key).
  * Pure: building a record and reading one back from parsed YAML; the store writes the files.
  */
 import { z } from "zod";
-import type { Job } from "../job/schema.js";
+import type { ArmatureField, Job, WindingStyle } from "../job/schema.js";
 import type { Plan } from "../design/types.js";
 import { toRpm } from "../format/units.js";
 import { kvFromKe } from "../motor/emf.js";
@@ -22,11 +22,11 @@ export interface RecordJob {
   id: string;
   title: string;
   family: string | null;
-  style: "tooth" | "lap" | "wave";
+  style: WindingStyle;
   slots: number;
   bars: number;
   poles: number;
-  field: "permanent_magnet" | "shunt" | "series";
+  field: ArmatureField;
   /** Turns per coil of the original winding (Ke of a family is scaled by turns from it). */
   original_turns: number;
 }

@@ -5,7 +5,8 @@
  */
 import { requireNonNegative } from "./check.js";
 
-export type BrushMaterial = "carbon" | "metal";
+export type { BrushMaterial } from "../job/schema.js";
+import type { BrushMaterial } from "../job/schema.js";
 
 /**
  * Default total brush drop by material, V.

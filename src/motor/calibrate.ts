@@ -2,7 +2,7 @@
  * Calibration of the motor model from measurements on the original winding: the `fit…`
  * functions that estimate the parameters of `model.ts`, each returning the value, a short basis
  * sentence and a rough relative uncertainty, and `calibrate`, which picks the Ke source in the
- * order DESIGN.md gives (generator, no-load, logbook, nameplate, magnet).
+ * order docs/contracts.md gives (generator, no-load, logbook, nameplate, magnet).
  *
  * All inputs are SI numbers (V, A, rad/s, Ω at the temperature of the test). Measurements that
  * contradict each other throw `ArmwindError` code `inconsistent_tests` naming the numbers.
@@ -16,6 +16,7 @@ import { inputError, type Warning } from "../errors.js";
 import { fmt, requireNonNegative, requirePositive, rpm } from "./check.js";
 import { keFromEmfEquation, type EmfInputs } from "./emf.js";
 import type { LossTorque } from "./model.js";
+import type { ArmatureField } from "../job/schema.js";
 
 /** An estimate: the value, the sentence that says how it was found, a rough relative uncertainty. */
 export interface Fit<T = number> {
@@ -124,7 +125,7 @@ function noLoadUncertainty(t: NoLoadTest, emf: number, ia: number, ohm: number, 
  * Ke from one no-load test: Ke = (V − V_b − I_a·R) / ω0, V·s/rad, with I_a = I0 − I_field the
  * armature current (a shunt field's current subtracted), R the terminal resistance at the test
  * temperature (Ω), V_b the brush drop (V), ω0 rad/s. Source: the steady-state armature equation
- * V = Ke·ω + I·R + V_b (DESIGN.md). Uncertainty: tachometer and voltmeter, ±50 % on the brush
+ * V = Ke·ω + I·R + V_b (docs/contracts.md). Uncertainty: tachometer and voltmeter, ±50 % on the brush
  * drop, 5 % + 3 % on the I·R term, each divided by the back-EMF (common practice).
  * Zero or negative back-EMF throws `inconsistent_tests` naming the numbers.
  */
@@ -202,7 +203,7 @@ export function fitKeFromNoLoadTests(
 /**
  * Rough Ke from the nameplate: Ke ≈ (V − V_b − I·R_hot) / ω_rated, V·s/rad (supply V, rated
  * current A, rated speed rad/s, hot terminal resistance Ω, brush drop V). Source: the armature
- * equation at the rated point (DESIGN.md). Uncertainty 15 %: ratings are rounded and the
+ * equation at the rated point (docs/contracts.md). Uncertainty 15 %: ratings are rounded and the
  * winding's temperature at the rated point is a guess (common practice, no published source).
  */
 export function fitKeFromNameplate(
@@ -228,7 +229,7 @@ export function fitKeFromNameplate(
  * T_c = mean Kt·I_a, B = 0. Two or more at different speeds: straight-line least squares.
  * Returns T_c in N·m and B in N·m·s/rad. A negative B or T_c beyond what the current readings'
  * uncertainty allows throws `inconsistent_tests` naming the two tests; within it, it is set to
- * zero and the other refitted. Source: Coulomb plus viscous friction (DESIGN.md); least squares.
+ * zero and the other refitted. Source: Coulomb plus viscous friction (docs/contracts.md); least squares.
  * Uncertainty: the current reading (default 3 %) plus Ke's own, at the tests' speeds; beyond them
  * the loss is an extrapolation.
  */
@@ -353,12 +354,13 @@ export interface CalibrationInputs {
   /** Magnet estimate through the EMF equation. */
   magnet?: EmfInputs;
   /** Field of the machine (for warnings). Default permanent_magnet. */
-  field?: "permanent_magnet" | "shunt" | "series";
+  field?: ArmatureField;
   /** Relative uncertainty of the no-load current readings (default 0.03). */
   currentUncertainty?: number;
 }
 
-export interface Calibration {
+/** The fit of Ke and the losses from the original's measurements (the design's `Calibration`, src/design/types.ts, is built from it). */
+export interface KeCalibration {
   /** V·s/rad, null when nothing calibrates it. */
   ke: number | null;
   source: KeSource;
@@ -382,27 +384,11 @@ export interface Calibration {
 }
 
 /**
- * Calibrate Ke (V·s/rad) and the loss torque from whatever the original offers, best source first:
- * generator test, no-load tests, the logbook of the same family, nameplate (rough), magnet estimate
- * (DESIGN.md, "Calibration of Ke"). When both the generator and the no-load tests exist their
- * disagreement above 5 % is a warning (common practice, no published source). The loss torque comes
- * from the no-load tests with the chosen Kt, else from the logbook, else it is null.
+ * The Ke source, best first (docs/contracts.md, "Calibration of Ke"): generator test, no-load tests,
+ * the logbook of the same family, nameplate (rough), magnet estimate; the reasons and warnings that
+ * go with the choice (generator and no-load disagreeing by more than 5 %, a rough source).
  */
-export function calibrate(inputs: CalibrationInputs): Calibration {
-  requireNonNegative(inputs.brushDrop, "brush drop", "winding.brush_drop");
-  const reasons: string[] = [];
-  const warnings: Warning[] = [];
-  const fits: Calibration["fits"] = {};
-  const tests = inputs.noLoad ?? [];
-
-  if (inputs.generator) fits.generator = fitKeFromGenerator(inputs.generator.speed, inputs.generator.volts);
-  if (tests.length > 0)
-    fits.noLoad = fitKeFromNoLoadTests(
-      tests,
-      tests.map((t) => t.terminalOhm),
-      inputs.brushDrop,
-    );
-
+function chooseKe(inputs: CalibrationInputs, fits: KeCalibration["fits"], reasons: string[], warnings: Warning[]): { chosen: Fit | undefined; source: KeSource } {
   let chosen: Fit | undefined;
   let source: KeSource = "none";
   if (fits.generator) {
@@ -473,6 +459,11 @@ export function calibrate(inputs: CalibrationInputs): Calibration {
     });
   }
 
+  return { chosen, source };
+}
+
+/** Warnings the field adds: a series motor's Ke holds only at the test's field current; a shunt test without its field current. */
+function fieldWarnings(inputs: CalibrationInputs, tests: NoLoadTestWithOhm[], warnings: Warning[]): void {
   if (inputs.field === "series" && (tests.length > 0 || inputs.generator)) {
     warnings.push({
       code: "series_field",
@@ -489,6 +480,10 @@ export function calibrate(inputs: CalibrationInputs): Calibration {
     });
   }
 
+}
+
+/** The loss torque: from the no-load tests with the chosen Kt, else the logbook's, else unknown (null). */
+function lossOf(inputs: CalibrationInputs, tests: NoLoadTestWithOhm[], chosen: Fit | undefined, fits: KeCalibration["fits"], reasons: string[]): { loss: LossTorque | null; lossBasis: string | null } {
   let loss: LossTorque | null = null;
   let lossBasis: string | null = null;
   if (chosen && tests.length > 0) {
@@ -507,6 +502,34 @@ export function calibrate(inputs: CalibrationInputs): Calibration {
     reasons.push("no no-load test: the loss torque is unknown");
   }
 
+  return { loss, lossBasis };
+}
+
+/**
+ * Calibrate Ke (V·s/rad) and the loss torque from whatever the original offers, best source first:
+ * generator test, no-load tests, the logbook of the same family, nameplate (rough), magnet estimate
+ * (docs/contracts.md, "Calibration of Ke"). When both the generator and the no-load tests exist their
+ * disagreement above 5 % is a warning (common practice, no published source). The loss torque comes
+ * from the no-load tests with the chosen Kt, else from the logbook, else it is null.
+ */
+export function calibrate(inputs: CalibrationInputs): KeCalibration {
+  requireNonNegative(inputs.brushDrop, "brush drop", "winding.brush_drop");
+  const reasons: string[] = [];
+  const warnings: Warning[] = [];
+  const fits: KeCalibration["fits"] = {};
+  const tests = inputs.noLoad ?? [];
+
+  if (inputs.generator) fits.generator = fitKeFromGenerator(inputs.generator.speed, inputs.generator.volts);
+  if (tests.length > 0)
+    fits.noLoad = fitKeFromNoLoadTests(
+      tests,
+      tests.map((t) => t.terminalOhm),
+      inputs.brushDrop,
+    );
+
+  const { chosen, source } = chooseKe(inputs, fits, reasons, warnings);
+  fieldWarnings(inputs, tests, warnings);
+  const { loss, lossBasis } = lossOf(inputs, tests, chosen, fits, reasons);
   return {
     ke: chosen ? chosen.value : null,
     source,

@@ -6,7 +6,7 @@ import { requireNonNegative, requirePositive } from "./check.js";
 /**
  * Current density in each strand: J = I / (a · k · A), A/m². I terminal current (A), a parallel
  * paths, k strands in hand, A bare area of one strand (m²). The terminal current divides equally
- * among the paths and the strands. Source: definition of current density; DESIGN.md.
+ * among the paths and the strands. Source: definition of current density; docs/contracts.md.
  */
 export function currentDensity(current: number, paths: number, strands: number, strandArea: number): number {
   requireNonNegative(current, "current", "target.rated_current");
@@ -24,7 +24,7 @@ export function currentDensity(current: number, paths: number, strands: number, 
  * Each path sees the same V − V_b, so with paths of unequal length (an odd number of coils split
  * ⌊C/2⌋ and ⌈C/2⌉) give each path's own length: the shorter path runs at the higher density.
  * REPORT ONLY, never a limit: a stall lasts seconds and no choice of wire size changes it.
- * Source: derived from Ohm's law and the definition above (DESIGN.md).
+ * Source: derived from Ohm's law and the definition above (docs/contracts.md).
  */
 export function stallCurrentDensity(supply: number, brushDrop: number, resistivity: number, pathWireLength: number): number {
   requireNonNegative(supply, "supply voltage", "target.supply");
@@ -38,7 +38,7 @@ export function stallCurrentDensity(supply: number, brushDrop: number, resistivi
  * Current density in each strand from the share of the terminal current one coil carries
  * (`coilCurrentShare` of the ring: 1/a for equal paths): J = I · share / (k · A), A/m².
  * I terminal current (A), k strands in hand, A bare area of one strand (m²). With equal paths this
- * is `currentDensity(I, a, k, A)`. Source: definition of current density; DESIGN.md.
+ * is `currentDensity(I, a, k, A)`. Source: definition of current density; docs/contracts.md.
  */
 export function currentDensityByShare(current: number, share: number, strands: number, strandArea: number): number {
   requirePositive(share, "share of the current", "winding");
@@ -56,7 +56,7 @@ export interface DensityLimit {
 }
 
 /**
- * The current-density limit in force (DESIGN.md `target.limits.current_density`): the job's value
+ * The current-density limit in force (docs/contracts.md `target.limits.current_density`): the job's value
  * when given; `none` turns it off; with no duty or rated current there is nothing to check it at;
  * else 10 A/mm², or the original winding's own density at that point when higher (it survived).
  * `originalDensity` in A/m² (null when it cannot be known).

@@ -335,7 +335,7 @@ export function summarize(model: MotorModel, V: number): MotorSummary {
  * The model of a rewind with `nNew` turns per coil (same layout) and terminal resistance
  * `resistance` (Ω, at the temperature of use): Ke scales with turns (EMF equation), the loss
  * torque stays (friction and iron loss belong to the machine, not the winding, so the new
- * no-load current is T_f(ω_new)/Kt_new as DESIGN.md says), brush drop and field stay.
+ * no-load current is T_f(ω_new)/Kt_new as docs/contracts.md says), brush drop and field stay.
  */
 export function rescaleForTurns(model: MotorModel, nOrig: number, nNew: number, resistance: number): MotorModel {
   checkModel(model);

@@ -221,7 +221,7 @@ export interface RewindRatios {
  * at the same ampere-turns, so I_s scales as 1/field; L_a ∝ N_a² and L_f ∝ N_f² (inductance of a
  * coil ∝ turns², any electromagnetics text, from memory). `ra` and `rf` are the new resistances
  * (Ω, at the temperature of use: the caller computes them from the wire); brush drop and loss
- * torque belong to the machine and stay. Source: the EMF equation (DESIGN.md) and [C].
+ * torque belong to the machine and stay. Source: the EMF equation (docs/contracts.md) and [C].
  */
 export function rescaleSeries(m: SeriesMotor, r: RewindRatios, ra: number, rf: number): SeriesMotor {
   requirePositive(r.armature, "armature turns ratio", "original.turns");

@@ -1,6 +1,6 @@
 /**
  * What a shop profile gives a job and a command: pure functions, no files (the CLI shell finds and
- * reads the profile). DESIGN.md's order for every setting: the command-line option, the
+ * reads the profile). docs/contracts.md's order for every setting: the command-line option, the
  * environment variable, the job, the profile, the built-in default; `limits` merge key by key;
  * a job's `wire_stock` replaces the shelf.
  */
@@ -38,7 +38,7 @@ export function mergeShopIntoJob(raw: Obj, shop: ShopInput | undefined): Obj {
   return out;
 }
 
-/** First of the values that is set: option, environment, job, profile, default (DESIGN.md's order). */
+/** First of the values that is set: option, environment, job, profile, default (docs/contracts.md's order). */
 export function firstSet<T>(...values: (T | undefined | null | "")[]): T | undefined {
   for (const v of values) if (v !== undefined && v !== null && v !== "") return v as T;
   return undefined;

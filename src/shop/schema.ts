@@ -1,5 +1,5 @@
 /**
- * The shop profile (DESIGN.md "The shop profile", version 1): what one shop and one bench share
+ * The shop profile (docs/contracts.md "The shop profile", version 1): what one shop and one bench share
  * across jobs — its name and the bench's, the wire on the shelf with the net mass left on each
  * spool, the paper, the logbook folder, the meter's resolution and the default limits. One zod
  * schema like the job file's; quantities parsed into SI by the job file's own `qty`.

@@ -1,7 +1,7 @@
 /**
  * The workbench's API: each endpoint runs the CLI command it stands for, in-process, with the shop
  * folder as working folder, and answers with exactly what that command prints with `--json`
- * (DESIGN.md, the workbench's HTTP contract). Only the job file's editing (open, preview, save with
+ * (docs/contracts.md, the workbench's HTTP contract). Only the job file's editing (open, preview, save with
  * the changed-on-disk check) is the workbench's own.
  */
 import { createHash } from "node:crypto";
@@ -10,6 +10,7 @@ import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { ArmwindError } from "../errors.js";
 import { writeAtomic } from "../cli/write.js";
+import { readUserFile } from "../files.js";
 import { httpStatus, runCli, type CliRun } from "./cli-run.js";
 import { insideDir, isRefusal } from "./guard.js";
 import { applyEdits, type FieldEdit } from "./edit.js";
@@ -27,13 +28,14 @@ export function versionOf(text: string | Buffer): string {
   return createHash("sha256").update(text).digest("hex").slice(0, 20);
 }
 
+/** An ArmwindError as the CLI's `--json` error object. */
+const errorBody = (e: ArmwindError) => ({
+  ok: false,
+  errors: e.problems.map((p) => ({ code: p.code, message: p.message, file: p.file ?? null, line: p.line ?? null, column: p.column ?? null, path: p.path })),
+});
+
 function errorResponse(e: unknown): Res {
-  if (e instanceof ArmwindError) {
-    return json(httpStatus(e.status), {
-      ok: false,
-      errors: e.problems.map((p) => ({ code: p.code, message: p.message, file: p.file ?? null, line: p.line ?? null, column: p.column ?? null, path: p.path })),
-    });
-  }
+  if (e instanceof ArmwindError) return json(httpStatus(e.status), errorBody(e));
   throw e;
 }
 
@@ -53,13 +55,14 @@ function fileOf(ctx: Context, rest: string): { rel: string; abs: string } | Res 
   return isRefusal(f) ? problem(f.status, f.code, f.message) : f;
 }
 
-/** Read a job file for editing: its text and version. */
+/** Read a job file for editing: its text and version (a regular file, size-limited, as the CLI reads). */
 function openJob(abs: string, rel: string): { text: string; version: string } | Res {
   try {
-    const buf = readFileSync(abs);
-    return { text: buf.toString("utf8"), version: versionOf(buf) };
-  } catch {
-    return problem(404, "file_unreadable", `${rel}: no such file`, "");
+    const text = readUserFile(abs, { name: rel });
+    return { text, version: versionOf(text) };
+  } catch (e) {
+    if (e instanceof ArmwindError) return json(e.problems[0].code === "file_unreadable" ? 404 : 422, errorBody(e));
+    throw e;
   }
 }
 

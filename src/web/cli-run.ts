@@ -37,7 +37,7 @@ export async function runCli(dir: string, args: string[], stdin = ""): Promise<C
 }
 
 /**
- * HTTP status for an exit status (DESIGN.md, the workbench's HTTP contract): 0, 2 and 4 → 200
+ * HTTP status for an exit status (docs/contracts.md, the workbench's HTTP contract): 0, 2 and 4 → 200
  * with the same JSON; 1 → 422; 3 and 70 → 500.
  */
 export function httpStatus(exit: number): number {

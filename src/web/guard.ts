@@ -1,5 +1,5 @@
 /**
- * The workbench's gatekeeping, as pure decisions on a request's headers and paths (DESIGN.md, the
+ * The workbench's gatekeeping, as pure decisions on a request's headers and paths (docs/contracts.md, the
  * workbench's HTTP contract): the Host allow-list (no DNS rebinding), the Origin of requests that
  * change something (no cross-site requests), the token when serving the network, and paths that
  * must stay inside the shop folder.

@@ -4,9 +4,10 @@
  * `check --json` says; the list page leaves that to its script, one job at a time, so that it
  * shows at once) and its last logbook record (what `history --json` lists).
  */
-import { readdirSync, readFileSync, statSync } from "node:fs";
+import { readdirSync, statSync } from "node:fs";
 import { join } from "node:path";
 import { runCli } from "./cli-run.js";
+import { readUserFile } from "../files.js";
 
 export interface JobEntry {
   file: string;
@@ -43,7 +44,7 @@ export function jobFiles(dir: string): string[] {
       try {
         const abs = join(dir, rel);
         if (!statSync(abs).isFile() || statSync(abs).size > 1 << 20) continue;
-        if (/^armature:/m.test(readFileSync(abs, "utf8"))) found.push(rel);
+        if (/^armature:/m.test(readUserFile(abs))) found.push(rel);
       } catch {
         // unreadable: not listed
       }
@@ -68,7 +69,12 @@ export async function listJobs(dir: string, opts: { verdicts?: boolean } = {}): 
   }
   const jobs: JobEntry[] = [];
   for (const file of jobFiles(dir)) {
-    const text = readFileSync(join(dir, file), "utf8");
+    let text = "";
+    try {
+      text = readUserFile(join(dir, file));
+    } catch {
+      // changed since listed: check says what is wrong
+    }
     const run = opts.verdicts === false ? { status: -1, stdout: "{}", stderr: "" } : await runCli(dir, ["check", file, "--json"]);
     let out: { feasible?: boolean; warnings?: unknown[]; errors?: { code: string; message: string }[]; job_id?: string } = {};
     try {

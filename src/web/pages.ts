@@ -7,6 +7,8 @@ import { fileURLToPath } from "node:url";
 import { parseDocument } from "yaml";
 import { jobJsonSchema } from "../job/json-schema.js";
 import { GOALS } from "../job/schema.js";
+import { ArmwindError } from "../errors.js";
+import { readUserFile } from "../files.js";
 import { VERSION } from "../cli/version.js";
 import { insideDir, isRefusal } from "./guard.js";
 import { jobForm } from "./form.js";
@@ -71,9 +73,10 @@ function jobFile(ctx: Context, rel: string): { rel: string; abs: string; text: s
   const f = insideDir(ctx.dir, rel);
   if (isRefusal(f)) return html(f.status, layout("Refused", `<h1>Refused</h1><p>${esc(f.message)}</p>`, "error"));
   try {
-    return { ...f, text: readFileSync(f.abs, "utf8") };
-  } catch {
-    return html(404, layout("Not found", `<h1>Not found</h1><p>${esc(rel)}: no such file</p>`, "error"));
+    return { ...f, text: readUserFile(f.abs, { name: f.rel }) };
+  } catch (e) {
+    const why = e instanceof ArmwindError ? e.problems[0].message : "cannot be read";
+    return html(404, layout("Not found", `<h1>Cannot open ${esc(rel)}</h1><p>${esc(rel)}: ${esc(why)}</p>`, "error"));
   }
 }
 

@@ -1,7 +1,7 @@
 /**
  * From bar-to-bar readings back to the coils, and what a deviating coil or reading suggests.
  *
- * Inversion (derived here from the ring formula of DESIGN.md "The models"): in a closed ring of
+ * Inversion (derived here from the ring formula of docs/contracts.md "The models"): in a closed ring of
  * total resistance S, the reading across a stretch of X Ω in series is r = X·(S − X)/S. Between
  * adjacent bars lies one coil (tooth, simplex lap) or a chain of p coils (simplex wave), so each
  * reading gives its stretch X_i = S/2 − √(S²/4 − S·r_i) (the root below S/2) once S is known, and S

@@ -1,5 +1,5 @@
 /**
- * A layout-only job (DESIGN.md "The job file"): for `diagnose` alone a job may hold only
+ * A layout-only job (docs/contracts.md "The job file"): for `diagnose` alone a job may hold only
  * `version`, `id`, `armature` (slots, bars, field_poles) and `winding` (style, span and what the
  * style needs): a shop triaging an armature that came in for test knows no turns and has no goal.
  * The fields are the job schema's own (one source of truth); only the selection is made here.

@@ -1,5 +1,5 @@
 /**
- * Coil tables for tooth, lap and wave windings, numbered as DESIGN.md "Numbering and directions"
+ * Coil tables for tooth, lap and wave windings, numbered as docs/contracts.md "Numbering and directions"
  * fixes it, with the textbook pitches, parallel paths, equalizer groups, the riding count of each
  * coil and the checks that every table must pass.
  *
@@ -199,7 +199,7 @@ function fmt(x: number): string {
 /**
  * A lap or wave coil of a two-layer winding: its go slot is the slot of its start bar, ⌈start/u⌉,
  * in the top layer at the start bar's position among the slot's u coils; its return side lies
- * `span` slots on, in the bottom layer (DESIGN.md "Numbering and directions").
+ * `span` slots on, in the bottom layer (docs/contracts.md "Numbering and directions").
  */
 function twoLayerCoil(index: number, start: number, end: number, u: number, span: number, S: number): Coil {
   const go = Math.ceil(start / u);
@@ -237,13 +237,13 @@ function emptyTable(): StyleTable {
   return { coils: [], paths: 2, yc: 1, yb: null, yf: null, perAdjacent: 1, groups: [], notes: [], warnings: [] };
 }
 
-/** Tooth windings: coil k round tooth k, bar k to bar k+1, go and return slots following the sense (DESIGN.md "Numbering and directions"). */
+/** Tooth windings: coil k round tooth k, bar k to bar k+1, go and return slots following the sense (docs/contracts.md "Numbering and directions"). */
 function toothTable(spec: WindingSpec): StyleTable {
   const { slots: S, bars: C } = spec;
   const t = emptyTable();
   const { coils, notes } = t;
   for (let k = 1; k <= S; k++) {
-    // DESIGN.md "Numbering and directions": seen from outside at the tooth tip, commutator end up,
+    // docs/contracts.md "Numbering and directions": seen from outside at the tooth tip, commutator end up,
     // slot k+1 lies to the left of slot k; cw goes into slot k and back through slot k+1, ccw the reverse.
     // Coil k's side in slot k sits in that slot's clockwise ("right") half, its side in slot k+1 in the other.
     const cw = spec.direction === "cw";
@@ -574,7 +574,7 @@ export function slotAngle(layout: WindingLayout, slot: number): number {
 }
 
 /**
- * The viewing convention in one sentence, for wherever coils are drawn or listed (DESIGN.md
+ * The viewing convention in one sentence, for wherever coils are drawn or listed (docs/contracts.md
  * "Numbering and directions").
  */
 export function viewingConvention(layout: WindingLayout): string {
@@ -586,7 +586,7 @@ export function viewingConvention(layout: WindingLayout): string {
 /**
  * Angle (rad, clockwise from the centre of slot 1, seen from the commutator end) of the centre of
  * bar `bar`. Bar 1 sits `lead_throw` bars clockwise from the bar on coil 1's centre line (midway
- * between its go and return slots, span·π/S); bars follow clockwise at 2π/C each (DESIGN.md
+ * between its go and return slots, span·π/S); bars follow clockwise at 2π/C each (docs/contracts.md
  * "Numbering and directions"). The lead throw moves the bars on the drawing, never the bar numbers.
  */
 export function barAngle(layout: WindingLayout, bar: number): number {

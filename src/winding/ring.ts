@@ -20,7 +20,7 @@ import type { WindingLayout } from "./types.js";
 const mod1 = (n: number, m: number) => ((((n - 1) % m) + m) % m) + 1;
 
 // ---------------------------------------------------------------------------------------------
-// closed forms for equal coils (DESIGN.md "The models": any DC-machine text on armature
+// closed forms for equal coils (docs/contracts.md "The models": any DC-machine text on armature
 // resistance; the ring formula is the parallel combination of the two arcs of the ring)
 
 /**
@@ -392,7 +392,7 @@ export function resistanceBetweenBars(layout: WindingLayout, coilOhm: number[], 
 
 /**
  * Bar-to-bar readings r1 … rC (Ω) of the network (brushes lifted): r_i between bar i and bar i+1,
- * rC between bar C and bar 1 (DESIGN.md numbering). Equal coils give the closed forms above.
+ * rC between bar C and bar 1 (docs/contracts.md numbering). Equal coils give the closed forms above.
  */
 export function barToBar(layout: WindingLayout, coilOhm: number[]): number[] {
   const net = ringNetwork(layout, coilOhm);
@@ -442,7 +442,7 @@ export function* rotorPositions(layout: WindingLayout): Generator<number[][]> {
 
 /**
  * True when, at some rotor position, a + brush and a − brush touch the same bar: the supply is
- * shorted through it (DESIGN.md: on a 3-bar ring, brushes half a turn apart wider than half a bar).
+ * shorted through it (docs/contracts.md: on a 3-bar ring, brushes half a turn apart wider than half a bar).
  * Two neighbouring brushes C/P bars apart can both reach one bar when wider than C/P − 1 bars.
  */
 export function brushesShort(layout: WindingLayout): boolean {
@@ -492,7 +492,7 @@ export function singleBrushBars(layout: WindingLayout): number[] {
 /**
  * Terminal resistance between the brush leads (Ω), brushes excluded.
  *
- * Brush placement (DESIGN.md "The `plan --json` output"; neutral-axis placement, from memory of
+ * Brush placement (docs/contracts.md "The `plan --json` output"; neutral-axis placement, from memory of
  * any DC-machine text): brushes alternate + and − and sit 180° electrical apart, i.e. C/P bars
  * apart on the commutator (any odd multiple is an equivalent position).
  *  - `single`: tooth and lap: brush j on bar 1 + ⌊j·C/P⌋ (2 brushes on 2 poles: bars 1 and

@@ -1,9 +1,9 @@
-/** Types of the winding layout: coil tables, numbering as DESIGN.md fixes it. */
+/** Types of the winding layout: coil tables, numbering as docs/contracts.md fixes it. */
 import type { Warning } from "../errors.js";
 
-export type WindingStyle = "tooth" | "lap" | "wave";
-export type Progression = "progressive" | "retrogressive";
-export type Sense = "cw" | "ccw";
+import type { Progression, Sense, WindingStyle } from "../job/schema.js";
+
+export type { Progression, Sense, WindingStyle };
 
 export interface WindingSpec {
   style: WindingStyle;
@@ -35,7 +35,7 @@ export interface Coil {
    * return side bottom); for tooth windings the half of the slot: "right" is the clockwise half
    * seen from the commutator end (coil k's side in slot k: its go side for cw, its return side
    * for ccw), "left" the anticlockwise half (coil k's side in slot k+1). The JSON `layer` of
-   * DESIGN.md is `go_layer`.
+   * docs/contracts.md is `go_layer`.
    */
   go_layer: Layer;
   return_layer: Layer;

@@ -1,5 +1,5 @@
 /**
- * Reading a wire as the job file writes it (DESIGN.md, "The job file"):
+ * Reading a wire as the job file writes it (docs/contracts.md, "The job file"):
  * "0.25 mm", "0.25 mm grade 2", "0.25 mm G2", "10 mil", "0.010 in", "33 AWG", "AWG 33",
  * "33 AWG heavy", "36 SWG", "36 SWG grade 1", "0.250/0.282 mm", or { bare: 0.25 mm, overall: 0.282 mm }.
  * Lengths go through parseQuantity(…, "length"): a bare number is mm.

@@ -379,7 +379,7 @@ async function judge() {
       (json.errors || []).map((e) => ({ ...e, path: "" })),
     );
     for (const e of json.errors || []) {
-      const m = /^bars\[(\d+)\]$/.exec(e.path);
+      const m = /bars\[(\d+)\]$/.exec(e.path);
       if (m) $$(".reading")[Number(m[1])]?.classList.add("invalid");
     }
     return;
