@@ -17,7 +17,8 @@ export const SLOW = [
   "test/cli-io.test.ts",
   "test/logbook-concurrency.test.ts",
   "test/render.test.ts",
-  "test/rank.test.ts", // starts the built command (runCli)
+  "test/rank.test.ts", // these two start the built command (runCli)
+  "test/series-plan.test.ts",
 ];
 
 export default defineConfig({

@@ -64,9 +64,9 @@ function build(v: Variant): string {
 }
 
 describe("jobs with unusual values through plan and card", () => {
-  // 200 cards in pieces of 25 (test/helpers/chunks.ts), each piece its own seed
+  // 200 cards in pieces of 20 (test/helpers/chunks.ts), each piece its own seed
   let drawn = 0;
-  for (const c of chunks(200, 8)) {
+  for (const c of chunks(200, 10)) {
   it(`cards ${c.part}/${c.parts} (${c.runs}): every job that plans is drawn, nothing throws`, async () => {
     await fc.assert(
       fc.asyncProperty(variant, async (v) => {

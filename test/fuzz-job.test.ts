@@ -138,9 +138,9 @@ describe("mutated job files through load and plan", () => {
     for (const f of SEED_FILES) expect(runJobText(readFileSync(f, "utf8")).kind, f).toBe("planned");
   });
 
-  // 3500 data mutations in pieces of 500 (test/helpers/chunks.ts), each piece its own seed
+  // 3500 data mutations in pieces of 250 (test/helpers/chunks.ts), each piece its own seed
   const seen = { planned: 0, load_error: 0, plan_error: 0 };
-  for (const c of chunks(3500, 7)) {
+  for (const c of chunks(3500, 14)) {
     it(`data mutations ${c.part}/${c.parts} (${c.runs}): a plan or located one-line problems, never another exception`, () => {
       fc.assert(
         fc.property(fc.nat(SEEDS.length - 1), fc.array(mutation, { minLength: 1, maxLength: 4 }), (seed, ms) => {

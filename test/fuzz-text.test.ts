@@ -100,9 +100,9 @@ function applyEdit(text: string, e: Edit): string {
 }
 
 describe("damaged job texts through load and plan", () => {
-  // 5500 text edits in pieces of about 700 (test/helpers/chunks.ts), each piece its own seed
+  // 5500 text edits in pieces of about 350 (test/helpers/chunks.ts), each piece its own seed
   const seen = { planned: 0, load_error: 0, plan_error: 0 };
-  for (const c of chunks(5500, 8)) {
+  for (const c of chunks(5500, 16)) {
     it(`text edits ${c.part}/${c.parts} (${c.runs}): a plan or located one-line problems, never another exception`, () => {
       fc.assert(
         fc.property(fc.nat(SEEDS.length - 1), fc.array(edit, { minLength: 1, maxLength: 4 }), (seed, edits) => {
@@ -178,9 +178,9 @@ describe("measured files through load and the job check", () => {
 
   it("the seed is accepted", () => expect(run(MEASURED)).toBe("ok"));
 
-  // 3000 in two pieces (test/helpers/chunks.ts), each its own seed
+  // 3000 in six pieces (test/helpers/chunks.ts), each its own seed
   const seen = { ok: 0, load_error: 0, check_error: 0 };
-  for (const c of chunks(3000, 2)) {
+  for (const c of chunks(3000, 6)) {
   it(`text edits and data mutations ${c.part}/${c.parts} (${c.runs}): located one-line problems, never another exception`, () => {
     const seed = parse(MEASURED) as Record<string, unknown>;
     const keys = Object.keys(seed);

@@ -7,7 +7,7 @@ import { describe, expect, it } from "vitest";
 import { existsSync, mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
-import { cacheFolder, indexFile, recordsOfFamily, refreshIndex } from "../src/logbook/family-index.js";
+import { cacheFolder, indexFile, readInBatches, recordsOfFamily, refreshIndex } from "../src/logbook/family-index.js";
 import { byFileName, readLogbook } from "../src/logbook/store.js";
 import { ROOT } from "./helpers/cli.js";
 
@@ -95,8 +95,24 @@ describe("history refreshes the index", () => {
     // same listing: the share still holds (the edit is not seen) …
     expect(recordsOfFamily(dir, "blind-5slot", cache).records).toHaveLength(1);
     // … until a whole read rewrites the index
-    refreshIndex(readLogbook(dir), cache);
+    refreshIndex(dir, readLogbook(dir).records.map((r) => [r.file, r.record.job.family] as [string, string | null]), cache);
     expect(recordsOfFamily(dir, "blind-5slot", cache).records.map((r) => r.file)).toContain(other);
+  });
+});
+
+describe("reading in batches", () => {
+  it("gives every record once, in batches no larger than asked, and the same warnings as one whole read", () => {
+    const dir = logbook(5);
+    writeFileSync(join(dir, "bad-2026-01-01-1.yaml"), "{ not a record");
+    const whole = readLogbook(dir);
+    const seen: string[] = [];
+    const sizes: number[] = [];
+    const book = readInBatches(dir, (records) => (seen.push(...records.map((r) => r.file)), sizes.push(records.length)), 3);
+    expect(seen.sort()).toEqual(whole.records.map((r) => r.file).sort());
+    expect(Math.max(...sizes)).toBeLessThanOrEqual(3);
+    expect(sizes.length).toBeGreaterThan(2);
+    expect(book.warnings).toEqual(whole.warnings);
+    expect(book.records).toEqual([]);
   });
 });
 

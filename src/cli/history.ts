@@ -7,8 +7,8 @@ import type { Argv } from "yargs";
 import { extname, relative, resolve } from "node:path";
 import { guarded, type Io } from "./io.js";
 import { logbookDir } from "./learning.js";
-import { readLogbook, type Logbook } from "../logbook/store.js";
-import { cacheFolder, refreshIndex } from "../logbook/family-index.js";
+import { byFileName, type Logbook } from "../logbook/store.js";
+import { cacheFolder, readInBatches, refreshIndex } from "../logbook/family-index.js";
 import { drawingSvg, historyCsv, historyDrawing, historyRows, type HistoryRow } from "../logbook/history.js";
 import { writeAtomic } from "./write.js";
 import { ArmwindError, inputError } from "../errors.js";
@@ -57,13 +57,15 @@ export function historyCommand(yargs: Argv, io: Io, setStatus: (n: number) => vo
           if (argv.plot !== undefined && ![".svg", ".pdf"].includes(extname(argv.plot).toLowerCase())) {
             throw inputError("bad_plot_file", "--plot", `--plot ${argv.plot}: the plot is written as SVG or PDF; name the file FILE.svg or FILE.pdf`);
           }
-          const book = readLogbook(logbookDir(io, argv.logbook));
+          // the records a batch at a time, each batch turned into rows at once (a big logbook is never held whole)
+          let rows: HistoryRow[] = [];
+          const book = readInBatches(logbookDir(io, argv.logbook), (records) => rows.push(...historyRows(records)));
           // listing is all history does: a folder it cannot read is an error here (a plan goes on without it)
           if (book.unreadable) throw new ArmwindError({ code: "file_unreadable", path: "", file: book.dir, message: book.warnings[0].message.replace(/; going on without its records$/, "") });
-          refreshIndex(book, cacheFolder(io.env));
+          refreshIndex(book.dir, rows.map((r) => [r.file, r.family] as [string, string | null]), cacheFolder(io.env));
           for (const w of book.warnings) io.err(`armwind: warning: ${w.message} [${w.code}]`);
-          const records = argv.family === undefined ? book.records : book.records.filter((r) => r.record.job.family === argv.family);
-          const rows = historyRows(records);
+          rows.sort((a, b) => (a.date < b.date ? -1 : a.date > b.date ? 1 : byFileName(a.file, b.file)));
+          if (argv.family !== undefined) rows = rows.filter((r) => r.family === argv.family);
           if (argv.plot !== undefined) {
             const file = argv.plot;
             const title = `armwind logbook${argv.family ? `, family ${argv.family}` : ""}`;

@@ -124,22 +124,42 @@ export function recordsOfFamily(dir: string, family: string, cache: string): Log
   return { ...book, records: own };
 }
 
-/** After a whole read of `dir` (history), write the index afresh from what was read. */
-export function refreshIndex(book: Logbook, cache: string): void {
-  if (!book.exists) return;
+/** After a whole read of `dir` (history), write the index afresh from what was read: file name → family. */
+export function refreshIndex(dir: string, read: Iterable<[string, string | null]>, cache: string): void {
   let names: string[];
   try {
-    names = readdirSync(book.dir);
+    names = readdirSync(dir);
   } catch {
     return;
   }
-  const families = Object.fromEntries(book.records.map((r) => [r.file, r.record.job.family]));
+  const families = Object.fromEntries(read);
   // the families' shares go: the next plan of each family takes its share from this index
-  const prefix = basename(indexFile(cache, book.dir)).replace(/\.json$/, "-");
+  const prefix = basename(indexFile(cache, dir)).replace(/\.json$/, "-");
   try {
     for (const f of readdirSync(cache)) if (f.startsWith(prefix)) rmSync(join(cache, f), { force: true });
   } catch {
     /* no cache folder yet */
   }
-  writeJson(indexFile(cache, book.dir), { version: VERSION, dir: resolve(book.dir), listing: listingOf(names), families } satisfies IndexFile);
+  writeJson(indexFile(cache, dir), { version: VERSION, dir: resolve(dir), listing: listingOf(names), families } satisfies IndexFile);
+}
+
+/**
+ * Read every record of `dir` a batch at a time, handing each batch to `take` and keeping none of
+ * them (history turns each batch into its rows), so that a big logbook is never held whole.
+ * Returns the folder's facts and warnings as `readLogbook` would, without records.
+ */
+export function readInBatches(dir: string, take: (records: Logbook["records"]) => void, size = 256): Logbook {
+  let names: string[];
+  try {
+    names = readdirSync(dir).sort();
+  } catch {
+    return readLogbook(dir); // missing or unreadable: readLogbook says which
+  }
+  const warnings: Logbook["warnings"] = [];
+  for (let i = 0; i < names.length; i += size) {
+    const book = readLogbook(dir, { names: names.slice(i, i + size) });
+    warnings.push(...book.warnings);
+    take(book.records);
+  }
+  return { dir, exists: true, records: [], warnings };
 }
