@@ -91,7 +91,9 @@ function motorJson(m: MotorReport, calibration: string, series: ReturnType<typeo
   return {
     ke_v_s_per_rad: n(m.ke),
     kt_n_m_per_a: n(m.kt),
-    kv_rpm_per_v: series === undefined ? n(m.kv) : null,
+    // both senses of Kv (docs "Kv"): the constant 60/(2π·Ke), and the predicted no-load speed ÷ supply; neither for a series motor
+    kv_rpm_per_v: series === undefined && m.noLoadPerVolt !== null ? n(m.kv) : null,
+    no_load_rpm_per_v: series === undefined ? rpm(m.noLoadPerVolt) : null,
     terminal_hot_ohm: n(m.resistance),
     no_load_speed_rpm: rpm(m.noLoadSpeed),
     no_load_current_a: n(m.noLoadCurrent),

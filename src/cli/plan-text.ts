@@ -1,5 +1,6 @@
 /** The plan for the terminal: the chosen winding first, then what it will read and do, then the rest. */
 import type { Plan } from "../design/types.js";
+import { KV_DEFINITIONS, kvRows } from "../format/kv.js";
 import { reasonText } from "../design/plan.js";
 import { mm, ohm, pct, rpm, sig, table } from "../format/number.js";
 import { goalSummary } from "../format/goal.js";
@@ -56,7 +57,7 @@ function motorText(plan: Plan, L: string[]): void {
   const rows: [string, string, string][] = [
     ["turns × wire", `${plan.original.turns} × ${plan.original.wire.label}${plan.original.strands > 1 ? ` ×${plan.original.strands}` : ""}`, `${d.turns} × ${d.wire.label}${d.strands > 1 ? ` ×${d.strands}` : ""}`],
     ["terminal Ω (20 °C)", ohm(plan.original.terminal_ohm) + (plan.original.terminal_measured ? " meas." : ""), ohm(plan.resistance.terminal_ohm)],
-    ["Kv rpm/V", sig(o.kv), sig(m.kv)],
+    ...kvRows(plan).map(([label, f]) => [label, f(o), f(m)] as [string, string, string]),
     ["no-load speed rpm", rpm(o.noLoadSpeed), rpm(m.noLoadSpeed)],
     ["no-load current A", sig(o.noLoadCurrent), sig(m.noLoadCurrent)],
     ["stall current A (hot)", sig(o.stallCurrent), sig(m.stallCurrent)],
@@ -70,6 +71,7 @@ function motorText(plan: Plan, L: string[]): void {
     rows.push(["  current A", sig(plan.original_duty.current), sig(plan.duty.current)]);
     rows.push(["  efficiency", pct(plan.original_duty.efficiency), pct(plan.duty.efficiency)]);
   }
+  if (kvRows(plan).length) L.push(`  ${KV_DEFINITIONS}`);
   L.push(
     table(
       ["", "original", "new"],

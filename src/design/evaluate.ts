@@ -410,7 +410,7 @@ function dutyOf(s: Setup, w: Winding, ke: number | null, terminalHot: number): D
     target_speed: d.speed,
     current: p.current,
     speed: p.speed,
-    efficiency: p.efficiency,
+    efficiency: s.cal.loss_known ? p.efficiency : null,
     input_w: p.inputW,
     output_w: p.outputW,
     current_density: currentDensityByShare(p.current, s.share, w.strands, w.wire.area),

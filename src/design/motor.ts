@@ -41,6 +41,7 @@ function emptyReport(ke: number | null, rHot: number): MotorReport {
     ke: ke ?? NaN,
     kt: ke ?? NaN,
     kv: ke ? kvFromKe(ke) : NaN,
+    noLoadPerVolt: null,
     resistance: rHot,
     noLoadSpeed: null,
     noLoadCurrent: null,
@@ -56,6 +57,15 @@ function emptyReport(ke: number | null, rHot: number): MotorReport {
   };
 }
 
+/**
+ * With no loss data (nameplate only, magnet estimate) the loss torque is taken as zero for the
+ * speeds, but what it decides is unknown, not zero: the no-load current, the efficiencies and the
+ * point of peak efficiency are null, and the curve's efficiencies too (docs "Unknown is null").
+ */
+function lossesUnknown(r: MotorReport): MotorReport {
+  return { ...r, noLoadCurrent: null, peakEfficiency: null, peakEfficiencyCurrent: null, curve: r.curve.map((p) => ({ ...p, efficiency: null })) };
+}
+
 /** Constant field: V = Ke·ω + I·R + V_b, T = Kt·I − T_f(ω) (src/motor/model.ts, the linear DC motor model). */
 export const CONSTANT_FIELD: MotorPhysics = {
   field: "constant",
@@ -68,7 +78,8 @@ export const CONSTANT_FIELD: MotorPhysics = {
     const hot = modelOf(ke, rHot, cal, "constant");
     const cold = modelOf(ke, r20, cal, "constant");
     const nl = noLoad(cold, V);
-    return { ...summarize(hot, V), noLoadSpeed: nl.speed, noLoadCurrent: nl.current, stallCurrentCold: stallCurrent(r20, cal.brush_drop, V), model: hot, curve: curve(hot, V, 41) };
+    const report: MotorReport = { ...summarize(hot, V), noLoadSpeed: nl.speed, noLoadPerVolt: V > 0 ? nl.speed / V : null, noLoadCurrent: nl.current, stallCurrentCold: stallCurrent(r20, cal.brush_drop, V), model: hot, curve: curve(hot, V, 41) };
+    return cal.loss_known ? report : lossesUnknown(report);
   },
 };
 

@@ -246,6 +246,7 @@ export function planJob(job: Job, options: PlanOptions = {}): Plan {
   motorWarnings(job, supply, chosen, original, seriesSetup, warnings);
   originalFillWarnings(ctx, ev.goal, warnings);
   warnings.push(...limitWarnings(ev, chosen));
+  warnings.push(...oneTestWarnings(job, chosen, supply));
   const coils: CoilPlan[] = ctx.layout.coils.map((c, i) => ({ ...c, turns: chosen.turns, mlt: chosen.coil_mlt[i], ohm: chosen.coil_ohms[i] }));
   return {
     job,
@@ -349,6 +350,33 @@ function restoreGeometryWarnings(ev: Evaluator, chosen: Candidate): Warning[] {
     });
   }
   return out;
+}
+
+/** How far the new no-load speed may lie from the only no-load test before the held-constant loss torque is called rough: ×0.7 … ×1.4 (armwind's own choice, common practice, no published source). */
+export const ONE_TEST_SPAN = { below: 0.7, above: 1.4 };
+
+/**
+ * With one no-load test the loss torque is held constant (T_c alone): at a no-load speed far from
+ * that test's, the predicted idle current is rough (a rewind that runs at half the speed idles on
+ * less than the test's loss torque, as friction and iron loss fall with speed). Warn, and ask for a
+ * second test at about half the supply (docs "Calibration of Ke").
+ */
+function oneTestWarnings(job: Job, chosen: FullEvaluation, supply: number): Warning[] {
+  const tests = (job.original.tests ?? []).filter((t) => (t as { kind?: string }).kind !== "load");
+  const w = chosen.motor.noLoadSpeed;
+  if (tests.length !== 1 || job.armature.field === "series" || w === null || !(w > 0)) return [];
+  const speed = tests[0].no_load_speed;
+  if (speed === undefined) return [];
+  const ratio = w / speed;
+  if (ratio >= ONE_TEST_SPAN.below && ratio <= ONE_TEST_SPAN.above) return [];
+  const rpm = (x: number) => ((x * 60) / (2 * Math.PI)).toFixed(0);
+  return [
+    {
+      code: "loss_from_one_test",
+      path: "original.tests",
+      message: `the loss torque comes from one no-load test at ${rpm(speed)} rpm and is held constant, but the new winding idles at ${rpm(w)} rpm (×${ratio.toFixed(2)}): its no-load current is rough (${ratio < 1 ? "likely high" : "likely low"}); a second no-load test of the old motor at about half the supply (${(supply / 2).toPrecision(3)} V) fits the part that changes with speed`,
+    },
+  ];
 }
 
 function dedupeWarnings(ws: Warning[]): Warning[] {

@@ -129,17 +129,22 @@ export interface Calibration {
   basis: string;
   loss: { tc: number; b: number };
   loss_basis: string;
+  /** False when no test, record or model gives the loss torque (taken as zero): no-load current and efficiencies are then unknown (null). */
+  loss_known: boolean;
   /** Generator against no-load Ke disagreement (fraction), when both exist. */
   disagreement: number | null;
   brush_drop: number;
   brush_drop_basis: string;
 }
 
+/** A point of the motor's curve; its efficiency null when the losses are unknown. */
+export type CurvePoint = Omit<OperatingPoint, "efficiency"> & { efficiency: number | null };
+
 export interface MotorReport extends MotorSummary {
   /** Cold stall current (winding at 20 °C), A. */
   stallCurrentCold: number | null;
   model: MotorModel | null;
-  curve: OperatingPoint[];
+  curve: CurvePoint[];
 }
 
 export interface DutyReport {
@@ -147,7 +152,8 @@ export interface DutyReport {
   target_speed: number;
   current: number;
   speed: number;
-  efficiency: number;
+  /** Null when the losses are unknown (docs "Unknown is null"). */
+  efficiency: number | null;
   input_w: number;
   output_w: number;
   current_density: number | null;

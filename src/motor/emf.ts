@@ -55,8 +55,10 @@ export function activeConductors(turnsPerCoil: number, coils: number): number {
 /**
  * Pitch factor of a coil spanning `spanSlots` slots on an armature of `slots` slots in a field
  * of `poles` poles: k_p = sin(θ_e / 2), θ_e = span · 2π/slots · P/2 the electrical span angle.
- * ASSUMES A SINUSOIDAL AIR-GAP FIELD (the fundamental only); a flat-topped magnet field makes a
- * short-pitched coil link relatively more flux than this says. Full pitch (span = slots/P) → 1;
+ * ASSUMES A SINUSOIDAL AIR-GAP FIELD (the fundamental only). A flat field over the whole pole arc
+ * gives less, not more: a coil spanning σ links at most σ/π of a full-pitch coil's flux swing, and
+ * σ/π lies below sin(σ/2) for 0 < σ < π (3 slots: 0.667 against 0.866); a real magnet's field,
+ * between the two, lies between them. Full pitch (span = slots/P) → 1;
  * one-tooth coils on 2 poles: 3 slots 0.866, 5 slots 0.588, 7 slots 0.434.
  * Source: distribution of the coil EMF over its two sides (textbook pitch or chording factor
  * of AC windings, applied to the DC armature coil); dimensionless.

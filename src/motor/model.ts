@@ -98,7 +98,8 @@ export function noLoad(model: MotorModel, V: number): { speed: number; current: 
   const { tc, b } = model.loss;
   const w0 = (ke * Vd - tc * R) / (ke * ke + b * R);
   if (!(w0 > 0)) return { speed: 0, current: Vd / R, starts: false };
-  return { speed: w0, current: (Vd - ke * w0) / R, starts: true };
+  // I0 = T_f(ω0)/Kt, equal to (V − V_b − Ke·ω0)/R at ω0 but free of its cancellation (never −1e-14 A with no loss)
+  return { speed: w0, current: (tc + b * w0) / ke, starts: true };
 }
 
 /**
@@ -246,6 +247,12 @@ export interface MotorSummary {
   kt: number;
   /** rpm/V, the motor constant 60/(2π·Ke). */
   kv: number;
+  /**
+   * The predicted no-load speed divided by the supply, rad/s per V: what a tachometer on a bench
+   * supply gives (below 1/Ke by the resistive and brush drops and the loss current); null for a
+   * series motor (docs "Kv").
+   */
+  noLoadPerVolt: number | null;
   /** Ω, terminal, at the temperature of use. */
   resistance: number;
   /** rad/s. */
@@ -277,6 +284,7 @@ export function summarize(model: MotorModel, V: number): MotorSummary {
   if (model.field === "series") {
     return {
       ...base,
+      noLoadPerVolt: null,
       noLoadSpeed: null,
       noLoadCurrent: null,
       stallCurrent: null,
@@ -311,6 +319,7 @@ export function summarize(model: MotorModel, V: number): MotorSummary {
   }
   return {
     ...base,
+    noLoadPerVolt: V > 0 ? nl.speed / V : null,
     noLoadSpeed: nl.speed,
     noLoadCurrent: nl.current,
     stallCurrent: st.current,

@@ -3,8 +3,7 @@
  * torque, original dashed and new solid on the same axes, the duty point marked. Drawn on the
  * card and written as an SVG image beside it.
  */
-import type { OperatingPoint } from "../motor/model.js";
-import type { Plan } from "../design/types.js";
+import type { CurvePoint, Plan } from "../design/types.js";
 import { sig } from "../format/number.js";
 import { toRpm } from "../format/units.js";
 import { ticksFromZero } from "./ticks.js";
@@ -14,10 +13,10 @@ import type { Drawing, Shape } from "./drawing.js";
 const tick = (v: number) => String(Number(v.toPrecision(6)));
 
 export type CurveKey = "speed" | "current" | "efficiency" | "output";
-export const CURVES: Record<CurveKey, { title: string; unit: string; value: (p: OperatingPoint) => number }> = {
+export const CURVES: Record<CurveKey, { title: string; unit: string; value: (p: CurvePoint) => number | null }> = {
   speed: { title: "Speed", unit: "rpm", value: (p) => toRpm(p.speed) },
   current: { title: "Current", unit: "A", value: (p) => p.current },
-  efficiency: { title: "Efficiency", unit: "%", value: (p) => p.efficiency * 100 },
+  efficiency: { title: "Efficiency", unit: "%", value: (p) => (p.efficiency === null ? null : p.efficiency * 100) },
   output: { title: "Output power", unit: "W", value: (p) => p.outputW },
 };
 
@@ -30,7 +29,7 @@ export function torqueUnit(maxNm: number): { unit: string; k: number } {
  * The curves to draw, original and new: a series motor's from light load to rated (design/series.ts),
  * any other motor's from no load to stall. A series motor whose field the job does not describe has none.
  */
-export function curveSets(plan: Plan): { o: OperatingPoint[]; n: OperatingPoint[] } {
+export function curveSets(plan: Plan): { o: CurvePoint[]; n: CurvePoint[] } {
   if (plan.job.armature.field === "series") return { o: plan.series?.original.curve ?? [], n: plan.series?.rewound.curve ?? [] };
   return { o: plan.original_motor.curve, n: plan.motor.curve };
 }
@@ -51,10 +50,15 @@ export interface CurvesOptions {
   size?: number;
 }
 
-/** Four charts in a 2 × 2 grid filling width × height (points). */
+/** Whether the efficiency curve can be drawn: the losses are known (docs "Unknown is null": a curve that needs unknown data is not drawn). */
+export function hasEfficiency(plan: Plan): boolean {
+  return plan.job.armature.field === "series" || plan.calibration.loss_known; // a series motor's curves are the series model's (design/series.ts)
+}
+
+/** Four charts in a 2 × 2 grid filling width × height (points); the efficiency chart left out when the losses are unknown. */
 export function curvesDrawing(plan: Plan, opts: CurvesOptions): Drawing {
   const shapes: Shape[] = [];
-  const keys = opts.keys ?? (["speed", "current", "efficiency", "output"] as CurveKey[]);
+  const keys = (opts.keys ?? (["speed", "current", "efficiency", "output"] as CurveKey[])).filter((k) => k !== "efficiency" || hasEfficiency(plan));
   const size = opts.size ?? 8;
   const { o, n } = curveSets(plan);
   const maxT = Math.max(...o.map((p) => p.torque), ...n.map((p) => p.torque), plan.duty?.torque ?? 0);
@@ -88,8 +92,8 @@ function chart(
   y: number,
   w: number,
   h: number,
-  o: OperatingPoint[],
-  n: OperatingPoint[],
+  o: CurvePoint[],
+  n: CurvePoint[],
   tu: { unit: string; k: number },
   size: number,
 ): void {
@@ -103,7 +107,7 @@ function chart(
   const ph = h - padT - padB;
   const all = [...o, ...n];
   const maxT = Math.max(...all.map((p) => p.torque), plan.duty?.torque ?? 0) * tu.k;
-  const maxV = Math.max(...all.map(def.value), key === "speed" && plan.duty ? toRpm(plan.duty.target_speed) : 0);
+  const maxV = Math.max(...all.map((p) => def.value(p) ?? 0), key === "speed" && plan.duty ? toRpm(plan.duty.target_speed) : 0);
   const xt = ticksFromZero(maxT);
   const yt = ticksFromZero(key === "efficiency" ? Math.min(100, maxV) : maxV);
   const xMax = xt[xt.length - 1];
@@ -117,16 +121,21 @@ function chart(
   for (const t of xt) shapes.push({ kind: "text", x: X(t), y: py + ph + 3 + size * 0.8, text: tick(t), size: size - 1, anchor: "middle" });
   for (const v of yt) shapes.push({ kind: "text", x: px - 4, y: Y(v) + size * 0.35, text: tick(v), size: size - 1, anchor: "end" });
   shapes.push({ kind: "text", x: px + pw / 2, y: py + ph + 15 + size * 0.8, text: `torque, ${tu.unit}`, size: size - 1, anchor: "middle" });
-  const series = (pts: OperatingPoint[]) => pts.filter((p) => Number.isFinite(def.value(p)) && Number.isFinite(p.torque)).map((p) => [X(p.torque * tu.k), Y(def.value(p))] as [number, number]);
+  const series = (pts: CurvePoint[]) => pts.flatMap((p) => {
+    const v = def.value(p);
+    return v !== null && Number.isFinite(v) && Number.isFinite(p.torque) ? [[X(p.torque * tu.k), Y(v)] as [number, number]] : [];
+  });
   shapes.push({ kind: "polyline", points: series(o), width: 1.2, dash: 5 });
   shapes.push({ kind: "polyline", points: series(n), width: 2 });
   if (plan.duty) {
     const du = plan.duty;
-    const val = (d: NonNullable<Plan["duty"]>): Record<CurveKey, number> => ({ speed: toRpm(d.speed), current: d.current, efficiency: d.efficiency * 100, output: d.output_w });
+    const val = (d: NonNullable<Plan["duty"]>): Record<CurveKey, number | null> => ({ speed: toRpm(d.speed), current: d.current, efficiency: d.efficiency === null ? null : d.efficiency * 100, output: d.output_w });
     const cx = X(du.torque * tu.k);
     shapes.push({ kind: "line", x1: cx, y1: py, x2: cx, y2: py + ph, width: 0.5, grey: 0, dash: 2 });
-    if (plan.original_duty) shapes.push({ kind: "circle", cx: X(plan.original_duty.torque * tu.k), cy: Y(val(plan.original_duty)[key]), r: 3.6, filled: false });
-    shapes.push({ kind: "circle", cx, cy: Y(val(du)[key]), r: 3.6, filled: true });
+    const ov = plan.original_duty ? val(plan.original_duty)[key] : null;
+    if (plan.original_duty && ov !== null) shapes.push({ kind: "circle", cx: X(plan.original_duty.torque * tu.k), cy: Y(ov), r: 3.6, filled: false });
+    const nv = val(du)[key];
+    if (nv !== null) shapes.push({ kind: "circle", cx, cy: Y(nv), r: 3.6, filled: true });
     if (key === "speed") {
       const ty = Y(toRpm(du.target_speed));
       shapes.push({ kind: "line", x1: cx - 7, y1: ty, x2: cx + 7, y2: ty, width: 0.8, grey: 0 });

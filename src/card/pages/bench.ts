@@ -218,9 +218,22 @@ export function benchPage(s: Sheet, plan: Plan): void {
         ["speed", "rpm", 130],
       ],
     ]);
+    if ((plan.job.original.tests ?? []).filter((t) => (t as { kind?: string }).kind !== "load").length < 2) {
+      run.push([
+        "Second no-load run, at about half the supply",
+        `At about ${sig(plan.supply / 2)} V: current and speed. With one no-load test the loss torque is held constant; two at different speeds give the part that grows with speed, so the next plan of this armature predicts idle current better (log them with the rewind).`,
+        [
+          ["supply", "V", 100],
+          ["current", "A", 110],
+          ["speed", "rpm", 130],
+        ],
+      ]);
+    }
     run.push([
       "Brief stall current",
-      `Seconds only, rotor held safely (see Cautions). Expected at ${sig(plan.supply)} V: ${sig(m.stallCurrentCold)} A cold, ${sig(m.stallCurrent)} A hot. At a reduced supply V the cold stall current is about (V − ${sig(plan.calibration.brush_drop)} V brush drop) ÷ ${ohm(r.terminal_ohm)} Ω.`,
+      plan.mains
+        ? `Seconds only, rotor held safely (see Cautions), at a reduced DC supply only — never at ${sig(plan.supply)} V mains. At a reduced supply V the cold stall current is about (V − ${sig(plan.calibration.brush_drop)} V brush drop) ÷ ${ohm(r.terminal_ohm)} Ω.`
+        : `Seconds only, rotor held safely (see Cautions). Expected at ${sig(plan.supply)} V: ${sig(m.stallCurrentCold)} A cold, ${sig(m.stallCurrent)} A hot. At a reduced supply V the cold stall current is about (V − ${sig(plan.calibration.brush_drop)} V brush drop) ÷ ${ohm(r.terminal_ohm)} Ω.`,
       [
         ["supply", "V", 100],
         ["current", "A", 110],

@@ -7,7 +7,7 @@ import { reasonText } from "../../design/plan.js";
 import { FONT_BOLD, FONT_REGULAR, type Sheet } from "../sheet.js";
 import { kvFromKe } from "../../motor/emf.js";
 import { goalFigure, goalName, goalSummary, goalUnit, ohm, pct, sig } from "../text.js";
-import { curvesDrawing, hasCurves } from "../../plot/curves.js";
+import { curvesDrawing, hasCurves, hasEfficiency } from "../../plot/curves.js";
 import { paintDrawing } from "../../plot/drawing.js";
 
 export function curvesPage(s: Sheet, plan: Plan): void {
@@ -32,7 +32,7 @@ export function curvesPage(s: Sheet, plan: Plan): void {
   }
   s.startSection("Curves", { share: 0.7 });
   s.para(
-    `${sig(plan.supply)} V ${plan.supply_kind.toUpperCase()}, winding hot (${sig(plan.resistance.hot_temperature)} °C), ${plan.series ? `from light load (a tenth of the rated torque) to rated: a series motor has no safe no-load end, and its stall is checked only at a reduced voltage (bench page)${plan.series.convert ? `; the original at its own ${sig(plan.series.originalSupply.volts)} V` : ""}` : "from no load to stall"}. Original dashed, new solid${plan.duty ? "; ● the duty point of the new winding, ○ of the original" : ""}.`,
+    `${sig(plan.supply)} V ${plan.supply_kind.toUpperCase()}, winding hot (${sig(plan.resistance.hot_temperature)} °C), ${plan.series ? `from light load (a tenth of the rated torque) to rated: a series motor has no safe no-load end, and its stall is checked only at a reduced voltage (bench page)${plan.series.convert ? `; the original at its own ${sig(plan.series.originalSupply.volts)} V` : ""}` : "from no load to stall"}. Original dashed, new solid${plan.duty ? "; ● the duty point of the new winding, ○ of the original" : ""}.${hasEfficiency(plan) ? "" : " Efficiency is not drawn: with no no-load test the losses are unknown (a no-load test at the supply and one at about half of it give them)."}`,
     { size: T.body },
   );
   // legend

@@ -1,4 +1,5 @@
 /** Page 1, the job: who and what, THE WINDING in large type, the cut list, what it will read and do, the lead throw, warnings. */
+import { KV_DEFINITIONS, kvRows } from "../../format/kv.js";
 import type { MotorReport, Plan } from "../../design/types.js";
 import type { Sheet } from "../sheet.js";
 import { calibrationText, fieldText, goalName, goalSummary, mltSourceText, mm, ohm, pct, rpm, sig, strandsText, torqueUnit, wireSizes } from "../text.js";
@@ -194,7 +195,7 @@ function motorTable(s: Sheet, plan: Plan): void {
   const seriesTorque = (x: number | null) => (x === null ? "—" : sig(x * seriesTu.k));
   const rows: string[][] = sp ? [...head, ...seriesMotorRows(sp, seriesTorque, seriesTu.unit)] : [
     ...head,
-    row("Kv, rpm/V", (r) => sig(r.kv)),
+    ...kvRows(plan).map(([label, f]) => row(label, f)),
     row("no-load speed, rpm", (r) => rpm(r.noLoadSpeed)),
     row("no-load current, A", (r) => sig(r.noLoadCurrent)),
     row("stall current hot, A", (r) => sig(r.stallCurrent)),
@@ -221,4 +222,5 @@ function motorTable(s: Sheet, plan: Plan): void {
     rows,
     { size: s.L.type.table + 0.5, boldCols: new Set([2]), keepTogether: true },
   );
+  if (kvRows(plan).length) s.para(KV_DEFINITIONS, { size: s.L.type.body - 0.5 });
 }
