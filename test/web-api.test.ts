@@ -262,7 +262,8 @@ describe("logging and new jobs", () => {
     date: "2026-12-02",
     temperature: "21 C",
     meter_resolution: "0.001 ohm",
-    bar_to_bar: ["1.329", "1.327", "1.330", "1.330", "1.327"],
+    // two different armatures (the same readings twice would be refused as already_logged)
+    bar_to_bar: ["1.329", "1.327", "1.330", "1.330", `1.32${n}`],
     notes: `bench ${n} (invented)`,
   });
 

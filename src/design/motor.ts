@@ -20,8 +20,9 @@ import type { Calibration, MotorReport } from "./types.js";
 /** What the evaluation asks of a motor model, for a winding of constant `ke` (V·s/rad) and terminal resistance (Ω). */
 export interface MotorPhysics {
   readonly field: "constant" | "series";
-  /** No-load speed (rad/s) and current (A) at supply V through resistance `r` (Ω); null when the model cannot say. */
-  noLoad(ke: number, r: number, cal: Calibration, V: number): { speed: number; current: number } | null;
+  /** No-load speed (rad/s) and current (A) at supply V through resistance `r` (Ω); null when the model cannot say; the
+   * current is null when no loss data calibrates it (docs "Unknown is null"). */
+  noLoad(ke: number, r: number, cal: Calibration, V: number): { speed: number; current: number | null } | null;
   /** Stall current (A) at supply V through resistance `r` (Ω, at the temperature meant); null when the model cannot say. */
   stallCurrent(ke: number | null, r: number, cal: Calibration, V: number): number | null;
   /** The steady point at load torque T (N·m), hot resistance `rHot` (Ω); null beyond stall or when the model cannot say. */
@@ -69,7 +70,10 @@ function lossesUnknown(r: MotorReport): MotorReport {
 /** Constant field: V = Ke·ω + I·R + V_b, T = Kt·I − T_f(ω) (src/motor/model.ts, the linear DC motor model). */
 export const CONSTANT_FIELD: MotorPhysics = {
   field: "constant",
-  noLoad: (ke, r, cal, V) => noLoad(modelOf(ke, r, cal, "constant"), V),
+  noLoad(ke, r, cal, V) {
+    const nl = noLoad(modelOf(ke, r, cal, "constant"), V);
+    return cal.loss_known ? nl : { speed: nl.speed, current: null };
+  },
   stallCurrent: (ke, r, cal, V) => (ke === null ? null : stallCurrent(r, cal.brush_drop, V)),
   atTorque: (ke, rHot, cal, V, T) => pointAtTorque(modelOf(ke, rHot, cal, "constant"), V, T),
   report(ke, r20, hotFactor, cal, V) {

@@ -263,12 +263,12 @@ function noLoadChecks(p: Prediction, m: Measured, derived: Derived, notes: strin
   if (pr) {
     const ds = m.no_load.speed / pr.speed - 1;
     out.push({ check: "no_load.speed", unit: "rpm", predicted_value: toRpm(pr.speed), measured_value: toRpm(m.no_load.speed), measured_20c_value: null, deviation_fraction: ds, tolerance_fraction: ns.fraction, tolerance_source: ns.source, verdict: verdictOf(ds, ns.fraction), note: `at ${m.no_load.supply} V` });
-    const lossKnown = p.calibration.loss_known && pr.current > 0;
-    const dc = lossKnown ? m.no_load.current / pr.current - 1 : null;
+    const predicted = pr.current !== null && pr.current > 0 ? pr.current : null;
+    const dc = predicted !== null ? m.no_load.current / predicted - 1 : null;
     out.push({
       check: "no_load.current",
       unit: "A",
-      predicted_value: lossKnown ? pr.current : null, // unknown, not 0: history must not plot it (docs "Unknown is null")
+      predicted_value: predicted, // unknown, not 0: history must not plot it (docs "Unknown is null")
       measured_value: m.no_load.current,
       measured_20c_value: null,
       deviation_fraction: dc,

@@ -150,7 +150,7 @@ export function buildRecord(job: Job, plan: Plan, prediction: Prediction, m: Mea
       ke_v_s_per_rad: nn(p.ke),
       kv_rpm_per_v: p.ke === null ? null : kvFromKe(p.ke),
       no_load_speed_rpm: nl ? toRpm(nl.speed) : null,
-      no_load_current_a: nl && plan.calibration.loss_known ? nl.current : null,
+      no_load_current_a: nl ? nl.current : null,
       stall_current_a: p.ke === null && !p.series ? null : predictStall(p, supply, hot),
       brush_drop_v: p.brush_drop,
       loss_torque_n_m: p.loss.tc,
