@@ -40,7 +40,9 @@ export function benchLogbook(runs = 7): string[] {
   rmSync(dir, { recursive: true, force: true });
   rmSync(cache, { recursive: true, force: true });
   const ms = (x: number) => `${x.toFixed(0)} ms`;
-  console.log(`logbook of ${N} records (medians of ${runs} alternating runs; history of 3): plan --no-learn ${ms(t.noLearn)}; the first plan with learning, building the family index, ${ms(cold)}`);
+  console.log(
+    `logbook of ${N} records (medians of ${runs} alternating runs; history of 3): plan --no-learn ${ms(t.noLearn)}; the first plan with learning, building the family index, ${ms(cold)}`,
+  );
   const lines = [
     aim("plan with learning − plan --no-learn", `${ms(t.learn)} − ${ms(t.noLearn)} = ${ms(t.learn - t.noLearn)}`, t.learn - t.noLearn <= 50, "≤ 50 ms"),
     aim(`history over ${N} records`, ms(hist.history), hist.history <= 1000, "≤ 1000 ms"),

@@ -47,5 +47,14 @@ export function benchRing() {
   const coils = layout.coils.map((_, i) => 1 + 0.001 * (i % 7));
   coils[123] *= 0.8;
   const readings = barToBar(layout, coils);
-  time("diagnose", 5, 100, () => diagnose(layout, readings, coils.map(() => 1), 30, undefined, { resolutionOhm: 0.001 }));
+  time("diagnose", 5, 100, () =>
+    diagnose(
+      layout,
+      readings,
+      coils.map(() => 1),
+      30,
+      undefined,
+      { resolutionOhm: 0.001 },
+    ),
+  );
 }

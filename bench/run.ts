@@ -45,8 +45,6 @@ function benchSweep() {
   console.log(`  median of 7 runs ${t.toFixed(1)} ms in all, ${((t * 1e6) / total).toFixed(0)} ns per candidate (aim: under 100 ms)`);
 }
 
-
-
 async function benchHistory() {
   if (!existsSync("bench/history.ts")) {
     console.log("history: bench/history.ts not present");

@@ -70,7 +70,12 @@ export function readProblem(file: string, code: "file_unreadable" | "not_a_file"
 }
 
 const tooLarge = (file: string, limit: number, path: string) =>
-  readProblem(file, "file_too_large", `larger than ${MIB(limit)}, the most armwind reads from one file (the largest real armature needs a few KiB); is it the right file?`, path);
+  readProblem(
+    file,
+    "file_too_large",
+    `larger than ${MIB(limit)}, the most armwind reads from one file (the largest real armature needs a few KiB); is it the right file?`,
+    path,
+  );
 
 /**
  * Read a regular file's text (UTF-8), at most `limit` bytes. Throws ArmwindError (status 1) for a
@@ -92,7 +97,12 @@ export function readUserFile(file: string, opts: ReadOptions = {}): string {
     const st = fstatSync(fd);
     if (!st.isFile()) throw readProblem(file, "not_a_file", `is ${kindOf(st)}, not a regular file; give a file`, path);
     if (st.size > limit) throw tooLarge(file, limit, path);
-    return readFd(fd, limit, () => tooLarge(file, limit, path), (code) => readProblem(file, "file_unreadable", whyUnreadable(code), path));
+    return readFd(
+      fd,
+      limit,
+      () => tooLarge(file, limit, path),
+      (code) => readProblem(file, "file_unreadable", whyUnreadable(code), path),
+    );
   } finally {
     closeSync(fd);
   }
@@ -143,7 +153,11 @@ function readFd(fd: number, limit: number, over: () => Error, failed: (code?: st
 
 /** The host name as it goes into temporary names (letters, digits, '-' only). */
 export function tempHost(): string {
-  return hostname().replace(/[^A-Za-z0-9-]/g, "-").slice(0, 63) || "host";
+  return (
+    hostname()
+      .replace(/[^A-Za-z0-9-]/g, "-")
+      .slice(0, 63) || "host"
+  );
 }
 
 /** A temporary name for `base` in `dir`: hidden, with this host and process, never a record's or card's name. */
@@ -217,4 +231,3 @@ export function makeFolders(dir: string): void {
     }
   }
 }
-

@@ -60,8 +60,20 @@ describe("the rules themselves", () => {
 
   it("the level: ±5 % calibrated, ±15 % from the model, plus the conductor tolerance and one count", () => {
     const E = new Array(5).fill(1);
-    const cal = judgeLevel(E.map(() => 1.1), E, true, 0.5e-3, 0.001);
-    const mod = judgeLevel(E.map(() => 1.1), E, false, 0.5e-3, 0.001);
+    const cal = judgeLevel(
+      E.map(() => 1.1),
+      E,
+      true,
+      0.5e-3,
+      0.001,
+    );
+    const mod = judgeLevel(
+      E.map(() => 1.1),
+      E,
+      false,
+      0.5e-3,
+      0.001,
+    );
     // 0.5 mm wire: diameter tolerance max(0.002, 0.001 + 0.005) = 0.006 mm → 2·0.006/0.5 = 2.4 % in resistance (from memory)
     expect(cal.window_fraction).toBeCloseTo(0.05 + 0.024 + 0.001, 12);
     expect(mod.window_fraction).toBeCloseTo(0.15 + 0.024 + 0.001, 12);
@@ -138,7 +150,9 @@ describe("diagnose and plan from the command line", () => {
   it("(d) a layout-only job: readings judged against their own median, the coil behind the outlier named, exit 4", async () => {
     const R = new Array(12).fill(2);
     R[8] = 1.6; // coil 9 at 80 %
-    const bars = nodalReadings(lap12, R).map((x) => x.toPrecision(12)).join(",");
+    const bars = nodalReadings(lap12, R)
+      .map((x) => x.toPrecision(12))
+      .join(",");
     const io = fakeIo();
     const status = await main(["diagnose", layoutOnly, "--bars", bars, "--resolution", "0.001 ohm", "--json"], io);
     const out = JSON.parse(io.stdout.join(""));
@@ -186,4 +200,3 @@ describe("the robot demo's 1-bar brushes on 3 bars (issue 10 item 1)", () => {
     expect(out.warnings.map((w: { code: string }) => w.code)).toContain("brush_short");
   });
 });
-

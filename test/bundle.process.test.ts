@@ -16,7 +16,10 @@ const tmp = () => mkdtempSync(join(tmpdir(), "armwind-bundle-"));
 describe("the bundle and the source give the same outputs", () => {
   for (const job of demoJobFiles()) {
     it(`plan, plan --json and the card for ${basename(job)}`, async () => {
-      for (const args of [["plan", job], ["plan", job, "--json"]]) {
+      for (const args of [
+        ["plan", job],
+        ["plan", job, "--json"],
+      ]) {
         const real = runCli(args, { env: FIXED });
         const src = await runMain(args, { env: FIXED });
         expect(real.stdout, args.join(" ")).toBe(src.stdout);

@@ -32,8 +32,13 @@ function problems(pages: PageBoxes[], plan: Plan): string[] {
     const footerTop = p.height - L.footer.offset - 2;
     for (const t of p.items) {
       const inFooter = t.top >= footerTop && t.bottom <= p.height - 8;
-      const inside = t.x >= L.margin.left - 0.5 && t.right <= p.width - L.margin.right + 0.5 && t.top >= L.margin.top - 4 && (t.bottom <= p.height - L.margin.bottom + 3 || inFooter);
-      if (!inside) out.push(`${n}: "${t.str}" leaves the printable area at (${t.x.toFixed(0)}, ${t.top.toFixed(0)})–(${t.right.toFixed(0)}, ${t.bottom.toFixed(0)})`);
+      const inside =
+        t.x >= L.margin.left - 0.5 &&
+        t.right <= p.width - L.margin.right + 0.5 &&
+        t.top >= L.margin.top - 4 &&
+        (t.bottom <= p.height - L.margin.bottom + 3 || inFooter);
+      if (!inside)
+        out.push(`${n}: "${t.str}" leaves the printable area at (${t.x.toFixed(0)}, ${t.top.toFixed(0)})–(${t.right.toFixed(0)}, ${t.bottom.toFixed(0)})`);
     }
     for (const [a, b] of overlaps(p.items)) out.push(`${n}: "${a.str}" overlaps "${b.str}"`);
     const body = p.items.filter((t) => t.top < footerTop);

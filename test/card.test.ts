@@ -55,7 +55,15 @@ function variants(): { name: string; text: string }[] {
   const clone = () => JSON.parse(JSON.stringify(base)) as Record<string, any>;
   const lap = clone();
   lap.id = "test-lap-36";
-  lap.armature = { ...lap.armature, slots: 36, bars: 72, field: "series", stack_length: "40 mm", rotor_diameter: "60 mm", slot: { area: "40 mm2", opening: "2 mm", liner: "0.2 mm" } };
+  lap.armature = {
+    ...lap.armature,
+    slots: 36,
+    bars: 72,
+    field: "series",
+    stack_length: "40 mm",
+    rotor_diameter: "60 mm",
+    slot: { area: "40 mm2", opening: "2 mm", liner: "0.2 mm" },
+  };
   delete lap.armature.tooth_width;
   delete lap.armature.family;
   lap.winding = { style: "lap", span: 16, coils_per_slot: 2, lead_throw: 3, brushes: { count: 2, width_bars: 2, material: "carbon" } };
@@ -64,7 +72,16 @@ function variants(): { name: string; text: string }[] {
   lap.wire_stock = ["0.40 mm grade 2", "0.45 mm grade 2"];
   const wave = clone();
   wave.id = "test-wave-dead";
-  wave.armature = { ...wave.armature, slots: 22, bars: 21, field_poles: 4, stack_length: "50 mm", rotor_diameter: "70 mm", slot: { area: "60 mm2", opening: "2.5 mm", liner: "0.2 mm" }, magnet: { flux_per_pole: "2 mWb" } };
+  wave.armature = {
+    ...wave.armature,
+    slots: 22,
+    bars: 21,
+    field_poles: 4,
+    stack_length: "50 mm",
+    rotor_diameter: "70 mm",
+    slot: { area: "60 mm2", opening: "2.5 mm", liner: "0.2 mm" },
+    magnet: { flux_per_pole: "2 mWb" },
+  };
   delete wave.armature.tooth_width;
   delete wave.armature.family;
   wave.winding = { style: "wave", span: 5, dead_coil: true, lead_throw: -2, brushes: { count: 2, width_bars: 1, material: "carbon" } };
@@ -110,7 +127,11 @@ describe("renderCard on every demo job and the variants", () => {
       expect(pdf.all).toContain("±");
       expect(pdf.all).toContain("mm²");
       // every coil has its step, in winding order
-      const steps = pdf.pages.filter((p) => /COIL BY COIL/.test(p.text)).map((p) => p.text).join("\n").replace(/\s+/g, " ");
+      const steps = pdf.pages
+        .filter((p) => /COIL BY COIL/.test(p.text))
+        .map((p) => p.text)
+        .join("\n")
+        .replace(/\s+/g, " ");
       expect(steps).not.toBe("");
       if (plan.coils.some((k) => k.dead)) expect(steps).toContain("dead coil: wind, cut and insulate both ends, hook to nothing");
       // footer on every page
@@ -205,9 +226,20 @@ describe("renderCard on every demo job and the variants", () => {
   it("sets out the order of work in its real sequence, with the spool mass; a continuous winding is wound off the spool", async () => {
     const plan = planOf(cases[0].text, cases[0].name);
     const all = (await readPdf(await renderCard(plan, { paper: "a4", ...OPTS }))).all.replace(/\s+/g, " ");
-    const seq = ["1. Wire", "2. Wind", "3. Bench checks before varnish", "4. Varnish and cure", "5. Skim and undercut, then bar to bar again", "6. Balance", "7. The run"];
+    const seq = [
+      "1. Wire",
+      "2. Wind",
+      "3. Bench checks before varnish",
+      "4. Varnish and cure",
+      "5. Skim and undercut, then bar to bar again",
+      "6. Balance",
+      "7. The run",
+    ];
     const at = seq.map((t) => all.indexOf(t));
-    expect(at.every((i) => i >= 0), JSON.stringify(at)).toBe(true);
+    expect(
+      at.every((i) => i >= 0),
+      JSON.stringify(at),
+    ).toBe(true);
     expect([...at].sort((a, b) => a - b)).toEqual(at);
     expect(all).toMatch(/Have at least [\d.]+ g of .* on the spool \(copper [\d.]+ g and its enamel\)/);
     expect(all).not.toMatch(/Wind off the spool: one wire/);

@@ -122,7 +122,13 @@ describe("exit statuses through the real command", () => {
   });
 
   it("3: a card into an impossible folder (/proc) or under a regular file, one line each", () => {
-    for (const out of ["/proc/armwind-cards", join(jobWith((s) => s), "sub")]) {
+    for (const out of [
+      "/proc/armwind-cards",
+      join(
+        jobWith((s) => s),
+        "sub",
+      ),
+    ]) {
       const r = runCliWithin(15_000, ["card", BLIND, "-o", out]);
       expect(r.status).toBe(3);
       // a file that could not be written has no line: `file: message [code]`

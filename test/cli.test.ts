@@ -36,17 +36,48 @@ describe("plan --json (DESIGN.md contract)", () => {
       expect([0, 2]).toContain(r.status);
       const j = JSON.parse(r.stdout);
       expect(j.ok).toBe(true);
-      for (const k of ["job_id", "feasible", "goal", "design", "coils", "paths", "resistance", "wire", "motor", "original_motor", "duty", "candidates", "candidates_total", "warnings"]) expect(j, k).toHaveProperty(k);
+      for (const k of [
+        "job_id",
+        "feasible",
+        "goal",
+        "design",
+        "coils",
+        "paths",
+        "resistance",
+        "wire",
+        "motor",
+        "original_motor",
+        "duty",
+        "candidates",
+        "candidates_total",
+        "warnings",
+      ])
+        expect(j, k).toHaveProperty(k);
       for (const k of ["kind", "unit", "target_value", "achieved_value", "error_fraction"]) expect(j.goal).toHaveProperty(k);
       for (const k of ["turns_per_coil", "strands_in_hand", "copper_fill", "space_fill", "layers"]) expect(j.design).toHaveProperty(k);
       for (const k of ["label", "bare_diameter_mm", "overall_diameter_mm", "source"]) expect(j.design.wire).toHaveProperty(k);
-      for (const k of ["index", "go_slot", "return_slot", "layer", "start_bar", "end_bar", "turns", "direction", "mean_turn_length_mm", "dead"]) expect(j.coils[0]).toHaveProperty(k);
-      for (const k of ["coil_ohm", "bar_to_bar_ohm", "terminal_ohm", "terminal_min_ohm", "terminal_max_ohm", "terminal_hot_ohm"]) expect(j.resistance).toHaveProperty(k);
+      for (const k of ["index", "go_slot", "return_slot", "layer", "start_bar", "end_bar", "turns", "direction", "mean_turn_length_mm", "dead"])
+        expect(j.coils[0]).toHaveProperty(k);
+      for (const k of ["coil_ohm", "bar_to_bar_ohm", "terminal_ohm", "terminal_min_ohm", "terminal_max_ohm", "terminal_hot_ohm"])
+        expect(j.resistance).toHaveProperty(k);
       for (const k of ["mean_turn_length_mm", "per_coil_m", "winding_m", "cut_m", "copper_mass_g"]) expect(j.wire).toHaveProperty(k);
       for (const m of [j.motor, j.original_motor])
-        for (const k of ["ke_v_s_per_rad", "kt_n_m_per_a", "kv_rpm_per_v", "no_load_speed_rpm", "no_load_current_a", "stall_current_a", "stall_torque_n_m", "peak_efficiency", "peak_efficiency_current_a", "max_output_w", "calibration"])
+        for (const k of [
+          "ke_v_s_per_rad",
+          "kt_n_m_per_a",
+          "kv_rpm_per_v",
+          "no_load_speed_rpm",
+          "no_load_current_a",
+          "stall_current_a",
+          "stall_torque_n_m",
+          "peak_efficiency",
+          "peak_efficiency_current_a",
+          "max_output_w",
+          "calibration",
+        ])
           expect(m, k).toHaveProperty(k);
-      for (const k of ["turns_per_coil", "wire", "strands_in_hand", "copper_fill", "terminal_ohm", "kv_rpm_per_v", "meets_goal", "rejected_because"]) expect(j.candidates[0]).toHaveProperty(k);
+      for (const k of ["turns_per_coil", "wire", "strands_in_hand", "copper_fill", "terminal_ohm", "kv_rpm_per_v", "meets_goal", "rejected_because"])
+        expect(j.candidates[0]).toHaveProperty(k);
       expect(Number.isInteger(j.paths)).toBe(true);
       expect(j.coils.length).toBeGreaterThanOrEqual(j.winding.slots);
     });
@@ -98,9 +129,17 @@ describe("card", () => {
 describe("bad input: one located line, exit 1, no stack trace, nothing written", () => {
   const cases: [string, (s: string) => string, RegExp][] = [
     ["malformed YAML", (s) => s.replace("slots: 5", "slots: [5"), /blind\.yaml:\d+:\d+: .*not valid YAML/],
-    ["an unknown key, with the nearest known one", (s) => s.replace("stack_length:", "stak_length:"), /blind\.yaml:\d+:\d+: armature\.stak_length: unknown key "stak_length"; did you mean "stack_length"\?/],
+    [
+      "an unknown key, with the nearest known one",
+      (s) => s.replace("stack_length:", "stak_length:"),
+      /blind\.yaml:\d+:\d+: armature\.stak_length: unknown key "stak_length"; did you mean "stack_length"\?/,
+    ],
     ["a missing field", (s) => s.replace(/  rotor_diameter: .*\n/, ""), /blind\.yaml:\d+:\d+: armature\.rotor_diameter: missing/],
-    ["a value without a sensible unit", (s) => s.replace("stack_length: 12 mm", "stack_length: 12 V"), /armature\.stack_length: unknown unit "V" for a length \("V" is a unit of voltage\)/],
+    [
+      "a value without a sensible unit",
+      (s) => s.replace("stack_length: 12 mm", "stack_length: 12 V"),
+      /armature\.stack_length: unknown unit "V" for a length \("V" is a unit of voltage\)/,
+    ],
     ["a value out of physical range", (s) => s.replace("stack_length: 12 mm", "stack_length: -12 mm"), /armature\.stack_length: must be greater than zero/],
     ["bars that do not suit the slots", (s) => s.replace("bars: 5", "bars: 7"), /blind\.yaml:\d+:\d+: (armature|winding)\.\w+: /],
   ];

@@ -102,7 +102,8 @@ describe("the plan", () => {
     const p = planJob(blind());
     expect(p.feasible).toBe(true);
     expect(Math.abs(p.goal.error_fraction!)).toBeLessThanOrEqual(p.job.target.tolerance.above);
-    for (const c of p.candidates.filter((c) => c.meets_goal && c.turns === p.design.turns)) expect(c.terminal_ohm).toBeGreaterThanOrEqual(p.design.terminal_ohm - 1e-12);
+    for (const c of p.candidates.filter((c) => c.meets_goal && c.turns === p.design.turns))
+      expect(c.terminal_ohm).toBeGreaterThanOrEqual(p.design.terminal_ohm - 1e-12);
     expect(p.design.copper_fill).toBeLessThanOrEqual(p.fill_limit + 1e-12);
   });
   it("cut length is the winding plus two leads a coil, plus the spare margin", () => {

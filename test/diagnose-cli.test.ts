@@ -21,7 +21,6 @@ function fakeIo(cwd = ROOT): Io & { stdout: string[]; stderr: string[] } {
   return { out: (s) => stdout.push(s), err: (s) => stderr.push(s), stdin: () => "", env: {}, cwd, stdout, stderr };
 }
 
-
 async function diagnoseJson(args: string[]) {
   const io = fakeIo();
   const status = await main(["diagnose", ...args, "--json"], io);
@@ -30,23 +29,26 @@ async function diagnoseJson(args: string[]) {
 
 describe("diagnose: the inversion against an independent nodal solution", () => {
   // tooth 5/5, wave 21/21 on 4 poles (two coils between adjacent bars), lap 12 slots / 24 bars
-  it.each(["blind-motor-0031", "chair-wave-0045", "drill-lap-0112", "robot-3slot-0007"])("%s: known coils → readings (test's own solve) → the same coils", async (id) => {
-    const file = join(ROOT, "jobs", `${id}.yaml`);
-    const job = loadJobFile(file);
-    const layout = layoutWinding(windingSpec(job));
-    const plan = planJob(job, {});
-    // each coil its own resistance: the plan's, times 0.97 … 1.03 (within tolerance)
-    const known = plan.coils.map((c, k) => c.ohm * (0.97 + ((k * 7) % 13) * 0.005));
-    const readings = nodalReadings(layout, known);
-    const r = await diagnoseJson([file, "--bars", readings.map((x) => x.toPrecision(15)).join(","), "--no-learn"]);
-    expect(r.status, r.stderr).toBe(0);
-    expect(r.out.ok).toBe(true);
-    r.out.coils.forEach((c: { index: number; resistance_ohm: number; expected_ohm: number }, k: number) => {
-      expect(c.index).toBe(k + 1);
-      expect(c.resistance_ohm / known[k] - 1).toBeCloseTo(0, 8);
-      expect(c.expected_ohm).toBeCloseTo(plan.coils[k].ohm, 12);
-    });
-  });
+  it.each(["blind-motor-0031", "chair-wave-0045", "drill-lap-0112", "robot-3slot-0007"])(
+    "%s: known coils → readings (test's own solve) → the same coils",
+    async (id) => {
+      const file = join(ROOT, "jobs", `${id}.yaml`);
+      const job = loadJobFile(file);
+      const layout = layoutWinding(windingSpec(job));
+      const plan = planJob(job, {});
+      // each coil its own resistance: the plan's, times 0.97 … 1.03 (within tolerance)
+      const known = plan.coils.map((c, k) => c.ohm * (0.97 + ((k * 7) % 13) * 0.005));
+      const readings = nodalReadings(layout, known);
+      const r = await diagnoseJson([file, "--bars", readings.map((x) => x.toPrecision(15)).join(","), "--no-learn"]);
+      expect(r.status, r.stderr).toBe(0);
+      expect(r.out.ok).toBe(true);
+      r.out.coils.forEach((c: { index: number; resistance_ohm: number; expected_ohm: number }, k: number) => {
+        expect(c.index).toBe(k + 1);
+        expect(c.resistance_ohm / known[k] - 1).toBeCloseTo(0, 8);
+        expect(c.expected_ohm).toBeCloseTo(plan.coils[k].ohm, 12);
+      });
+    },
+  );
 
   it("one coil 4 turns short on the lap winding is named with its bars and slots, and exit 4", async () => {
     const file = join(ROOT, "jobs/drill-lap-0112.yaml");
@@ -57,7 +59,16 @@ describe("diagnose: the inversion against an independent nodal solution", () => 
     const known = plan.coils.map((c) => c.ohm);
     known[6] *= (N - 4) / N;
     // read four-wire (a 0.1 mΩ resolution): the spread rule's band is ±5 % plus one count (bench rules)
-    const r = await diagnoseJson([file, "--bars", nodalReadings(layout, known).map((x) => x.toPrecision(15)).join(","), "--resolution", "0.0001 ohm", "--no-learn"]);
+    const r = await diagnoseJson([
+      file,
+      "--bars",
+      nodalReadings(layout, known)
+        .map((x) => x.toPrecision(15))
+        .join(","),
+      "--resolution",
+      "0.0001 ohm",
+      "--no-learn",
+    ]);
     expect(r.status).toBe(4);
     expect(r.out.ok).toBe(false);
     expect(r.out.coils[6].verdict).toBe("low");
@@ -101,7 +112,10 @@ describe("diagnose: inputs and the contract", () => {
     const r = await diagnoseJson([BLIND, "--measured", join(ROOT, "jobs/measured/blind-motor-0031-coil3-short.yaml"), "--no-learn"]);
     expect(r.status).toBe(4);
     expect(Object.keys(r.out)).toEqual(expect.arrayContaining(["ok", "coils", "suspects"]));
-    for (const c of r.out.coils) expect(Object.keys(c)).toEqual(expect.arrayContaining(["index", "start_bar", "end_bar", "resistance_ohm", "expected_ohm", "deviation_fraction", "verdict"]));
+    for (const c of r.out.coils)
+      expect(Object.keys(c)).toEqual(
+        expect.arrayContaining(["index", "start_bar", "end_bar", "resistance_ohm", "expected_ohm", "deviation_fraction", "verdict"]),
+      );
     const bad = r.out.coils.filter((c: { verdict: string }) => c.verdict !== "ok");
     expect(bad.map((c: { index: number }) => c.index)).toEqual([3]);
     expect([bad[0].start_bar, bad[0].end_bar]).toEqual([3, 4]);
@@ -124,7 +138,10 @@ describe("diagnose: inputs and the contract", () => {
     const N = plan.design.turns - 4;
     const f = join(dir, "m.yaml");
     // readings of a winding of N turns, made by scaling with its R/(N·MLT)… simply: the diagnosis expects fewer ohms
-    writeFileSync(f, `version: 1\njob: blind-motor-0031\ndate: 2026-12-09\nwound: { turns: ${N} }\ntemperature: 20 C\nbar_to_bar: [${plan.resistance.bar_to_bar.join(", ")}]\n`);
+    writeFileSync(
+      f,
+      `version: 1\njob: blind-motor-0031\ndate: 2026-12-09\nwound: { turns: ${N} }\ntemperature: 20 C\nbar_to_bar: [${plan.resistance.bar_to_bar.join(", ")}]\n`,
+    );
     const r = await diagnoseJson([BLIND, "--measured", f, "--no-learn"]);
     expect(r.out.turns_per_coil).toBe(N);
     for (const c of r.out.coils) expect(c.expected_ohm).toBeLessThan(plan.coils[0].ohm * (N / plan.design.turns) + 1e-12);

@@ -7,8 +7,6 @@ import type { WindingLayout } from "../src/winding/types.js";
 import { spec } from "./helpers/winding.js";
 import { nodalReadings } from "./helpers/nodal.js";
 
-
-
 const layouts: [string, WindingLayout][] = [
   ["tooth 3", layoutWinding(spec({ style: "tooth", slots: 3, bars: 3, span: 1 }))],
   ["tooth 7", layoutWinding(spec({ style: "tooth", slots: 7, bars: 7, span: 1 }))],
@@ -35,16 +33,22 @@ describe("inversion: readings from known coils give the coils back", () => {
       // rings take any spread (one coil above half the ring takes the upper root); a wave's chains are
       // solved on the lower root, which holds while no chain of p coils has half the ring's
       // resistance: a 4× spread keeps that true for these C and p
-      fc.property(fc.array(l.spec.style === "wave" ? fc.double({ min: 0.5, max: 2, noNaN: true }) : fc.double({ min: 0.2, max: 5, noNaN: true }), { minLength: l.coils.length, maxLength: l.coils.length }), (R) => {
-        const r = nodalReadings(l, R);
-        const s = solveCoils(l, r);
-        l.coils.forEach((c, i) => {
-          if (c.dead) expect(Number.isNaN(s.coil_ohm[i])).toBe(true);
-          else expect(Math.abs(s.coil_ohm[i] - R[i])).toBeLessThan(1e-7 * Math.max(1, R[i]));
-        });
-        expect(s.residual_fraction).toBeLessThan(1e-9);
-        expect(s.open_coils).toEqual([]);
-      }),
+      fc.property(
+        fc.array(l.spec.style === "wave" ? fc.double({ min: 0.5, max: 2, noNaN: true }) : fc.double({ min: 0.2, max: 5, noNaN: true }), {
+          minLength: l.coils.length,
+          maxLength: l.coils.length,
+        }),
+        (R) => {
+          const r = nodalReadings(l, R);
+          const s = solveCoils(l, r);
+          l.coils.forEach((c, i) => {
+            if (c.dead) expect(Number.isNaN(s.coil_ohm[i])).toBe(true);
+            else expect(Math.abs(s.coil_ohm[i] - R[i])).toBeLessThan(1e-7 * Math.max(1, R[i]));
+          });
+          expect(s.residual_fraction).toBeLessThan(1e-9);
+          expect(s.open_coils).toEqual([]);
+        },
+      ),
       { numRuns: 30, seed: 11 },
     );
   });
@@ -68,11 +72,17 @@ describe("inversion: readings from known coils give the coils back", () => {
       R[2] = 1e12; // open (as good as): the ring fits only with coil 3 open
       const s = solveCoils(l, nodalReadings(l, R));
       expect(s.open_coils).toEqual([3]);
-      const r = nodalReadings(l, l.coils.map(() => 1));
+      const r = nodalReadings(
+        l,
+        l.coils.map(() => 1),
+      );
       r[1] = Infinity;
       r[r.length - 1] = Infinity;
       expect(() => solveCoils(l, r)).not.toThrow();
-      const z = nodalReadings(l, l.coils.map(() => 1));
+      const z = nodalReadings(
+        l,
+        l.coils.map(() => 1),
+      );
       z[0] = 0;
       expect(() => solveCoils(l, z)).not.toThrow();
     }
@@ -170,7 +180,15 @@ describe("diagnosis", () => {
   it("a good winding passes and says where its tolerance comes from", () => {
     const l = layouts[5][1];
     const E = new Array(15).fill(1);
-    const d = diagnose(l, nodalReadings(l, E.map((x, i) => x * (1 + 0.01 * Math.sin(i)))), E, 20);
+    const d = diagnose(
+      l,
+      nodalReadings(
+        l,
+        E.map((x, i) => x * (1 + 0.01 * Math.sin(i))),
+      ),
+      E,
+      20,
+    );
     expect(d.ok).toBe(true);
     expect(d.tolerance).toBe(DEFAULT_TOLERANCE);
     expect(d.tolerance_source).toMatch(/common practice/);

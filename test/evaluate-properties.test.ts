@@ -106,52 +106,59 @@ describe("the sweep's figures are the full evaluation's (property)", () => {
     let checked = 0;
     let unequal = 0;
     fc.assert(
-      fc.property(arbArm, fc.array(fc.tuple(fc.integer({ min: 1, max: 150 }), fc.integer({ min: 0, max: stock.length - 1 }), fc.integer({ min: 1, max: 3 })), { minLength: 1, maxLength: 6 }), (a, picks) => {
-        const text = jobText(a);
-        if (text === null) return;
-        let ctx: ArmatureContext;
-        let cal: Calibration;
-        try {
-          ctx = buildContext(loadJobText(text));
-          cal = calibrateOriginal(ctx).calibration;
-        } catch (e) {
-          if (e instanceof ArmwindError) return; // an armature the loader or the geometry refuses: not this property's concern
-          throw e;
-        }
-        const ev = makeEvaluator(ctx, cal);
-        const mlts = ctx.layout.coils.filter((c) => !c.dead).map((c) => c.rides_over);
-        const equalCoils = ctx.layout.spec.style === "tooth" || mlts.every((r) => r === mlts[0]);
-        for (const [turns, wi, strands] of picks) {
-          const w = { turns, wire: stock[wi], strands };
-          // more copper than a slot can hold is never swept (src/design/sweep.ts stops at the fill limit + 15 %)
-          if ((ctx.sides * turns * strands * w.wire.area) / ctx.slot.free_area > 0.6) continue;
-          const cheap = ev.evaluate(turns, w.wire, strands);
-          const full = ev.full(w);
-          checked++;
-          const same = (x: number | null, y: number | null, tol = 1e-9) => {
-            if (x === null || y === null) return expect(x).toBe(y);
-            expect(Math.abs(x - y)).toBeLessThanOrEqual(tol * Math.max(Math.abs(x), Math.abs(y), 1e-300));
-          };
-          same(cheap.copper_fill, full.copper_fill);
-          same(cheap.space_fill, full.space_fill);
-          expect(cheap.build).toEqual(full.build);
-          same(cheap.mlt, full.mlt);
-          same(cheap.coil_ohm, full.coil_ohm);
-          same(cheap.copper_mass, full.copper_mass);
-          same(cheap.ke, full.ke);
-          same(cheap.terminal_ohm, full.terminal_ohm);
-          same(cheap.terminal_hot_ohm, full.terminal_hot_ohm);
-          same(cheap.achieved, full.achieved);
-          same(cheap.error, full.error, 1e-6);
-          same(cheap.stall_current_hot, full.stall_current_hot);
-          same(cheap.stall_current_cold, full.stall_current_cold);
-          same(cheap.current_density, full.current_density);
-          same(cheap.duty_input_w, full.duty_input_w);
-          expect(cheap.rejected_because).toEqual(full.rejected_because);
-          expect(cheap.meets_goal).toBe(full.meets_goal);
-          if (!equalCoils) unequal++;
-        }
-      }),
+      fc.property(
+        arbArm,
+        fc.array(fc.tuple(fc.integer({ min: 1, max: 150 }), fc.integer({ min: 0, max: stock.length - 1 }), fc.integer({ min: 1, max: 3 })), {
+          minLength: 1,
+          maxLength: 6,
+        }),
+        (a, picks) => {
+          const text = jobText(a);
+          if (text === null) return;
+          let ctx: ArmatureContext;
+          let cal: Calibration;
+          try {
+            ctx = buildContext(loadJobText(text));
+            cal = calibrateOriginal(ctx).calibration;
+          } catch (e) {
+            if (e instanceof ArmwindError) return; // an armature the loader or the geometry refuses: not this property's concern
+            throw e;
+          }
+          const ev = makeEvaluator(ctx, cal);
+          const mlts = ctx.layout.coils.filter((c) => !c.dead).map((c) => c.rides_over);
+          const equalCoils = ctx.layout.spec.style === "tooth" || mlts.every((r) => r === mlts[0]);
+          for (const [turns, wi, strands] of picks) {
+            const w = { turns, wire: stock[wi], strands };
+            // more copper than a slot can hold is never swept (src/design/sweep.ts stops at the fill limit + 15 %)
+            if ((ctx.sides * turns * strands * w.wire.area) / ctx.slot.free_area > 0.6) continue;
+            const cheap = ev.evaluate(turns, w.wire, strands);
+            const full = ev.full(w);
+            checked++;
+            const same = (x: number | null, y: number | null, tol = 1e-9) => {
+              if (x === null || y === null) return expect(x).toBe(y);
+              expect(Math.abs(x - y)).toBeLessThanOrEqual(tol * Math.max(Math.abs(x), Math.abs(y), 1e-300));
+            };
+            same(cheap.copper_fill, full.copper_fill);
+            same(cheap.space_fill, full.space_fill);
+            expect(cheap.build).toEqual(full.build);
+            same(cheap.mlt, full.mlt);
+            same(cheap.coil_ohm, full.coil_ohm);
+            same(cheap.copper_mass, full.copper_mass);
+            same(cheap.ke, full.ke);
+            same(cheap.terminal_ohm, full.terminal_ohm);
+            same(cheap.terminal_hot_ohm, full.terminal_hot_ohm);
+            same(cheap.achieved, full.achieved);
+            same(cheap.error, full.error, 1e-6);
+            same(cheap.stall_current_hot, full.stall_current_hot);
+            same(cheap.stall_current_cold, full.stall_current_cold);
+            same(cheap.current_density, full.current_density);
+            same(cheap.duty_input_w, full.duty_input_w);
+            expect(cheap.rejected_because).toEqual(full.rejected_because);
+            expect(cheap.meets_goal).toBe(full.meets_goal);
+            if (!equalCoils) unequal++;
+          }
+        },
+      ),
       { numRuns: 150 },
     );
     expect(checked).toBeGreaterThan(150);

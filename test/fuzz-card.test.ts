@@ -24,11 +24,20 @@ const SEEDS = [
 
 type Job = Record<string, Record<string, unknown>> & { id: string };
 
-
 const text = fc.oneof(
   fc.string({ maxLength: 40 }),
   fc.string({ unit: "binary", maxLength: 30 }),
-  fc.constantFrom("Ω ± ° ² µ", "Motor für Rollläden", "電動機の巻き直し", "محرك كهربائي", "🔧⚡🌀", "a".repeat(400), "line\nbreak", "tab\there", "\u200b\u202e reversed"),
+  fc.constantFrom(
+    "Ω ± ° ² µ",
+    "Motor für Rollläden",
+    "電動機の巻き直し",
+    "محرك كهربائي",
+    "🔧⚡🌀",
+    "a".repeat(400),
+    "line\nbreak",
+    "tab\there",
+    "\u200b\u202e reversed",
+  ),
 );
 const variant = fc.record({
   seed: fc.nat(SEEDS.length - 1),
@@ -39,7 +48,14 @@ const variant = fc.record({
   turnsScale: fc.constantFrom(0.02, 0.3, 1, 3, 30),
   stack: fc.constantFrom(undefined, "0.5 mm", "2 mm", "150 mm", "0.9 m"),
   supply: fc.constantFrom(undefined, "1.5 V", "6 V", "48 V", "230 V", "999 V"),
-  stock: fc.constantFrom(undefined, ["0.05 mm grade 1"], ["2 mm grade 2"], ["40 AWG heavy", "20 AWG heavy"], ["36 SWG"], [{ bare: "0.3 mm", overall: "0.34 mm" }]),
+  stock: fc.constantFrom(
+    undefined,
+    ["0.05 mm grade 1"],
+    ["2 mm grade 2"],
+    ["40 AWG heavy", "20 AWG heavy"],
+    ["36 SWG"],
+    [{ bare: "0.3 mm", overall: "0.34 mm" }],
+  ),
   inHand: fc.integer({ min: 1, max: 8 }),
   leadThrow: fc.integer({ min: -40, max: 40 }),
   paper: fc.constantFrom("a4" as const, "letter" as const),
@@ -67,19 +83,19 @@ describe("jobs with unusual values through plan and card", () => {
   // 200 cards in pieces of 20 (test/helpers/chunks.ts), each piece its own seed
   let drawn = 0;
   for (const c of chunks(200, 10)) {
-  it(`cards ${c.part}/${c.parts} (${c.runs}): every job that plans is drawn, nothing throws`, async () => {
-    await fc.assert(
-      fc.asyncProperty(variant, async (v) => {
-        const r = runJobText(build(v));
-        if (r.kind !== "planned") return;
-        const plan: Plan = r.plan;
-        const pdf = await renderCard(plan, { paper: v.paper, date: "2026-12-01", version: "test" });
-        expect(pdf.subarray(0, 5).toString("latin1")).toBe("%PDF-");
-        drawn++;
-      }),
-      { numRuns: c.runs, seed: c.seed },
-    );
-  });
+    it(`cards ${c.part}/${c.parts} (${c.runs}): every job that plans is drawn, nothing throws`, async () => {
+      await fc.assert(
+        fc.asyncProperty(variant, async (v) => {
+          const r = runJobText(build(v));
+          if (r.kind !== "planned") return;
+          const plan: Plan = r.plan;
+          const pdf = await renderCard(plan, { paper: v.paper, date: "2026-12-01", version: "test" });
+          expect(pdf.subarray(0, 5).toString("latin1")).toBe("%PDF-");
+          drawn++;
+        }),
+        { numRuns: c.runs, seed: c.seed },
+      );
+    });
   }
   it("of the 200 variants, at least 60 were drawn", () => {
     // about half the variants plan (the others are refused, which the job fuzz covers); at least 60 must be drawn

@@ -36,7 +36,8 @@ function slots(x: unknown, out: Slot[] = []): Slot[] {
       out.push({ parent: x, key: i });
       slots(v, out);
     }
-  else if (x !== null && typeof x === "object") for (const [k, v] of Object.entries(x)) out.push({ parent: x as Record<string, unknown>, key: k }), slots(v, out);
+  else if (x !== null && typeof x === "object")
+    for (const [k, v] of Object.entries(x)) out.push({ parent: x as Record<string, unknown>, key: k }), slots(v, out);
   return out;
 }
 
@@ -44,7 +45,30 @@ const get = (s: Slot) => (s.parent as Record<string | number, unknown>)[s.key];
 const set = (s: Slot, v: unknown) => ((s.parent as Record<string | number, unknown>)[s.key] = v);
 
 const weird = fc.oneof(
-  fc.constantFrom<unknown>(null, true, false, "", " ", [], {}, "12", "-5 mm", "1e999 mm", ".5", "nan", ".inf", "Infinity", "0x10", "12 mm mm", "~", "yes", "1,5 mm", "½ mm", "5 slots", "grade 2"),
+  fc.constantFrom<unknown>(
+    null,
+    true,
+    false,
+    "",
+    " ",
+    [],
+    {},
+    "12",
+    "-5 mm",
+    "1e999 mm",
+    ".5",
+    "nan",
+    ".inf",
+    "Infinity",
+    "0x10",
+    "12 mm mm",
+    "~",
+    "yes",
+    "1,5 mm",
+    "½ mm",
+    "5 slots",
+    "grade 2",
+  ),
   fc.double(),
   fc.integer(),
   fc.string({ maxLength: 12 }),
@@ -56,7 +80,37 @@ const number = fc.oneof(
   fc.double({ noNaN: false }),
   fc.integer({ min: -1000, max: 100000 }),
 );
-const UNITS = ["furlongs", "V", "mm", "rpm", "A/mm2", "", "%", "ohm", "K", "F", "mm2", "Hz", "kg", "°", "µm", "N m", "in", "AWG", "SWG", "grade 9", "mWb", "T", "rpm/V", "A", "mA", "m", "g", "cmil/A", "mm mm"];
+const UNITS = [
+  "furlongs",
+  "V",
+  "mm",
+  "rpm",
+  "A/mm2",
+  "",
+  "%",
+  "ohm",
+  "K",
+  "F",
+  "mm2",
+  "Hz",
+  "kg",
+  "°",
+  "µm",
+  "N m",
+  "in",
+  "AWG",
+  "SWG",
+  "grade 9",
+  "mWb",
+  "T",
+  "rpm/V",
+  "A",
+  "mA",
+  "m",
+  "g",
+  "cmil/A",
+  "mm mm",
+];
 
 type Mutation =
   | { op: "drop"; at: number }
@@ -69,11 +123,22 @@ type Mutation =
 
 const mutation: fc.Arbitrary<Mutation> = fc.oneof(
   fc.record({ op: fc.constant("drop" as const), at: fc.nat() }),
-  fc.record({ op: fc.constant("typo" as const), at: fc.nat(), pos: fc.nat(), ch: fc.constantFrom(..."abcdefghijklmnopqrstuvwxyz_-. 0"), how: fc.constantFrom("insert" as const, "delete" as const, "replace" as const, "swap" as const) }),
+  fc.record({
+    op: fc.constant("typo" as const),
+    at: fc.nat(),
+    pos: fc.nat(),
+    ch: fc.constantFrom(..."abcdefghijklmnopqrstuvwxyz_-. 0"),
+    how: fc.constantFrom("insert" as const, "delete" as const, "replace" as const, "swap" as const),
+  }),
   fc.record({ op: fc.constant("type" as const), at: fc.nat(), value: weird }),
   fc.record({ op: fc.constant("unit" as const), at: fc.nat(), unit: fc.constantFrom(...UNITS) }),
   fc.record({ op: fc.constant("number" as const), at: fc.nat(), value: number, keepUnit: fc.boolean() }),
-  fc.record({ op: fc.constant("add" as const), at: fc.nat(), key: fc.oneof(fc.string({ maxLength: 10 }), fc.constantFrom("span", "kv", "duty", "magnet", "tests", "dead_coil", "$schema", "__proto__", "constructor")), value: weird }),
+  fc.record({
+    op: fc.constant("add" as const),
+    at: fc.nat(),
+    key: fc.oneof(fc.string({ maxLength: 10 }), fc.constantFrom("span", "kv", "duty", "magnet", "tests", "dead_coil", "$schema", "__proto__", "constructor")),
+    value: weird,
+  }),
   fc.record({ op: fc.constant("repeat" as const), at: fc.nat() }),
 );
 

@@ -35,7 +35,10 @@ const mutation = fc.oneof(
   fc.record({ op: fc.constant("drop" as const), rec: fc.nat(), leaf: fc.nat() }),
   fc.record({ op: fc.constant("cut" as const), rec: fc.nat(), at: fc.double({ min: 0, max: 1, noNaN: true }) }),
   fc.record({ op: fc.constant("junk" as const), rec: fc.nat(), bytes: fc.uint8Array({ maxLength: 64 }) }),
-  fc.record({ op: fc.constantFrom("fifo" as const, "zero" as const, "dir" as const, "dangling" as const, "linkdir" as const, "huge" as const, "tmp" as const), n: fc.nat({ max: 50 }) }),
+  fc.record({
+    op: fc.constantFrom("fifo" as const, "zero" as const, "dir" as const, "dangling" as const, "linkdir" as const, "huge" as const, "tmp" as const),
+    n: fc.nat({ max: 50 }),
+  }),
   fc.record({ op: fc.constant("rename" as const), rec: fc.nat() }),
 );
 type Mutation = typeof mutation extends fc.Arbitrary<infer T> ? T : never;
@@ -148,7 +151,13 @@ describe("fuzzed logbook folders, read as history and a learning plan read them"
 
 /** The real command with a time limit on the child. */
 function run(args: string[], cwd: string) {
-  const r = spawnSync(process.execPath, [CLI, ...args], { cwd, encoding: "utf8", timeout: 30_000, killSignal: "SIGKILL", env: { ...process.env, NO_COLOR: "1", ARMWIND_LOGBOOK: "", ARMWIND_SHOP: "" } });
+  const r = spawnSync(process.execPath, [CLI, ...args], {
+    cwd,
+    encoding: "utf8",
+    timeout: 30_000,
+    killSignal: "SIGKILL",
+    env: { ...process.env, NO_COLOR: "1", ARMWIND_LOGBOOK: "", ARMWIND_SHOP: "" },
+  });
   if (r.error) throw new Error(`armwind ${args.join(" ")} in ${cwd}: ${r.error.message} (a hang)`);
   return { status: r.status ?? -1, stdout: r.stdout, stderr: r.stderr };
 }

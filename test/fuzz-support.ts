@@ -64,7 +64,8 @@ export function checkPrintedError(e: unknown, text: string): void {
   const out: string[] = [];
   const err: string[] = [];
   reportError({ out: (x) => out.push(x), err: (x) => err.push(x), stdin: () => "", env: {}, cwd: "." }, e, true);
-  if (err.length !== e.problems.length || err.some((l) => /[\r\n]/.test(l) || l.includes("    at "))) throw new Error(`not one line per problem: ${JSON.stringify(err)}`);
+  if (err.length !== e.problems.length || err.some((l) => /[\r\n]/.test(l) || l.includes("    at ")))
+    throw new Error(`not one line per problem: ${JSON.stringify(err)}`);
   const json = JSON.parse(out.join("")) as { ok: boolean; errors: Problem[] };
   if (json.ok !== false) throw new Error("ok is not false");
   checkProblems(json.errors, text, "plan");

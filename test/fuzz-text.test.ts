@@ -25,7 +25,15 @@ const RAW = [
   ...["tooth", "lap", "wave"].map((s) => join(ROOT, "templates", `${s}.yaml`)),
 ].map((f) => readFileSync(f, "utf8"));
 // the same files without their comment lines: quicker to parse, and every edit lands on data
-const SEEDS = [...RAW, ...RAW.map((t) => t.split("\n").filter((l) => !/^\s*#/.test(l)).join("\n"))];
+const SEEDS = [
+  ...RAW,
+  ...RAW.map((t) =>
+    t
+      .split("\n")
+      .filter((l) => !/^\s*#/.test(l))
+      .join("\n"),
+  ),
+];
 
 type Edit =
   | { op: "delete" | "repeat" | "tab"; line: number }
@@ -37,15 +45,68 @@ type Edit =
   | { op: "cut"; at: number }
   | { op: "revalue"; line: number; value: string };
 
-const PUNCT = [":", "{", "}", "[", "]", "-", "#", "&a", "*a", "!", "!!str", "|", ">", "'", '"', "%", "@", "`", "\t", "? ", ",", "<<: *a", "\\", "\u0000", "\ufeff", "\u2028"];
-const VALUES = ["", "~", "[]", "{}", "-1", "0", "1e400", ".nan", "12 furlongs", "true", "{ a: 1 }", "[1, 2", "&x 5", "*x", "!!binary AAAA", "'unterminated", "12 mm # c", "0x1F", "2026-12-01", "- 1\n- 2", "|\n  text"];
+const PUNCT = [
+  ":",
+  "{",
+  "}",
+  "[",
+  "]",
+  "-",
+  "#",
+  "&a",
+  "*a",
+  "!",
+  "!!str",
+  "|",
+  ">",
+  "'",
+  '"',
+  "%",
+  "@",
+  "`",
+  "\t",
+  "? ",
+  ",",
+  "<<: *a",
+  "\\",
+  "\u0000",
+  "\ufeff",
+  "\u2028",
+];
+const VALUES = [
+  "",
+  "~",
+  "[]",
+  "{}",
+  "-1",
+  "0",
+  "1e400",
+  ".nan",
+  "12 furlongs",
+  "true",
+  "{ a: 1 }",
+  "[1, 2",
+  "&x 5",
+  "*x",
+  "!!binary AAAA",
+  "'unterminated",
+  "12 mm # c",
+  "0x1F",
+  "2026-12-01",
+  "- 1\n- 2",
+  "|\n  text",
+];
 
 const edit: fc.Arbitrary<Edit> = fc.oneof(
   fc.record({ op: fc.constantFrom("delete" as const, "repeat" as const, "tab" as const), line: fc.nat() }),
   fc.record({ op: fc.constant("indent" as const), line: fc.nat(), by: fc.integer({ min: -4, max: 4 }) }),
   fc.record({ op: fc.constant("swap" as const), line: fc.nat(), other: fc.nat() }),
   fc.record({ op: fc.constant("join" as const), line: fc.nat() }),
-  fc.record({ op: fc.constant("insert" as const), at: fc.nat(), text: fc.oneof(fc.string({ maxLength: 8 }), fc.string({ unit: "binary", maxLength: 6 }), fc.constantFrom(...VALUES)) }),
+  fc.record({
+    op: fc.constant("insert" as const),
+    at: fc.nat(),
+    text: fc.oneof(fc.string({ maxLength: 8 }), fc.string({ unit: "binary", maxLength: 6 }), fc.constantFrom(...VALUES)),
+  }),
   fc.record({ op: fc.constant("punct" as const), at: fc.nat(), ch: fc.constantFrom(...PUNCT) }),
   fc.record({ op: fc.constant("cut" as const), at: fc.nat() }),
   fc.record({ op: fc.constant("revalue" as const), line: fc.nat(), value: fc.oneof(fc.constantFrom(...VALUES), fc.string({ maxLength: 10 })) }),
@@ -128,8 +189,25 @@ describe("damaged job texts through load and plan", () => {
         }
       }),
       fc.string({ unit: "binary", maxLength: 60 }),
-      fc.dictionary(fc.constantFrom("version", "id", "title", "armature", "winding", "original", "target", "wire_stock", "max_in_hand"), fc.jsonValue({ maxDepth: 2 })).map((x) => stringify(x)),
-      fc.constantFrom("", "\n", "---\n---\n", "a: &a [*a]\n", "- 1\n- 2\n", "42\n", "null\n", "%YAML 1.2\n---\n", "? [a]\n: b\n", "a: 1\na: 2\n", "\ufeffversion: 1\n"),
+      fc
+        .dictionary(
+          fc.constantFrom("version", "id", "title", "armature", "winding", "original", "target", "wire_stock", "max_in_hand"),
+          fc.jsonValue({ maxDepth: 2 }),
+        )
+        .map((x) => stringify(x)),
+      fc.constantFrom(
+        "",
+        "\n",
+        "---\n---\n",
+        "a: &a [*a]\n",
+        "- 1\n- 2\n",
+        "42\n",
+        "null\n",
+        "%YAML 1.2\n---\n",
+        "? [a]\n: b\n",
+        "a: 1\na: 2\n",
+        "\ufeffversion: 1\n",
+      ),
     );
     fc.assert(
       fc.property(doc, (text) => {
@@ -140,7 +218,13 @@ describe("damaged job texts through load and plan", () => {
   });
 
   it("many aliases (a 'billion laughs' file) are refused, not expanded", () => {
-    const text = ["a: &a [x, x, x, x, x, x, x, x, x, x]", "b: &b [*a, *a, *a, *a, *a, *a, *a, *a, *a, *a]", "c: &c [*b, *b, *b, *b, *b, *b, *b, *b, *b, *b]", "d: [*c, *c, *c, *c, *c, *c, *c, *c, *c, *c]", ""].join("\n");
+    const text = [
+      "a: &a [x, x, x, x, x, x, x, x, x, x]",
+      "b: &b [*a, *a, *a, *a, *a, *a, *a, *a, *a, *a]",
+      "c: &c [*b, *b, *b, *b, *b, *b, *b, *b, *b, *b]",
+      "d: [*c, *c, *c, *c, *c, *c, *c, *c, *c, *c]",
+      "",
+    ].join("\n");
     expect(runJobText(text).kind).toBe("load_error");
   });
 });
@@ -181,34 +265,38 @@ describe("measured files through load and the job check", () => {
   // 3000 in six pieces (test/helpers/chunks.ts), each its own seed
   const seen = { ok: 0, load_error: 0, check_error: 0 };
   for (const c of chunks(3000, 6)) {
-  it(`text edits and data mutations ${c.part}/${c.parts} (${c.runs}): located one-line problems, never another exception`, () => {
-    const seed = parse(MEASURED) as Record<string, unknown>;
-    const keys = Object.keys(seed);
-    const dataEdit = fc.record({
-      key: fc.constantFrom(...keys),
-      how: fc.constantFrom("drop", "rename", "value", "readings"),
-      value: fc.oneof(fc.constantFrom<unknown>(null, "", -1, 0, 1e308, "1 V", "12 furlongs", [], {}, "2026-02-30", "yesterday", [1, "x", -2]), fc.double(), fc.string({ maxLength: 8 })),
-      n: fc.nat(12),
-    });
-    fc.assert(
-      fc.property(fc.boolean(), fc.array(edit, { minLength: 1, maxLength: 3 }), fc.array(dataEdit, { minLength: 1, maxLength: 3 }), (asText, edits, data) => {
-        let text: string;
-        if (asText) text = edits.reduce(applyEdit, MEASURED);
-        else {
-          const d = structuredClone(seed);
-          for (const e of data) {
-            if (e.how === "drop") delete d[e.key];
-            else if (e.how === "rename") (d[e.key + "s"] = d[e.key]), delete d[e.key];
-            else if (e.how === "value") d[e.key] = e.value;
-            else d.bar_to_bar = Array.from({ length: e.n }, (_, i) => (i % 3 === 0 ? e.value : 1.05));
+    it(`text edits and data mutations ${c.part}/${c.parts} (${c.runs}): located one-line problems, never another exception`, () => {
+      const seed = parse(MEASURED) as Record<string, unknown>;
+      const keys = Object.keys(seed);
+      const dataEdit = fc.record({
+        key: fc.constantFrom(...keys),
+        how: fc.constantFrom("drop", "rename", "value", "readings"),
+        value: fc.oneof(
+          fc.constantFrom<unknown>(null, "", -1, 0, 1e308, "1 V", "12 furlongs", [], {}, "2026-02-30", "yesterday", [1, "x", -2]),
+          fc.double(),
+          fc.string({ maxLength: 8 }),
+        ),
+        n: fc.nat(12),
+      });
+      fc.assert(
+        fc.property(fc.boolean(), fc.array(edit, { minLength: 1, maxLength: 3 }), fc.array(dataEdit, { minLength: 1, maxLength: 3 }), (asText, edits, data) => {
+          let text: string;
+          if (asText) text = edits.reduce(applyEdit, MEASURED);
+          else {
+            const d = structuredClone(seed);
+            for (const e of data) {
+              if (e.how === "drop") delete d[e.key];
+              else if (e.how === "rename") (d[e.key + "s"] = d[e.key]), delete d[e.key];
+              else if (e.how === "value") d[e.key] = e.value;
+              else d.bar_to_bar = Array.from({ length: e.n }, (_, i) => (i % 3 === 0 ? e.value : 1.05));
+            }
+            text = stringify(d);
           }
-          text = stringify(d);
-        }
-        seen[run(text)]++;
-      }),
-      { numRuns: c.runs, seed: c.seed },
-    );
-  });
+          seen[run(text)]++;
+        }),
+        { numRuns: c.runs, seed: c.seed },
+      );
+    });
   }
   it("the 3000 measured-file edits reached both kinds of problem", () => {
     expect(seen.load_error).toBeGreaterThan(500);

@@ -26,7 +26,9 @@ function log(dir: string, env: Record<string, string> = {}) {
   });
   let stderr = "";
   child.stderr.on("data", (d) => (stderr += d));
-  const done = new Promise<{ code: number | null; signal: NodeJS.Signals | null; stderr: string }>((resolve) => child.on("close", (code, signal) => resolve({ code, signal, stderr })));
+  const done = new Promise<{ code: number | null; signal: NodeJS.Signals | null; stderr: string }>((resolve) =>
+    child.on("close", (code, signal) => resolve({ code, signal, stderr })),
+  );
   return { child, done };
 }
 

@@ -33,7 +33,11 @@ describe("records that are not what they say", () => {
     const book = bookWith({ "robot-3slot-0007-2026-12-01-1.yaml": BLIND_RECORD });
     expect(book.records).toEqual([]);
     expect(book.warnings).toEqual([
-      expect.objectContaining({ code: "record_mismatch", file: "robot-3slot-0007-2026-12-01-1.yaml", message: expect.stringMatching(/of job "blind-motor-0031" of 2026-12-01, not what its name says/) }),
+      expect.objectContaining({
+        code: "record_mismatch",
+        file: "robot-3slot-0007-2026-12-01-1.yaml",
+        message: expect.stringMatching(/of job "blind-motor-0031" of 2026-12-01, not what its name says/),
+      }),
     ]);
   });
 
@@ -150,7 +154,10 @@ describe("the card's wrapping of long unbroken words: linear in the text", () =>
     const job = loadJobFile(join(ROOT, "jobs", "blind-motor-0031.yaml"));
     const measured = async (customer: string | undefined) => {
       let chars = 0;
-      const spy = vi.spyOn(PDFDocument.prototype, "widthOfString").mockImplementation(function (this: PDFDocument, ...args: Parameters<PDFDocument["widthOfString"]>) {
+      const spy = vi.spyOn(PDFDocument.prototype, "widthOfString").mockImplementation(function (
+        this: PDFDocument,
+        ...args: Parameters<PDFDocument["widthOfString"]>
+      ) {
         chars += args[0].length;
         return spy.getMockImplementation() ? original.apply(this, args) : 0;
       });

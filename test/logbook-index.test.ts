@@ -24,7 +24,8 @@ function logbook(extra = 0): string {
   return dir;
 }
 
-const familyOf = (dir: string, name: string) => (JSON.parse(readFileSync(join(dir, name), "utf8").replace(/^#.*\n/gm, "")) as { job: { family: string | null } }).job.family;
+const familyOf = (dir: string, name: string) =>
+  (JSON.parse(readFileSync(join(dir, name), "utf8").replace(/^#.*\n/gm, "")) as { job: { family: string | null } }).job.family;
 
 describe("records of one family", () => {
   it("gives the same records as reading everything and filtering, before and after the index exists", () => {
@@ -95,7 +96,11 @@ describe("history refreshes the index", () => {
     // same listing: the share still holds (the edit is not seen) …
     expect(recordsOfFamily(dir, "blind-5slot", cache).records).toHaveLength(1);
     // … until a whole read rewrites the index
-    refreshIndex(dir, readLogbook(dir).records.map((r) => [r.file, r.record.job.family] as [string, string | null]), cache);
+    refreshIndex(
+      dir,
+      readLogbook(dir).records.map((r) => [r.file, r.record.job.family] as [string, string | null]),
+      cache,
+    );
     expect(recordsOfFamily(dir, "blind-5slot", cache).records.map((r) => r.file)).toContain(other);
   });
 });

@@ -117,7 +117,9 @@ describe("comparison", () => {
     expect(p.differs).toBe(false);
     expect(p.terminal.single).toBe(plan.resistance.terminal_ohm);
     for (const [i, r] of plan.resistance.bar_to_bar.entries()) expect(p.bar_to_bar[i]).toBeCloseTo(r, 12);
-    const nl = compareReadings(p, { ...measured(GOOD).value, temperature: 20, no_load: { supply: 12, current: 0.17, speed: 900 } }).comparison.checks.find((c) => c.check === "no_load.speed")!;
+    const nl = compareReadings(p, { ...measured(GOOD).value, temperature: 20, no_load: { supply: 12, current: 0.17, speed: 900 } }).comparison.checks.find(
+      (c) => c.check === "no_load.speed",
+    )!;
     expect(nl.predicted_value!).toBeCloseTo(toRpm(plan.goal.achieved!), 6);
   });
 
@@ -146,7 +148,13 @@ describe("comparison", () => {
   it("readings that equal the prediction at another temperature pass every resistance check", () => {
     const T = 38;
     const k = 1 + 0.00393 * (T - 20);
-    const m: Measured = { ...measured(GOOD).value, temperature: T, bar_to_bar: p.bar_to_bar.map((r) => r * k), terminal_resistance: p.terminal.single * k, no_load: undefined };
+    const m: Measured = {
+      ...measured(GOOD).value,
+      temperature: T,
+      bar_to_bar: p.bar_to_bar.map((r) => r * k),
+      terminal_resistance: p.terminal.single * k,
+      no_load: undefined,
+    };
     const { comparison } = compareReadings(p, m);
     for (const c of comparison.checks.filter((c) => c.unit === "ohm")) expect(Math.abs(c.deviation_fraction!)).toBeLessThan(1e-9);
     expect(comparison.ok).toBe(true);
@@ -344,7 +352,9 @@ describe("learning from the family's records", () => {
     expect(plan1.calibration.source).toBe("logbook");
     expect(plan1.wire.mlt_source).toBe("logbook");
     expect(plan1.learning!.records).toBe(1);
-    expect(plan1.learning!.moves.map((mv) => mv.figure)).toEqual(expect.arrayContaining(["mean turn length (original build)", "Ke (original winding)", "loss torque"]));
+    expect(plan1.learning!.moves.map((mv) => mv.figure)).toEqual(
+      expect.arrayContaining(["mean turn length (original build)", "Ke (original winding)", "loss torque"]),
+    );
     // the same winding planned again now predicts what was measured
     const spec = job.wire_stock!.find((w) => resolveWire(w).label === p.wire.label)!;
     const same = predictWound(job, plan1, { turns: p.turns, wire: spec, strands: p.strands }, { logbook: o });
@@ -388,18 +398,21 @@ describe("demo records", () => {
     expect(book.records.length).toBeGreaterThanOrEqual(5);
   });
 
-  it.each(readdirSync(join(ROOT, "jobs/logbook")).filter((f) => f.endsWith(".yaml")))("%s still matches its job's plan (re-run armwind log when the plan changes)", (file) => {
-    const rec = book.records.find((r) => r.file === file)!.record;
-    const job = loadJobFile(join(ROOT, "jobs", `${rec.job.id}.yaml`));
-    const io = fakeIo(ROOT, {});
-    const options = logbookOptionsFor(io, job, join(ROOT, "jobs/logbook"), { before: rec.date });
-    const plan = planJob(job, options);
-    expect(rec.predicted.plan).toEqual({ turns: plan.design.turns, wire: plan.design.wire.label, strands: plan.design.strands });
-    expect(rec.predicted.terminal_ohm).toBeCloseTo(plan.resistance.terminal_ohm, 9);
-    for (const [i, r] of rec.predicted.bar_to_bar_ohm.entries()) expect(r).toBeCloseTo(plan.resistance.bar_to_bar[i], 9);
-    // the demo readings are invented but pass their checks
-    expect(rec.comparison.ok).toBe(true);
-  });
+  it.each(readdirSync(join(ROOT, "jobs/logbook")).filter((f) => f.endsWith(".yaml")))(
+    "%s still matches its job's plan (re-run armwind log when the plan changes)",
+    (file) => {
+      const rec = book.records.find((r) => r.file === file)!.record;
+      const job = loadJobFile(join(ROOT, "jobs", `${rec.job.id}.yaml`));
+      const io = fakeIo(ROOT, {});
+      const options = logbookOptionsFor(io, job, join(ROOT, "jobs/logbook"), { before: rec.date });
+      const plan = planJob(job, options);
+      expect(rec.predicted.plan).toEqual({ turns: plan.design.turns, wire: plan.design.wire.label, strands: plan.design.strands });
+      expect(rec.predicted.terminal_ohm).toBeCloseTo(plan.resistance.terminal_ohm, 9);
+      for (const [i, r] of rec.predicted.bar_to_bar_ohm.entries()) expect(r).toBeCloseTo(plan.resistance.bar_to_bar[i], 9);
+      // the demo readings are invented but pass their checks
+      expect(rec.comparison.ok).toBe(true);
+    },
+  );
 
   it("the demo readings with coil 3 six turns short fail the spread", () => {
     const job = loadJobFile(BLIND);

@@ -231,8 +231,6 @@ describe("inconsistent tests throw ArmwindError with the numbers", () => {
   });
 
   it("calibrate passes the error on", () => {
-    expect(() =>
-      calibrate({ brushDrop: 0.2, noLoad: [{ supply: 12, current: 8, speed: 1000, terminalOhm: 1.57 }] }),
-    ).toThrow(/no back-EMF/);
+    expect(() => calibrate({ brushDrop: 0.2, noLoad: [{ supply: 12, current: 8, speed: 1000, terminalOhm: 1.57 }] })).toThrow(/no back-EMF/);
   });
 });

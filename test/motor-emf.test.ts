@@ -1,14 +1,6 @@
 import { describe, expect, it } from "vitest";
 import fc from "fast-check";
-import {
-  activeConductors,
-  fluxFromGap,
-  keFromEmfEquation,
-  keFromKv,
-  keScaledByTurns,
-  kvFromKe,
-  pitchFactor,
-} from "../src/motor/emf.js";
+import { activeConductors, fluxFromGap, keFromEmfEquation, keFromKv, keScaledByTurns, kvFromKe, pitchFactor } from "../src/motor/emf.js";
 import { brushDrop, DEFAULT_BRUSH_DROP } from "../src/motor/brush.js";
 import { ArmwindError } from "../src/errors.js";
 

@@ -1,17 +1,6 @@
 import { describe, expect, it } from "vitest";
 import fc from "fast-check";
-import {
-  atSpeed,
-  atTorque,
-  curve,
-  maxOutput,
-  noLoad,
-  peakEfficiency,
-  rescaleForTurns,
-  stall,
-  summarize,
-  type MotorModel,
-} from "../src/motor/model.js";
+import { atSpeed, atTorque, curve, maxOutput, noLoad, peakEfficiency, rescaleForTurns, stall, summarize, type MotorModel } from "../src/motor/model.js";
 import { dutyPoint } from "../src/motor/duty.js";
 import { currentDensity, stallCurrentDensity } from "../src/motor/density.js";
 import { ArmwindError } from "../src/errors.js";
@@ -121,8 +110,7 @@ describe("derivable results of the linear motor model", () => {
         const m = build(p);
         const T = f * stall(m, p.V).torque;
         const op = atTorque(m, p.V, T);
-        const losses =
-          op.current ** 2 * m.resistance + m.brushDrop * op.current + (m.loss.tc + m.loss.b * op.speed) * op.speed;
+        const losses = op.current ** 2 * m.resistance + m.brushDrop * op.current + (m.loss.tc + m.loss.b * op.speed) * op.speed;
         expect(op.inputW).toBeCloseTo(op.outputW + losses, 6);
         // and atSpeed at that speed gives back the torque
         expect(atSpeed(m, p.V, op.speed).torque).toBeCloseTo(T, 9);

@@ -13,7 +13,7 @@ describe("doubling the turns at the same copper fill (common practice, no publis
   // Invented demo armature: 60 turns of AWG 30 on a 48 mm mean turn, 5 tooth coils, brushes
   // splitting the ring 2 + 3 coils: terminal R = R_coil · 2·3/5 (DESIGN.md ring formula).
   const mlt = 0.048;
-  const terminal = (turns: number, d: number) => ohmPerMetre(d) * turns * mlt * (2 * 3) / 5;
+  const terminal = (turns: number, d: number) => (ohmPerMetre(d) * turns * mlt * (2 * 3)) / 5;
   // Same fill: twice the turns in half the copper area, three AWG steps finer (AWG 30 → 33).
   const r60 = terminal(60, awg(30));
   const r120 = terminal(120, awg(33));

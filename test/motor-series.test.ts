@@ -52,9 +52,7 @@ describe("DC series motor in the linear range (Chapman 4th ed. §9.6, worked by 
   //   (the same as (24 − 2 − 12 × 0.8)/(0.034 × 12) = 12.4/0.408).
   const cal = calibrateSeries({
     brushDrop: 2,
-    readings: [
-      { supply: DC(24), current: 2, speed: 300, torque: 0, resistance: 0.8, path: "original.tests[0]", what: "the no-load test" },
-    ],
+    readings: [{ supply: DC(24), current: 2, speed: 300, torque: 0, resistance: 0.8, path: "original.tests[0]", what: "the no-load test" }],
   })!;
   const motor: SeriesMotor = { mag: cal.mag, ra: 0.5, rf: 0.3, la: 0, lf: 0, brushDrop: 2, loss: cal.loss };
 
@@ -110,9 +108,7 @@ describe("AC universal motor (Chapman 4th ed., universal motor: X in quadrature;
       la: 0.05,
       lf: 0.05,
       brushDrop: 2,
-      readings: [
-        { supply: AC(230), current: 0.5, speed: 30000 * RPM, torque: 0, resistance: 10, path: "original.tests[0]", what: "the no-load test" },
-      ],
+      readings: [{ supply: AC(230), current: 0.5, speed: 30000 * RPM, torque: 0, resistance: 10, path: "original.tests[0]", what: "the no-load test" }],
     })!;
     expect(cal.mag.k).toBeCloseTo(0.141624, 5);
     expect(cal.loss.tc).toBeCloseTo(0.035406, 5);
@@ -192,7 +188,12 @@ describe("saturation and fan loss from two readings", () => {
     expect(fluxLinkage(m.mag, 2.5)).toBeCloseTo(0.25, 12);
     expect(m.basis).toMatch(/bending/);
     // ψ/I rising with current: no bend to fit, linear from the lower point
-    expect(fitMagnetisation([{ current: 1, psi: 0.1 }, { current: 2, psi: 0.25 }]).mag).toEqual({ k: 0.1, iSat: null });
+    expect(
+      fitMagnetisation([
+        { current: 1, psi: 0.1 },
+        { current: 2, psi: 0.25 },
+      ]).mag,
+    ).toEqual({ k: 0.1, iSat: null });
   });
   it("two no-load tests at different speeds separate the fan (∝ ω²) from friction", () => {
     // invented: T_c 0.01 N·m, C₂ 2e-9 N·m·s²: at 1000 rad/s 0.012, at 3000 rad/s 0.028
@@ -216,7 +217,14 @@ describe("saturation and fan loss from two readings", () => {
           const nl2 = noLoadSeries(m, AC(160))!;
           const rated = atTorqueSeries(m, s, 0.5 * (fluxLinkage(m.mag, 2) * 2));
           const read = (p: typeof nl1, v: number, torque: number | null, path: string, rated?: boolean) => ({
-            supply: AC(v), current: p.current, speed: p.speed, torque, resistance: 9, path, what: path, rated,
+            supply: AC(v),
+            current: p.current,
+            speed: p.speed,
+            torque,
+            resistance: 9,
+            path,
+            what: path,
+            rated,
           });
           const cal = calibrateSeries({
             la: L / 2,

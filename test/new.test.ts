@@ -35,7 +35,8 @@ describe.each(STYLES)("templates/%s.yaml", (style) => {
         expect(job.winding.style).toBe(style);
         status = planStatus(planJob(job));
       } catch (e) {
-        if (e instanceof ArmwindError) expect.fail(`template ${style} with id ${id}: ${e.problems.map((p) => `${p.line}:${p.column} ${p.path} ${p.message}`).join(" | ")}`);
+        if (e instanceof ArmwindError)
+          expect.fail(`template ${style} with id ${id}: ${e.problems.map((p) => `${p.line}:${p.column} ${p.path} ${p.message}`).join(" | ")}`);
         throw e;
       }
       expect([0, 2]).toContain(status);
@@ -57,7 +58,17 @@ describe.each(STYLES)("templates/%s.yaml", (style) => {
 
   it("opens with the order to record things while stripping, before anything is cut", () => {
     const head = raw(style).split("\nversion:")[0];
-    const steps = [/Photograph/, /Mark slot 1/, /Lead throw/, /Span/, /Coils per slot/, style === "tooth" ? /Direction/ : /Progression/, /Turns per coil: count them while unwinding/, /micrometer/, /Keep ALL the old wire: weigh it/];
+    const steps = [
+      /Photograph/,
+      /Mark slot 1/,
+      /Lead throw/,
+      /Span/,
+      /Coils per slot/,
+      style === "tooth" ? /Direction/ : /Progression/,
+      /Turns per coil: count them while unwinding/,
+      /micrometer/,
+      /Keep ALL the old wire: weigh it/,
+    ];
     let at = -1;
     for (const s of steps) {
       const i = head.search(s);

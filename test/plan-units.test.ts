@@ -14,12 +14,44 @@ import { readFileSync } from "node:fs";
 const UNIT_SUFFIX = /_(mm|mm2|m|g|ohm|a|v|w|rpm|rpm_per_v|v_s_per_rad|v_s_per_a_rad|hz|n_m|n_m_per_a|n_m_s_per_rad|a_per_mm2|c|fraction)$/;
 /** Keys exempt from a unit suffix: fractions, counts, bar and slot numbers, and `*_value` in a sibling or the goal's `unit`. */
 const EXEMPT = new Set([
-  "copper_fill", "space_fill", "copper_fill_limit", "efficiency", "peak_efficiency", "tolerance", "spare_margin",
-  "turns_per_coil", "strands_in_hand", "layers", "turns_per_layer", "paths", "index", "turns", "slots", "bars", "poles", "span",
-  "coils_per_slot", "lead_throw", "commutator_pitch", "back_pitch", "front_pitch", "coil_sides_per_slot", "go_slot", "return_slot",
-  "start_bar", "end_bar", "candidates_total", "records", "target_value", "achieved_value", "from_value", "to_value",
+  "copper_fill",
+  "space_fill",
+  "copper_fill_limit",
+  "efficiency",
+  "peak_efficiency",
+  "tolerance",
+  "spare_margin",
+  "turns_per_coil",
+  "strands_in_hand",
+  "layers",
+  "turns_per_layer",
+  "paths",
+  "index",
+  "turns",
+  "slots",
+  "bars",
+  "poles",
+  "span",
+  "coils_per_slot",
+  "lead_throw",
+  "commutator_pitch",
+  "back_pitch",
+  "front_pitch",
+  "coil_sides_per_slot",
+  "go_slot",
+  "return_slot",
+  "start_bar",
+  "end_bar",
+  "candidates_total",
+  "records",
+  "target_value",
+  "achieved_value",
+  "from_value",
+  "to_value",
   // series motors: the power factor is a fraction like efficiency; the conversion's turns ratio and field turns are counts
-  "power_factor", "turns_ratio", "field_turns_per_pole",
+  "power_factor",
+  "turns_ratio",
+  "field_turns_per_pole",
 ]);
 
 function numericKeys(x: unknown, path: string, out: string[]): void {
@@ -35,7 +67,11 @@ describe("plan --json: every number's key names its unit", () => {
       const bad: string[] = [];
       numericKeys(j, "", bad);
       const offenders = bad.filter((p) => {
-        const key = p.replace(/\[\d+\]$/, "").split(".").pop()!.replace(/\[\d+\]/g, "");
+        const key = p
+          .replace(/\[\d+\]$/, "")
+          .split(".")
+          .pop()!
+          .replace(/\[\d+\]/g, "");
         if (p.startsWith("rejections.") || p.startsWith("winding.equalizer_groups")) return false; // counts, bar numbers
         return !UNIT_SUFFIX.test(key) && !EXEMPT.has(key);
       });
@@ -49,7 +85,9 @@ describe("goal figures in goal.unit everywhere", () => {
     it(`${file.split("/").pop()}: the chosen candidate's achieved_value is the goal's, sensitivity rows near it`, () => {
       const j = planJson(planJob(loadJobFile(file)));
       if (j.goal.achieved_value === null) return;
-      const same = j.candidates.find((c) => c.turns_per_coil === j.design.turns_per_coil && c.wire === j.design.wire.label && c.strands_in_hand === j.design.strands_in_hand);
+      const same = j.candidates.find(
+        (c) => c.turns_per_coil === j.design.turns_per_coil && c.wire === j.design.wire.label && c.strands_in_hand === j.design.strands_in_hand,
+      );
       expect(same, "the chosen winding is listed").toBeDefined();
       expect(same!.achieved_value!).toBeCloseTo(j.goal.achieved_value, 6);
       for (const s of j.sensitivity) if (s.achieved_value !== null) expect(Math.abs(s.achieved_value / j.goal.achieved_value - 1)).toBeLessThan(0.6);

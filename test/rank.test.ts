@@ -82,7 +82,8 @@ describe("one rule for every goal: the turns count nearest the goal, then the mo
   it("at the chosen count, no candidate that meets the goal has less resistance", () => {
     for (const name of ["blind-motor-0031", "chair-wave-0045", "boat-7slot-0020", "robot-3slot-0007"]) {
       const p = planJob(loadJobText(text(name)));
-      for (const c of p.candidates.filter((c) => c.meets_goal && c.turns === p.design.turns)) expect(c.terminal_ohm, name).toBeGreaterThanOrEqual(p.design.terminal_ohm - 1e-12);
+      for (const c of p.candidates.filter((c) => c.meets_goal && c.turns === p.design.turns))
+        expect(c.terminal_ohm, name).toBeGreaterThanOrEqual(p.design.terminal_ohm - 1e-12);
       const nearest = Math.min(...p.candidates.filter((c) => c.meets_goal).map((c) => Math.abs(c.error!)));
       // the chosen count's best is the nearest of all bests (each count's best is among those shown)
       expect(Math.abs(p.design.error!), name).toBeLessThanOrEqual(nearest + 0.02);
@@ -161,7 +162,10 @@ describe("goal fixed and restores of a winding that fitted", () => {
     expect(p.design.rejected_because).toEqual([]);
   });
   it("when the layer model says the original did not fit, the restore is planned with a warning naming what to re-measure", () => {
-    const narrow = robot.replace("goal: stall_current", "goal: restore").replace("  stall_current: 4 A\n", "").replace("width_top: 6.5 mm", "width_top: 2.5 mm");
+    const narrow = robot
+      .replace("goal: stall_current", "goal: restore")
+      .replace("  stall_current: 4 A\n", "")
+      .replace("width_top: 6.5 mm", "width_top: 2.5 mm");
     const p = planJob(loadJobText(narrow));
     expect(p.feasible).toBe(true);
     expect(p.design.turns).toBe(45);
@@ -176,7 +180,9 @@ describe("goal fixed and restores of a winding that fitted", () => {
     expect(p.warnings.some((w) => w.code === "original_disagrees" && /space|overall circles/.test(w.message))).toBe(true);
   });
   it("goal fixed plans the winding chosen, with a warning for each limit it breaks", () => {
-    const fixed = robot.replace("goal: stall_current", "goal: fixed").replace("  stall_current: 4 A\n", "  fixed: { turns: 70, wire: 0.28 mm grade 2, strands: 1 }\n");
+    const fixed = robot
+      .replace("goal: stall_current", "goal: fixed")
+      .replace("  stall_current: 4 A\n", "  fixed: { turns: 70, wire: 0.28 mm grade 2, strands: 1 }\n");
     const p = planJob(loadJobText(fixed));
     expect(p.feasible).toBe(true);
     expect(p.design.turns).toBe(70);
@@ -198,7 +204,9 @@ describe("lap windings with fewer brushes than poles: the real path currents (Ki
     expect(coilCurrentShare(layoutWinding(windingSpec(four))).rms).toBeCloseTo(0.25, 12);
   });
   it("the plan's current density uses it: I·√3/4/(k·A), not I/(4·k·A)", () => {
-    const j = SCOOTER.replace("field_poles: 2", "field_poles: 4").replace("span: 5", "span: 2").replace("  tolerance: 0.10\n", "  tolerance: 0.10\n  limits: { current_density: none }\n");
+    const j = SCOOTER.replace("field_poles: 2", "field_poles: 4")
+      .replace("span: 5", "span: 2")
+      .replace("  tolerance: 0.10\n", "  tolerance: 0.10\n  limits: { current_density: none }\n");
     const p = planJob(loadJobText(j));
     const d = p.design;
     expect(p.paths).toBe(4);

@@ -51,7 +51,13 @@ function run(args: string[], opts: { cwd?: string; input?: string; env?: Record<
 
 /** A shell pipeline, with a time limit; prints the command's own status on the last line of stdout. */
 function shell(script: string): Run {
-  const r = spawnSync("bash", ["-c", script], { cwd: ROOT, encoding: "utf8", timeout: LIMIT_MS, killSignal: "SIGKILL", env: { ...process.env, NO_COLOR: "1", ARMWIND_LOGBOOK: LOGBOOK } });
+  const r = spawnSync("bash", ["-c", script], {
+    cwd: ROOT,
+    encoding: "utf8",
+    timeout: LIMIT_MS,
+    killSignal: "SIGKILL",
+    env: { ...process.env, NO_COLOR: "1", ARMWIND_LOGBOOK: LOGBOOK },
+  });
   if (r.error) throw new Error(`${script}: ${r.error.message}`);
   return { status: r.status ?? -1, stdout: r.stdout, stderr: r.stderr };
 }
@@ -210,7 +216,9 @@ describe("7 and 9. refusals that say what is wrong, where", () => {
     expect(area.stderr).toMatch(/armature\.slot\.area: must be at most 100000 mm2, got "1e300 mm2" \[out_of_range\]/);
     const big = run(["plan", jobWith((s) => s.replace("area: 13.5 mm2", "area: 100 mm2"))]);
     expect(big.status).toBe(1);
-    expect(big.stderr).toMatch(/armature\.slot\.area: 5 slots of 100 mm² are more than the whole cross-section of a 20 mm rotor \(314 mm²\).*\[inconsistent_geometry\]/);
+    expect(big.stderr).toMatch(
+      /armature\.slot\.area: 5 slots of 100 mm² are more than the whole cross-section of a 20 mm rotor \(314 mm²\).*\[inconsistent_geometry\]/,
+    );
     const speed = run(["plan", jobWith((s) => s.replace("no_load_speed: 9000 rpm", "no_load_speed: 1e308 rpm"))]);
     expect(speed.stderr).toMatch(/target\.no_load_speed: must be at most 1000000 rpm.*\[out_of_range\]/);
     expect(speed.stderr + speed.stdout).not.toMatch(/Infinity/);
@@ -219,7 +227,9 @@ describe("7 and 9. refusals that say what is wrong, where", () => {
     expect(t.stderr).toBe("--temperature: --temperature 1e308: must be at most 250 C [out_of_range]\n");
     const reading = run(["diagnose", BLIND, "--bars", "1.3,1.3,1e308,1.3,1.3", "--no-learn", "--json"]);
     expect(reading.status).toBe(1);
-    expect(JSON.parse(reading.stdout).errors).toEqual([{ code: "out_of_range", message: 'r3 "1e308": must be at most 1000 Mohm', file: null, line: null, column: null, path: "--bars[2]" }]);
+    expect(JSON.parse(reading.stdout).errors).toEqual([
+      { code: "out_of_range", message: 'r3 "1e308": must be at most 1000 Mohm', file: null, line: null, column: null, path: "--bars[2]" },
+    ]);
   });
 });
 
@@ -341,7 +351,11 @@ describe("6. absurd logbook records are not learned from", () => {
     const b = run(["plan", BLIND, "--json", "--logbook", hostile]);
     expect(b.status).toBe(0);
     expect(JSON.parse(b.stdout)).toEqual(JSON.parse(a.stdout));
-    expect(b.stderr).toMatch(/blind-motor-0031-2026-12-02-1\.yaml: damaged record, left out \(derived\.mean_turn_length_mm: out of range \(above 5000\)\) \[record_damaged\]/);
-    expect(b.stderr).toMatch(/blind-motor-0031-2026-12-02-2\.yaml: damaged record, left out \(winding\.turns: out of range \(above 100000\)\) \[record_damaged\]/);
+    expect(b.stderr).toMatch(
+      /blind-motor-0031-2026-12-02-1\.yaml: damaged record, left out \(derived\.mean_turn_length_mm: out of range \(above 5000\)\) \[record_damaged\]/,
+    );
+    expect(b.stderr).toMatch(
+      /blind-motor-0031-2026-12-02-2\.yaml: damaged record, left out \(winding\.turns: out of range \(above 100000\)\) \[record_damaged\]/,
+    );
   });
 });

@@ -18,14 +18,21 @@ const anySpec = fc.oneof(
   fc.record({ n: fc.integer({ min: 3, max: 400 }) }).map(({ n }) => spec({ style: "tooth", slots: n, bars: n, span: 1 })),
   fc
     .record({ S: fc.integer({ min: 3, max: 200 }), u: fc.integer({ min: 1, max: 2 }), f: fc.double({ min: 0.2, max: 0.9, noNaN: true }), retro: fc.boolean() })
-    .map(({ S, u, f, retro }) => spec({ slots: S, bars: S * u, coils_per_slot: u, span: Math.max(1, Math.floor(f * S)), progression: retro ? "retrogressive" : "progressive" })),
-  fc
-    .record({ m: fc.integer({ min: 3, max: 199 }), p: fc.constantFrom(2, 3, 4), retro: fc.boolean() })
-    .map(({ m, p, retro }) => {
-      // C = p·m ± 1 closes a simplex wave: y_c = (C ∓ 1)/p whole
-      const C = Math.min(400, p * m + (retro ? 1 : -1));
-      return spec({ style: "wave", slots: C, bars: C, poles: 2 * p, span: Math.max(1, Math.floor(C / (2 * p))), progression: retro ? "retrogressive" : "progressive" });
-    }),
+    .map(({ S, u, f, retro }) =>
+      spec({ slots: S, bars: S * u, coils_per_slot: u, span: Math.max(1, Math.floor(f * S)), progression: retro ? "retrogressive" : "progressive" }),
+    ),
+  fc.record({ m: fc.integer({ min: 3, max: 199 }), p: fc.constantFrom(2, 3, 4), retro: fc.boolean() }).map(({ m, p, retro }) => {
+    // C = p·m ± 1 closes a simplex wave: y_c = (C ∓ 1)/p whole
+    const C = Math.min(400, p * m + (retro ? 1 : -1));
+    return spec({
+      style: "wave",
+      slots: C,
+      bars: C,
+      poles: 2 * p,
+      span: Math.max(1, Math.floor(C / (2 * p))),
+      progression: retro ? "retrogressive" : "progressive",
+    });
+  }),
 );
 
 function layoutOrNull(s: WindingSpec): WindingLayout | null {
@@ -76,7 +83,10 @@ describe("forward readings: the cycle solver equals the nodal solution (Kirchhof
         const R = l!.coils.map(() => 0.2 + 4.8 * rnd());
         R[Math.floor(rnd() * R.length)] = Infinity;
         const got = barToBar(l!, R);
-        const want = nodalReadings(l!, R.map((x) => (Number.isFinite(x) ? x : 1e300)));
+        const want = nodalReadings(
+          l!,
+          R.map((x) => (Number.isFinite(x) ? x : 1e300)),
+        );
         got.forEach((g, i) => expect(Math.abs(g - want[i])).toBeLessThanOrEqual(1e-9 * Math.max(1, want[i])));
       }),
       { numRuns: 40, seed: 99 },

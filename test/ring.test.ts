@@ -1,19 +1,10 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import { layoutWinding } from "../src/winding/layout.js";
-import {
-  barToBar,
-  equalizedLapBarToBar,
-  lapBrushesResistance,
-  ringBarToBar,
-  ringSplit,
-  terminalResistance,
-  waveBarToBar,
-} from "../src/winding/ring.js";
+import { barToBar, equalizedLapBarToBar, lapBrushesResistance, ringBarToBar, ringSplit, terminalResistance, waveBarToBar } from "../src/winding/ring.js";
 import type { WindingLayout } from "../src/winding/types.js";
 import { spec } from "./helpers/winding.js";
 import { nodal } from "./helpers/nodal.js";
-
 
 const close = (a: number, b: number, rel = 1e-9) => expect(Math.abs(a - b)).toBeLessThanOrEqual(rel * Math.max(1, Math.abs(b)));
 

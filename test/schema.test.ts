@@ -92,7 +92,8 @@ describe("templates/job.schema.json", () => {
       if (path) fields.add(path);
       for (const [k, v] of Object.entries((n.properties ?? {}) as Record<string, Record<string, unknown>>)) collect(v, path ? `${path}.${k}` : k);
       if (n.items) collect(n.items as Record<string, unknown>, `${path}[]`);
-      for (const b of (n.anyOf ?? []) as Record<string, unknown>[]) for (const [k, v] of Object.entries((b.properties ?? {}) as Record<string, Record<string, unknown>>)) collect(v, `${path}.${k}`);
+      for (const b of (n.anyOf ?? []) as Record<string, unknown>[])
+        for (const [k, v] of Object.entries((b.properties ?? {}) as Record<string, Record<string, unknown>>)) collect(v, `${path}.${k}`);
     };
     collect(s, "");
     expect(Object.keys(FIELD_HELP).filter((k) => !fields.has(k))).toEqual([]);
@@ -110,7 +111,7 @@ describe("templates/job.schema.json", () => {
       expect([QUANTITY_PATTERN, FRACTION_PATTERN]).toContain(n.pattern);
       expect(Array.isArray(n.examples) && (n.examples as unknown[]).length > 0).toBe(true);
     }
-    const props = (jobJsonSchema().properties as Record<string, { properties: Record<string, { description: string }> }>);
+    const props = jobJsonSchema().properties as Record<string, { properties: Record<string, { description: string }> }>;
     expect(props.armature.properties.stack_length.description).toMatch(/calipers/);
     expect(props.armature.properties.stack_length.description).toMatch(/mm, cm, m, um, in, mil/);
     expect(props.original.properties.turns.description).toMatch(/unwinding/);
@@ -151,7 +152,8 @@ describe("the JSON Schema against ajv 8 (draft 2020-12)", () => {
   it("rejects a missing section", () => rejects((j) => delete (j as Record<string, unknown>).original, "required", ""));
   it("rejects a choice that is not offered", () => rejects((j) => (j.winding.style = "lapp"), "enum", "/winding/style"));
   it("rejects another version", () => rejects((j) => ((j as Record<string, unknown>).version = 2), "const", "/version"));
-  it("rejects a quantity that does not start with a number", () => rejects((j) => (j.armature.stack_length = "twelve mm"), "pattern", "/armature/stack_length"));
+  it("rejects a quantity that does not start with a number", () =>
+    rejects((j) => (j.armature.stack_length = "twelve mm"), "pattern", "/armature/stack_length"));
   it("rejects a fraction written with a unit", () => rejects((j) => (j.winding.spare_margin = "10 mm"), "pattern", "/winding/spare_margin"));
 
   it("accepts $schema as a key (the editor hint)", () => {
@@ -172,7 +174,23 @@ describe("the JSON Schema against ajv 8 (draft 2020-12)", () => {
 });
 
 describe("the quantity patterns never reject what armwind reads", () => {
-  const KINDS: QuantityKind[] = ["length", "wire_length", "area", "voltage", "current", "speed", "temperature", "resistance", "flux", "flux_density", "torque", "mass", "frequency", "current_density", "speed_per_volt"];
+  const KINDS: QuantityKind[] = [
+    "length",
+    "wire_length",
+    "area",
+    "voltage",
+    "current",
+    "speed",
+    "temperature",
+    "resistance",
+    "flux",
+    "flux_density",
+    "torque",
+    "mass",
+    "frequency",
+    "current_density",
+    "speed_per_volt",
+  ];
   const quantity = new RegExp(QUANTITY_PATTERN, "u");
   const fraction = new RegExp(FRACTION_PATTERN, "u");
 

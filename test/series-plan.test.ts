@@ -29,7 +29,10 @@ const dcText = drillWith((s) =>
     .replace(/field_winding:[\s\S]*?turns_per_pole: 110\n/, "field_winding:\n  resistance: { value: 0.3 ohm, at: 20 C }\n")
     .replace("  brushes: { count: 2, width_bars: 1.5, material: carbon }", "  brushes: { count: 2, width_bars: 1.5, material: carbon }\n  brush_drop: 2 V")
     .replace("terminal_resistance: { value: 7.5 ohm, at: 22 C }", "terminal_resistance: { value: 0.5 ohm, at: 20 C }")
-    .replace(/  tests:\n[\s\S]*?gear_ratio: 8.5 }\n/, "  tests:\n    - { supply: 24 V, no_load_current: 2 A, no_load_speed: 2864.7889756541163 rpm, temperature: 20 C }\n")
+    .replace(
+      /  tests:\n[\s\S]*?gear_ratio: 8.5 }\n/,
+      "  tests:\n    - { supply: 24 V, no_load_current: 2 A, no_load_speed: 2864.7889756541163 rpm, temperature: 20 C }\n",
+    )
     .replace("supply: { value: 230 V, kind: ac, frequency: 50 Hz }", "supply: 24 V\n  duty: { torque: 4.76 N m, speed: 290 rpm }")
     .replace("hot_temperature: 100 C", "hot_temperature: 20 C"),
 );
@@ -143,11 +146,36 @@ describe("goal convert: the drill for a 120 V 60 Hz supply", () => {
 
 describe("bad input: one located line, exit 1, saying what would be right", () => {
   const cases: [string, string, (s: string) => string, RegExp][] = [
-    ["a negative inductance", DRILL, (s) => s.replace("  turns_per_pole: 110", "  turns_per_pole: 110\n  inductance: -60 mH"), /field_winding\.inductance: must be greater than zero/],
-    ["an AC supply with no frequency", DRILL, (s) => s.replace("kind: ac, frequency: 50 Hz }", "kind: ac }"), /target\.supply\.frequency: an AC supply needs its frequency/],
-    ["a kv goal on a series motor", DRILL, (s) => s.replace("goal: restore", "goal: kv\n  kv: 600 rpm/V"), /target\.goal: .*use goal restore, duty or convert \[goal_unsuitable\]/],
-    ["a stall_current goal on a series motor", DRILL, (s) => s.replace("goal: restore", "goal: stall_current\n  stall_current: 3 A"), /target\.goal: .*no stall figure at its supply/],
-    ["goal convert on a permanent-magnet motor", BLIND, (s) => s.replace(/goal: no_load_speed/, "goal: convert"), /target\.goal: goal convert re-plans a series motor's armature/],
+    [
+      "a negative inductance",
+      DRILL,
+      (s) => s.replace("  turns_per_pole: 110", "  turns_per_pole: 110\n  inductance: -60 mH"),
+      /field_winding\.inductance: must be greater than zero/,
+    ],
+    [
+      "an AC supply with no frequency",
+      DRILL,
+      (s) => s.replace("kind: ac, frequency: 50 Hz }", "kind: ac }"),
+      /target\.supply\.frequency: an AC supply needs its frequency/,
+    ],
+    [
+      "a kv goal on a series motor",
+      DRILL,
+      (s) => s.replace("goal: restore", "goal: kv\n  kv: 600 rpm/V"),
+      /target\.goal: .*use goal restore, duty or convert \[goal_unsuitable\]/,
+    ],
+    [
+      "a stall_current goal on a series motor",
+      DRILL,
+      (s) => s.replace("goal: restore", "goal: stall_current\n  stall_current: 3 A"),
+      /target\.goal: .*no stall figure at its supply/,
+    ],
+    [
+      "goal convert on a permanent-magnet motor",
+      BLIND,
+      (s) => s.replace(/goal: no_load_speed/, "goal: convert"),
+      /target\.goal: goal convert re-plans a series motor's armature/,
+    ],
     [
       "field data that contradict the no-load test",
       DRILL,
@@ -169,7 +197,10 @@ describe("bad input: one located line, exit 1, saying what would be right", () =
     });
   }
   it("the core refuses the same contradiction with an ArmwindError (exit 1), not a crash", () => {
-    const text = drillText.replace(/  resistance: \{ value: 5.8 ohm, at: 22 C \}\n[\s\S]*?  locked_rotor: .*\n/, "  resistance: { value: 200 ohm, at: 22 C }\n");
+    const text = drillText.replace(
+      /  resistance: \{ value: 5.8 ohm, at: 22 C \}\n[\s\S]*?  locked_rotor: .*\n/,
+      "  resistance: { value: 200 ohm, at: 22 C }\n",
+    );
     expect(() => planJob(loadJobText(text))).toThrow(ArmwindError);
   });
 });

@@ -21,7 +21,11 @@ const BLIND = join(ROOT, "jobs/blind-motor-0031.yaml");
 const tmp = () => mkdtempSync(join(tmpdir(), "armwind-shop-"));
 
 describe("mergeShopIntoJob (pure)", () => {
-  const shop = { version: 1 as const, wire_shelf: [{ wire: "32 AWG heavy", spool_mass: "120 g" }], defaults: { limits: { copper_fill: 0.42, space_fill: 0.6 }, hot_temperature: "90 C" } };
+  const shop = {
+    version: 1 as const,
+    wire_shelf: [{ wire: "32 AWG heavy", spool_mass: "120 g" }],
+    defaults: { limits: { copper_fill: 0.42, space_fill: 0.6 }, hot_temperature: "90 C" },
+  };
   it("fills the shelf, the limits key by key and the hot temperature where the job is silent", () => {
     const job = { id: "x", target: { supply: "12 V", limits: { space_fill: 0.65 } } };
     const out = mergeShopIntoJob(job, shop) as any;
@@ -64,7 +68,10 @@ function shopIn(dir: string, text: string): string {
 describe("the shell finds the profile and uses it", () => {
   it("armwind.yaml in a parent folder sets the shelf, the limits and the logbook; a job's own stock wins", async () => {
     const dir = tmp();
-    shopIn(dir, "version: 1\nshop: Test Rewinds (invented)\nbench: b-7\nlogbook: book\nwire_shelf:\n  - { wire: 0.25 mm grade 2, spool_mass: 1 g }\ndefaults: { limits: { copper_fill: 0.45 } }\n");
+    shopIn(
+      dir,
+      "version: 1\nshop: Test Rewinds (invented)\nbench: b-7\nlogbook: book\nwire_shelf:\n  - { wire: 0.25 mm grade 2, spool_mass: 1 g }\ndefaults: { limits: { copper_fill: 0.45 } }\n",
+    );
     const sub = join(dir, "a", "b");
     mkdirSync(sub, { recursive: true });
     const job = readFileSync(BLIND, "utf8").replace(/^wire_stock:[\s\S]*?(?=^\S)/m, "");
@@ -122,7 +129,10 @@ describe("armwind new job | measured | shop", () => {
     expect(shopSchema.safeParse(parse(text)).success).toBe(true);
   });
   it("new job --style and new --style write a job whose $schema exists beside wherever it is written", async () => {
-    for (const args of [["new", "job", "--style", "lap", "--id", "j1"], ["new", "--style", "tooth", "--id", "j2", "-o", "deep/er/"]]) {
+    for (const args of [
+      ["new", "job", "--style", "lap", "--id", "j1"],
+      ["new", "--style", "tooth", "--id", "j2", "-o", "deep/er/"],
+    ]) {
       const dir = tmp();
       const io = fakeIo(dir);
       expect(await main(args, io), io.stderr.join("")).toBe(0);

@@ -153,7 +153,14 @@ describe("the toy motor rewound with about twice the turns of thinner wire (comm
     const one = planJob(loadJobText(TOY));
     const w = one.warnings.find((x) => x.code === "loss_from_one_test")!;
     expect(w.message).toMatch(/one no-load test at 9000 rpm.*half the supply \(1\.50 V\)/);
-    const two = planJob(loadJobText(TOY.replace("    - { supply: 3 V, no_load_current: 0.25 A, no_load_speed: 9000 rpm }\n", "    - { supply: 3 V, no_load_current: 0.25 A, no_load_speed: 9000 rpm }\n    - { supply: 1.5 V, no_load_current: 0.19 A, no_load_speed: 4300 rpm }\n")));
+    const two = planJob(
+      loadJobText(
+        TOY.replace(
+          "    - { supply: 3 V, no_load_current: 0.25 A, no_load_speed: 9000 rpm }\n",
+          "    - { supply: 3 V, no_load_current: 0.25 A, no_load_speed: 9000 rpm }\n    - { supply: 1.5 V, no_load_current: 0.19 A, no_load_speed: 4300 rpm }\n",
+        ),
+      ),
+    );
     expect(two.warnings.some((x) => x.code === "loss_from_one_test")).toBe(false);
     // the loss that falls with speed: the slower rewind idles on less current than the held-constant loss says
     expect(two.motor.noLoadCurrent!).toBeLessThan(one.motor.noLoadCurrent!);

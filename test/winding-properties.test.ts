@@ -21,7 +21,8 @@ const arbSpec: fc.Arbitrary<WindingSpec> = fc
     width: fc.constantFrom(0.5, 1, 1.5, 2, 3),
   })
   .map((r) => {
-    const span = r.style === "tooth" ? 1 : r.spanFrac === 0 ? 0 : Math.max(1, Math.round((r.spanFrac * r.slots) / Math.max(1, r.poles))) + (r.spanFrac > 1.2 ? 2 : 0);
+    const span =
+      r.style === "tooth" ? 1 : r.spanFrac === 0 ? 0 : Math.max(1, Math.round((r.spanFrac * r.slots) / Math.max(1, r.poles))) + (r.spanFrac > 1.2 ? 2 : 0);
     const u = r.style === "tooth" ? 1 : r.u;
     return {
       style: r.style,

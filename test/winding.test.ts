@@ -4,7 +4,6 @@ import { barAngle, checkInvariants, diagramAngles, layoutWinding, slotAngle, vie
 import type { WindingSpec } from "../src/winding/types.js";
 import { spec } from "./helpers/winding.js";
 
-
 function refusal(s: WindingSpec): { code: string; path: string; message: string } {
   try {
     layoutWinding(s);

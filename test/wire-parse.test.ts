@@ -108,9 +108,7 @@ describe("parseWireSpec: accepted forms", () => {
 
 describe("parseWireSpec: refusals name what would be right", () => {
   it("a misspelt system", () => {
-    expect(message("33 AGW")).toBe(
-      `unknown wire "33 AGW"; write it like "33 AWG heavy", "36 SWG", "0.25 mm grade 2" or { bare: 0.25 mm, overall: 0.282 mm }`,
-    );
+    expect(message("33 AGW")).toBe(`unknown wire "33 AGW"; write it like "33 AWG heavy", "36 SWG", "0.25 mm grade 2" or { bare: 0.25 mm, overall: 0.282 mm }`);
     expect(message("copper")).toMatch(/write it like "33 AWG heavy"/);
     expect(message(null)).toMatch(/write it like/);
     expect(message(["0.25 mm"])).toMatch(/write it like/);
@@ -145,11 +143,16 @@ describe("parseWireSpec: refusals name what would be right", () => {
 describe("labels parse back to the same wire (property)", () => {
   it("any AWG label printed by the catalogue", () => {
     fc.assert(
-      fc.property(fc.integer({ min: -3, max: 56 }), fc.constantFrom("single", "heavy", "triple"), fc.constantFrom<"stock" | "original">("stock", "original"), (n, build, role) => {
-        const w = resolveWire({ system: "awg", size: awgName(n), build: build as "single" | "heavy" | "triple" });
-        const back = resolveWire(spec(w.label, role));
-        expect(back).toEqual(w);
-      }),
+      fc.property(
+        fc.integer({ min: -3, max: 56 }),
+        fc.constantFrom("single", "heavy", "triple"),
+        fc.constantFrom<"stock" | "original">("stock", "original"),
+        (n, build, role) => {
+          const w = resolveWire({ system: "awg", size: awgName(n), build: build as "single" | "heavy" | "triple" });
+          const back = resolveWire(spec(w.label, role));
+          expect(back).toEqual(w);
+        },
+      ),
     );
   });
   it("every catalogue label, in stock and as an original", () => {

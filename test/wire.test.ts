@@ -103,7 +103,7 @@ describe("AWG diameters (ASTM B258)", () => {
     expect(ohmPerMetre(0.01 * INCH) * FT_1000).toBeCloseTo(103.7, 1);
     const w = resolveWire({ system: "awg", size: "30", build: "heavy" });
     expect(w.ohm_per_m * FT_1000).toBeCloseTo(103.2, 1);
-    expect(Math.abs(w.ohm_per_m * FT_1000 / 103.7 - 1)).toBeLessThan(0.005);
+    expect(Math.abs((w.ohm_per_m * FT_1000) / 103.7 - 1)).toBeLessThan(0.005);
   });
 
   // DESIGN.md ("The models", AWG): the gap between the printed and the formula resistance grows

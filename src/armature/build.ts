@@ -56,7 +56,15 @@ function fill(items: number, capacity: (j: number) => number, maxLayers: number)
  * slot that widens towards the gap the outer layers are shorter, not absent.
  * Geometry of the trapezoid; common practice, no published source.
  */
-export function toothLayerBuild(turns: number, strands: number, overall: number, slotDepth: number, widthTop: number, widthBottom: number, liner: number): LayerBuild {
+export function toothLayerBuild(
+  turns: number,
+  strands: number,
+  overall: number,
+  slotDepth: number,
+  widthTop: number,
+  widthBottom: number,
+  liner: number,
+): LayerBuild {
   const h = slotDepth;
   const lo = liner;
   const hi = h - liner;

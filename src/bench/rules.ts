@@ -33,8 +33,14 @@ export const OPEN_FACTOR = 100;
 /** Terminal resistance against the plan (common practice, no published source). */
 export const TERMINAL: Tolerance = { fraction: 0.1, source: `${SOURCE_COMMON}: terminal resistance within ±10 % of predicted` };
 export const NO_LOAD_SPEED: Tolerance = { fraction: 0.1, source: `${SOURCE_COMMON}: no-load speed within ±10 % of predicted` };
-export const NO_LOAD_CURRENT: Tolerance = { fraction: 0.3, source: `${SOURCE_COMMON}: no-load current within ±30 % of predicted (friction and brush seating vary)` };
-export const STALL_CURRENT: Tolerance = { fraction: 0.2, source: `${SOURCE_COMMON}: brief stall current within ±20 % of predicted (brush contact varies at stall)` };
+export const NO_LOAD_CURRENT: Tolerance = {
+  fraction: 0.3,
+  source: `${SOURCE_COMMON}: no-load current within ±30 % of predicted (friction and brush seating vary)`,
+};
+export const STALL_CURRENT: Tolerance = {
+  fraction: 0.2,
+  source: `${SOURCE_COMMON}: brief stall current within ±20 % of predicted (brush contact varies at stall)`,
+};
 /** Least insulation resistance taken as a pass, Ω: 1 MΩ (common practice, no published source: the "one megohm" rule of thumb for small low-voltage windings). */
 export const INSULATION_MIN_OHM = 1e6;
 export const INSULATION_SOURCE = `${SOURCE_COMMON}: at least 1 MΩ to the shaft and core`;
@@ -54,7 +60,10 @@ export const NULL_LEADS = "Null the test leads first (touch them together and su
 export function conductorTolerance(bareDiameterM: number): Tolerance {
   const d = bareDiameterM * 1e3;
   const dd = Math.max(0.002, 0.001 + 0.01 * d);
-  return { fraction: (2 * dd) / d, source: "conductor resistance tolerance from the IEC 60317-0-1 / NEMA MW 1000 diameter tolerance (from memory, approximated)" };
+  return {
+    fraction: (2 * dd) / d,
+    source: "conductor resistance tolerance from the IEC 60317-0-1 / NEMA MW 1000 diameter tolerance (from memory, approximated)",
+  };
 }
 
 // ---------------------------------------------------------------------------------------------
@@ -120,7 +129,16 @@ export function judgeSpread(readings: readonly number[], expected: readonly numb
     const dev = !Number.isFinite(n) ? Infinity : med > 0 ? n / med - 1 : n > 0 ? Infinity : 0;
     const pass = Number.isFinite(dev) && Math.abs(dev) <= window;
     const side = sideOf(n, dev, pass);
-    return { index: i, reading_ohm: readings[i], normalised_ohm: n, of_median_fraction: dev, window_fraction: window, side, pass, suggests: pass ? null : SUGGESTS[side] };
+    return {
+      index: i,
+      reading_ohm: readings[i],
+      normalised_ohm: n,
+      of_median_fraction: dev,
+      window_fraction: window,
+      side,
+      pass,
+      suggests: pass ? null : SUGGESTS[side],
+    };
   });
   return { median_ohm: med, rows, pass: rows.every((r) => r.pass) };
 }
@@ -168,7 +186,14 @@ export function judgeLevel(readings: readonly number[], expected: readonly numbe
   const med = median(norm);
   const window = levelWindow(calibrated, bareDiameterM, resolutionOhm, mE);
   const dev = med / mE - 1;
-  return { median_ohm: med, expected_median_ohm: mE, deviation_fraction: dev, window_fraction: window, pass: Math.abs(dev) <= window, source: levelSource(calibrated, bareDiameterM) };
+  return {
+    median_ohm: med,
+    expected_median_ohm: mE,
+    deviation_fraction: dev,
+    window_fraction: window,
+    pass: Math.abs(dev) <= window,
+    source: levelSource(calibrated, bareDiameterM),
+  };
 }
 
 /** The level window, fraction: LEVEL_CALIBRATED or LEVEL_MODEL + conductor tolerance + one count over the expected median (Ω). */

@@ -76,6 +76,7 @@ let fonts: { regular: Buffer; bold: Buffer } | null = null;
 
 /** The two fonts as sfnt buffers, unpacked once per process. */
 export function cardFonts(): { regular: Buffer; bold: Buffer } {
-  if (!fonts) fonts = { regular: woffToSfnt(readFileSync(FONT_FILES.regular), SHAPING_TABLES), bold: woffToSfnt(readFileSync(FONT_FILES.bold), SHAPING_TABLES) };
+  if (!fonts)
+    fonts = { regular: woffToSfnt(readFileSync(FONT_FILES.regular), SHAPING_TABLES), bold: woffToSfnt(readFileSync(FONT_FILES.bold), SHAPING_TABLES) };
   return fonts;
 }

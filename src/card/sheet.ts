@@ -280,7 +280,10 @@ export class Sheet {
       this.y += headH;
     };
     const rowHeights = rows.map((r, ri) =>
-      Math.max(opts.rowHeight ?? 0, ...cols.map((c, i) => this.measure(r[i] ?? "", { size, bold: opts.boldRows?.has(ri) || opts.boldCols?.has(i), width: c.width - 2 * pad }) + 2 * pad)),
+      Math.max(
+        opts.rowHeight ?? 0,
+        ...cols.map((c, i) => this.measure(r[i] ?? "", { size, bold: opts.boldRows?.has(ri) || opts.boldCols?.has(i), width: c.width - 2 * pad }) + 2 * pad),
+      ),
     );
     const whole = headH + rowHeights.reduce((a, b) => a + b, 0);
     this.need(opts.keepTogether && whole < this.bottom - this.top - 40 ? whole : headH + rowHeights.slice(0, 2).reduce((a, b) => a + b, 0));
@@ -344,7 +347,14 @@ export class Sheet {
       const saved = page.margins.bottom;
       page.margins.bottom = 0; // writing below the bottom margin must not open a page
       const y = page.height - this.L.footer.offset;
-      this.doc.save().lineWidth(this.L.line_width.thin).strokeColor(BLACK).moveTo(this.left, y - 4).lineTo(this.right, y - 4).stroke().restore();
+      this.doc
+        .save()
+        .lineWidth(this.L.line_width.thin)
+        .strokeColor(BLACK)
+        .moveTo(this.left, y - 4)
+        .lineTo(this.right, y - 4)
+        .stroke()
+        .restore();
       this.at(jobId, this.left, y, { size, bold: true });
       this.at(`page ${i + 1} of ${total}`, this.left, y, { size, bold: true, width: this.width, align: "center" });
       this.at(`${date}  ·  armwind ${version}`, this.left, y, { size, width: this.width, align: "right" });

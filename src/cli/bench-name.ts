@@ -24,7 +24,12 @@ export function configDir(io: Io): string {
 export function benchName(io: Io): string {
   const given = io.env.ARMWIND_BENCH;
   if (given) {
-    if (!BENCH_NAME.test(given)) throw new ArmwindError({ code: "bad_bench", path: "", message: `ARMWIND_BENCH="${given}": a bench name is letters, digits, _ and - (at most 32), e.g. bench-2` });
+    if (!BENCH_NAME.test(given))
+      throw new ArmwindError({
+        code: "bad_bench",
+        path: "",
+        message: `ARMWIND_BENCH="${given}": a bench name is letters, digits, _ and - (at most 32), e.g. bench-2`,
+      });
     return given;
   }
   const fromShop = loadShop(io)?.shop.bench;

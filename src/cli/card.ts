@@ -50,42 +50,45 @@ export function cardCommand(yargs: Argv, io: Io, setStatus: (n: number) => void)
     "Print the PDF job card for the winding jig: cut list, coil steps, diagram, bench checks, curves, cautions",
     (y) =>
       withLogbook(withJob(y))
-        .option("output", { alias: "o", type: "string", default: "output", describe: "folder for the card (created if missing), or the card's file name when it ends in .pdf" })
+        .option("output", {
+          alias: "o",
+          type: "string",
+          default: "output",
+          describe: "folder for the card (created if missing), or the card's file name when it ends in .pdf",
+        })
         .option("paper", { choices: ["a4", "letter"] as const, describe: "paper size (default $ARMWIND_PAPER, else the shop profile's paper, else a4)" })
         .option("json", { type: "boolean", default: false, describe: "print { ok, card, curves, plan } as JSON" }),
     async (argv) => {
       setStatus(
-        await guarded(
-          io,
-          argv.json,
-          async (where) => {
-            const plan = planFromFile(io, argv.job, where, { logbook: argv.logbook, learn: argv.learn });
-            // pdfkit and the card load only when a card is asked for
-            const { renderCard } = await import("../card/render.js");
-            const shop = loadShop(io)?.shop;
-            const paper = cardPaper(argv.paper, io.env.ARMWIND_PAPER, shop?.paper);
-            const spool = spoolFor(plan, shop);
-            const context = { shop: shop?.shop, bench: shop?.bench, meterResolution: shop?.meter_resolution, spoolMass: spool?.spool_mass };
-            const pdf = await renderCard(plan, { paper, date: today(io), version: VERSION, context });
-            const { file, dir, stem } = cardPaths(io.cwd, argv.output, plan.job.id);
-            await writeAtomic(file, pdf);
-            const shown = relative(io.cwd, file) || file;
-            // the curves as an image beside the card (not for series motors or an uncalibrated motor)
-            let curves: string | null = null;
-            if (hasCurves(plan)) {
-              curves = join(dir, `${stem}-curves.svg`);
-              await writeAtomic(curves, drawingSvg(curvesDrawing(plan, { width: 720, height: 560, legend: true, size: 9 })));
-            }
-            if (argv.json) io.out(JSON.stringify({ ok: true, card: file, curves, feasible: plan.feasible, plan: planJson(plan) }, null, 2));
-            else {
-              io.out(`card written: ${shown}`);
-              if (curves) io.out(`curves image: ${relative(io.cwd, curves) || curves}`);
-              io.out(`  ${plan.design.turns} turns of ${plan.design.wire.label}${plan.design.strands > 1 ? ` ×${plan.design.strands}` : ""}; cut ${plan.wire.cut.toFixed(1)} m; ${plan.feasible ? "meets the goal" : "does NOT meet the goal (closest winding shown)"}`);
-              for (const w of plan.warnings) io.out(`  ! ${w.path ? w.path + ": " : ""}${w.message} [${w.code}]`);
-            }
-            return planStatus(plan);
-          },
-        ),
+        await guarded(io, argv.json, async (where) => {
+          const plan = planFromFile(io, argv.job, where, { logbook: argv.logbook, learn: argv.learn });
+          // pdfkit and the card load only when a card is asked for
+          const { renderCard } = await import("../card/render.js");
+          const shop = loadShop(io)?.shop;
+          const paper = cardPaper(argv.paper, io.env.ARMWIND_PAPER, shop?.paper);
+          const spool = spoolFor(plan, shop);
+          const context = { shop: shop?.shop, bench: shop?.bench, meterResolution: shop?.meter_resolution, spoolMass: spool?.spool_mass };
+          const pdf = await renderCard(plan, { paper, date: today(io), version: VERSION, context });
+          const { file, dir, stem } = cardPaths(io.cwd, argv.output, plan.job.id);
+          await writeAtomic(file, pdf);
+          const shown = relative(io.cwd, file) || file;
+          // the curves as an image beside the card (not for series motors or an uncalibrated motor)
+          let curves: string | null = null;
+          if (hasCurves(plan)) {
+            curves = join(dir, `${stem}-curves.svg`);
+            await writeAtomic(curves, drawingSvg(curvesDrawing(plan, { width: 720, height: 560, legend: true, size: 9 })));
+          }
+          if (argv.json) io.out(JSON.stringify({ ok: true, card: file, curves, feasible: plan.feasible, plan: planJson(plan) }, null, 2));
+          else {
+            io.out(`card written: ${shown}`);
+            if (curves) io.out(`curves image: ${relative(io.cwd, curves) || curves}`);
+            io.out(
+              `  ${plan.design.turns} turns of ${plan.design.wire.label}${plan.design.strands > 1 ? ` ×${plan.design.strands}` : ""}; cut ${plan.wire.cut.toFixed(1)} m; ${plan.feasible ? "meets the goal" : "does NOT meet the goal (closest winding shown)"}`,
+            );
+            for (const w of plan.warnings) io.out(`  ! ${w.path ? w.path + ": " : ""}${w.message} [${w.code}]`);
+          }
+          return planStatus(plan);
+        }),
       );
     },
   );

@@ -67,7 +67,11 @@ export function parseBars(text: string, bars: number): number[] {
   });
   if (problems.length) throw new ArmwindError(problems);
   if (out.length !== bars) {
-    throw inputError("readings_count", "--bars", `${out.length} bar-to-bar readings for ${bars} bars; give r1 … r${bars} separated by commas (r_i between bar i and bar i+1, r${bars} between bar ${bars} and bar 1)`);
+    throw inputError(
+      "readings_count",
+      "--bars",
+      `${out.length} bar-to-bar readings for ${bars} bars; give r1 … r${bars} separated by commas (r_i between bar i and bar i+1, r${bars} between bar ${bars} and bar 1)`,
+    );
   }
   return out;
 }
@@ -77,13 +81,32 @@ function loadRecordFile(io: Io, file: string, job: { id: string; armature: { bar
   const r = loadYaml(text, file, recordSchema);
   const rec = r.value as unknown as LogRecord;
   const problems: Problem[] = [];
-  if (rec.job.id !== job.id) problems.push({ code: "job_mismatch", path: "job.id", message: `the record is of job "${rec.job.id}", not "${job.id}"; give the job file of ${rec.job.id}`, file, ...r.locate(["job", "id"]) });
+  if (rec.job.id !== job.id)
+    problems.push({
+      code: "job_mismatch",
+      path: "job.id",
+      message: `the record is of job "${rec.job.id}", not "${job.id}"; give the job file of ${rec.job.id}`,
+      file,
+      ...r.locate(["job", "id"]),
+    });
   if (rec.measured.bar_to_bar_ohm.length !== job.armature.bars) {
-    problems.push({ code: "readings_count", path: "measured.bar_to_bar_ohm", message: `the record holds ${rec.measured.bar_to_bar_ohm.length} bar-to-bar readings for the job's ${job.armature.bars} bars`, file, ...r.locate(["measured", "bar_to_bar_ohm"]) });
+    problems.push({
+      code: "readings_count",
+      path: "measured.bar_to_bar_ohm",
+      message: `the record holds ${rec.measured.bar_to_bar_ohm.length} bar-to-bar readings for the job's ${job.armature.bars} bars`,
+      file,
+      ...r.locate(["measured", "bar_to_bar_ohm"]),
+    });
   }
   const coils = (rec.predicted as { coil_ohm?: unknown }).coil_ohm;
   if (!Array.isArray(coils) || coils.some((x) => typeof x !== "number" || !(x > 0))) {
-    problems.push({ code: "record_damaged", path: "predicted.coil_ohm", message: "the record holds no expected coil resistances (predicted.coil_ohm)", file, ...r.locate(["predicted"]) });
+    problems.push({
+      code: "record_damaged",
+      path: "predicted.coil_ohm",
+      message: "the record holds no expected coil resistances (predicted.coil_ohm)",
+      file,
+      ...r.locate(["predicted"]),
+    });
   }
   if (problems.length) throw new ArmwindError(problems);
   return rec;
@@ -122,7 +145,14 @@ export function diagnoseJson(job: { id: string }, input: DiagnoseInput, d: Diagn
       deviation_fraction: c.deviation_fraction,
       verdict: c.verdict,
     })),
-    suspects: d.suspects.map((s) => ({ kind: s.kind, coils: s.coils, bars: s.bars, readings: s.readings, turns_estimate: s.turns_estimate, message: s.message })),
+    suspects: d.suspects.map((s) => ({
+      kind: s.kind,
+      coils: s.coils,
+      bars: s.bars,
+      readings: s.readings,
+      turns_estimate: s.turns_estimate,
+      message: s.message,
+    })),
     readings: d.readings.map((r, i) => ({
       index: r.index,
       name: readingName(i),
@@ -147,7 +177,9 @@ const signedPct = (x: number) => `${x >= 0 ? "+" : "−"}${sig(Math.abs(x) * 100
 
 export function diagnoseText(job: { id: string }, input: DiagnoseInput, d: Diagnosis): string {
   const L: string[] = [];
-  L.push(`${job.id}: ${input.readings.length} bar-to-bar readings (${input.source}), ${input.turns === null ? "turns not known (layout only)" : `${input.turns} turns a coil`}`);
+  L.push(
+    `${job.id}: ${input.readings.length} bar-to-bar readings (${input.source}), ${input.turns === null ? "turns not known (layout only)" : `${input.turns} turns a coil`}`,
+  );
   L.push(
     input.temperatureGiven
       ? `Read at ${input.temperature} °C, corrected to 20 °C (IEC 60028, 0.00393/K)${input.expected ? " against the plan's coil resistances at 20 °C" : ""}`
@@ -163,7 +195,17 @@ export function diagnoseText(job: { id: string }, input: DiagnoseInput, d: Diagn
     c.deviation_fraction === null ? "" : signedPct(c.deviation_fraction),
     c.verdict === "ok" ? "ok" : c.verdict.toUpperCase(),
   ]);
-  L.push(table(["coil", "slots", "bars", "solved Ω", d.level?.pass ? "expected Ω" : "reference Ω", "deviation", "verdict"], rows, [true, false, false, true, true, true, false]));
+  L.push(
+    table(["coil", "slots", "bars", "solved Ω", d.level?.pass ? "expected Ω" : "reference Ω", "deviation", "verdict"], rows, [
+      true,
+      false,
+      false,
+      true,
+      true,
+      true,
+      false,
+    ]),
+  );
   L.push("");
   if (d.failures.length) {
     L.push("Readings out of the bench rules:");
@@ -231,7 +273,12 @@ function gatherInput(io: Io, argv: DiagnoseArgs, loaded: { job: Job | null; id: 
   let date: string | undefined;
   let meter: number | undefined;
   if (argv.measured !== undefined) {
-    if (!job) throw inputError("measured_needs_plan", "measured", "a measured file goes with the full job it was planned by; with a layout-only job give the readings as --bars");
+    if (!job)
+      throw inputError(
+        "measured_needs_plan",
+        "measured",
+        "a measured file goes with the full job it was planned by; with a layout-only job give the readings as --bars",
+      );
     const m = loadMeasured(io, argv.measured, job);
     ({ bar_to_bar: readings, temperature, wound, date } = m);
     meter = m.meter_resolution;
@@ -247,7 +294,13 @@ function gatherInput(io: Io, argv: DiagnoseArgs, loaded: { job: Job | null; id: 
       given = true;
     }
   }
-  const base = { readings, temperature, temperatureGiven: given, resolution: res ?? meter ?? DEFAULT_METER_RESOLUTION_OHM, source: argv.measured !== undefined ? `measured file ${argv.measured}` : "--bars" };
+  const base = {
+    readings,
+    temperature,
+    temperatureGiven: given,
+    resolution: res ?? meter ?? DEFAULT_METER_RESOLUTION_OHM,
+    source: argv.measured !== undefined ? `measured file ${argv.measured}` : "--bars",
+  };
   if (!job) return { ...base, expected: null, turns: null, calibrated: false, bareDiameter: null };
   const options = argv.learn ? logbookOptionsFor(io, job, argv.logbook, date ? { before: date } : {}) : {};
   const plan = planJob(job, options);
@@ -257,7 +310,12 @@ function gatherInput(io: Io, argv: DiagnoseArgs, loaded: { job: Job | null; id: 
 
 function parseResolution(text: string): number {
   const r = parseQuantity(text, "resistance");
-  if (!r.ok || !(r.value > 0)) throw inputError("bad_quantity", "resolution", `--resolution ${text}: ${r.ok ? "must be greater than 0" : r.message} (the meter's last digit, e.g. 0.001 ohm)`);
+  if (!r.ok || !(r.value > 0))
+    throw inputError(
+      "bad_quantity",
+      "resolution",
+      `--resolution ${text}: ${r.ok ? "must be greater than 0" : r.message} (the meter's last digit, e.g. 0.001 ohm)`,
+    );
   return r.value;
 }
 
@@ -266,12 +324,18 @@ export function diagnoseCommand(yargs: Argv, io: Io, setStatus: (n: number) => v
     "diagnose <job>",
     "Judge the bar-to-bar readings by the bench rules, solve them for each coil's resistance and name the coils behind each failing reading (exit 4 when one fails)",
     (y) =>
-      withLogbook(withJob(y, "job file (YAML), or a layout-only job (version, id, armature, winding)"), "expect what the plan expects with the family's records (--no-learn: without)")
+      withLogbook(
+        withJob(y, "job file (YAML), or a layout-only job (version, id, armature, winding)"),
+        "expect what the plan expects with the family's records (--no-learn: without)",
+      )
         .option("bars", { type: "string", describe: "readings r1,r2,…,rC in Ω (a unit may follow each: 1.05 ohm, 1050 mohm; OL or open for an open circuit)" })
         .option("temperature", { type: "string", describe: 'winding temperature when read with --bars, e.g. "21 C" or "70 F" (default 20 C)' })
         .option("measured", { type: "string", describe: "take the readings (and the winding laid) from a measured file" })
         .option("record", { type: "string", describe: "take the readings (and the winding laid) from a logbook record" })
-        .option("resolution", { type: "string", describe: `the meter's resolution, e.g. "0.001 ohm" (default: the file's, else ${DEFAULT_METER_RESOLUTION_OHM} ohm)` })
+        .option("resolution", {
+          type: "string",
+          describe: `the meter's resolution, e.g. "0.001 ohm" (default: the file's, else ${DEFAULT_METER_RESOLUTION_OHM} ohm)`,
+        })
         .option("tolerance", { type: "number", describe: "tolerance on each coil as a fraction (default 0.05, the spread rule; common practice)" })
         .option("json", { type: "boolean", default: false, describe: "print { ok, errors, failures, coils, suspects, … } as JSON" }),
 
@@ -280,7 +344,8 @@ export function diagnoseCommand(yargs: Argv, io: Io, setStatus: (n: number) => v
         await guarded(io, argv.json, (where) => {
           const ways = [argv.bars, argv.measured, argv.record].filter((x) => x !== undefined).length;
           if (ways !== 1) throw inputError("readings_missing", "", "give the readings one way: --bars r1,r2,…, --measured FILE or --record FILE");
-          if (argv.temperature !== undefined && argv.bars === undefined) throw inputError("option_conflict", "--temperature", "--temperature goes with --bars (measured files and records carry their own)");
+          if (argv.temperature !== undefined && argv.bars === undefined)
+            throw inputError("option_conflict", "--temperature", "--temperature goes with --bars (measured files and records carry their own)");
           if (argv.tolerance !== undefined && !(argv.tolerance > 0 && argv.tolerance < 1)) {
             throw inputError("tolerance_invalid", "--tolerance", `--tolerance ${argv.tolerance}: a fraction between 0 and 1 is needed, like 0.05 for ±5 %`);
           }
@@ -288,7 +353,11 @@ export function diagnoseCommand(yargs: Argv, io: Io, setStatus: (n: number) => v
           const input = gatherInput(io, argv, loaded);
           const layout = layoutWinding(loaded.spec);
           if (input.expected && input.expected.length !== layout.coils.length) {
-            throw inputError("record_mismatch", "predicted.coil_ohm", `the record expects ${input.expected.length} coils, the job's coil table has ${layout.coils.length}`);
+            throw inputError(
+              "record_mismatch",
+              "predicted.coil_ohm",
+              `the record expects ${input.expected.length} coils, the job's coil table has ${layout.coils.length}`,
+            );
           }
           const at20 = input.readings.map((r) => (Number.isFinite(r) ? to20C(r, input.temperature) : r));
           const d = diagnose(layout, at20, input.expected, input.turns, argv.tolerance, {

@@ -19,7 +19,9 @@ const pair = (p: number | null, m: number | null, f: (x: number | null) => strin
 export function historyText(rows: HistoryRow[], book: Logbook, family?: string): string {
   const where = book.dir;
   if (rows.length === 0) {
-    return book.exists ? `No finished rewinds${family ? ` of family ${family}` : ""} in ${where}.` : `No logbook at ${where} yet (armwind log JOB --measured FILE starts it).`;
+    return book.exists
+      ? `No finished rewinds${family ? ` of family ${family}` : ""} in ${where}.`
+      : `No logbook at ${where} yet (armwind log JOB --measured FILE starts it).`;
   }
   const body = rows.map((r) => [
     r.job_id,
@@ -34,7 +36,16 @@ export function historyText(rows: HistoryRow[], book: Logbook, family?: string):
   return [
     `${rows.length} finished rewind${rows.length === 1 ? "" : "s"}${family ? ` of family ${family}` : ""} in ${where} (predicted / measured; resistance at 20 °C)`,
     "",
-    table(["job", "date", "armature (family, style slots/bars)", "winding (turns × wire)", "terminal Ω", "no-load A", "no-load rpm", "checks"], body, [false, false, false, false, true, true, true, false]),
+    table(["job", "date", "armature (family, style slots/bars)", "winding (turns × wire)", "terminal Ω", "no-load A", "no-load rpm", "checks"], body, [
+      false,
+      false,
+      false,
+      false,
+      true,
+      true,
+      true,
+      false,
+    ]),
   ].join("\n");
 }
 
@@ -61,8 +72,18 @@ export function historyCommand(yargs: Argv, io: Io, setStatus: (n: number) => vo
           let rows: HistoryRow[] = [];
           const book = readInBatches(logbookDir(io, argv.logbook), (records) => rows.push(...historyRows(records)));
           // listing is all history does: a folder it cannot read is an error here (a plan goes on without it)
-          if (book.unreadable) throw new ArmwindError({ code: "file_unreadable", path: "", file: book.dir, message: book.warnings[0].message.replace(/; going on without its records$/, "") });
-          refreshIndex(book.dir, rows.map((r) => [r.file, r.family] as [string, string | null]), cacheFolder(io.env));
+          if (book.unreadable)
+            throw new ArmwindError({
+              code: "file_unreadable",
+              path: "",
+              file: book.dir,
+              message: book.warnings[0].message.replace(/; going on without its records$/, ""),
+            });
+          refreshIndex(
+            book.dir,
+            rows.map((r) => [r.file, r.family] as [string, string | null]),
+            cacheFolder(io.env),
+          );
           for (const w of book.warnings) io.err(`armwind: warning: ${w.message} [${w.code}]`);
           rows.sort((a, b) => (a.date < b.date ? -1 : a.date > b.date ? 1 : byFileName(a.file, b.file)));
           if (argv.family !== undefined) rows = rows.filter((r) => r.family === argv.family);
@@ -72,7 +93,10 @@ export function historyCommand(yargs: Argv, io: Io, setStatus: (n: number) => vo
             const d = historyDrawing(rows, title);
             const data = extname(file).toLowerCase() === ".pdf" ? await (await import("../logbook/history-pdf.js")).drawingPdf(d, { title }) : drawingSvg(d);
             await writeAtomic(resolve(io.cwd, file), data);
-            if (!argv.json && !argv.csv) io.err(`armwind: plot written to ${relative(io.cwd, resolve(io.cwd, file)).startsWith("..") ? resolve(io.cwd, file) : relative(io.cwd, resolve(io.cwd, file))}`);
+            if (!argv.json && !argv.csv)
+              io.err(
+                `armwind: plot written to ${relative(io.cwd, resolve(io.cwd, file)).startsWith("..") ? resolve(io.cwd, file) : relative(io.cwd, resolve(io.cwd, file))}`,
+              );
           }
           if (argv.json) {
             io.out(JSON.stringify({ ok: true, logbook: book.dir, records: rows, warnings: book.warnings }, null, 2));

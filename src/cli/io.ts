@@ -77,7 +77,8 @@ export function loadJobText(
     throw new ArmwindError({
       code: "layout_only_job",
       path: "",
-      message: "this job holds only the layout (no original, no target): armwind diagnose reads it; plan, card and log need the original winding and a target (armwind new job writes a full one)",
+      message:
+        "this job holds only the layout (no original, no target): armwind diagnose reads it; plan, card and log need the original winding and a target (armwind new job writes a full one)",
       file: name,
       line: 1,
       column: 1,
@@ -88,7 +89,11 @@ export function loadJobText(
 }
 
 /** Attach file, line and column to problems that carry only a field path (thrown by the core). */
-export function locateProblems(problems: Problem[], file: string | undefined, locate?: (path: (string | number)[]) => { line: number; column: number }): Problem[] {
+export function locateProblems(
+  problems: Problem[],
+  file: string | undefined,
+  locate?: (path: (string | number)[]) => { line: number; column: number },
+): Problem[] {
   return problems.map((p) => {
     // a problem of a command-line option (path "--bars[2]") is not in the file
     if (p.file || !file || p.path.startsWith("--")) return p;
@@ -113,7 +118,14 @@ export function reportError(io: Io, e: ArmwindError, json: boolean): number {
       JSON.stringify(
         {
           ok: false,
-          errors: problems.map((p) => ({ code: p.code, message: p.message, file: p.file ?? null, line: p.line ?? null, column: p.column ?? null, path: p.path })),
+          errors: problems.map((p) => ({
+            code: p.code,
+            message: p.message,
+            file: p.file ?? null,
+            line: p.line ?? null,
+            column: p.column ?? null,
+            path: p.path,
+          })),
         },
         null,
         2,
@@ -144,7 +156,8 @@ export async function guarded(io: Io, json: boolean, body: (where: Where) => Pro
     }
     const msg = oneLine(e instanceof Error ? e.message : String(e));
     io.err(`armwind: internal error: ${msg} (this is a fault in armwind, not in your file; please report it with the job file)`);
-    if (json) io.out(JSON.stringify({ ok: false, errors: [{ code: "internal_error", message: msg, file: null, line: null, column: null, path: "" }] }, null, 2));
+    if (json)
+      io.out(JSON.stringify({ ok: false, errors: [{ code: "internal_error", message: msg, file: null, line: null, column: null, path: "" }] }, null, 2));
     return 70;
   }
 }

@@ -43,7 +43,8 @@ export function recordYaml(record: LogRecord): string {
 
 const CAUTIONS = {
   stall: "Caution: a stall test heats the winding fast; keep it brief, at a reduced supply, with the rotor clamped and hands clear of the shaft.",
-  insulation: "Caution: an insulation tester's test voltage can give a shock; discharge the winding to the core after the test, and follow local codes and licensed practice.",
+  insulation:
+    "Caution: an insulation tester's test voltage can give a shock; discharge the winding to the core after the test, and follow local codes and licensed practice.",
 };
 
 function value(c: CheckRow, x: number | null): string {
@@ -58,16 +59,18 @@ function checkName(c: CheckRow): string {
   const label = checkLabel(c.check);
   if (label !== c.check) return `bar to bar ${label}`;
   return (
-    {
-      "bar_to_bar.spread": "bar-to-bar spread",
-      "bar_to_bar.level": "bar-to-bar level (median)",
-      terminal_resistance: "terminal",
-      "no_load.speed": "no-load speed",
-      "no_load.current": "no-load current",
-      "stall.current": "stall current",
-      insulation: "insulation",
-    } as Record<string, string>
-  )[c.check] ?? c.check;
+    (
+      {
+        "bar_to_bar.spread": "bar-to-bar spread",
+        "bar_to_bar.level": "bar-to-bar level (median)",
+        terminal_resistance: "terminal",
+        "no_load.speed": "no-load speed",
+        "no_load.current": "no-load current",
+        "stall.current": "stall current",
+        insulation: "insulation",
+      } as Record<string, string>
+    )[c.check] ?? c.check
+  );
 }
 
 /** The checks out of tolerance, for `--json`: each with its reading, the prediction and the rule. */
@@ -93,23 +96,40 @@ export function logText(record: LogRecord, file: string, jobFile = `${record.job
   const L: string[] = [];
   const w = record.winding;
   L.push(`Logged ${record.job.id} of ${record.date} as ${file}`);
-  L.push(`Winding laid: ${w.turns} turns × ${w.wire.label}${w.strands > 1 ? ` × ${w.strands} in hand` : ""}${w.differs_from_plan ? ` (not as planned: ${w.differences.join(", ")})` : " (as planned)"}`);
+  L.push(
+    `Winding laid: ${w.turns} turns × ${w.wire.label}${w.strands > 1 ? ` × ${w.strands} in hand` : ""}${w.differs_from_plan ? ` (not as planned: ${w.differences.join(", ")})` : " (as planned)"}`,
+  );
   const cmp = record.comparison;
   L.push(`Readings at ${sig(cmp.temperature_c)} °C; resistances corrected to 20 °C (÷ ${cmp.correction_factor.toFixed(4)}, IEC 60028)`);
   L.push("");
   const rows = cmp.checks.map((c) => [
     checkName(c),
     c.check === "insulation" || c.check === "bar_to_bar.spread" ? "" : value(c, c.predicted_value),
-    c.check === "insulation" && c.unit === "" ? (c.verdict === "ok" ? "passed" : c.verdict === "fail" ? "failed" : "—") : c.unit === "ohm" ? (c.measured_20c_value === null && c.verdict === "fail" ? "open" : value(c, c.measured_20c_value)) : value(c, c.measured_value),
+    c.check === "insulation" && c.unit === ""
+      ? c.verdict === "ok"
+        ? "passed"
+        : c.verdict === "fail"
+          ? "failed"
+          : "—"
+      : c.unit === "ohm"
+        ? c.measured_20c_value === null && c.verdict === "fail"
+          ? "open"
+          : value(c, c.measured_20c_value)
+        : value(c, c.measured_value),
     c.deviation_fraction === null || c.unit === "fraction" ? "" : `${c.deviation_fraction >= 0 ? "+" : "−"}${sig(Math.abs(c.deviation_fraction) * 100)} %`,
-    c.check === "insulation" && c.unit === "Mohm" ? `≥ ${value(c, c.predicted_value)}` : c.tolerance_fraction === null ? "" : `±${sig(c.tolerance_fraction * 100)} %`,
+    c.check === "insulation" && c.unit === "Mohm"
+      ? `≥ ${value(c, c.predicted_value)}`
+      : c.tolerance_fraction === null
+        ? ""
+        : `±${sig(c.tolerance_fraction * 100)} %`,
     c.verdict === "not_checked" ? "not checked" : c.verdict === "ok" ? "ok" : c.verdict.toUpperCase(),
   ]);
   L.push(table(["check", "predicted", "measured (20 °C)", "deviation", "tolerance", "verdict"], rows, [false, true, true, true, true, false]));
   L.push("  (each bar-to-bar reading: deviation and band against the median of your readings, the spread rule; the level row: your median against the plan's)");
   const spread = cmp.checks.find((c) => c.check === "bar_to_bar.spread");
   if (spread?.note) L.push(`  spread: ${spread.note}`);
-  for (const c of cmp.checks) if (c.note && c.verdict !== "not_checked" && c.check !== "bar_to_bar.spread" && c.verdict !== "ok") L.push(`  ${checkName(c)}: ${c.note}`);
+  for (const c of cmp.checks)
+    if (c.note && c.verdict !== "not_checked" && c.check !== "bar_to_bar.spread" && c.verdict !== "ok") L.push(`  ${checkName(c)}: ${c.note}`);
   for (const c of cmp.checks) if (c.verdict === "not_checked" && c.note) L.push(`  ${checkName(c)} not checked: ${c.note}`);
   for (const n of cmp.notes) L.push(`  · ${n}`);
   L.push("");
@@ -127,7 +147,9 @@ export function logText(record: LogRecord, file: string, jobFile = `${record.job
       ? `${failed.length} check${failed.length > 1 ? "s" : ""} out of tolerance (${failed.map(checkName).join(", ")}): the record is kept; armwind diagnose ${jobFile} --record ${file} names the coil (exit status 4)`
       : "Every check within tolerance.",
   );
-  L.push("A reversed coil or a wrong lead throw reads normal bar to bar: a polarity check (a compass or a growler along the slots) finds it (common practice).");
+  L.push(
+    "A reversed coil or a wrong lead throw reads normal bar to bar: a polarity check (a compass or a growler along the slots) finds it (common practice).",
+  );
   if (record.measured.stall) L.push(CAUTIONS.stall);
   if (record.measured.insulation) L.push(CAUTIONS.insulation);
   return L.join("\n");
@@ -153,35 +175,38 @@ export function logCommand(yargs: Argv, io: Io, setStatus: (n: number) => void) 
     "Record a finished rewind in the logbook: the bench readings beside the plan (exit 4 when a check fails)",
     (y) =>
       withLogbook(withJob(y, "job file (YAML) the rewind was planned by"), "predict as the plan did, with the family's earlier records (--no-learn: without)")
-        .option("measured", { type: "string", demandOption: true, describe: "measured file (YAML): date, temperature, bar-to-bar readings, terminal, no-load, stall, insulation" })
+        .option("measured", {
+          type: "string",
+          demandOption: true,
+          describe: "measured file (YAML): date, temperature, bar-to-bar readings, terminal, no-load, stall, insulation",
+        })
         .option("again", { type: "boolean", default: false, describe: "log it even when the logbook already holds these readings for this job" })
         .option("json", { type: "boolean", default: false, describe: "print { ok, file, record } as JSON (ok: every check within tolerance)" }),
     async (argv) => {
       setStatus(
-        await guarded(
-          io,
-          argv.json,
-          (where) => {
-            const { job, file, locate } = loadJob(io, argv.job);
-            where.file = file;
-            where.locate = locate;
-            const m = loadMeasured(io, argv.measured, job);
-            const dir = logbookDir(io, argv.logbook);
-            const options = argv.learn ? logbookOptionsFor(io, job, argv.logbook, { before: m.date }) : {};
-            const plan = planJob(job, options);
-            const prediction = predictWound(job, plan, m.wound, options);
-            const record = buildRecord(job, plan, prediction, m, new Date().toISOString());
-            const hold = Number(io.env.ARMWIND_LOG_HOLD_MS ?? 0);
-            if (!argv.again) refuseIfLogged(dir, record);
-            const path = writeRecordFile(dir, job.id, m.date, benchName(io), recordYaml(record), { holdMs: Number.isFinite(hold) ? hold : 0 });
-            const shown = relative(io.cwd, path).startsWith("..") ? path : relative(io.cwd, path);
-            // docs/contracts.md: `record` is the file written (also `file`), `failures` the checks out of tolerance; the record itself is `logged`
-            if (argv.json) io.out(JSON.stringify({ ok: record.comparison.ok, errors: [], failures: logFailures(record), record: shown, file: shown, logged: record }, null, 2));
-            else io.out(logText(record, shown, file));
-            if (!record.comparison.ok) io.err(`armwind: a bench check failed; the record was written: ${shown}`);
-            return record.comparison.ok ? 0 : 4;
-          },
-        ),
+        await guarded(io, argv.json, (where) => {
+          const { job, file, locate } = loadJob(io, argv.job);
+          where.file = file;
+          where.locate = locate;
+          const m = loadMeasured(io, argv.measured, job);
+          const dir = logbookDir(io, argv.logbook);
+          const options = argv.learn ? logbookOptionsFor(io, job, argv.logbook, { before: m.date }) : {};
+          const plan = planJob(job, options);
+          const prediction = predictWound(job, plan, m.wound, options);
+          const record = buildRecord(job, plan, prediction, m, new Date().toISOString());
+          const hold = Number(io.env.ARMWIND_LOG_HOLD_MS ?? 0);
+          if (!argv.again) refuseIfLogged(dir, record);
+          const path = writeRecordFile(dir, job.id, m.date, benchName(io), recordYaml(record), { holdMs: Number.isFinite(hold) ? hold : 0 });
+          const shown = relative(io.cwd, path).startsWith("..") ? path : relative(io.cwd, path);
+          // docs/contracts.md: `record` is the file written (also `file`), `failures` the checks out of tolerance; the record itself is `logged`
+          if (argv.json)
+            io.out(
+              JSON.stringify({ ok: record.comparison.ok, errors: [], failures: logFailures(record), record: shown, file: shown, logged: record }, null, 2),
+            );
+          else io.out(logText(record, shown, file));
+          if (!record.comparison.ok) io.err(`armwind: a bench check failed; the record was written: ${shown}`);
+          return record.comparison.ok ? 0 : 4;
+        }),
       );
     },
   );

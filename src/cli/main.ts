@@ -68,7 +68,10 @@ const isMain = process.argv[1] && /main\.(js|ts)$|armwind(\.mjs)?$/.test(process
 if (isMain) {
   // yargs prints help and usage through console.log: a reader that closes early (EPIPE) or a full
   // disk there ends the command as the output routine would, never with a stack trace
-  for (const [stream, fd] of [[process.stdout, 1], [process.stderr, 2]] as const) {
+  for (const [stream, fd] of [
+    [process.stdout, 1],
+    [process.stderr, 2],
+  ] as const) {
     stream.on("error", (e: NodeJS.ErrnoException) => {
       process.exitCode = endForOutputError(new OutputError(fd, e.code ?? "error"));
     });

@@ -35,7 +35,10 @@ export function measuredTemplate(plan: Plan, date: string, schemaRef: string, me
   L.push(`  wire: ${d.wire.label}`.padEnd(34) + `# planned: ${d.wire.label}`);
   L.push(`  strands: ${d.strands}                      # in hand (planned: ${d.strands})`);
   L.push(`temperature: ~                    # of the winding when the resistances were read, e.g. 21 C`);
-  L.push(`meter_resolution: ${meterResolution !== undefined ? `${sig(meterResolution)} ohm` : "~"}`.padEnd(34) + `# the resolution of the range you read on, e.g. 0.01 ohm`);
+  L.push(
+    `meter_resolution: ${meterResolution !== undefined ? `${sig(meterResolution)} ohm` : "~"}`.padEnd(34) +
+      `# the resolution of the range you read on, e.g. 0.01 ohm`,
+  );
   L.push(`bar_to_bar:                       # r1 … r${C}, ohm unless a unit is written; r_i between bar i and bar i+1`);
   for (let i = 0; i < C; i++) {
     const a = i + 1;

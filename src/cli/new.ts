@@ -52,7 +52,15 @@ export function checkId(id: string): void {
 /** The problem (exit status 3) for a file that could not be written, from the system's error code. */
 export function writeFailure(code: string | undefined, shown: string): ArmwindError {
   if (code === "EEXIST") {
-    return new ArmwindError({ code: "file_exists", path: "", file: shown, message: `already exists; armwind new never overwrites a file: choose another name with -o FILE or --id ID` }, 3);
+    return new ArmwindError(
+      {
+        code: "file_exists",
+        path: "",
+        file: shown,
+        message: `already exists; armwind new never overwrites a file: choose another name with -o FILE or --id ID`,
+      },
+      3,
+    );
   }
   const why =
     code === "EACCES" || code === "EPERM"
@@ -187,7 +195,12 @@ export function runNewShop(io: Io, opts: { output?: string; json?: boolean }): n
 }
 
 /** Write a commented measured-readings file for the job JOB (<id>-measured-<date>.yaml here by default). */
-export async function runNewMeasured(io: Io, job: string, opts: { output?: string; json?: boolean; logbook?: string; learn?: boolean }, where: Where): Promise<number> {
+export async function runNewMeasured(
+  io: Io,
+  job: string,
+  opts: { output?: string; json?: boolean; logbook?: string; learn?: boolean },
+  where: Where,
+): Promise<number> {
   const { planFromFile } = await import("./plan.js");
   const { measuredTemplate } = await import("./new-measured.js");
   const { loadShop } = await import("./shop.js");
@@ -234,7 +247,12 @@ export function newCommand(yargs: Argv, io: Io, setStatus: (n: number) => void) 
         return setStatus(1);
       }
       if (kind === "shop") setStatus(await guarded(io, argv.json, () => runNewShop(io, { output: argv.output, json: argv.json })));
-      else if (kind === "measured") setStatus(await guarded(io, argv.json, (where) => runNewMeasured(io, argv.job as string, { output: argv.output, json: argv.json, logbook: argv.logbook, learn: argv.learn }, where)));
+      else if (kind === "measured")
+        setStatus(
+          await guarded(io, argv.json, (where) =>
+            runNewMeasured(io, argv.job as string, { output: argv.output, json: argv.json, logbook: argv.logbook, learn: argv.learn }, where),
+          ),
+        );
       else setStatus(await guarded(io, argv.json, () => runNew(io, { style: argv.style as Style, id: argv.id, output: argv.output, json: argv.json })));
     },
   );

@@ -50,7 +50,8 @@ export function writeStream(fd: number, text: string): void {
 
 /** The one line for an output that failed (not for a closed pipe, which ends quietly). */
 export function outputFailedLine(e: OutputError): string {
-  const why = e.code === "ENOSPC" ? "the disk is full" : e.code === "EDQUOT" ? "the disk quota is exhausted" : e.code === "EFBIG" ? "the file is too large" : e.code;
+  const why =
+    e.code === "ENOSPC" ? "the disk is full" : e.code === "EDQUOT" ? "the disk quota is exhausted" : e.code === "EFBIG" ? "the file is too large" : e.code;
   return `armwind: cannot write to standard ${e.fd === 2 ? "error" : "output"}: ${why} [write_failed]\n`;
 }
 

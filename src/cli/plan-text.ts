@@ -14,12 +14,16 @@ function headText(plan: Plan, L: string[]): void {
   const sp = plan.layout.spec;
   L.push(
     `${sp.style} winding, ${sp.slots} slots, ${plan.layout.bars} bars, ${sp.poles} poles` +
-      (sp.style !== "tooth" ? `, span ${sp.span} (slot 1 to ${1 + sp.span}), ${sp.coils_per_slot} coil${sp.coils_per_slot > 1 ? "s" : ""} per slot, ${sp.progression}` : "") +
+      (sp.style !== "tooth"
+        ? `, span ${sp.span} (slot 1 to ${1 + sp.span}), ${sp.coils_per_slot} coil${sp.coils_per_slot > 1 ? "s" : ""} per slot, ${sp.progression}`
+        : "") +
       `, ${plan.paths} parallel paths`,
   );
   for (const n of plan.layout.notes) L.push(`  note: ${n}`);
   L.push("");
-  L.push(`${plan.feasible ? "WIND" : "CLOSEST (does not meet the goal)"}: ${d.turns} turns per coil of ${d.wire.label}${d.strands > 1 ? `, ${d.strands} strands in hand` : ""}`);
+  L.push(
+    `${plan.feasible ? "WIND" : "CLOSEST (does not meet the goal)"}: ${d.turns} turns per coil of ${d.wire.label}${d.strands > 1 ? `, ${d.strands} strands in hand` : ""}`,
+  );
   L.push(`  goal ${plan.goal.kind.replace(/_/g, " ")}: ${goalSummary(plan.goal)}`);
   if (plan.binding) L.push(`  ${plan.binding}`);
   L.push(
@@ -33,7 +37,9 @@ function cutAndReadingsText(plan: Plan, L: string[]): void {
   const d = plan.design;
   L.push("");
   L.push("Cut list");
-  L.push(`  mean turn ${mm(plan.wire.mlt)} mm (${plan.wire.mlt_source.replace(/_/g, " ")}); one coil ${sig(plan.wire.per_coil)} m; winding ${sig(plan.wire.winding)} m`);
+  L.push(
+    `  mean turn ${mm(plan.wire.mlt)} mm (${plan.wire.mlt_source.replace(/_/g, " ")}); one coil ${sig(plan.wire.per_coil)} m; winding ${sig(plan.wire.winding)} m`,
+  );
   L.push(`  old wire ${plan.original.overall_basis}`);
   L.push(
     `  CUT ${sig(plan.wire.cut)} m${d.strands > 1 ? ` in all (${sig(plan.wire.cut_per_strand)} m from each of ${d.strands} spools)` : ""} with ${mm(plan.wire.lead_allowance)} mm leads and ${pct(plan.wire.spare_margin)} spare; copper ${sig(toGrams(plan.wire.copper_mass))} g`,
@@ -51,11 +57,17 @@ function cutAndReadingsText(plan: Plan, L: string[]): void {
 function motorText(plan: Plan, L: string[]): void {
   const d = plan.design;
   L.push("");
-  L.push(`Motor at ${sig(plan.supply)} V ${plan.supply_kind.toUpperCase()} (Ke from ${plan.calibration.source.replace(/_/g, "-")}${plan.calibration.uncertainty !== null ? `, ±${sig(plan.calibration.uncertainty * 100, 2)} %` : ""})`);
+  L.push(
+    `Motor at ${sig(plan.supply)} V ${plan.supply_kind.toUpperCase()} (Ke from ${plan.calibration.source.replace(/_/g, "-")}${plan.calibration.uncertainty !== null ? `, ±${sig(plan.calibration.uncertainty * 100, 2)} %` : ""})`,
+  );
   const m = plan.motor;
   const o = plan.original_motor;
   const rows: [string, string, string][] = [
-    ["turns × wire", `${plan.original.turns} × ${plan.original.wire.label}${plan.original.strands > 1 ? ` ×${plan.original.strands}` : ""}`, `${d.turns} × ${d.wire.label}${d.strands > 1 ? ` ×${d.strands}` : ""}`],
+    [
+      "turns × wire",
+      `${plan.original.turns} × ${plan.original.wire.label}${plan.original.strands > 1 ? ` ×${plan.original.strands}` : ""}`,
+      `${d.turns} × ${d.wire.label}${d.strands > 1 ? ` ×${d.strands}` : ""}`,
+    ],
     ["terminal Ω (20 °C)", ohm(plan.original.terminal_ohm) + (plan.original.terminal_measured ? " meas." : ""), ohm(plan.resistance.terminal_ohm)],
     ...kvRows(plan).map(([label, f]) => [label, f(o), f(m)] as [string, string, string]),
     ["no-load speed rpm", rpm(o.noLoadSpeed), rpm(m.noLoadSpeed)],
@@ -87,15 +99,17 @@ function motorText(plan: Plan, L: string[]): void {
 function candidatesText(plan: Plan, L: string[]): void {
   L.push("");
   L.push(`Candidates: ${plan.candidates_total} looked at; best and nearest misses:`);
-  const crow = plan.candidates.slice(0, 12).map((c) => [
-    String(c.turns),
-    c.wire.label,
-    String(c.strands),
-    pct(c.copper_fill),
-    ohm(c.terminal_ohm),
-    sig(goalValue(plan.goal.kind, c.achieved)),
-    c.meets_goal ? "meets" : c.rejected_because.length ? c.rejected_because.join(",") : "misses goal",
-  ]);
+  const crow = plan.candidates
+    .slice(0, 12)
+    .map((c) => [
+      String(c.turns),
+      c.wire.label,
+      String(c.strands),
+      pct(c.copper_fill),
+      ohm(c.terminal_ohm),
+      sig(goalValue(plan.goal.kind, c.achieved)),
+      c.meets_goal ? "meets" : c.rejected_because.length ? c.rejected_because.join(",") : "misses goal",
+    ]);
   L.push(
     table(["turns", "wire", "k", "Cu fill", "R Ω", GOAL_UNIT[plan.goal.kind], "verdict"], crow, [true, false, true, true, true, true, false])
       .split("\n")
@@ -107,7 +121,9 @@ function candidatesText(plan: Plan, L: string[]): void {
   if (plan.sensitivity.length) {
     L.push("Sensitivity:");
     for (const s of plan.sensitivity)
-      L.push(`  ${s.label.padEnd(15)} ${String(s.turns).padStart(5)} × ${s.wire}: R ${ohm(s.terminal_ohm)} Ω, ${GOAL_UNIT[plan.goal.kind]} ${sig(goalValue(plan.goal.kind, s.achieved))}, fill ${pct(s.copper_fill)}${s.rejected_because.length ? ` (${s.rejected_because.map(reasonText).join("; ")})` : ""}`);
+      L.push(
+        `  ${s.label.padEnd(15)} ${String(s.turns).padStart(5)} × ${s.wire}: R ${ohm(s.terminal_ohm)} Ω, ${GOAL_UNIT[plan.goal.kind]} ${sig(goalValue(plan.goal.kind, s.achieved))}, fill ${pct(s.copper_fill)}${s.rejected_because.length ? ` (${s.rejected_because.map(reasonText).join("; ")})` : ""}`,
+      );
   }
   if (plan.learning) {
     L.push(`Logbook: ${plan.learning.records} record(s) of family ${plan.job.armature.family} corrected this plan`);

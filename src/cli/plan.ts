@@ -36,42 +36,39 @@ export function planCommand(yargs: Argv, io: Io, setStatus: (n: number) => void)
       "plan <job>",
       "Work out the winding: turns, wire, fill, resistances, cut list, and the motor old and new",
       (y) =>
-        withLogbook(withJob(y)).option("json", { type: "boolean", default: false, describe: "print the plan as JSON (its keys are listed in the README, \"The plan --json output\")" }),
+        withLogbook(withJob(y)).option("json", {
+          type: "boolean",
+          default: false,
+          describe: 'print the plan as JSON (its keys are listed in the README, "The plan --json output")',
+        }),
       async (argv) => {
         setStatus(
-          await guarded(
-            io,
-            argv.json,
-            (where) => {
-              const plan = planFromFile(io, argv.job, where, { logbook: argv.logbook, learn: argv.learn });
-              io.out(argv.json ? JSON.stringify(planJson(plan), null, 2) : planText(plan));
-              return planStatus(plan);
-            },
-          ),
+          await guarded(io, argv.json, (where) => {
+            const plan = planFromFile(io, argv.job, where, { logbook: argv.logbook, learn: argv.learn });
+            io.out(argv.json ? JSON.stringify(planJson(plan), null, 2) : planText(plan));
+            return planStatus(plan);
+          }),
         );
       },
     )
     .command(
       "check <job>",
       "Validate a job file and print its warnings (exits as plan would)",
-      (y) =>
-        withLogbook(withJob(y)).option("json", { type: "boolean", default: false, describe: "print { ok, feasible, warnings } as JSON" }),
+      (y) => withLogbook(withJob(y)).option("json", { type: "boolean", default: false, describe: "print { ok, feasible, warnings } as JSON" }),
       async (argv) => {
         setStatus(
-          await guarded(
-            io,
-            argv.json,
-            (where) => {
-              const plan = planFromFile(io, argv.job, where, { logbook: argv.logbook, learn: argv.learn });
-              if (argv.json) {
-                io.out(JSON.stringify({ ok: true, job_id: plan.job.id, feasible: plan.feasible, warnings: plan.warnings }, null, 2));
-              } else {
-                io.out(`${where.file}: ${plan.job.id} is a valid job file; ${plan.feasible ? "a winding meets the goal" : "no winding meets the goal within the limits"}.`);
-                for (const w of plan.warnings) io.out(`  ! ${w.path ? w.path + ": " : ""}${w.message} [${w.code}]`);
-              }
-              return planStatus(plan);
-            },
-          ),
+          await guarded(io, argv.json, (where) => {
+            const plan = planFromFile(io, argv.job, where, { logbook: argv.logbook, learn: argv.learn });
+            if (argv.json) {
+              io.out(JSON.stringify({ ok: true, job_id: plan.job.id, feasible: plan.feasible, warnings: plan.warnings }, null, 2));
+            } else {
+              io.out(
+                `${where.file}: ${plan.job.id} is a valid job file; ${plan.feasible ? "a winding meets the goal" : "no winding meets the goal within the limits"}.`,
+              );
+              for (const w of plan.warnings) io.out(`  ! ${w.path ? w.path + ": " : ""}${w.message} [${w.code}]`);
+            }
+            return planStatus(plan);
+          }),
         );
       },
     );

@@ -33,9 +33,11 @@ export function schemaCommand(yargs: Argv, io: Io, setStatus: (n: number) => voi
     "schema",
     "Print the JSON Schema of the job file, for editors (the YAML language server reads it)",
     (y) =>
-      y
-        .option("output", { alias: "o", type: "string", describe: "write it to this file instead (replaced whole, never half-written)" })
-        .option("of", { choices: ["job", "measured", "shop"] as const, default: "job" as const, describe: "which file's schema: the job file, the measured file or the shop profile" }),
+      y.option("output", { alias: "o", type: "string", describe: "write it to this file instead (replaced whole, never half-written)" }).option("of", {
+        choices: ["job", "measured", "shop"] as const,
+        default: "job" as const,
+        describe: "which file's schema: the job file, the measured file or the shop profile",
+      }),
     async (argv) => {
       setStatus(await guarded(io, false, () => runSchema(io, argv.output, argv.of)));
     },

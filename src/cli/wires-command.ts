@@ -10,8 +10,14 @@ export function wiresCommand(yargs: Argv, io: Io, setStatus: (n: number) => void
     (y) =>
       y
         .option("system", { type: "string", describe: "only one system: awg, swg or metric" })
-        .option("min", { type: "string", describe: 'smallest bare diameter, e.g. "0.1 mm" or "30 AWG" (bare number: mm; a gauge number with --system awg or swg)' })
-        .option("max", { type: "string", describe: 'largest bare diameter, e.g. "0.02 in" or "25 AWG"; two gauges give the sizes between them, whichever way round' })
+        .option("min", {
+          type: "string",
+          describe: 'smallest bare diameter, e.g. "0.1 mm" or "30 AWG" (bare number: mm; a gauge number with --system awg or swg)',
+        })
+        .option("max", {
+          type: "string",
+          describe: 'largest bare diameter, e.g. "0.02 in" or "25 AWG"; two gauges give the sizes between them, whichever way round',
+        })
         .option("json", { type: "boolean", default: false, describe: "print the catalogue as JSON" }),
     (argv) => {
       const r = runWires({ system: argv.system, min: argv.min, max: argv.max, json: argv.json });

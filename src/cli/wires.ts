@@ -185,7 +185,10 @@ function table(entries: CatalogueEntry[], filter: CatalogueFilter): string {
     ]);
     const widths = head.map((h, i) => Math.max(h.length, ...rows.map((r) => r[i].length)));
     const line = (cells: string[]) =>
-      cells.map((c, i) => (i === 0 ? c.padEnd(widths[i]) : c.padStart(widths[i]))).join("  ").trimEnd();
+      cells
+        .map((c, i) => (i === 0 ? c.padEnd(widths[i]) : c.padStart(widths[i])))
+        .join("  ")
+        .trimEnd();
     if (out.length > 0) out.push("");
     out.push(TITLES[system]);
     out.push(line(head));
@@ -193,8 +196,6 @@ function table(entries: CatalogueEntry[], filter: CatalogueFilter): string {
   }
   out.push("");
   out.push("Overall diameters are maxima. * interpolated between published sizes; ~ from memory; – none known.");
-  out.push(
-    "Where no overall diameter is known you must measure one (micrometer over the enamel) and give it as { bare: 0.25 mm, overall: 0.282 mm }.",
-  );
+  out.push("Where no overall diameter is known you must measure one (micrometer over the enamel) and give it as { bare: 0.25 mm, overall: 0.282 mm }.");
   return out.join("\n") + "\n";
 }

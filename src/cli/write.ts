@@ -47,7 +47,10 @@ export async function writeAtomic(file: string, data: Buffer | string): Promise<
     renameSync(tmp, file);
     tmp = null;
   } catch (e) {
-    throw new ArmwindError({ code: "write_failed", message: `cannot write ${file}: ${whyNotWritten(e)}; choose another folder with -o DIR`, path: "", file }, 3);
+    throw new ArmwindError(
+      { code: "write_failed", message: `cannot write ${file}: ${whyNotWritten(e)}; choose another folder with -o DIR`, path: "", file },
+      3,
+    );
   } finally {
     if (tmp !== null) {
       try {

@@ -65,7 +65,8 @@ export function calibrateOriginal(ctx: ArmatureContext, logbook?: LogbookCalibra
   }
   const m = job.armature.magnet;
   if (m) {
-    const flux = m.flux_per_pole ?? fluxFromGap(m.gap_flux_density!, m.pole_arc ?? 0.7, job.armature.rotor_diameter, job.armature.stack_length, job.armature.field_poles);
+    const flux =
+      m.flux_per_pole ?? fluxFromGap(m.gap_flux_density!, m.pole_arc ?? 0.7, job.armature.rotor_diameter, job.armature.stack_length, job.armature.field_poles);
     inputs.magnet = {
       poles: job.armature.field_poles,
       conductors: activeConductors(o.turns, ctx.liveCoils),
@@ -74,13 +75,17 @@ export function calibrateOriginal(ctx: ArmatureContext, logbook?: LogbookCalibra
       pitchFactor: pitchFactor(ctx.layout.spec.span, job.armature.slots, job.armature.field_poles),
     };
     if (m.flux_per_pole === undefined && m.pole_arc === undefined) {
-      warnings.push({ code: "pole_arc_assumed", path: "armature.magnet.pole_arc", message: "pole arc not given: taken as 0.7 of the pole pitch (common practice)" });
+      warnings.push({
+        code: "pole_arc_assumed",
+        path: "armature.magnet.pole_arc",
+        message: "pole arc not given: taken as 0.7 of the pole pitch (common practice)",
+      });
     }
   }
   const c = calibrate(inputs);
   // with the series model in charge, "nothing calibrates Ke" is no news
   warnings.push(...c.warnings.filter((w) => !(seriesModel && w.code === "uncalibrated")));
-  if (c.loss === null && c.ke !== null && !(logbook?.loss)) {
+  if (c.loss === null && c.ke !== null && !logbook?.loss) {
     warnings.push({
       code: "loss_unknown",
       path: "original.tests",

@@ -7,7 +7,15 @@
 import { inputError, type Warning } from "../errors.js";
 import type { Job, SupplyKind } from "../job/schema.js";
 import { slotGeometry, type SlotGeometry } from "../armature/slot.js";
-import { bundleThickness, fitEndTurnFactor, lengthFromEnamelledMass, meanTurnLength, mltFromWireLength, ridingIncrement, type CoreDims } from "../armature/turn.js";
+import {
+  bundleThickness,
+  fitEndTurnFactor,
+  lengthFromEnamelledMass,
+  meanTurnLength,
+  mltFromWireLength,
+  ridingIncrement,
+  type CoreDims,
+} from "../armature/turn.js";
 import { copperFill } from "../armature/fill.js";
 import { layoutWinding } from "../winding/layout.js";
 import type { WindingLayout, WindingSpec } from "../winding/types.js";
@@ -23,10 +31,17 @@ import type { WirePlan } from "./types.js";
  * when known; a wire named by its copper alone (an original "0.22 mm") is taken as the common
  * motor-winding wire of its size (src/wire/catalogue.ts `commonOverall`: grade 2, AWG heavy build).
  */
-export function layingOverall(wire: Pick<Wire, "label" | "system" | "size" | "bare_diameter" | "overall_diameter" | "overall_source">): { overall: number; basis: string } {
-  if (wire.overall_diameter !== null) return { overall: wire.overall_diameter, basis: `${wire.label}: ${(wire.overall_diameter * 1e3).toFixed(4)} mm overall (${wire.overall_source})` };
+export function layingOverall(wire: Pick<Wire, "label" | "system" | "size" | "bare_diameter" | "overall_diameter" | "overall_source">): {
+  overall: number;
+  basis: string;
+} {
+  if (wire.overall_diameter !== null)
+    return { overall: wire.overall_diameter, basis: `${wire.label}: ${(wire.overall_diameter * 1e3).toFixed(4)} mm overall (${wire.overall_source})` };
   const c = commonOverall(wire);
-  return { overall: c.value, basis: `${wire.label}: insulation not given, taken as ${c.insulation}, ${(c.value * 1e3).toFixed(4)} mm overall (${c.source}); give the grade or build, or { bare, overall } measured` };
+  return {
+    overall: c.value,
+    basis: `${wire.label}: insulation not given, taken as ${c.insulation}, ${(c.value * 1e3).toFixed(4)} mm overall (${c.source}); give the grade or build, or { bare, overall } measured`,
+  };
 }
 
 /** The turn-length model's calibration: factor on the end-turn part, where it came from, a measured turn. */
@@ -153,7 +168,10 @@ export function coilResistance(turns: number, mlt: number, strands: number, area
 function checkedSlot(job: Job, warnings: Warning[]): SlotGeometry {
   const slot = slotGeometry(job);
   if (slot.free_area <= 0) {
-    throw makeError("armature.slot.liner", `the liner (${(slot.liner * 1e3).toFixed(3)} mm over a ${(slot.perimeter * 1e3).toFixed(1)} mm wall) takes all of the slot's ${(slot.gross_area * 1e6).toFixed(2)} mm²; check the liner thickness and the slot area`);
+    throw makeError(
+      "armature.slot.liner",
+      `the liner (${(slot.liner * 1e3).toFixed(3)} mm over a ${(slot.perimeter * 1e3).toFixed(1)} mm wall) takes all of the slot's ${(slot.gross_area * 1e6).toFixed(2)} mm²; check the liner thickness and the slot area`,
+    );
   }
   if (slot.perimeter_estimated) {
     warnings.push({
@@ -185,7 +203,7 @@ function coreGeometry(job: Job, slot: SlotGeometry, warnings: Warning[]): { core
     toothWidth = 0; // the lap and wave end-turn model does not use the tooth width
   } else if (toothWidth === undefined) {
     const meanSlotWidth = slot.width_top !== null && slot.width_bottom !== null ? (slot.width_top + slot.width_bottom) / 2 : slot.gross_area / depth;
-    toothWidth = Math.max((Math.PI * (a.rotor_diameter - depth)) / a.slots - meanSlotWidth, 0.2 * (Math.PI * a.rotor_diameter) / a.slots);
+    toothWidth = Math.max((Math.PI * (a.rotor_diameter - depth)) / a.slots - meanSlotWidth, (0.2 * (Math.PI * a.rotor_diameter)) / a.slots);
     warnings.push({
       code: "tooth_width_estimated",
       path: "armature.tooth_width",
@@ -211,7 +229,15 @@ export function fitToOldTurn(geo: Omit<TurnLengthGeometry, keyof TurnLengthCalib
  * off (its length, or its weighed mass, enamel and all, over the mass of a metre of the enamelled
  * wire), else the model (factor 1). The old wire is all the coils wound, a dead coil included.
  */
-function turnLengthFromJob(job: Job, geo: Omit<TurnLengthGeometry, keyof TurnLengthCalibration>, woundCoils: number, oWire: Wire, oldOverall: number, oldBuild: number, warnings: Warning[]): TurnLengthCalibration {
+function turnLengthFromJob(
+  job: Job,
+  geo: Omit<TurnLengthGeometry, keyof TurnLengthCalibration>,
+  woundCoils: number,
+  oWire: Wire,
+  oldOverall: number,
+  oldBuild: number,
+  warnings: Warning[],
+): TurnLengthCalibration {
   const o = job.original;
   if (job.winding.mean_turn_length !== undefined) return { mltFactor: 1, mltSource: "measured", mltMeasured: job.winding.mean_turn_length };
   let oldMlt: number;
@@ -227,10 +253,17 @@ function turnLengthFromJob(job: Job, geo: Omit<TurnLengthGeometry, keyof TurnLen
   const what = source === "wire_length" ? "length" : "mass";
   const f = fitToOldTurn(geo, oldMlt, oldBuild);
   if (!(f > 0)) {
-    throw makeError(path, `the old wire gives ${(oldMlt * 1e3).toFixed(1)} mm a turn, less than the two sides along the ${(geo.core.stack * 1e3).toFixed(1)} mm stack (${(2 * geo.core.stack * 1e3).toFixed(1)} mm); check the wire ${what}, the turns and the stack length`);
+    throw makeError(
+      path,
+      `the old wire gives ${(oldMlt * 1e3).toFixed(1)} mm a turn, less than the two sides along the ${(geo.core.stack * 1e3).toFixed(1)} mm stack (${(2 * geo.core.stack * 1e3).toFixed(1)} mm); check the wire ${what}, the turns and the stack length`,
+    );
   }
   if (f < 0.4 || f > 2.5) {
-    warnings.push({ code: "turn_length_unusual", path, message: `the old wire implies end turns ${f.toFixed(2)} × the model's; check the recorded ${what} and turns` });
+    warnings.push({
+      code: "turn_length_unusual",
+      path,
+      message: `the old wire implies end turns ${f.toFixed(2)} × the model's; check the recorded ${what} and turns`,
+    });
   }
   return { mltFactor: f, mltSource: source, mltMeasured: null };
 }
@@ -314,7 +347,8 @@ function turnLengthWarnings(cal: TurnLengthCalibration, measured20: number | nul
     warnings.push({
       code: "turn_length_model",
       path: "winding.mean_turn_length",
-      message: "turn length from the end-turn model alone (no measured turn, old wire length or mass, or terminal resistance): wire lengths and resistances may be off by 10 to 20 %",
+      message:
+        "turn length from the end-turn model alone (no measured turn, old wire length or mass, or terminal resistance): wire lengths and resistances may be off by 10 to 20 %",
     });
   }
 }

@@ -174,15 +174,23 @@ function brushArcs(layout: WindingLayout): { coils: number[]; conducts: boolean 
 function terminalModel(layout: WindingLayout, g: number[], ringFactor: number): Setup["terminalOf"] {
   const live = layout.coils.map((c, i) => (c.dead ? null : g[i])).filter((x): x is number => x !== null);
   if (live.every((x) => x === live[0])) return (base, b, K) => K * (base + live[0] * b) * ringFactor;
-  const arcs = brushArcs(layout)?.filter((a) => a.conducts).map((a) => ({ n: a.coils.length, G: a.coils.reduce((s, i) => s + g[i], 0) }));
+  const arcs = brushArcs(layout)
+    ?.filter((a) => a.conducts)
+    .map((a) => ({ n: a.coils.length, G: a.coils.reduce((s, i) => s + g[i], 0) }));
   const network = (base: number, b: number, K: number) => {
     const ohms = g.map((x) => K * (base + x * b));
     const bars = singleBrushBars(layout);
-    return ringNetwork(layout, ohms).between(bars.filter((_, j) => j % 2 === 0), bars.filter((_, j) => j % 2 === 1));
+    return ringNetwork(layout, ohms).between(
+      bars.filter((_, j) => j % 2 === 0),
+      bars.filter((_, j) => j % 2 === 1),
+    );
   };
   if (!arcs || arcs.length === 0) return network;
   const byArcs = (base: number, b: number, K: number) => 1 / arcs.reduce((s, a) => s + 1 / (K * (a.n * base + a.G * b)), 0);
-  const probe = terminalResistance(layout, g.map((x) => 1 + 0.37 * x)).single;
+  const probe = terminalResistance(
+    layout,
+    g.map((x) => 1 + 0.37 * x),
+  ).single;
   return Math.abs(byArcs(1, 0.37, 1) / probe - 1) < 1e-9 ? byArcs : network;
 }
 
@@ -216,7 +224,10 @@ function setupFor(ctx: ArmatureContext, cal: Calibration, supply: number, conver
   const spec = layout.spec;
   const live = layout.coils.filter((c) => !c.dead);
   const slot = ctx.slot;
-  const ringFactor = terminalResistance(layout, layout.coils.map(() => 1)).single;
+  const ringFactor = terminalResistance(
+    layout,
+    layout.coils.map(() => 1),
+  ).single;
   const likeRestore = t.goal === "restore" || t.goal === "convert";
   const physics = motorPhysicsFor(ctx.job);
   const share = coilCurrentShare(layout).rms;

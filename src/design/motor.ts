@@ -82,7 +82,15 @@ export const CONSTANT_FIELD: MotorPhysics = {
     const hot = modelOf(ke, rHot, cal, "constant");
     const cold = modelOf(ke, r20, cal, "constant");
     const nl = noLoad(cold, V);
-    const report: MotorReport = { ...summarize(hot, V), noLoadSpeed: nl.speed, noLoadPerVolt: V > 0 ? nl.speed / V : null, noLoadCurrent: nl.current, stallCurrentCold: stallCurrent(r20, cal.brush_drop, V), model: hot, curve: curve(hot, V, 41) };
+    const report: MotorReport = {
+      ...summarize(hot, V),
+      noLoadSpeed: nl.speed,
+      noLoadPerVolt: V > 0 ? nl.speed / V : null,
+      noLoadCurrent: nl.current,
+      stallCurrentCold: stallCurrent(r20, cal.brush_drop, V),
+      model: hot,
+      curve: curve(hot, V, 41),
+    };
     return cal.loss_known ? report : lossesUnknown(report);
   },
 };

@@ -62,7 +62,14 @@ export function stockWires(job: Job): { wires: Wire[]; warnings: Warning[] } {
 }
 
 function goalReport(ev: Evaluator, c: Candidate, tolerance: Job["target"]["tolerance"]): GoalReport {
-  return { kind: ev.goal, target: ev.target, achieved: c.achieved, error_fraction: c.error, tolerance, fixed: ev.goal === "fixed" ? { turns: c.turns, wire: c.wire.label, strands: c.strands } : null };
+  return {
+    kind: ev.goal,
+    target: ev.target,
+    achieved: c.achieved,
+    error_fraction: c.error,
+    tolerance,
+    fixed: ev.goal === "fixed" ? { turns: c.turns, wire: c.wire.label, strands: c.strands } : null,
+  };
 }
 
 /** The sweep over the stock (restore: the original's turns only; convert: the original's × the conversion ratio). */
@@ -71,7 +78,14 @@ function runSweep(ev: Evaluator, ctx: ArmatureContext, wires: Wire[], ratio: num
   return sweep(ev, {
     wires,
     maxInHand: job.max_in_hand,
-    fixedTurns: ev.goal === "restore" ? job.original.turns : ev.goal === "fixed" ? job.target.fixed!.turns : ratio !== null ? Math.max(1, Math.round(job.original.turns * ratio)) : undefined,
+    fixedTurns:
+      ev.goal === "restore"
+        ? job.original.turns
+        : ev.goal === "fixed"
+          ? job.target.fixed!.turns
+          : ratio !== null
+            ? Math.max(1, Math.round(job.original.turns * ratio))
+            : undefined,
     fixedStrands: ev.goal === "fixed" ? job.target.fixed!.strands : undefined,
     sides: ctx.sides,
     freeArea: ctx.slot.free_area,
@@ -100,7 +114,10 @@ function motorWarnings(job: Job, supply: number, chosen: FullEvaluation, origina
   }
   for (const w of chosen.motor.warnings) if (!warnings.some((x) => x.code === w.code)) warnings.push(w);
   if (!job.target.duty || series) return;
-  for (const [which, e] of [["new", chosen], ["original", original]] as const) {
+  for (const [which, e] of [
+    ["new", chosen],
+    ["original", original],
+  ] as const) {
     if (e.duty === null && e.motor.model) {
       warnings.push({
         code: "duty_beyond_stall",
@@ -136,7 +153,17 @@ function sensitivityRows(ev: Evaluator, chosen: Candidate, wires: Wire[]): Sensi
   const idx = sorted.findIndex((w) => w.label === chosen.wire.label);
   const row = (label: string, turns: number, wire: Wire): Sensitivity => {
     const c = ev.full({ turns, wire, strands: chosen.strands });
-    return { label, turns: c.turns, wire: c.wire.label, strands: c.strands, terminal_ohm: c.terminal_ohm, copper_fill: c.copper_fill, achieved: c.achieved, meets_goal: c.meets_goal, rejected_because: c.rejected_because };
+    return {
+      label,
+      turns: c.turns,
+      wire: c.wire.label,
+      strands: c.strands,
+      terminal_ohm: c.terminal_ohm,
+      copper_fill: c.copper_fill,
+      achieved: c.achieved,
+      meets_goal: c.meets_goal,
+      rejected_because: c.rejected_because,
+    };
   };
   const rows: Sensitivity[] = [];
   if (chosen.turns > 1) rows.push(row("one turn less", chosen.turns - 1, chosen.wire));
@@ -175,7 +202,10 @@ function wirePlan(ctx: ArmatureContext, chosen: Candidate): WirePlan {
 function resistancePlan(job: Job, chosen: FullEvaluation): ResistancePlan {
   const r = chosen.ring;
   const validity: string[] = [];
-  if (job.winding.equalizers) validity.push("equalizer connections are fitted: they tie bars together, so the bar-to-bar and terminal figures from the plain ring do not hold; the figures here include the equalizers as near-zero links");
+  if (job.winding.equalizers)
+    validity.push(
+      "equalizer connections are fitted: they tie bars together, so the bar-to-bar and terminal figures from the plain ring do not hold; the figures here include the equalizers as near-zero links",
+    );
   return {
     coil_ohm: chosen.coil_ohm,
     bar_to_bar: r.bar_to_bar,
@@ -211,9 +241,22 @@ export function preparePlan(job: Job, options: PlanOptions = {}) {
 }
 
 /** The series model's figures for the chosen winding (null unless a series motor's field is described). */
-function seriesOf(job: Job, setup: SeriesSetup | null, chosen: FullEvaluation, ctx: ArmatureContext, ratio: number | null, warnings: Warning[]): SeriesPlan | null {
+function seriesOf(
+  job: Job,
+  setup: SeriesSetup | null,
+  chosen: FullEvaluation,
+  ctx: ArmatureContext,
+  ratio: number | null,
+  warnings: Warning[],
+): SeriesPlan | null {
   if (!setup) return null;
-  const sp = planSeries(job, setup, { turns: chosen.turns, originalTurns: ctx.original.turns, armature20: chosen.ring.single, hotTemperature: job.target.hot_temperature, convertRatio: ratio });
+  const sp = planSeries(job, setup, {
+    turns: chosen.turns,
+    originalTurns: ctx.original.turns,
+    armature20: chosen.ring.single,
+    hotTemperature: job.target.hot_temperature,
+    convertRatio: ratio,
+  });
   warnings.push(...sp.warnings);
   return sp.plan;
 }
@@ -232,7 +275,11 @@ export function planJob(job: Job, options: PlanOptions = {}): Plan {
   const stock = fixedOrStock(job);
   warnings.push(...stock.warnings);
   if (ev.goal !== "restore" && ev.goal !== "convert" && cal.ke === null) {
-    warnings.push({ code: "goal_uncalibrated", path: "target.goal", message: `the ${ev.goal.replace(/_/g, " ")} cannot be predicted without a calibrated Ke; the plan falls back to the most copper that fits` });
+    warnings.push({
+      code: "goal_uncalibrated",
+      path: "target.goal",
+      message: `the ${ev.goal.replace(/_/g, " ")} cannot be predicted without a calibrated Ke; the plan falls back to the most copper that fits`,
+    });
   }
   const result = runSweep(ev, ctx, stock.wires, ratio);
   if (!result.best) throw new Error("empty sweep"); // no wire in stock at all (cannot happen with a non-empty stock)
@@ -264,7 +311,17 @@ export function planJob(job: Job, options: PlanOptions = {}): Plan {
     series,
     motor: chosen.motor,
     original_motor: original.motor,
-    original: { wire: o.wire, turns: o.turns, strands: o.strands, copper_fill: o.copperFill, mlt: o.mlt, terminal_ohm: o.terminal20, terminal_measured: o.terminalMeasured, overall: o.overall, overall_basis: o.overallBasis },
+    original: {
+      wire: o.wire,
+      turns: o.turns,
+      strands: o.strands,
+      copper_fill: o.copperFill,
+      mlt: o.mlt,
+      terminal_ohm: o.terminal20,
+      terminal_measured: o.terminalMeasured,
+      overall: o.overall,
+      overall_basis: o.overallBasis,
+    },
     duty: chosen.duty,
     original_duty: original.duty,
     candidates,
@@ -315,7 +372,11 @@ function limitWarnings(ev: Evaluator, chosen: Candidate): Warning[] {
   }
   if (ev.goal === "fixed") {
     for (const r of chosen.rejected_because) {
-      out.push({ code: "limit_broken", path: `target.limits.${r === "below_original_copper" ? "copper_fill" : r}`, message: `the winding chosen breaks a limit: ${reasonText(r)}; it is planned as given` });
+      out.push({
+        code: "limit_broken",
+        path: `target.limits.${r === "below_original_copper" ? "copper_fill" : r}`,
+        message: `the winding chosen breaks a limit: ${reasonText(r)}; it is planned as given`,
+      });
     }
   }
   if (ev.goal === "restore") out.push(...restoreGeometryWarnings(ev, chosen));

@@ -238,7 +238,12 @@ function roundDown2(v: number): number {
   return Math.floor(v / p + 1e-9) * p;
 }
 
-function sideOf(m: SeriesMotor, supply: Supply, torque: number | null, calibrated: boolean): { rated: SeriesPoint | null; curve: SeriesPoint[]; warning: string | null } {
+function sideOf(
+  m: SeriesMotor,
+  supply: Supply,
+  torque: number | null,
+  calibrated: boolean,
+): { rated: SeriesPoint | null; curve: SeriesPoint[]; warning: string | null } {
   if (!calibrated || torque === null) return { rated: null, curve: [], warning: null };
   try {
     return { rated: atTorqueSeries(m, supply, torque), curve: seriesCurve(m, supply, torque, 21), warning: null };
@@ -267,7 +272,10 @@ function checkSupply(job: Job, setup: SeriesSetup, cold: SeriesMotor, ratedCurre
   const atRated = lockedRotorVoltage(cold, f, ratedCurrent);
   const cap = Math.min(elv(f), setup.supply.volts);
   const volts = roundDown2(Math.min(atRated, cap));
-  const why = atRated > cap ? `capped at ${cap} V (extra-low voltage, IEC 60449); about rated current would need ${atRated.toPrecision(3)} V` : "about the rated current with the rotor held (E = 0)";
+  const why =
+    atRated > cap
+      ? `capped at ${cap} V (extra-low voltage, IEC 60449); about rated current would need ${atRated.toPrecision(3)} V`
+      : "about the rated current with the rotor held (E = 0)";
   return { supply: { volts, frequency: f }, basis: `${volts} V ${f > 0 ? `${f} Hz AC` : "DC"}: ${why}` };
 }
 
@@ -294,7 +302,8 @@ export function planSeries(job: Job, setup: SeriesSetup, w: SeriesRewind): { pla
   const warnings: Warning[] = [...setup.warnings];
   const fw = job.field_winding!;
   const armRatio = w.turns / w.originalTurns;
-  const fieldRatio = job.target.goal === "convert" ? armRatio : fw.rewound_turns_per_pole && fw.turns_per_pole ? fw.rewound_turns_per_pole / fw.turns_per_pole : 1;
+  const fieldRatio =
+    job.target.goal === "convert" ? armRatio : fw.rewound_turns_per_pole && fw.turns_per_pole ? fw.rewound_turns_per_pole / fw.turns_per_pole : 1;
   const rf20New = setup.rf20 * fieldRatio * fieldRatio;
   const hot = copperFactor(w.hotTemperature);
   const origHot = modelAt(setup, hot);
@@ -305,12 +314,16 @@ export function planSeries(job: Job, setup: SeriesSetup, w: SeriesRewind): { pla
   const calibrated = setup.cal !== null;
   const o = sideOf(origHot, setup.originalSupply, setup.ratedTorque, calibrated);
   const n = sideOf(newHot, setup.supply, setup.ratedTorque, calibrated);
-  for (const [which, s] of [["original", o], ["new", n]] as const) {
+  for (const [which, s] of [
+    ["original", o],
+    ["new", n],
+  ] as const) {
     if (s.warning) warnings.push({ code: "duty_beyond_stall", path: "original.nameplate", message: `the ${which} winding ${s.warning}` });
   }
   // the check drives about the rated current: the original's through the circuit the rewind restores,
   // or for a conversion the new winding's on its new supply
-  const check = job.target.goal === "convert" ? checkSupply(job, setup, newCold, n.rated?.current ?? null) : checkSupply(job, setup, origCold, o.rated?.current ?? null);
+  const check =
+    job.target.goal === "convert" ? checkSupply(job, setup, newCold, n.rated?.current ?? null) : checkSupply(job, setup, origCold, o.rated?.current ?? null);
   const lrOf = (m: SeriesMotor) => (check ? lockedRotorCurrent(m, check.supply) : null);
   const universal = setup.supply.frequency > 0;
   let noLoad: SeriesPoint | null = null;

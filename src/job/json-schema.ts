@@ -44,7 +44,8 @@ export const FIELD_HELP: Record<string, string> = {
   "armature.rotor_diameter": "Outside diameter of the core over the tooth tips: calipers.",
   "armature.tooth_width": "Width of one tooth's body, below the tip: calipers. Optional.",
   "armature.slot": "One slot's free area before the liner: give area, or width_top, width_bottom and depth.",
-  "armature.slot.area": "Free cross-section of one slot before the liner: trace the empty slot (a photo or a print of the lamination on squared paper) and count.",
+  "armature.slot.area":
+    "Free cross-section of one slot before the liner: trace the empty slot (a photo or a print of the lamination on squared paper) and count.",
   "armature.slot.width_top": "Slot width at the air-gap side, under the tooth tips: calipers (inside jaws) or feeler gauges.",
   "armature.slot.width_bottom": "Slot width at its root: calipers (inside jaws) or feeler gauges.",
   "armature.slot.depth": "Slot depth from under the tooth tips to the root: calipers (depth rod).",
@@ -69,15 +70,19 @@ export const FIELD_HELP: Record<string, string> = {
   "field_winding.turns_per_pole": "Turns of one field coil: count them if the field is stripped. Optional.",
   "field_winding.rewound_turns_per_pole": "Only when the field is rewound to a new turn count: its new turns per coil.",
   winding: "How the old winding was laid: record it while stripping, before anything is cut.",
-  "winding.style": "tooth: each coil round one tooth (small 3-, 5-, 7-slot motors); lap: a coil's ends on neighbouring bars; wave: a coil's ends about two pole pitches apart round the commutator.",
+  "winding.style":
+    "tooth: each coil round one tooth (small 3-, 5-, 7-slot motors); lap: a coil's ends on neighbouring bars; wave: a coil's ends about two pole pitches apart round the commutator.",
   "winding.span": "Coil span in slots, counted on the old winding from a coil's go slot to its return slot (slots 1 and 6: span 5). Tooth windings: 1.",
-  "winding.coils_per_slot": "Coils whose sides share a slot (u): bars = u × slots (less 1 with a dead coil). Count the leads leaving each slot while stripping.",
+  "winding.coils_per_slot":
+    "Coils whose sides share a slot (u): bars = u × slots (less 1 with a dead coil). Count the leads leaving each slot while stripping.",
   "winding.dead_coil": "Wave windings only: one coil wound but left unconnected.",
   "winding.equalizers": "Lap windings with more than 2 poles: equalizer connections fitted.",
-  "winding.progression": "progressive: a coil ends on a bar after its start bar (clockwise from the commutator end); retrogressive: before it (its leads cross).",
+  "winding.progression":
+    "progressive: a coil ends on a bar after its start bar (clockwise from the commutator end); retrogressive: before it (its leads cross).",
   "winding.lead_throw":
     "Bars counted clockwise (seen from the commutator end) from the bar on coil 1's centre line (midway between its go and return slots) to the bar coil 1's start lead goes to. Copy it from the marked old winding; never guess it.",
-  "winding.direction": "Tooth windings: the sense the wire goes round the tooth, looking at the tooth tip from outside the armature (cw or ccw). Note it while unwinding the first coil.",
+  "winding.direction":
+    "Tooth windings: the sense the wire goes round the tooth, looking at the tooth tip from outside the armature (cw or ccw). Note it while unwinding the first coil.",
   "winding.mean_turn_length": "Measured length of one old turn: cut one turn free, straighten it, measure. Optional.",
   "winding.lead_allowance": "Extra wire per coil end for the lead to its bar (default 50 mm, common practice).",
   "winding.spare_margin": "Spare added to the total cut (default 0.10, common practice).",
@@ -104,8 +109,10 @@ export const FIELD_HELP: Record<string, string> = {
   "original.nameplate.gear_ratio": "Motor speed ÷ spindle speed: count the gear teeth (a 4 : 1 reduction is 4).",
   "original.armature_inductance":
     "Armature inductance alone, if measured (an LCR meter across the brush bars, rotor out of the stator). Optional: it scales with the square of the turns.",
-  "original.tests": "No-load bench tests of the old motor, at one or more voltages (before the rewind). Keep clear of the turning shaft; never run a series motor unloaded.",
-  "original.tests[]": "One bench test: a no-load test (supply, current, speed) or, for series motors, a load test (supply, current, speed and torque or output power).",
+  "original.tests":
+    "No-load bench tests of the old motor, at one or more voltages (before the rewind). Keep clear of the turning shaft; never run a series motor unloaded.",
+  "original.tests[]":
+    "One bench test: a no-load test (supply, current, speed) or, for series motors, a load test (supply, current, speed and torque or output power).",
   "original.tests[].kind":
     "no_load (default): nothing on the shaft. Small series motors only briefly, in their housing with their own fan; never run a large series DC motor unloaded. load: a known load (brake or dynamometer).",
   "original.tests[].frequency": "AC test: its frequency; 0 Hz for a DC test. Optional: else the target supply's kind.",
@@ -121,7 +128,8 @@ export const FIELD_HELP: Record<string, string> = {
   "original.generator": "Open-circuit spin test: drive the shaft at a known speed (tachometer) and read the terminal voltage (voltmeter).",
   "original.generator.speed": "Speed the shaft was driven at: tachometer.",
   "original.generator.volts": "Open-circuit terminal voltage at that speed: voltmeter.",
-  "original.terminal_resistance": "Armature resistance across the brush bars, brushes excluded: ohmmeter, four-wire (Kelvin) for readings below a few ohms; with the temperature it was read at.",
+  "original.terminal_resistance":
+    "Armature resistance across the brush bars, brushes excluded: ohmmeter, four-wire (Kelvin) for readings below a few ohms; with the temperature it was read at.",
   "original.terminal_resistance.value": "The reading: four-wire (Kelvin) ohmmeter, or the millivolt drop at a known current.",
   "original.terminal_resistance.at": "Temperature of the winding when it was read (default 20 C).",
   target: "What the new winding should do.",
@@ -141,7 +149,8 @@ export const FIELD_HELP: Record<string, string> = {
     "A candidate within ± this fraction of the goal meets it (default 0.03); or { below: 0.02, above: 0.08 } for a one-sided or asymmetric band. For stall_current, a limit, a bare t means { below: t, above: 0 }.",
   "target.tolerance.below": "How far under the goal still meets it, a fraction (0: not at all).",
   "target.tolerance.above": "How far over the goal still meets it, a fraction (0: not at all).",
-  "target.kv_basis": "Goal kv: constant (the motor constant 60/(2π·Ke), default) or no_load (no-load speed ÷ supply, what a tachometer and a bench supply measure).",
+  "target.kv_basis":
+    "Goal kv: constant (the motor constant 60/(2π·Ke), default) or no_load (no-load speed ÷ supply, what a tachometer and a bench supply measure).",
   "target.fixed": "Goal fixed: the winding you chose (from a candidate list), planned like a restore with a warning for any limit it breaks.",
   "target.fixed.turns": "Turns per coil of the chosen winding.",
   "target.fixed.wire": 'Wire of the chosen winding: "0.25 mm grade 2", "33 AWG heavy" …',

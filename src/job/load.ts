@@ -17,7 +17,12 @@ export interface Located<T> {
 }
 
 /** Parse YAML text and validate it with `schema`; throws ArmwindError (status 1) with every problem located. */
-export function loadYaml<S extends z.ZodType>(text: string, file: string, schema: S, prepare?: (raw: Record<string, unknown>) => Record<string, unknown>): Located<z.output<S>> {
+export function loadYaml<S extends z.ZodType>(
+  text: string,
+  file: string,
+  schema: S,
+  prepare?: (raw: Record<string, unknown>) => Record<string, unknown>,
+): Located<z.output<S>> {
   const lc = new LineCounter();
   const doc = parseDocument(text, { lineCounter: lc, prettyErrors: false, uniqueKeys: true, strict: true });
   const pos = (offset: number) => {
@@ -67,11 +72,13 @@ export function loadYaml<S extends z.ZodType>(text: string, file: string, schema
     const raws = issuesToProblems(result.error.issues, schema, raw);
     // a misspelt required key is also missing under its right name: the "did you mean" line says both
     const misspelt = new Set(raws.filter((p) => p.suggests).map((p) => formatPath([...p.parts.slice(0, -1), p.suggests as string])));
-    const problems = raws.filter((p) => !(p.code === "missing_field" && misspelt.has(formatPath(p.parts)))).map((p) => {
-      const parts = p.parts;
-      const at = p.keyNode ? locateKey(doc, parts, pos) : locate(parts);
-      return { code: p.code, message: p.message, path: formatPath(parts), file, ...at } satisfies Problem;
-    });
+    const problems = raws
+      .filter((p) => !(p.code === "missing_field" && misspelt.has(formatPath(p.parts))))
+      .map((p) => {
+        const parts = p.parts;
+        const at = p.keyNode ? locateKey(doc, parts, pos) : locate(parts);
+        return { code: p.code, message: p.message, path: formatPath(parts), file, ...at } satisfies Problem;
+      });
     // one line per field; stable order by position in the file
     problems.sort((a, b) => a.line - b.line || a.column - b.column);
     throw new ArmwindError(dedupe(problems).map((p) => ({ ...p, message: oneLine(p.message) })));
@@ -295,9 +302,17 @@ function issuesToProblems(issues: readonly Issue[], schema: z.ZodType, raw: unkn
         const isCount = issue.origin === "number" || issue.origin === "int";
         const bound = (issue as { minimum?: unknown; maximum?: unknown }).minimum ?? (issue as { maximum?: unknown }).maximum;
         if (issue.origin === "string" && issue.code === "too_big") {
-          out.push({ code: "out_of_range", parts, message: `the text is ${typeof value === "string" ? value.length : "too many"} characters long; at most ${String(bound)} are read here` });
+          out.push({
+            code: "out_of_range",
+            parts,
+            message: `the text is ${typeof value === "string" ? value.length : "too many"} characters long; at most ${String(bound)} are read here`,
+          });
         } else if (issue.origin === "array" && issue.code === "too_big") {
-          out.push({ code: "out_of_range", parts, message: `the list has ${Array.isArray(value) ? value.length : "too many"} items; at most ${String(bound)} are read here` });
+          out.push({
+            code: "out_of_range",
+            parts,
+            message: `the list has ${Array.isArray(value) ? value.length : "too many"} items; at most ${String(bound)} are read here`,
+          });
         } else if (issue.origin === "array" && issue.code === "too_small") {
           out.push({ code: "out_of_range", parts, message: `the list is empty; give at least ${String(bound)} item, or leave the key out` });
         } else if (isCount) {
@@ -330,7 +345,13 @@ function issuesToProblems(issues: readonly Issue[], schema: z.ZodType, raw: unkn
         } else {
           const objectBranch = issue.errors.find((errs) => errs.every((e) => e.path.length > 0));
           if (objectBranch && value !== null && typeof value === "object" && !Array.isArray(value)) {
-            out.push(...issuesToProblems(objectBranch.map((e) => ({ ...e, path: [...issue.path, ...e.path] })), schema, raw));
+            out.push(
+              ...issuesToProblems(
+                objectBranch.map((e) => ({ ...e, path: [...issue.path, ...e.path] })),
+                schema,
+                raw,
+              ),
+            );
           } else {
             out.push({ code: "wrong_type", parts, message: `${describe(value)} is not a valid value here; ${unionHint(parts)}` });
           }
@@ -346,7 +367,8 @@ function issuesToProblems(issues: readonly Issue[], schema: z.ZodType, raw: unkn
 
 function unionHint(parts: readonly PathPart[]): string {
   const last = String(parts[parts.length - 1] ?? "");
-  if (last === "wire" || parts.includes("wire_stock")) return 'write a wire like "0.25 mm grade 2", "33 AWG heavy", "36 SWG" or { bare: 0.25 mm, overall: 0.282 mm }';
+  if (last === "wire" || parts.includes("wire_stock"))
+    return 'write a wire like "0.25 mm grade 2", "33 AWG heavy", "36 SWG" or { bare: 0.25 mm, overall: 0.282 mm }';
   if (last === "supply") return 'write a supply like "12 V" or { value: 230 V, kind: ac, frequency: 50 Hz }';
   return 'write a number with a unit, like "12 mm"';
 }

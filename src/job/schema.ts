@@ -30,7 +30,6 @@ export type SupplyKind = z.infer<typeof supplyKindSchema>;
 export const brushMaterialSchema = z.enum(["carbon", "metal"]);
 export type BrushMaterial = z.infer<typeof brushMaterialSchema>;
 
-
 interface QtyOptions {
   /** Strictly greater than zero. */
   positive?: boolean;
@@ -70,11 +69,19 @@ export function qty(kind: QuantityKind, opts: QtyOptions = {}) {
         return z.NEVER;
       }
       if (min !== undefined && x < min) {
-        ctx.addIssue({ code: "custom", message: `must be at least ${opts.min !== undefined ? (opts.minText ?? opts.min) : range.minText}, got ${JSON.stringify(v)}`, params: { code: "out_of_range" } });
+        ctx.addIssue({
+          code: "custom",
+          message: `must be at least ${opts.min !== undefined ? (opts.minText ?? opts.min) : range.minText}, got ${JSON.stringify(v)}`,
+          params: { code: "out_of_range" },
+        });
         return z.NEVER;
       }
       if (x > max) {
-        ctx.addIssue({ code: "custom", message: `must be at most ${opts.max !== undefined ? (opts.maxText ?? opts.max) : range.maxText}, got ${JSON.stringify(v)}`, params: { code: "out_of_range" } });
+        ctx.addIssue({
+          code: "custom",
+          message: `must be at most ${opts.max !== undefined ? (opts.maxText ?? opts.max) : range.maxText}, got ${JSON.stringify(v)}`,
+          params: { code: "out_of_range" },
+        });
         return z.NEVER;
       }
       return x;
@@ -202,11 +209,17 @@ const noLoadTestSchema = z
     const need = (key: string, ex: string) =>
       ctx.addIssue({ code: "custom", path: [key], message: `a ${t.kind.replace("_", "-")} test needs ${key}: add ${ex}`, params: { code: "missing_field" } });
     const refuse = (key: string, instead: string) =>
-      ctx.addIssue({ code: "custom", path: [key], message: `${key} belongs to a ${t.kind === "load" ? "no-load" : "load"} test; ${instead}`, params: { code: "unknown_key" } });
+      ctx.addIssue({
+        code: "custom",
+        path: [key],
+        message: `${key} belongs to a ${t.kind === "load" ? "no-load" : "load"} test; ${instead}`,
+        params: { code: "unknown_key" },
+      });
     if (t.kind === "no_load") {
       if (t.no_load_current === undefined) need("no_load_current", "no_load_current: 0.18 A");
       if (t.no_load_speed === undefined) need("no_load_speed", "no_load_speed: 9800 rpm");
-      for (const k of ["current", "speed", "torque", "output_power"] as const) if (t[k] !== undefined) refuse(k, "write kind: load for a test with a load, or use no_load_current and no_load_speed");
+      for (const k of ["current", "speed", "torque", "output_power"] as const)
+        if (t[k] !== undefined) refuse(k, "write kind: load for a test with a load, or use no_load_current and no_load_speed");
     } else {
       if (t.current === undefined) need("current", "current: 2.1 A");
       if (t.speed === undefined) need("speed", "speed: 18000 rpm");
@@ -223,15 +236,28 @@ const nameplateSchema = z
     current: qty("current", { positive: true }).optional(),
     input_power: qty("power", { positive: true }).optional(),
     speed: qty("speed", { positive: true }),
-    speed_kind: z.enum(["motor", "spindle"]).meta({ description: "motor: the speed at the armature; spindle: at a geared output (give gear_ratio)" }).prefault("motor"),
+    speed_kind: z
+      .enum(["motor", "spindle"])
+      .meta({ description: "motor: the speed at the armature; spindle: at a geared output (give gear_ratio)" })
+      .prefault("motor"),
     gear_ratio: z.number().positive().max(1000).meta({ description: "motor speed ÷ spindle speed (a 4:1 reduction is 4)" }).optional(),
   })
   .superRefine((n, ctx) => {
     if (n.current === undefined && n.input_power === undefined) {
-      ctx.addIssue({ code: "custom", path: ["current"], message: "a nameplate needs its current (current: 2.2 A) or its input watts (input_power: 500 W)", params: { code: "missing_field" } });
+      ctx.addIssue({
+        code: "custom",
+        path: ["current"],
+        message: "a nameplate needs its current (current: 2.2 A) or its input watts (input_power: 500 W)",
+        params: { code: "missing_field" },
+      });
     }
     if (n.speed_kind === "spindle" && n.gear_ratio === undefined) {
-      ctx.addIssue({ code: "custom", path: ["gear_ratio"], message: "a spindle speed needs the gear ratio to reach the motor: add gear_ratio (motor speed ÷ spindle speed, e.g. 4)", params: { code: "missing_field" } });
+      ctx.addIssue({
+        code: "custom",
+        path: ["gear_ratio"],
+        message: "a spindle speed needs the gear ratio to reach the motor: add gear_ratio (motor speed ÷ spindle speed, e.g. 4)",
+        params: { code: "missing_field" },
+      });
     }
   });
 
@@ -277,7 +303,10 @@ export const jobId = z.string().superRefine((id, ctx) => {
   const bad = (message: string, code = "bad_id") => ctx.addIssue({ code: "custom", message, params: { code } });
   if (id.length > ID_MAX_LENGTH) bad(`is ${id.length} characters long; an id names files, so keep it to ${ID_MAX_LENGTH} or fewer`);
   else if (!/^[A-Za-z0-9][A-Za-z0-9._-]*$/.test(id)) bad("must be letters, digits, '.', '_' or '-' (it names files), starting with a letter or digit");
-  else if (RESERVED_NAMES.test(id)) bad(`"${id}" is a device name on Windows (CON, PRN, AUX, NUL, COM1…, LPT1…): a card or record named by it cannot be written to a shared drive; choose another id`);
+  else if (RESERVED_NAMES.test(id))
+    bad(
+      `"${id}" is a device name on Windows (CON, PRN, AUX, NUL, COM1…, LPT1…): a card or record named by it cannot be written to a shared drive; choose another id`,
+    );
 });
 
 /** Free text (title, customer, notes), at most TEXT_MAX_LENGTH characters. */
@@ -323,58 +352,61 @@ const fixedSchema = z
   })
   .meta({ description: "goal fixed: the winding chosen, { turns: 45, wire: 0.25 mm grade 2, strands: 1 }" });
 
-
 const jobShape = z.strictObject({
-    $schema: z.string().optional().meta({ description: "editor hint, ignored" }),
-    version: z.literal(1).meta({ description: "job file version: 1" }),
-    id: jobId.meta({ description: "unique job id, used in file names and the logbook" }),
-    title: freeText.min(1),
-    customer: freeText.optional(),
-    notes: freeText.optional(),
-    armature: z.strictObject({
-      family: z.string().min(1).optional().meta({ description: "rewinds of the same armature share calibration" }),
-      slots: count(COUNTS.slots.min, "slots (= teeth)").max(COUNTS.slots.max),
-      bars: count(COUNTS.bars.min, "commutator bars (segments)").max(COUNTS.bars.max),
-      field_poles: count(COUNTS.poles.min, "poles of the stator field (2, 4, 6 …)").max(COUNTS.poles.max),
-      field: armatureFieldSchema,
-      stack_length: qty("length", { positive: true, max: 1, maxText: "1 m" }),
-      rotor_diameter: qty("length", { positive: true, max: 1, maxText: "1 m" }),
-      tooth_width: qty("length", { positive: true, max: 0.5, maxText: "500 mm" }).optional(),
-      slot: slotSchema,
-      magnet: magnetSchema.optional(),
-    }),
-    field_winding: fieldWindingSchema.optional(),
-    winding: z.strictObject({
-      style: windingStyleSchema,
-      span: count(0, "coil span in slots (tooth: 1)").max(200).optional(),
-      coils_per_slot: count(COUNTS.coils_per_slot.min, "coils per slot u (bars = u × slots)").max(COUNTS.coils_per_slot.max).prefault(1),
-      dead_coil: z.boolean().prefault(false),
-      equalizers: z.boolean().prefault(false),
-      progression: progressionSchema.prefault("progressive"),
-      lead_throw: z.number().min(-400).max(400).meta({ description: "bars clockwise from coil 1's centre line to bar 1 (copied from the old winding)" }).prefault(0),
-      direction: senseSchema.prefault("cw"),
-      mean_turn_length: qty("length", { positive: true, max: 5, maxText: "5 m" }).optional(),
-      lead_allowance: qty("length", { min: 0, max: 2, maxText: "2 m" }).prefault("50 mm"),
-      spare_margin: fraction({ max: 2 }).prefault(0.1),
-      continuous: z.boolean().prefault(false),
-      brushes: brushesSchema.prefault({}),
-      brush_drop: qty("voltage", { min: 0, max: 10, maxText: "10 V" }).optional(),
-    }),
-    original: z.strictObject({
-      turns: count(COUNTS.turns.min, "turns per coil of the original winding").max(COUNTS.turns.max),
-      wire: wireRole("original"),
-      strands: count(COUNTS.strands.min, "strands in hand").max(COUNTS.strands.max).prefault(1),
-      wire_length: qty("wire_length", { positive: true }).optional(),
-      wire_mass: qty("mass", { positive: true }).optional(),
-      nameplate: nameplateSchema.optional(),
-      armature_inductance: qty("inductance", { positive: true }).optional(),
-      tests: z.array(noLoadTestSchema).max(COUNTS.tests.max).optional(),
-      generator: z.strictObject({ speed: qty("speed", { positive: true }), volts: qty("voltage", { positive: true }) }).optional(),
-      terminal_resistance: z
-        .strictObject({ value: qty("resistance", { positive: true }), at: qty("temperature", TEMP).prefault(20) })
-        .optional(),
-    }),
-    target: z.strictObject({
+  $schema: z.string().optional().meta({ description: "editor hint, ignored" }),
+  version: z.literal(1).meta({ description: "job file version: 1" }),
+  id: jobId.meta({ description: "unique job id, used in file names and the logbook" }),
+  title: freeText.min(1),
+  customer: freeText.optional(),
+  notes: freeText.optional(),
+  armature: z.strictObject({
+    family: z.string().min(1).optional().meta({ description: "rewinds of the same armature share calibration" }),
+    slots: count(COUNTS.slots.min, "slots (= teeth)").max(COUNTS.slots.max),
+    bars: count(COUNTS.bars.min, "commutator bars (segments)").max(COUNTS.bars.max),
+    field_poles: count(COUNTS.poles.min, "poles of the stator field (2, 4, 6 …)").max(COUNTS.poles.max),
+    field: armatureFieldSchema,
+    stack_length: qty("length", { positive: true, max: 1, maxText: "1 m" }),
+    rotor_diameter: qty("length", { positive: true, max: 1, maxText: "1 m" }),
+    tooth_width: qty("length", { positive: true, max: 0.5, maxText: "500 mm" }).optional(),
+    slot: slotSchema,
+    magnet: magnetSchema.optional(),
+  }),
+  field_winding: fieldWindingSchema.optional(),
+  winding: z.strictObject({
+    style: windingStyleSchema,
+    span: count(0, "coil span in slots (tooth: 1)").max(200).optional(),
+    coils_per_slot: count(COUNTS.coils_per_slot.min, "coils per slot u (bars = u × slots)").max(COUNTS.coils_per_slot.max).prefault(1),
+    dead_coil: z.boolean().prefault(false),
+    equalizers: z.boolean().prefault(false),
+    progression: progressionSchema.prefault("progressive"),
+    lead_throw: z
+      .number()
+      .min(-400)
+      .max(400)
+      .meta({ description: "bars clockwise from coil 1's centre line to bar 1 (copied from the old winding)" })
+      .prefault(0),
+    direction: senseSchema.prefault("cw"),
+    mean_turn_length: qty("length", { positive: true, max: 5, maxText: "5 m" }).optional(),
+    lead_allowance: qty("length", { min: 0, max: 2, maxText: "2 m" }).prefault("50 mm"),
+    spare_margin: fraction({ max: 2 }).prefault(0.1),
+    continuous: z.boolean().prefault(false),
+    brushes: brushesSchema.prefault({}),
+    brush_drop: qty("voltage", { min: 0, max: 10, maxText: "10 V" }).optional(),
+  }),
+  original: z.strictObject({
+    turns: count(COUNTS.turns.min, "turns per coil of the original winding").max(COUNTS.turns.max),
+    wire: wireRole("original"),
+    strands: count(COUNTS.strands.min, "strands in hand").max(COUNTS.strands.max).prefault(1),
+    wire_length: qty("wire_length", { positive: true }).optional(),
+    wire_mass: qty("mass", { positive: true }).optional(),
+    nameplate: nameplateSchema.optional(),
+    armature_inductance: qty("inductance", { positive: true }).optional(),
+    tests: z.array(noLoadTestSchema).max(COUNTS.tests.max).optional(),
+    generator: z.strictObject({ speed: qty("speed", { positive: true }), volts: qty("voltage", { positive: true }) }).optional(),
+    terminal_resistance: z.strictObject({ value: qty("resistance", { positive: true }), at: qty("temperature", TEMP).prefault(20) }).optional(),
+  }),
+  target: z
+    .strictObject({
       supply: supplySchema,
       goal: z.enum(GOALS),
       no_load_speed: qty("speed", { positive: true }).optional(),
@@ -398,62 +430,63 @@ const jobShape = z.strictObject({
       hot_temperature: qty("temperature", TEMP).prefault(80),
     })
     .transform((t) => ({ ...t, tolerance: toleranceOf(t.tolerance, t.goal) })),
-    wire_stock: z.array(wireRole("stock")).min(1).max(COUNTS.wire_stock.max).optional(),
-    max_in_hand: count(COUNTS.in_hand.min, "most strands wound together").max(COUNTS.in_hand.max).prefault(1),
-  });
+  wire_stock: z.array(wireRole("stock")).min(1).max(COUNTS.wire_stock.max).optional(),
+  max_in_hand: count(COUNTS.in_hand.min, "most strands wound together").max(COUNTS.in_hand.max).prefault(1),
+});
 
 export const jobSchema = jobShape.superRefine((job, ctx) => {
-    const t = job.target;
-    const need: Record<string, unknown> = {
-      no_load_speed: t.no_load_speed,
-      kv: t.kv,
-      stall_current: t.stall_current,
-      duty: t.duty,
-      fixed: t.fixed,
+  const t = job.target;
+  const need: Record<string, unknown> = {
+    no_load_speed: t.no_load_speed,
+    kv: t.kv,
+    stall_current: t.stall_current,
+    duty: t.duty,
+    fixed: t.fixed,
+  };
+  if (t.goal in need && need[t.goal] === undefined) {
+    const ex: Record<string, string> = {
+      no_load_speed: "no_load_speed: 9000 rpm",
+      kv: "kv: 600 rpm/V",
+      stall_current: "stall_current: 3 A",
+      duty: "duty: { torque: 4 mN m, speed: 5000 rpm }",
+      fixed: "fixed: { turns: 45, wire: 0.25 mm grade 2, strands: 1 }",
     };
-    if (t.goal in need && need[t.goal] === undefined) {
-      const ex: Record<string, string> = {
-        no_load_speed: "no_load_speed: 9000 rpm",
-        kv: "kv: 600 rpm/V",
-        stall_current: "stall_current: 3 A",
-        duty: "duty: { torque: 4 mN m, speed: 5000 rpm }",
-        fixed: "fixed: { turns: 45, wire: 0.25 mm grade 2, strands: 1 }",
-      };
-      ctx.addIssue({
-        code: "custom",
-        path: ["target", t.goal],
-        message: `goal ${t.goal} needs its value: add ${ex[t.goal]}`,
-        params: { code: "missing_field" },
-      });
-    }
-    seriesRules(job, ctx);
-    checkSlotFitsRotor(job.armature, ctx);
-    if (t.limits.current_density === "none" && t.duty === undefined && t.rated_current === undefined) {
-      ctx.addIssue({
-        code: "custom",
-        path: ["target", "limits", "current_density"],
-        message: "current_density: none turns off a limit that applies only with a duty or a rated_current, and this job gives neither; remove the line, or add rated_current: 0.9 A",
-        params: { code: "limit_unused" },
-      });
-    }
-    if (job.armature.field_poles % 2 !== 0) {
-      ctx.addIssue({
-        code: "custom",
-        path: ["armature", "field_poles"],
-        message: `poles come in pairs; ${job.armature.field_poles} is odd (nearest: ${job.armature.field_poles - 1} or ${job.armature.field_poles + 1})`,
-        params: { code: "odd_poles" },
-      });
-    }
-    if (job.winding.style !== "tooth" && job.winding.span === undefined) {
-      const pitch = Math.max(1, Math.floor(job.armature.slots / job.armature.field_poles));
-      ctx.addIssue({
-        code: "custom",
-        path: ["winding", "span"],
-        message: `a ${job.winding.style} winding needs its coil span in slots, counted on the old winding (full pitch here would be span: ${pitch})`,
-        params: { code: "missing_field" },
-      });
-    }
-  });
+    ctx.addIssue({
+      code: "custom",
+      path: ["target", t.goal],
+      message: `goal ${t.goal} needs its value: add ${ex[t.goal]}`,
+      params: { code: "missing_field" },
+    });
+  }
+  seriesRules(job, ctx);
+  checkSlotFitsRotor(job.armature, ctx);
+  if (t.limits.current_density === "none" && t.duty === undefined && t.rated_current === undefined) {
+    ctx.addIssue({
+      code: "custom",
+      path: ["target", "limits", "current_density"],
+      message:
+        "current_density: none turns off a limit that applies only with a duty or a rated_current, and this job gives neither; remove the line, or add rated_current: 0.9 A",
+      params: { code: "limit_unused" },
+    });
+  }
+  if (job.armature.field_poles % 2 !== 0) {
+    ctx.addIssue({
+      code: "custom",
+      path: ["armature", "field_poles"],
+      message: `poles come in pairs; ${job.armature.field_poles} is odd (nearest: ${job.armature.field_poles - 1} or ${job.armature.field_poles + 1})`,
+      params: { code: "odd_poles" },
+    });
+  }
+  if (job.winding.style !== "tooth" && job.winding.span === undefined) {
+    const pitch = Math.max(1, Math.floor(job.armature.slots / job.armature.field_poles));
+    ctx.addIssue({
+      code: "custom",
+      path: ["winding", "span"],
+      message: `a ${job.winding.style} winding needs its coil span in slots, counted on the old winding (full pitch here would be span: ${pitch})`,
+      params: { code: "missing_field" },
+    });
+  }
+});
 
 type JobOut = z.output<typeof jobShape>;
 
@@ -470,16 +503,29 @@ function seriesRules(job: JobOut, ctx: z.RefinementCtx): void {
     );
   }
   if (!series && t.goal === "convert") {
-    issue(["target", "goal"], `goal convert re-plans a series motor's armature for a new supply; for a ${job.armature.field.replace("_", "-")} motor use no_load_speed, kv or duty`, "goal_unsuitable");
+    issue(
+      ["target", "goal"],
+      `goal convert re-plans a series motor's armature for a new supply; for a ${job.armature.field.replace("_", "-")} motor use no_load_speed, kv or duty`,
+      "goal_unsuitable",
+    );
   }
   if (series && t.goal === "convert" && !job.original.nameplate && !(job.original.tests ?? []).some((x) => x.kind === "load")) {
-    issue(["original", "nameplate"], "goal convert keeps the original's rated speed and torque: give the nameplate (supply, current or input_power, speed) or a load test", "missing_field");
+    issue(
+      ["original", "nameplate"],
+      "goal convert keeps the original's rated speed and torque: give the nameplate (supply, current or input_power, speed) or a load test",
+      "missing_field",
+    );
   }
   if (series && t.goal === "convert" && !job.field_winding) {
-    issue(["field_winding"], "goal convert says what the field must become: give field_winding with the field's resistance (resistance: { value: 3.8 ohm, at: 20 C })", "missing_field");
+    issue(
+      ["field_winding"],
+      "goal convert says what the field must become: give field_winding with the field's resistance (resistance: { value: 3.8 ohm, at: 20 C })",
+      "missing_field",
+    );
   }
   (job.original.tests ?? []).forEach((x, i) => {
-    if (x.kind === "load" && !series) issue(["original", "tests", i, "kind"], "load tests calibrate series motors only; for this motor give a no-load test (kind: no_load)", "goal_unsuitable");
+    if (x.kind === "load" && !series)
+      issue(["original", "tests", i, "kind"], "load tests calibrate series motors only; for this motor give a no-load test (kind: no_load)", "goal_unsuitable");
   });
   if (typeof t.supply === "object" && t.supply.kind === "ac" && t.supply.frequency === undefined) {
     issue(["target", "supply", "frequency"], "an AC supply needs its frequency: add frequency: 50 Hz (or 60 Hz)", "missing_field");
@@ -489,7 +535,11 @@ function seriesRules(job: JobOut, ctx: z.RefinementCtx): void {
   }
   const lr = job.field_winding?.locked_rotor;
   if (lr && lr.frequency === undefined && typeof t.supply === "object" && t.supply.kind === "ac") {
-    issue(["field_winding", "locked_rotor", "frequency"], "say whether the locked-rotor reading was on AC (frequency: 50 Hz) or DC (frequency: 0 Hz)", "missing_field");
+    issue(
+      ["field_winding", "locked_rotor", "frequency"],
+      "say whether the locked-rotor reading was on AC (frequency: 50 Hz) or DC (frequency: 0 Hz)",
+      "missing_field",
+    );
   }
 }
 

@@ -192,7 +192,12 @@ function spreadCheck(spread: Spread): CheckRow {
     tolerance_source: spreadRuleText(),
     verdict: outside.length ? "fail" : "ok",
     note: outside.length
-      ? outside.map((r) => `${readingName(r.index)} (bars ${r.index + 1}–${r.index + 2 > spread.rows.length ? 1 : r.index + 2}) ${r.side === "open" ? "reads open" : `${fmtPct(r.of_median_fraction)} of the median`}: ${r.suggests}`).join("; ") + " (armwind diagnose names the coil)"
+      ? outside
+          .map(
+            (r) =>
+              `${readingName(r.index)} (bars ${r.index + 1}–${r.index + 2 > spread.rows.length ? 1 : r.index + 2}) ${r.side === "open" ? "reads open" : `${fmtPct(r.of_median_fraction)} of the median`}: ${r.suggests}`,
+          )
+          .join("; ") + " (armwind diagnose names the coil)"
       : `largest ${readingName(worst.index)} ${fmtPct(worst.of_median_fraction)} of the median ${r4(spread.median_ohm)} Ω (band ±${(worst.window_fraction * 100).toFixed(1)} %)`,
   };
 }
@@ -218,7 +223,8 @@ function levelCheck(level: Level, calibrated: boolean): CheckRow {
 /** Four-wire advice below FOUR_WIRE_FACTOR counts of the meter, and always "null the test leads first" (common practice). */
 function resolutionNotes(p: Prediction, m: Measured, res: number): string[] {
   const out: string[] = [];
-  if (m.meter_resolution === undefined) out.push(`meter resolution not recorded: taken as ${DEFAULT_METER_RESOLUTION_OHM} Ω, a handheld meter's lowest range (add meter_resolution)`);
+  if (m.meter_resolution === undefined)
+    out.push(`meter resolution not recorded: taken as ${DEFAULT_METER_RESOLUTION_OHM} Ω, a handheld meter's lowest range (add meter_resolution)`);
   const advice = fourWireAdvice(Math.min(...p.bar_to_bar), res);
   if (advice) out.push(advice);
   if (m.terminal_resistance !== undefined && needsFourWire(p.terminal.single, res)) {
@@ -246,7 +252,18 @@ function terminalCheck(p: Prediction, m: Measured): CheckRow {
   } else if (verdict !== "ok" && r20 >= lo * (1 - tt.fraction) && r20 <= p.terminal.max * (1 + tt.fraction)) {
     note = `within the ${p.terminal.min === null ? "—" : r4(p.terminal.min)} to ${r4(p.terminal.max)} Ω the brushes give as the rotor turns: read again with each brush on a single bar`;
   }
-  return { check: "terminal_resistance", unit: "ohm", predicted_value: p.terminal.single, measured_value: m.terminal_resistance, measured_20c_value: r20, deviation_fraction: dev, tolerance_fraction: tt.fraction, tolerance_source: tt.source, verdict, note };
+  return {
+    check: "terminal_resistance",
+    unit: "ohm",
+    predicted_value: p.terminal.single,
+    measured_value: m.terminal_resistance,
+    measured_20c_value: r20,
+    deviation_fraction: dev,
+    tolerance_fraction: tt.fraction,
+    tolerance_source: tt.source,
+    verdict,
+    note,
+  };
 }
 
 /** No-load speed and current against the plan at the measured supply; what the reading says about Ke and the loss torque goes into `derived` (docs/contracts.md "Calibration of Ke"). */
@@ -255,14 +272,28 @@ function noLoadChecks(p: Prediction, m: Measured, derived: Derived, notes: strin
   const ns = NO_LOAD_SPEED;
   const nc = NO_LOAD_CURRENT;
   if (!m.no_load) {
-    return [notChecked("no_load.speed", "rpm", null, ns, p.series ? "not run (a series motor must never run unloaded)" : "not run"), notChecked("no_load.current", "A", null, nc, "not run")];
+    return [
+      notChecked("no_load.speed", "rpm", null, ns, p.series ? "not run (a series motor must never run unloaded)" : "not run"),
+      notChecked("no_load.current", "A", null, nc, "not run"),
+    ];
   }
   const out: CheckRow[] = [];
   const pr = predictNoLoad(p, m.no_load.supply, T);
   const why = p.series ? "a series or universal motor has no safe no-load speed to predict" : "nothing calibrates Ke";
   if (pr) {
     const ds = m.no_load.speed / pr.speed - 1;
-    out.push({ check: "no_load.speed", unit: "rpm", predicted_value: toRpm(pr.speed), measured_value: toRpm(m.no_load.speed), measured_20c_value: null, deviation_fraction: ds, tolerance_fraction: ns.fraction, tolerance_source: ns.source, verdict: verdictOf(ds, ns.fraction), note: `at ${m.no_load.supply} V` });
+    out.push({
+      check: "no_load.speed",
+      unit: "rpm",
+      predicted_value: toRpm(pr.speed),
+      measured_value: toRpm(m.no_load.speed),
+      measured_20c_value: null,
+      deviation_fraction: ds,
+      tolerance_fraction: ns.fraction,
+      tolerance_source: ns.source,
+      verdict: verdictOf(ds, ns.fraction),
+      note: `at ${m.no_load.supply} V`,
+    });
     const predicted = pr.current !== null && pr.current > 0 ? pr.current : null;
     const dc = predicted !== null ? m.no_load.current / predicted - 1 : null;
     out.push({
@@ -286,7 +317,9 @@ function noLoadChecks(p: Prediction, m: Measured, derived: Derived, notes: strin
     derived.loss_torque_n_m = ke * m.no_load.current;
     derived.loss_speed_rpm = toRpm(m.no_load.speed);
   } else if (!p.series) {
-    notes.push(`the no-load reading leaves no back-EMF (${m.no_load.supply} V − ${p.brush_drop} V brushes − ${m.no_load.current} A × ${r4(rT)} Ω ≤ 0): check the supply, current and brush drop`);
+    notes.push(
+      `the no-load reading leaves no back-EMF (${m.no_load.supply} V − ${p.brush_drop} V brushes − ${m.no_load.current} A × ${r4(rT)} Ω ≤ 0): check the supply, current and brush drop`,
+    );
   }
   return out;
 }
@@ -297,17 +330,60 @@ function stallCheck(p: Prediction, m: Measured): CheckRow {
   if (!m.stall) return notChecked("stall.current", "A", null, st, "not run");
   const pred = predictStall(p, m.stall.supply, m.temperature);
   const dev = m.stall.current / pred - 1;
-  return { check: "stall.current", unit: "A", predicted_value: pred, measured_value: m.stall.current, measured_20c_value: null, deviation_fraction: dev, tolerance_fraction: st.fraction, tolerance_source: st.source, verdict: verdictOf(dev, st.fraction), note: `at ${m.stall.supply} V, winding at ${m.temperature} °C` };
+  return {
+    check: "stall.current",
+    unit: "A",
+    predicted_value: pred,
+    measured_value: m.stall.current,
+    measured_20c_value: null,
+    deviation_fraction: dev,
+    tolerance_fraction: st.fraction,
+    tolerance_source: st.source,
+    verdict: verdictOf(dev, st.fraction),
+    note: `at ${m.stall.supply} V, winding at ${m.temperature} °C`,
+  };
 }
 
 /** Insulation to the shaft and core: at least INSULATION_MIN_OHM, or the tester's own pass. */
 function insulationCheck(m: Measured): CheckRow {
   const ins = m.insulation;
-  if (!ins) return { ...notChecked("insulation", "", null, { fraction: 0, source: "" }, "not tested: a test from every bar to the shaft and core belongs on every bench sheet (common practice)"), tolerance_fraction: null };
+  if (!ins)
+    return {
+      ...notChecked(
+        "insulation",
+        "",
+        null,
+        { fraction: 0, source: "" },
+        "not tested: a test from every bar to the shaft and core belongs on every bench sheet (common practice)",
+      ),
+      tolerance_fraction: null,
+    };
   if ("megohm" in ins) {
-    return { check: "insulation", unit: "Mohm", predicted_value: INSULATION_MIN_OHM / 1e6, measured_value: ins.megohm / 1e6, measured_20c_value: null, deviation_fraction: null, tolerance_fraction: null, tolerance_source: INSULATION_SOURCE, verdict: ins.megohm >= INSULATION_MIN_OHM ? "ok" : "fail", note: `at ${ins.test_volts} V` };
+    return {
+      check: "insulation",
+      unit: "Mohm",
+      predicted_value: INSULATION_MIN_OHM / 1e6,
+      measured_value: ins.megohm / 1e6,
+      measured_20c_value: null,
+      deviation_fraction: null,
+      tolerance_fraction: null,
+      tolerance_source: INSULATION_SOURCE,
+      verdict: ins.megohm >= INSULATION_MIN_OHM ? "ok" : "fail",
+      note: `at ${ins.test_volts} V`,
+    };
   }
-  return { check: "insulation", unit: "", predicted_value: null, measured_value: null, measured_20c_value: null, deviation_fraction: null, tolerance_fraction: null, tolerance_source: "the tester's own pass limit", verdict: ins.pass ? "ok" : "fail", note: ins.pass ? "passed" : "failed: a ground from the winding to the shaft or core" };
+  return {
+    check: "insulation",
+    unit: "",
+    predicted_value: null,
+    measured_value: null,
+    measured_20c_value: null,
+    deviation_fraction: null,
+    tolerance_fraction: null,
+    tolerance_source: "the tester's own pass limit",
+    verdict: ins.pass ? "ok" : "fail",
+    note: ins.pass ? "passed" : "failed: a ground from the winding to the shaft or core",
+  };
 }
 
 function notChecked(check: string, unit: string, predicted: number | null, tol: Tolerance, why: string): CheckRow {

@@ -8,7 +8,12 @@ import { paintDrawing, type PdfCanvas } from "../plot/drawing.js";
 import type { Drawing } from "./history.js";
 
 export function drawingPdf(d: Drawing, info: { title: string; date?: Date }): Promise<Buffer> {
-  const doc = new PDFDocument({ size: [d.width, d.height], autoFirstPage: false, info: { Title: info.title, Creator: "armwind", ...(info.date ? { CreationDate: info.date } : {}) }, lang: "en" });
+  const doc = new PDFDocument({
+    size: [d.width, d.height],
+    autoFirstPage: false,
+    info: { Title: info.title, Creator: "armwind", ...(info.date ? { CreationDate: info.date } : {}) },
+    lang: "en",
+  });
   const fonts = cardFonts();
   doc.registerFont("DejaVu", fonts.regular);
   doc.registerFont("DejaVu-Bold", fonts.bold);

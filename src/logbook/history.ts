@@ -120,7 +120,9 @@ function historyPanels(rows: HistoryRow[]): Panel[] {
       title: "Terminal resistance at 20 °C",
       unit: "Ω",
       tolerance: TERMINAL.fraction,
-      points: rows.filter((r) => r.terminal_predicted_ohm !== null && r.terminal_measured_ohm !== null).map((r) => ({ x: r.terminal_predicted_ohm!, y: r.terminal_measured_ohm!, ok: r.checks_ok })),
+      points: rows
+        .filter((r) => r.terminal_predicted_ohm !== null && r.terminal_measured_ohm !== null)
+        .map((r) => ({ x: r.terminal_predicted_ohm!, y: r.terminal_measured_ohm!, ok: r.checks_ok })),
     },
     {
       title: "No-load current",
@@ -213,4 +215,3 @@ function drawPanel(shapes: Shape[], p: Panel, left: number, top: number, size: n
   shapes.push({ kind: "text", x: left + size / 2, y: top + size + 28, text: `predicted (${p.unit})`, size: 8, anchor: "middle" });
   shapes.push({ kind: "text", x: left - 38, y: top + size / 2, text: `measured (${p.unit})`, size: 8, anchor: "middle", rotate: true });
 }
-

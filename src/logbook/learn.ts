@@ -66,7 +66,10 @@ export function learnFromRecords(job: Job, records: { file?: string; record: Log
   const losses: number[] = [];
   for (const { file, record: r } of same) {
     if (r.job.slots !== job.armature.slots || r.job.bars !== job.armature.bars || r.job.style !== job.winding.style) {
-      skipped.push({ file, why: `family ${family} but ${r.job.style} ${r.job.slots} slots / ${r.job.bars} bars, not ${job.winding.style} ${job.armature.slots} / ${job.armature.bars}` });
+      skipped.push({
+        file,
+        why: `family ${family} but ${r.job.style} ${r.job.slots} slots / ${r.job.bars} bars, not ${job.winding.style} ${job.armature.slots} / ${job.armature.bars}`,
+      });
       continue;
     }
     let any = false;
@@ -111,4 +114,3 @@ export function learnFromRecords(job: Job, records: { file?: string; record: Log
   if (after.loss.b !== before.loss.b) moves.push({ figure: "viscous loss", from: before.loss.b, to: after.loss.b, unit: "N·m·s/rad" });
   return { options, family, used, skipped };
 }
-

@@ -21,7 +21,8 @@ const barReading = z
     if (isOpenText(v)) return Infinity;
     const r = ohmReading.safeParse(v);
     if (r.success) return r.data;
-    for (const issue of r.error.issues) ctx.addIssue({ code: "custom", message: issue.message, params: (issue as { params?: Record<string, unknown> }).params });
+    for (const issue of r.error.issues)
+      ctx.addIssue({ code: "custom", message: issue.message, params: (issue as { params?: Record<string, unknown> }).params });
     return z.NEVER;
   });
 
@@ -72,7 +73,10 @@ export const measuredSchema = z.strictObject({
     .meta({ description: "the winding actually laid, only where it differs from the plan" }),
   temperature: qty("temperature", TEMP).meta({ description: "temperature of the winding when the resistances were read" }),
   meter_resolution: qty("resistance", { positive: true }).optional(),
-  bar_to_bar: z.array(barReading).min(1).meta({ description: "r1 … rC, r_i between bar i and bar i+1; Ω unless a unit is written; OL or open for an open circuit" }),
+  bar_to_bar: z
+    .array(barReading)
+    .min(1)
+    .meta({ description: "r1 … rC, r_i between bar i and bar i+1; Ω unless a unit is written; OL or open for an open circuit" }),
   terminal_resistance: qty("resistance", { positive: true }).optional(),
   no_load: z
     .strictObject({
@@ -89,7 +93,10 @@ export const measuredSchema = z.strictObject({
     .optional(),
   insulation: z
     .union([
-      z.strictObject({ test_volts: qty("voltage", { positive: true, max: 10000, maxText: "10 kV" }), megohm: qty("resistance_large", { min: 0, minText: "0 Mohm" }) }),
+      z.strictObject({
+        test_volts: qty("voltage", { positive: true, max: 10000, maxText: "10 kV" }),
+        megohm: qty("resistance_large", { min: 0, minText: "0 Mohm" }),
+      }),
       z.strictObject({ pass: z.boolean(), test_volts: qty("voltage", { positive: true, max: 10000, maxText: "10 kV" }).optional() }),
     ])
     .optional()
@@ -107,7 +114,13 @@ export type Measured = z.output<typeof measuredSchema>;
 export function checkAgainstJob(m: Measured, job: Job, file: string, locate: (p: readonly PathPart[]) => { line: number; column: number }): void {
   const problems: Problem[] = [];
   if (m.job !== job.id) {
-    problems.push({ code: "job_mismatch", path: "job", message: `the readings are for job "${m.job}", not "${job.id}"; give the job file of ${m.job}, or correct the id`, file, ...locate(["job"]) });
+    problems.push({
+      code: "job_mismatch",
+      path: "job",
+      message: `the readings are for job "${m.job}", not "${job.id}"; give the job file of ${m.job}, or correct the id`,
+      file,
+      ...locate(["job"]),
+    });
   }
   const C = job.armature.bars;
   if (m.bar_to_bar.length !== C) {

@@ -120,7 +120,11 @@ export function buildRecord(job: Job, plan: Plan, prediction: Prediction, m: Mea
     winding: {
       turns: p.turns,
       strands: p.strands,
-      wire: { label: p.wire.label, bare_diameter_mm: p.wire.bare_diameter * 1e3, overall_diameter_mm: p.wire.overall_diameter === null ? null : p.wire.overall_diameter * 1e3 },
+      wire: {
+        label: p.wire.label,
+        bare_diameter_mm: p.wire.bare_diameter * 1e3,
+        overall_diameter_mm: p.wire.overall_diameter === null ? null : p.wire.overall_diameter * 1e3,
+      },
       mean_turn_length_mm: p.mlt * 1e3,
       differs_from_plan: p.differs,
       differences: p.differences,
@@ -199,7 +203,10 @@ export const recordSchema = z.looseObject({
   logged_at: z.string().max(100),
   job: z.looseObject({
     id: jobId,
-    family: z.string().max(ID_MAX_LENGTH * 4).nullable(),
+    family: z
+      .string()
+      .max(ID_MAX_LENGTH * 4)
+      .nullable(),
     style: z.enum(["tooth", "lap", "wave"]),
     slots: count(COUNTS.slots),
     bars: count(COUNTS.bars),
@@ -208,7 +215,11 @@ export const recordSchema = z.looseObject({
   winding: z.looseObject({
     turns: count(COUNTS.turns),
     strands: count(COUNTS.strands),
-    wire: z.looseObject({ label: z.string().max(200), bare_diameter_mm: within(R.bare_diameter_mm), overall_diameter_mm: within(R.overall_diameter_mm).nullable() }),
+    wire: z.looseObject({
+      label: z.string().max(200),
+      bare_diameter_mm: within(R.bare_diameter_mm),
+      overall_diameter_mm: within(R.overall_diameter_mm).nullable(),
+    }),
     mean_turn_length_mm: within(R.mean_turn_length_mm),
   }),
   // a reading may be null: OL or open on the meter
@@ -243,7 +254,6 @@ export function checkOf(r: Pick<LogRecord, "comparison">, check: string) {
   return r.comparison.checks.find((c) => c.check === check);
 }
 
-
 /**
  * What makes two records the same rewind: the job, the date and the readings (temperature,
  * bar to bar, terminal). A measured file logged twice gives two records with the same key; learning
@@ -255,7 +265,10 @@ export function rewindKey(r: Pick<LogRecord, "date" | "job" | "measured">): stri
 }
 
 /** The records that are the same rewind as `r` (its key), in the order given. */
-export function sameRewind<T extends { record: Pick<LogRecord, "date" | "job" | "measured"> }>(records: T[], r: Pick<LogRecord, "date" | "job" | "measured">): T[] {
+export function sameRewind<T extends { record: Pick<LogRecord, "date" | "job" | "measured"> }>(
+  records: T[],
+  r: Pick<LogRecord, "date" | "job" | "measured">,
+): T[] {
   const key = rewindKey(r);
   return records.filter((x) => rewindKey(x.record) === key);
 }

@@ -58,7 +58,10 @@ function writeFailed(file: string, e: unknown): ArmwindError {
           : code === "EROFS"
             ? "the file system is read-only"
             : (code ?? (e instanceof Error ? e.message : String(e)));
-  return new ArmwindError({ code: "write_failed", message: `cannot write the logbook record: ${why}; choose another folder with --logbook DIR`, path: "", file }, 3);
+  return new ArmwindError(
+    { code: "write_failed", message: `cannot write the logbook record: ${why}; choose another folder with --logbook DIR`, path: "", file },
+    3,
+  );
 }
 
 function sleepSync(ms: number) {
@@ -220,7 +223,9 @@ export function readLogbook(dir: string, opts: ReadOptions = {}): Logbook {
       exists: false,
       unreadable: true,
       records: [],
-      warnings: [{ code: "logbook_unreadable", file: dir, path: "", message: `the logbook folder ${dir} cannot be read (${why}); going on without its records` }],
+      warnings: [
+        { code: "logbook_unreadable", file: dir, path: "", message: `the logbook folder ${dir} cannot be read (${why}); going on without its records` },
+      ],
     };
   }
   const records: { file: string; record: ReadRecord }[] = [];
@@ -237,7 +242,9 @@ export function readLogbook(dir: string, opts: ReadOptions = {}): Logbook {
 
 /** One record file of the folder, read and checked; a warning when it is not to be trusted. */
 function readRecordFile(dir: string, name: string): { record: ReadRecord } | { warning: LogbookWarning } {
-  const damaged = (why: string) => ({ warning: { code: "record_damaged" as const, file: name, path: "", message: `${name}: damaged record, left out (${why})` } });
+  const damaged = (why: string) => ({
+    warning: { code: "record_damaged" as const, file: name, path: "", message: `${name}: damaged record, left out (${why})` },
+  });
   if (!RECORD_NAME.test(name)) return damaged("the name is not <job id>-<date>-<bench>-<n>.yaml");
   let text: string;
   try {

@@ -23,10 +23,7 @@ export const DEFAULT_BRUSH_DROP: Readonly<Record<BrushMaterial, number>> = {
  * Total brush drop, V: the value the job states when it states one, else the material default
  * (`DEFAULT_BRUSH_DROP`, sources there). Returns the value and where it came from.
  */
-export function brushDrop(
-  material: BrushMaterial,
-  given?: number,
-): { volts: number; source: "given" | "default"; basis: string } {
+export function brushDrop(material: BrushMaterial, given?: number): { volts: number; source: "given" | "default"; basis: string } {
   if (given !== undefined) {
     requireNonNegative(given, "brush drop", "winding.brush_drop");
     return { volts: given, source: "given", basis: `brush drop ${given} V as the job states` };

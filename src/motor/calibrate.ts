@@ -94,13 +94,7 @@ export function fitKeFromGenerator(speed: number, volts: number, path = "origina
   };
 }
 
-function backEmf(
-  t: NoLoadTest,
-  ohm: number,
-  brushDrop: number,
-  path: string,
-  what: string,
-): { emf: number; ia: number } {
+function backEmf(t: NoLoadTest, ohm: number, brushDrop: number, path: string, what: string): { emf: number; ia: number } {
   const ia = checkTest(t, path);
   requirePositive(ohm, "terminal resistance", "original.terminal_resistance");
   requireNonNegative(brushDrop, "brush drop", "winding.brush_drop");
@@ -129,12 +123,7 @@ function noLoadUncertainty(t: NoLoadTest, emf: number, ia: number, ohm: number, 
  * drop, 5 % + 3 % on the I·R term, each divided by the back-EMF (common practice).
  * Zero or negative back-EMF throws `inconsistent_tests` naming the numbers.
  */
-export function fitKeFromNoLoad(
-  test: NoLoadTest,
-  terminalOhmAtTestTemp: number,
-  brushDrop: number,
-  path = "original.tests[0]",
-): Fit {
+export function fitKeFromNoLoad(test: NoLoadTest, terminalOhmAtTestTemp: number, brushDrop: number, path = "original.tests[0]"): Fit {
   const { emf, ia } = backEmf(test, terminalOhmAtTestTemp, brushDrop, path, "the no-load test");
   return {
     value: emf / test.speed,
@@ -154,12 +143,7 @@ export function fitKeFromNoLoad(
  * drop are the same in every test, so their error does not average out).
  * Source: least squares (any statistics text); the armature equation as in `fitKeFromNoLoad`.
  */
-export function fitKeFromNoLoadTests(
-  tests: NoLoadTest[],
-  terminalOhm: number | number[],
-  brushDrop: number,
-  path = "original.tests",
-): Fit {
+export function fitKeFromNoLoadTests(tests: NoLoadTest[], terminalOhm: number | number[], brushDrop: number, path = "original.tests"): Fit {
   if (tests.length === 0) throw inputError("invalid_value", path, "at least one no-load test is needed");
   const ohms = tests.map((_, i) => (Array.isArray(terminalOhm) ? terminalOhm[i] : terminalOhm));
   if (Array.isArray(terminalOhm) && terminalOhm.length !== tests.length) {
@@ -206,14 +190,7 @@ export function fitKeFromNoLoadTests(
  * equation at the rated point (docs/contracts.md). Uncertainty 15 %: ratings are rounded and the
  * winding's temperature at the rated point is a guess (common practice, no published source).
  */
-export function fitKeFromNameplate(
-  supply: number,
-  current: number,
-  speed: number,
-  hotOhm: number,
-  brushDrop: number,
-  path = "original.nameplate",
-): Fit {
+export function fitKeFromNameplate(supply: number, current: number, speed: number, hotOhm: number, brushDrop: number, path = "original.nameplate"): Fit {
   const t: NoLoadTest = { supply, current, speed };
   const { emf } = backEmf(t, hotOhm, brushDrop, path, "the nameplate");
   return {
@@ -388,7 +365,12 @@ export interface KeCalibration {
  * the logbook of the same family, nameplate (rough), magnet estimate; the reasons and warnings that
  * go with the choice (generator and no-load disagreeing by more than 5 %, a rough source).
  */
-function chooseKe(inputs: CalibrationInputs, fits: KeCalibration["fits"], reasons: string[], warnings: Warning[]): { chosen: Fit | undefined; source: KeSource } {
+function chooseKe(
+  inputs: CalibrationInputs,
+  fits: KeCalibration["fits"],
+  reasons: string[],
+  warnings: Warning[],
+): { chosen: Fit | undefined; source: KeSource } {
   let chosen: Fit | undefined;
   let source: KeSource = "none";
   if (fits.generator) {
@@ -479,11 +461,16 @@ function fieldWarnings(inputs: CalibrationInputs, tests: NoLoadTestWithOhm[], wa
       message: "shunt motor test without field_current: the whole current was taken as armature current, so Ke reads low and the loss high",
     });
   }
-
 }
 
 /** The loss torque: from the no-load tests with the chosen Kt, else the logbook's, else unknown (null). */
-function lossOf(inputs: CalibrationInputs, tests: NoLoadTestWithOhm[], chosen: Fit | undefined, fits: KeCalibration["fits"], reasons: string[]): { loss: LossTorque | null; lossBasis: string | null } {
+function lossOf(
+  inputs: CalibrationInputs,
+  tests: NoLoadTestWithOhm[],
+  chosen: Fit | undefined,
+  fits: KeCalibration["fits"],
+  reasons: string[],
+): { loss: LossTorque | null; lossBasis: string | null } {
   let loss: LossTorque | null = null;
   let lossBasis: string | null = null;
   if (chosen && tests.length > 0) {

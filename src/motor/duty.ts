@@ -25,12 +25,7 @@ export interface DutyPoint {
  * the model. A torque beyond stall throws `beyond_stall` at `target.duty.torque`.
  * Source: the linear motor model (`atTorque`) and J = I/(a·k·A).
  */
-export function dutyPoint(
-  model: MotorModel,
-  V: number,
-  torque: number,
-  wire?: { paths: number; strands: number; strandArea: number },
-): DutyPoint {
+export function dutyPoint(model: MotorModel, V: number, torque: number, wire?: { paths: number; strands: number; strandArea: number }): DutyPoint {
   const p = atTorque(model, V, torque, "target.duty.torque");
   return {
     speed: p.speed,

@@ -77,13 +77,7 @@ export function pitchFactor(spanSlots: number, slots: number, poles: number): nu
  * L stack length (m), P poles. Assumes a uniform gap flux density under the pole arc, no fringing.
  * Source: flux = density × area of the pole face (any machine-design textbook).
  */
-export function fluxFromGap(
-  gapFluxDensity: number,
-  poleArc: number,
-  rotorDiameter: number,
-  stackLength: number,
-  poles: number,
-): number {
+export function fluxFromGap(gapFluxDensity: number, poleArc: number, rotorDiameter: number, stackLength: number, poles: number): number {
   requirePositive(gapFluxDensity, "gap flux density", "armature.magnet.gap_flux_density");
   requirePositive(poleArc, "pole arc", "armature.magnet.pole_arc");
   requirePositive(rotorDiameter, "rotor diameter", "armature.rotor_diameter");

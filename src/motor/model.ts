@@ -70,8 +70,7 @@ function constantField(model: MotorModel, V: number): number {
     throw inputError(
       "series_field",
       "armature.field",
-      "a series (universal) motor has no constant field, so no operating point is computed from the armature alone; " +
-        "never run it unloaded",
+      "a series (universal) motor has no constant field, so no operating point is computed from the armature alone; " + "never run it unloaded",
     );
   }
   requireNonNegative(V, "supply voltage", "target.supply");
@@ -172,8 +171,7 @@ export function atSpeed(model: MotorModel, V: number, speed: number, path = "tar
     throw inputError(
       "beyond_no_load",
       path,
-      `speed ${fmt(rpm(speed))} rpm is above the no-load speed ${fmt(rpm(nl.speed))} rpm at ${fmt(V)} V; ` +
-        `choose a speed up to ${fmt(rpm(nl.speed))} rpm`,
+      `speed ${fmt(rpm(speed))} rpm is above the no-load speed ${fmt(rpm(nl.speed))} rpm at ${fmt(V)} V; ` + `choose a speed up to ${fmt(rpm(nl.speed))} rpm`,
     );
   }
   const w = Math.min(speed, nl.speed);
@@ -206,10 +204,7 @@ export function curve(model: MotorModel, V: number, n = 21): OperatingPoint[] {
  * textbook I = √(I0 · I_stall), I0 = T_c/Kt. Derived here from the linear model; with no loss at
  * all the limit is I → 0, efficiency → V'/V.
  */
-export function peakEfficiency(
-  model: MotorModel,
-  V: number,
-): { efficiency: number; current: number; torque: number; speed: number } {
+export function peakEfficiency(model: MotorModel, V: number): { efficiency: number; current: number; torque: number; speed: number } {
   const Vd = constantField(model, V);
   const { ke, resistance: R } = model;
   const { tc, b } = model.loss;

@@ -184,7 +184,11 @@ export function atTorqueSeries(m: SeriesMotor, s: Supply, torque: number, path =
   if (torque === 0 && m.loss.tc <= 0 && m.loss.c2 <= 0) {
     throw inputError("series_no_load", path, "with no loss torque a series motor has no finite no-load speed: it races; give a load torque");
   }
-  return atCurrent(m, s, bisect((c) => atCurrent(m, s, c).torque - torque, 0, iLock));
+  return atCurrent(
+    m,
+    s,
+    bisect((c) => atCurrent(m, s, c).torque - torque, 0, iLock),
+  );
 }
 
 /**
@@ -375,7 +379,10 @@ export function fitSeriesLoss(points: { speed: number; lossTorque: number; path:
   let tc = a.lossTorque - c2 * a.speed ** 2;
   if (c2 < 0) {
     tc = s.reduce((t, p) => t + p.lossTorque, 0) / s.length;
-    return { loss: { tc, c2: 0 }, basis: `loss torque held constant at ${fmt(tc)} N·m: it does not grow with speed between ${fmt(rpm(a.speed))} and ${fmt(rpm(b.speed))} rpm` };
+    return {
+      loss: { tc, c2: 0 },
+      basis: `loss torque held constant at ${fmt(tc)} N·m: it does not grow with speed between ${fmt(rpm(a.speed))} and ${fmt(rpm(b.speed))} rpm`,
+    };
   }
   if (tc < 0) {
     tc = 0;
@@ -441,10 +448,18 @@ export function fitInductanceFromLockedRotor(
 export function splitInductance(sum: number, armature?: number, field?: number): { la: number; lf: number; basis: string } {
   requireNonNegative(sum, "inductance", "field_winding.locked_rotor");
   if (armature !== undefined) {
-    return { la: Math.min(armature, sum), lf: Math.max(0, sum - armature), basis: `armature ${fmt(armature * 1e3)} mH as given, field the rest of ${fmt(sum * 1e3)} mH` };
+    return {
+      la: Math.min(armature, sum),
+      lf: Math.max(0, sum - armature),
+      basis: `armature ${fmt(armature * 1e3)} mH as given, field the rest of ${fmt(sum * 1e3)} mH`,
+    };
   }
   if (field !== undefined) {
-    return { la: Math.max(0, sum - field), lf: Math.min(field, sum), basis: `field ${fmt(field * 1e3)} mH as given, armature the rest of ${fmt(sum * 1e3)} mH` };
+    return {
+      la: Math.max(0, sum - field),
+      lf: Math.min(field, sum),
+      basis: `field ${fmt(field * 1e3)} mH as given, armature the rest of ${fmt(sum * 1e3)} mH`,
+    };
   }
   return { la: sum / 2, lf: sum / 2, basis: `split assumed half armature, half field of the ${fmt(sum * 1e3)} mH measured (no published source)` };
 }

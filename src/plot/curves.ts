@@ -65,12 +65,43 @@ export function curvesDrawing(plan: Plan, opts: CurvesOptions): Drawing {
   const tu = torqueUnit(maxT);
   let top = 0;
   if (opts.legend) {
-    shapes.push({ kind: "text", x: 0, y: size + 4, text: `${plan.job.id}: motor curves at ${sig(plan.supply)} V ${plan.supply_kind.toUpperCase()}, winding hot (${sig(plan.resistance.hot_temperature)} °C)${plan.series ? ", light load to rated" : ""}`, size: size + 2, anchor: "start", bold: true });
+    shapes.push({
+      kind: "text",
+      x: 0,
+      y: size + 4,
+      text: `${plan.job.id}: motor curves at ${sig(plan.supply)} V ${plan.supply_kind.toUpperCase()}, winding hot (${sig(plan.resistance.hot_temperature)} °C)${plan.series ? ", light load to rated" : ""}`,
+      size: size + 2,
+      anchor: "start",
+      bold: true,
+    });
     const ly = size * 2 + 14;
-    shapes.push({ kind: "polyline", points: [[0, ly], [36, ly]], width: 1.2, dash: 5 });
+    shapes.push({
+      kind: "polyline",
+      points: [
+        [0, ly],
+        [36, ly],
+      ],
+      width: 1.2,
+      dash: 5,
+    });
     shapes.push({ kind: "text", x: 42, y: ly + 3, text: "original winding", size, anchor: "start" });
-    shapes.push({ kind: "polyline", points: [[160, ly], [196, ly]], width: 2 });
-    shapes.push({ kind: "text", x: 202, y: ly + 3, text: `new winding (${plan.design.turns} × ${plan.design.wire.label}${plan.design.strands > 1 ? ` × ${plan.design.strands}` : ""})`, size, anchor: "start", bold: true });
+    shapes.push({
+      kind: "polyline",
+      points: [
+        [160, ly],
+        [196, ly],
+      ],
+      width: 2,
+    });
+    shapes.push({
+      kind: "text",
+      x: 202,
+      y: ly + 3,
+      text: `new winding (${plan.design.turns} × ${plan.design.wire.label}${plan.design.strands > 1 ? ` × ${plan.design.strands}` : ""})`,
+      size,
+      anchor: "start",
+      bold: true,
+    });
     if (plan.duty) shapes.push({ kind: "text", x: 0, y: ly + size + 10, text: "● duty point of the new winding, ○ of the original", size, anchor: "start" });
     top = ly + size + (plan.duty ? 20 : 8);
   }
@@ -121,15 +152,21 @@ function chart(
   for (const t of xt) shapes.push({ kind: "text", x: X(t), y: py + ph + 3 + size * 0.8, text: tick(t), size: size - 1, anchor: "middle" });
   for (const v of yt) shapes.push({ kind: "text", x: px - 4, y: Y(v) + size * 0.35, text: tick(v), size: size - 1, anchor: "end" });
   shapes.push({ kind: "text", x: px + pw / 2, y: py + ph + 15 + size * 0.8, text: `torque, ${tu.unit}`, size: size - 1, anchor: "middle" });
-  const series = (pts: CurvePoint[]) => pts.flatMap((p) => {
-    const v = def.value(p);
-    return v !== null && Number.isFinite(v) && Number.isFinite(p.torque) ? [[X(p.torque * tu.k), Y(v)] as [number, number]] : [];
-  });
+  const series = (pts: CurvePoint[]) =>
+    pts.flatMap((p) => {
+      const v = def.value(p);
+      return v !== null && Number.isFinite(v) && Number.isFinite(p.torque) ? [[X(p.torque * tu.k), Y(v)] as [number, number]] : [];
+    });
   shapes.push({ kind: "polyline", points: series(o), width: 1.2, dash: 5 });
   shapes.push({ kind: "polyline", points: series(n), width: 2 });
   if (plan.duty) {
     const du = plan.duty;
-    const val = (d: NonNullable<Plan["duty"]>): Record<CurveKey, number | null> => ({ speed: toRpm(d.speed), current: d.current, efficiency: d.efficiency === null ? null : d.efficiency * 100, output: d.output_w });
+    const val = (d: NonNullable<Plan["duty"]>): Record<CurveKey, number | null> => ({
+      speed: toRpm(d.speed),
+      current: d.current,
+      efficiency: d.efficiency === null ? null : d.efficiency * 100,
+      output: d.output_w,
+    });
     const cx = X(du.torque * tu.k);
     shapes.push({ kind: "line", x1: cx, y1: py, x2: cx, y2: py + ph, width: 0.5, grey: 0, dash: 2 });
     const ov = plan.original_duty ? val(plan.original_duty)[key] : null;
@@ -140,7 +177,15 @@ function chart(
       const ty = Y(toRpm(du.target_speed));
       shapes.push({ kind: "line", x1: cx - 7, y1: ty, x2: cx + 7, y2: ty, width: 0.8, grey: 0 });
       shapes.push({ kind: "line", x1: cx, y1: ty - 7, x2: cx, y2: ty + 7, width: 0.8, grey: 0 });
-      shapes.push({ kind: "text", x: Math.min(cx + 9, px + pw - 90), y: ty - 12 + size, text: `duty target ${sig(toRpm(du.target_speed))} rpm`, size: size - 1, anchor: "start", bold: true });
+      shapes.push({
+        kind: "text",
+        x: Math.min(cx + 9, px + pw - 90),
+        y: ty - 12 + size,
+        text: `duty target ${sig(toRpm(du.target_speed))} rpm`,
+        size: size - 1,
+        anchor: "start",
+        bold: true,
+      });
     }
   }
 }

@@ -33,12 +33,16 @@ export function hexGrey(g: number): string {
 export function drawingSvg(d: Drawing): string {
   const out: string[] = [];
   out.push(`<?xml version="1.0" encoding="UTF-8"?>`);
-  out.push(`<svg xmlns="http://www.w3.org/2000/svg" width="${d.width}pt" height="${d.height}pt" viewBox="0 0 ${d.width} ${d.height}" font-family="DejaVu Sans, Verdana, sans-serif">`);
+  out.push(
+    `<svg xmlns="http://www.w3.org/2000/svg" width="${d.width}pt" height="${d.height}pt" viewBox="0 0 ${d.width} ${d.height}" font-family="DejaVu Sans, Verdana, sans-serif">`,
+  );
   out.push(`<rect x="0" y="0" width="${d.width}" height="${d.height}" fill="#ffffff"/>`);
   for (const s of d.shapes) {
     switch (s.kind) {
       case "line":
-        out.push(`<line x1="${f2(s.x1)}" y1="${f2(s.y1)}" x2="${f2(s.x2)}" y2="${f2(s.y2)}" stroke="${hexGrey(s.grey)}" stroke-width="${s.width}"${s.dash ? ` stroke-dasharray="${s.dash} ${s.dash}"` : ""}/>`);
+        out.push(
+          `<line x1="${f2(s.x1)}" y1="${f2(s.y1)}" x2="${f2(s.x2)}" y2="${f2(s.y2)}" stroke="${hexGrey(s.grey)}" stroke-width="${s.width}"${s.dash ? ` stroke-dasharray="${s.dash} ${s.dash}"` : ""}/>`,
+        );
         break;
       case "polyline":
         out.push(
@@ -46,10 +50,14 @@ export function drawingSvg(d: Drawing): string {
         );
         break;
       case "circle":
-        out.push(`<circle class="point" cx="${f2(s.cx)}" cy="${f2(s.cy)}" r="${s.r}" fill="${s.filled ? "#000000" : "#ffffff"}" stroke="#000000" stroke-width="0.8"/>`);
+        out.push(
+          `<circle class="point" cx="${f2(s.cx)}" cy="${f2(s.cy)}" r="${s.r}" fill="${s.filled ? "#000000" : "#ffffff"}" stroke="#000000" stroke-width="0.8"/>`,
+        );
         break;
       case "rect":
-        out.push(`<rect x="${f2(s.x)}" y="${f2(s.y)}" width="${f2(s.w)}" height="${f2(s.h)}" fill="none" stroke="${hexGrey(s.grey)}" stroke-width="${s.width ?? 0.8}"/>`);
+        out.push(
+          `<rect x="${f2(s.x)}" y="${f2(s.y)}" width="${f2(s.w)}" height="${f2(s.h)}" fill="none" stroke="${hexGrey(s.grey)}" stroke-width="${s.width ?? 0.8}"/>`,
+        );
         break;
       case "text":
         out.push(
@@ -91,7 +99,10 @@ export function paintDrawing(doc: PdfCanvas, d: Drawing, x0: number, y0: number,
       case "line":
         doc.save().lineWidth(s.width).strokeColor(hexGrey(s.grey));
         if (s.dash) doc.dash(s.dash, { space: s.dash });
-        doc.moveTo(x0 + s.x1, y0 + s.y1).lineTo(x0 + s.x2, y0 + s.y2).stroke();
+        doc
+          .moveTo(x0 + s.x1, y0 + s.y1)
+          .lineTo(x0 + s.x2, y0 + s.y2)
+          .stroke();
         doc.restore();
         break;
       case "polyline": {
@@ -105,16 +116,27 @@ export function paintDrawing(doc: PdfCanvas, d: Drawing, x0: number, y0: number,
         break;
       }
       case "circle":
-        doc.save().lineWidth(0.8).circle(x0 + s.cx, y0 + s.cy, s.r);
+        doc
+          .save()
+          .lineWidth(0.8)
+          .circle(x0 + s.cx, y0 + s.cy, s.r);
         doc.fillAndStroke(s.filled ? "#000000" : "#ffffff", "#000000");
         doc.restore();
         break;
       case "rect":
-        doc.save().lineWidth(s.width ?? 0.8).rect(x0 + s.x, y0 + s.y, s.w, s.h).stroke(hexGrey(s.grey));
+        doc
+          .save()
+          .lineWidth(s.width ?? 0.8)
+          .rect(x0 + s.x, y0 + s.y, s.w, s.h)
+          .stroke(hexGrey(s.grey));
         doc.restore();
         break;
       case "text": {
-        doc.save().font(s.bold ? fonts.bold : fonts.regular).fontSize(s.size).fillColor("#000000");
+        doc
+          .save()
+          .font(s.bold ? fonts.bold : fonts.regular)
+          .fontSize(s.size)
+          .fillColor("#000000");
         const w = doc.widthOfString(s.text);
         const dx = s.anchor === "middle" ? -w / 2 : s.anchor === "end" ? -w : 0;
         // SVG puts y on the baseline; pdfkit on the top of the line: lift by the ascent (about 0.8 em)

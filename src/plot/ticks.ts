@@ -6,7 +6,7 @@
 /** The smallest nice step at least `raw`. */
 export function niceStep(raw: number, factors: readonly number[] = [1, 2, 2.5, 5, 10]): number {
   const mag = 10 ** Math.floor(Math.log10(raw));
-  return (factors.map((f) => f * mag).find((s) => s >= raw * (1 - 1e-12)) ?? 10 * mag);
+  return factors.map((f) => f * mag).find((s) => s >= raw * (1 - 1e-12)) ?? 10 * mag;
 }
 
 /** Ticks lying within [lo, hi] at a nice step giving about `target` intervals. */

@@ -29,12 +29,16 @@ export const shopSchema = z.strictObject({
     .meta({ description: "this bench's name, unique within the shop: logbook record names carry it" }),
   paper: z.enum(["a4", "letter"]).optional().meta({ description: "paper for the card: a4 or letter" }),
   logbook: z.string().min(1).optional().meta({ description: "the logbook folder; a relative path is relative to this file" }),
-  meter_resolution: qty("resistance", { positive: true }).optional().meta({ description: "the resolution of the bench meter's lowest resistance range, e.g. 0.01 ohm" }),
+  meter_resolution: qty("resistance", { positive: true })
+    .optional()
+    .meta({ description: "the resolution of the bench meter's lowest resistance range, e.g. 0.01 ohm" }),
   wire_shelf: z
     .array(
       z.strictObject({
         wire: shelfWire,
-        spool_mass: qty("mass", { positive: true }).optional().meta({ description: "net mass of wire left on the spool (the empty reel weighed and subtracted)" }),
+        spool_mass: qty("mass", { positive: true })
+          .optional()
+          .meta({ description: "net mass of wire left on the spool (the empty reel weighed and subtracted)" }),
       }),
     )
     .min(1)

@@ -59,7 +59,11 @@ export interface CoilSolution {
 function checkReadings(layout: WindingLayout, readings: number[]): void {
   const C = layout.bars;
   if (readings.length !== C) {
-    throw inputError("readings_count", "bar_to_bar", `${readings.length} bar-to-bar readings for ${C} bars; give r1 … r${C}, r_i between bar i and bar i+1, r${C} between bar ${C} and bar 1`);
+    throw inputError(
+      "readings_count",
+      "bar_to_bar",
+      `${readings.length} bar-to-bar readings for ${C} bars; give r1 … r${C}, r_i between bar i and bar i+1, r${C} between bar ${C} and bar 1`,
+    );
   }
   readings.forEach((r, i) => {
     if (!(r >= 0)) throw inputError("reading_invalid", `bar_to_bar[${i}]`, `reading r${i + 1} must be 0 Ω or more, or infinite for an open circuit (got ${r})`);
@@ -228,13 +232,17 @@ function windowSums(readings: number[], k: number): number[] | null {
 function stepsWithOpenReadings(layout: WindingLayout, wins: number[][], readings: number[], inf: number[], notes: string[]): number[] | null {
   const C = layout.bars;
   if (layout.coils_between_adjacent_bars !== 1) {
-    notes.push(`open readings on a wave winding (${inf.map((i) => `r${i + 1}`).join(", ")}): the circuit is broken in more than one place and the coils cannot be told apart from these readings`);
+    notes.push(
+      `open readings on a wave winding (${inf.map((i) => `r${i + 1}`).join(", ")}): the circuit is broken in more than one place and the coils cannot be told apart from these readings`,
+    );
     return null;
   }
   const steps = new Array<number>(C);
   wins.forEach((w, i) => (steps[w[0]] = Number.isFinite(readings[i]) ? readings[i] : Infinity));
   if (inf.length === 1) {
-    notes.push(`only r${inf[0] + 1} reads open: a single open coil would read the sum of the others across its bars, so check the meter contact and the lead on bars ${inf[0] + 1} and ${mod1(inf[0] + 2, C)}`);
+    notes.push(
+      `only r${inf[0] + 1} reads open: a single open coil would read the sum of the others across its bars, so check the meter contact and the lead on bars ${inf[0] + 1} and ${mod1(inf[0] + 2, C)}`,
+    );
   } else notes.push(`${inf.length} readings open: the ring is broken in ${inf.length} places; the other coils read directly`);
   return steps;
 }
@@ -290,7 +298,8 @@ export function solveCoils(layout: WindingLayout, readings: number[]): CoilSolut
       coil[coilAt[s] - 1] = v;
       if (v === Infinity) open.push(coilAt[s]);
     });
-    if (clamped) notes.push(`${clamped} coil${clamped > 1 ? "s" : ""} came out below 0 Ω from inconsistent readings and ${clamped > 1 ? "were" : "was"} set to 0`);
+    if (clamped)
+      notes.push(`${clamped} coil${clamped > 1 ? "s" : ""} came out below 0 Ω from inconsistent readings and ${clamped > 1 ? "were" : "was"} set to 0`);
   }
   open.sort((a, b) => a - b);
   const finite = readings.filter((r) => Number.isFinite(r));
@@ -303,7 +312,10 @@ export function solveCoils(layout: WindingLayout, readings: number[]): CoilSolut
 /** Largest difference (Ω) between a finite reading and what the solved coils give back (the forward ring solve); NaN when a coil is unknown. */
 function residual(layout: WindingLayout, coil: number[], readings: number[]): number {
   if (!layout.coils.every((c) => c.dead || !Number.isNaN(coil[c.index - 1]))) return NaN;
-  const back = barToBar(layout, coil.map((x, i) => (layout.coils[i].dead ? 0 : x)));
+  const back = barToBar(
+    layout,
+    coil.map((x, i) => (layout.coils[i].dead ? 0 : x)),
+  );
   let resid = 0;
   readings.forEach((r, i) => {
     if (Number.isFinite(r) && Number.isFinite(back[i])) resid = Math.max(resid, Math.abs(back[i] - r));
@@ -459,7 +471,12 @@ export function diagnose(
 ): Diagnosis {
   checkInputs(layout, readings, expectedCoilOhm, turns, tolerance);
   const res = options.resolutionOhm ?? DEFAULT_METER_RESOLUTION_OHM;
-  const expectedReadings = expectedCoilOhm ? barToBar(layout, expectedCoilOhm.map((x, i) => (layout.coils[i].dead ? 0 : x))) : readings.map(() => 1);
+  const expectedReadings = expectedCoilOhm
+    ? barToBar(
+        layout,
+        expectedCoilOhm.map((x, i) => (layout.coils[i].dead ? 0 : x)),
+      )
+    : readings.map(() => 1);
   const spread = judgeSpread(readings, expectedReadings, res);
   const level = expectedCoilOhm ? judgeLevel(readings, expectedReadings, options.calibrated ?? false, options.bareDiameterM ?? 0.25e-3, res) : null;
   const behind = coilsBehindReadings(layout);
@@ -470,7 +487,8 @@ export function diagnose(
   if (solved) notes.push(...solved.notes);
   const coils = judgeCoils(layout, solved, expectedCoilOhm, tolerance);
   if (level && !level.pass) suspects.push(levelSuspect(level));
-  if (!expectedCoilOhm) notes.push("No plan given: each coil is judged against the median of the armature's own coils, each reading against the median of the readings.");
+  if (!expectedCoilOhm)
+    notes.push("No plan given: each coil is judged against the median of the armature's own coils, each reading against the median of the readings.");
   const fromReadings = readingSuspects(layout, spread, behind, coils);
   suspects.push(...fromReadings, ...coilSuspects(layout, coils, turns, fromReadings));
   if (layout.equalizers) suspects.push(...deviatingReadings(layout, spread));
@@ -487,7 +505,20 @@ export function diagnose(
     pass: row.pass,
     coils: behind[i],
   }));
-  return { ok: failures.length === 0, coils, readings: rf, failures, suspects, median_ohm: spread.median_ohm, level, tolerance, tolerance_source: TOLERANCE_SOURCE, residual_fraction: residual, notes, warnings: [] };
+  return {
+    ok: failures.length === 0,
+    coils,
+    readings: rf,
+    failures,
+    suspects,
+    median_ohm: spread.median_ohm,
+    level,
+    tolerance,
+    tolerance_source: TOLERANCE_SOURCE,
+    residual_fraction: residual,
+    notes,
+    warnings: [],
+  };
 }
 
 function checkInputs(layout: WindingLayout, readings: number[], expectedCoilOhm: number[] | null, turns: number | null, tolerance: number): void {
@@ -496,7 +527,8 @@ function checkInputs(layout: WindingLayout, readings: number[], expectedCoilOhm:
     throw inputError("coil_ohm_count", "coil_ohm", `${expectedCoilOhm.length} expected coil resistances for ${layout.coils.length} coils`);
   }
   if (turns !== null && !(turns >= 1)) throw inputError("turns_invalid", "wound.turns", `turns per coil must be 1 or more (got ${turns})`);
-  if (!(tolerance > 0 && tolerance < 1)) throw inputError("tolerance_invalid", "tolerance", `tolerance must be a fraction between 0 and 1 (got ${tolerance}); the default is ${DEFAULT_TOLERANCE}`);
+  if (!(tolerance > 0 && tolerance < 1))
+    throw inputError("tolerance_invalid", "tolerance", `tolerance must be a fraction between 0 and 1 (got ${tolerance}); the default is ${DEFAULT_TOLERANCE}`);
 }
 
 /** Each reading outside the spread band, and the level when it is off the plan: the failures behind exit status 4. */
@@ -508,7 +540,8 @@ function readingFailures(layout: WindingLayout, spread: Spread, level: Level | n
     const name = readingName(row.index);
     const coils = behind[row.index];
     const dev = Number.isFinite(row.of_median_fraction) ? row.of_median_fraction : null;
-    const how = row.side === "open" ? "reads open" : `reads ${dev! >= 0 ? "+" : "−"}${pct(Math.abs(dev!))} from the median ${spread.median_ohm.toPrecision(4)} Ω`;
+    const how =
+      row.side === "open" ? "reads open" : `reads ${dev! >= 0 ? "+" : "−"}${pct(Math.abs(dev!))} from the median ${spread.median_ohm.toPrecision(4)} Ω`;
     out.push({
       check: `bar_to_bar[${row.index}]`,
       reading: name,
@@ -547,7 +580,12 @@ function judgeCoils(layout: WindingLayout, solved: CoilSolution | null, expected
   // the plan's coil-to-coil pattern scaled to the armature's own median: a common factor (the
   // level) is judged once, by the level rule, not once per coil
   let scale = 1;
-  if (solved) scale = median(live(layout).map((c) => solved.coil_ohm[c.index - 1] / E[c.index - 1]).filter((x) => Number.isFinite(x)));
+  if (solved)
+    scale = median(
+      live(layout)
+        .map((c) => solved.coil_ohm[c.index - 1] / E[c.index - 1])
+        .filter((x) => Number.isFinite(x)),
+    );
   return layout.coils.map((c) => {
     const ref = solved && Number.isFinite(scale) ? E[c.index - 1] * scale : null;
     const R = solved ? solved.coil_ohm[c.index - 1] : NaN;
@@ -611,9 +649,23 @@ function readingSuspects(layout: WindingLayout, spread: Spread, behind: number[]
     const cs = behind[row.index];
     const overOpen = cs.some((k) => verdictOf(k) === "open");
     if (row.side === "open" && !overOpen) {
-      out.push({ kind: "open_coil", coils: cs, bars, readings: [name], turns_estimate: null, message: `${name} (bars ${bars[0]}–${bars[1]}) reads open: a broken coil or a lead off its riser between these bars` });
+      out.push({
+        kind: "open_coil",
+        coils: cs,
+        bars,
+        readings: [name],
+        turns_estimate: null,
+        message: `${name} (bars ${bars[0]}–${bars[1]}) reads open: a broken coil or a lead off its riser between these bars`,
+      });
     } else if (row.side === "near_zero") {
-      out.push({ kind: "bridged_bars", coils: cs, bars, readings: [name], turns_estimate: null, message: `${name} reads ${row.reading_ohm.toPrecision(3)} Ω against a median of ${spread.median_ohm.toPrecision(3)} Ω: ${SUGGESTS.near_zero}` });
+      out.push({
+        kind: "bridged_bars",
+        coils: cs,
+        bars,
+        readings: [name],
+        turns_estimate: null,
+        message: `${name} reads ${row.reading_ohm.toPrecision(3)} Ω against a median of ${spread.median_ohm.toPrecision(3)} Ω: ${SUGGESTS.near_zero}`,
+      });
     } else if (row.side === "riser" && !overOpen) {
       out.push({
         kind: "poor_riser_connection",
@@ -637,10 +689,16 @@ function coilSuspects(layout: WindingLayout, coils: CoilFinding[], turns: number
     const bars = [c.start_bar!, c.end_bar!];
     const base = { coils: [c.index], bars, readings: [] as string[] };
     if (f.verdict === "open") {
-      out.push({ ...base, kind: "open_coil", turns_estimate: null, message: `${where} is open: the bars across it read the rest of the ring in series and every other reading rises (by C/(C−1) on a ring); a broken wire or a lead off its riser` });
+      out.push({
+        ...base,
+        kind: "open_coil",
+        turns_estimate: null,
+        message: `${where} is open: the bars across it read the rest of the ring in series and every other reading rises (by C/(C−1) on a ring); a broken wire or a lead off its riser`,
+      });
     } else if (f.verdict === "shorted") {
       const already = fromReadings.find((s) => s.kind === "bridged_bars" && s.bars.includes(bars[0]) && s.bars.includes(bars[1]));
-      if (!already) out.push({ ...base, kind: "bridged_bars", turns_estimate: null, message: `${where} reads near zero: its bars bridged or the whole coil shorted` });
+      if (!already)
+        out.push({ ...base, kind: "bridged_bars", turns_estimate: null, message: `${where} reads near zero: its bars bridged or the whole coil shorted` });
     } else if (f.verdict === "high" || f.verdict === "low") {
       out.push(offCoilSuspect(where, base, f.deviation_fraction!, turns));
     }
@@ -660,7 +718,12 @@ function offCoilSuspect(where: string, base: { coils: number[]; bars: number[]; 
     return { ...base, kind: "turns_miscounted", turns_estimate: dn, message };
   }
   if (d < -WELL_BELOW_FRACTION) {
-    return { ...base, kind: "shorted_turns", turns_estimate: dn, message: `${where} reads ${pct(-d)} low, well below the others: shorted turns (damaged enamel); confirm with a growler (${SOURCE_TM}: readings well below the average)` };
+    return {
+      ...base,
+      kind: "shorted_turns",
+      turns_estimate: dn,
+      message: `${where} reads ${pct(-d)} low, well below the others: shorted turns (damaged enamel); confirm with a growler (${SOURCE_TM}: readings well below the average)`,
+    };
   }
   const message =
     dn === null
@@ -676,6 +739,13 @@ function deviatingReadings(layout: WindingLayout, spread: Spread): Suspect[] {
     .map((r) => {
       const bars = [r.index + 1, mod1(r.index + 2, layout.bars)];
       const name = readingName(r.index);
-      return { kind: "reading_deviates" as const, coils: [], bars, readings: [name], turns_estimate: null, message: `${name} (bars ${bars[0]}–${bars[1]}) reads ${pct(r.of_median_fraction)} from the median (band ±${pct(r.window_fraction)}): ${r.suggests}` };
+      return {
+        kind: "reading_deviates" as const,
+        coils: [],
+        bars,
+        readings: [name],
+        turns_estimate: null,
+        message: `${name} (bars ${bars[0]}–${bars[1]}) reads ${pct(r.of_median_fraction)} from the median (band ±${pct(r.window_fraction)}): ${r.suggests}`,
+      };
     });
 }

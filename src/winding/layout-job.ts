@@ -35,10 +35,20 @@ export const layoutJobSchema = z
   })
   .superRefine((job, ctx) => {
     if (job.armature.field_poles % 2 !== 0) {
-      ctx.addIssue({ code: "custom", path: ["armature", "field_poles"], message: `poles come in pairs; ${job.armature.field_poles} is odd`, params: { code: "odd_poles" } });
+      ctx.addIssue({
+        code: "custom",
+        path: ["armature", "field_poles"],
+        message: `poles come in pairs; ${job.armature.field_poles} is odd`,
+        params: { code: "odd_poles" },
+      });
     }
     if (job.winding.style !== "tooth" && job.winding.span === undefined) {
-      ctx.addIssue({ code: "custom", path: ["winding", "span"], message: `a ${job.winding.style} winding needs its coil span in slots, counted on the old winding`, params: { code: "missing_field" } });
+      ctx.addIssue({
+        code: "custom",
+        path: ["winding", "span"],
+        message: `a ${job.winding.style} winding needs its coil span in slots, counted on the old winding`,
+        params: { code: "missing_field" },
+      });
     }
   });
 

@@ -59,7 +59,8 @@ function checkSpec(spec: WindingSpec): void {
   if (spec.direction !== "cw" && spec.direction !== "ccw") {
     throw inputError("direction_unknown", "winding.direction", `direction '${String(spec.direction)}' is not known; use cw or ccw`);
   }
-  if (!Number.isFinite(spec.lead_throw)) throw inputError("lead_throw_invalid", "winding.lead_throw", `lead throw must be a number of bars (got ${spec.lead_throw})`);
+  if (!Number.isFinite(spec.lead_throw))
+    throw inputError("lead_throw_invalid", "winding.lead_throw", `lead throw must be a number of bars (got ${spec.lead_throw})`);
   const b = spec.brushes;
   if (!isCount(b.count, 2) || b.count % 2 !== 0 || b.count > P) {
     const near = Math.max(2, Math.min(P, 2 * Math.round(b.count / 2) || 2));
@@ -70,7 +71,11 @@ function checkSpec(spec: WindingSpec): void {
     );
   }
   if (!(b.width_bars > 0) || !Number.isFinite(b.width_bars)) {
-    throw inputError("brush_width_invalid", "winding.brushes.width_bars", `brush width must be a positive number of bars (got ${b.width_bars}); 1 is one bar wide`);
+    throw inputError(
+      "brush_width_invalid",
+      "winding.brushes.width_bars",
+      `brush width must be a positive number of bars (got ${b.width_bars}); 1 is one bar wide`,
+    );
   }
   if (spec.dead_coil && style !== "wave") {
     throw inputError("dead_coil_not_wave", "winding.dead_coil", `a dead coil belongs to wave windings only; set dead_coil: false for a ${style} winding`);
@@ -78,7 +83,8 @@ function checkSpec(spec: WindingSpec): void {
 
   if (style === "tooth") {
     if (span !== 1) throw inputError("span_invalid", "winding.span", `a tooth coil spans one tooth: span must be 1 (got ${span})`);
-    if (u !== 1) throw inputError("coils_per_slot_invalid", "winding.coils_per_slot", `a tooth winding has one coil per tooth: coils_per_slot must be 1 (got ${u})`);
+    if (u !== 1)
+      throw inputError("coils_per_slot_invalid", "winding.coils_per_slot", `a tooth winding has one coil per tooth: coils_per_slot must be 1 (got ${u})`);
     if (C !== S) {
       throw inputError("bars_mismatch", "armature.bars", `a tooth winding has one bar per tooth: bars must equal slots (${S}), got ${C}`);
     }
@@ -99,10 +105,18 @@ function checkSpec(spec: WindingSpec): void {
   const pitch = S / P;
   const maxSpan = Math.min(S - 1, Math.floor(pitch + SPAN_OVER_POLE_PITCH));
   if (!Number.isInteger(span)) {
-    throw inputError("span_invalid", "winding.span", `span must be a whole number of slots (got ${span}); full pitch here is ${Math.max(1, Math.round(pitch))}`);
+    throw inputError(
+      "span_invalid",
+      "winding.span",
+      `span must be a whole number of slots (got ${span}); full pitch here is ${Math.max(1, Math.round(pitch))}`,
+    );
   }
   if (span < 1) {
-    throw inputError("span_zero", "winding.span", `span ${span} would put both sides of a coil in one slot; the smallest span is 1, full pitch here is ${Math.max(1, Math.round(pitch))}`);
+    throw inputError(
+      "span_zero",
+      "winding.span",
+      `span ${span} would put both sides of a coil in one slot; the smallest span is 1, full pitch here is ${Math.max(1, Math.round(pitch))}`,
+    );
   }
   if (span > maxSpan) {
     throw inputError(
@@ -158,7 +172,12 @@ function checkSpec(spec: WindingSpec): void {
       );
     }
   } else if (C !== live) {
-    const hint = C === live - 1 ? `; bars one less than coils means a dead coil: set dead_coil: true` : C % S === 0 ? `; bars ${C} = ${C / S} × slots: set coils_per_slot: ${C / S}` : "";
+    const hint =
+      C === live - 1
+        ? `; bars one less than coils means a dead coil: set dead_coil: true`
+        : C % S === 0
+          ? `; bars ${C} = ${C / S} × slots: set coils_per_slot: ${C / S}`
+          : "";
     throw inputError(
       "bars_mismatch",
       "armature.bars",
@@ -292,7 +311,9 @@ function lapTable(spec: WindingSpec): StyleTable {
       `Equalizer groups: bars ${step} apart (2C/P) are at the same potential; ${groups.length} groups of ${p} bars (${groups
         .slice(0, 3)
         .map((g) => g.join("–"))
-        .join(", ")}${groups.length > 3 ? " …" : ""}). Equalizer connections are rings or jumpers behind the commutator (or at the back end) joining the risers of each group; the trade often fits every second or third group.`,
+        .join(
+          ", ",
+        )}${groups.length > 3 ? " …" : ""}). Equalizer connections are rings or jumpers behind the commutator (or at the back end) joining the risers of each group; the trade often fits every second or third group.`,
     );
     if (!spec.equalizers) {
       warnings.push({
@@ -309,7 +330,11 @@ function lapTable(spec: WindingSpec): StyleTable {
       });
     }
   } else if (spec.equalizers) {
-    warnings.push({ code: "equalizers_not_needed", path: "winding.equalizers", message: "a 2-pole lap winding has no equipotential bars to equalize; equalizers ignored" });
+    warnings.push({
+      code: "equalizers_not_needed",
+      path: "winding.equalizers",
+      message: "a 2-pole lap winding has no equipotential bars to equalize; equalizers ignored",
+    });
   }
   return t;
 }
@@ -350,7 +375,11 @@ function waveTable(spec: WindingSpec): StyleTable {
     `Wave winding: each coil's finish goes ${yc} bars on (commutator pitch (C ${spec.progression === "progressive" ? "+" : "−"} 1)/p); ${p} coils lie in series between adjacent bars; 2 parallel paths whatever the poles.`,
   );
   if (spec.equalizers) {
-    warnings.push({ code: "equalizers_not_needed", path: "winding.equalizers", message: "a simplex wave winding needs no equalizers (its 2 paths each pass under every pole); equalizers ignored" });
+    warnings.push({
+      code: "equalizers_not_needed",
+      path: "winding.equalizers",
+      message: "a simplex wave winding needs no equalizers (its 2 paths each pass under every pole); equalizers ignored",
+    });
   }
   return t;
 }
@@ -612,4 +641,3 @@ function norm(a: number): number {
   const r = a % t;
   return r < 0 ? r + t : r;
 }
-

@@ -229,10 +229,11 @@ export class Network implements RingSolver {
       comp[s] = c;
       while (stack.length) {
         const v = stack.pop()!;
-        for (const w of adj[v]) if (comp[w] < 0) {
-          comp[w] = c;
-          stack.push(w);
-        }
+        for (const w of adj[v])
+          if (comp[w] < 0) {
+            comp[w] = c;
+            stack.push(w);
+          }
       }
       c++;
     }
@@ -532,7 +533,9 @@ export function terminalResistance(layout: WindingLayout, coilOhm: number[]): Te
       [1, 2],
       [b2, mod1(b2 + 1, C)],
     ]);
-    validity.push(`wave: single/bridged with + on bar 1 and − on bar ${b2}, ⌊C/2⌋ coils on along the circuit; min/max with ${count} brushes ${fmtBars(C / P)} bars apart`);
+    validity.push(
+      `wave: single/bridged with + on bar 1 and − on bar ${b2}, ⌊C/2⌋ coils on along the circuit; min/max with ${count} brushes ${fmtBars(C / P)} bars apart`,
+    );
     if (!Number.isInteger(C / P)) {
       validity.push(`C/P = ${fmtBars(C / P)} is not whole: turning the rotor, the brushes are never both on single bars, so max may be below single`);
     }
@@ -543,7 +546,9 @@ export function terminalResistance(layout: WindingLayout, coilOhm: number[]): Te
     bridged = measure(brushesBridged);
     validity.push(`${count} brushes on bars ${brushesSingle.map((b) => b[0]).join(", ")} (+ and − alternately), ${fmtBars(C / P)} bars apart`);
     if (count === 2 && P === 2 && C % 2 === 1) {
-      validity.push("odd C: brushes 180° apart are both on single bars only when narrower than about half a bar, and both bridge only when at least about half a bar wide; min/max are what this brush width gives over a turn, so `single` may lie above max and `bridged` below min");
+      validity.push(
+        "odd C: brushes 180° apart are both on single bars only when narrower than about half a bar, and both bridge only when at least about half a bar wide; min/max are what this brush width gives over a turn, so `single` may lie above max and `bridged` below min",
+      );
     }
   }
   let min = Infinity;

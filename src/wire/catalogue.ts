@@ -138,19 +138,37 @@ function entry(
 
 function awgEntries(): CatalogueEntry[] {
   return awgNumbers().map((n) =>
-    entry(`${awgName(n)} AWG`, "awg", awgName(n), awgDiameter(n), FILM_BUILDS.map((b) => [b, awgOverall(n, b)])),
+    entry(
+      `${awgName(n)} AWG`,
+      "awg",
+      awgName(n),
+      awgDiameter(n),
+      FILM_BUILDS.map((b) => [b, awgOverall(n, b)]),
+    ),
   );
 }
 
 function swgEntries(): CatalogueEntry[] {
   return swgNames().map((name) =>
-    entry(`${name} SWG`, "swg", name, swgDiameter(name), GRADES.map((g) => [gradeKey(g), swgOverall(name, g)])),
+    entry(
+      `${name} SWG`,
+      "swg",
+      name,
+      swgDiameter(name),
+      GRADES.map((g) => [gradeKey(g), swgOverall(name, g)]),
+    ),
   );
 }
 
 function metricEntries(): CatalogueEntry[] {
   return metricNominals().map((d) =>
-    entry(`${metricName(d)} mm`, "metric", metricName(d), d, GRADES.map((g) => [gradeKey(g), metricOverall(d, g)])),
+    entry(
+      `${metricName(d)} mm`,
+      "metric",
+      metricName(d),
+      d,
+      GRADES.map((g) => [gradeKey(g), metricOverall(d, g)]),
+    ),
   );
 }
 
@@ -172,9 +190,7 @@ export function catalogue(filter: CatalogueFilter = {}): CatalogueEntry[] {
   if (!filter.system || filter.system === "swg") all.push(...swgEntries());
   if (!filter.system || filter.system === "metric") all.push(...metricEntries());
   return all.filter(
-    (e) =>
-      (filter.minBare === undefined || e.bare_diameter >= filter.minBare) &&
-      (filter.maxBare === undefined || e.bare_diameter <= filter.maxBare),
+    (e) => (filter.minBare === undefined || e.bare_diameter >= filter.minBare) && (filter.maxBare === undefined || e.bare_diameter <= filter.maxBare),
   );
 }
 

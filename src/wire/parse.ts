@@ -29,7 +29,7 @@ const fail = (message: string): ParseWireResult => ({ ok: false, message });
 const ok = (spec: WireSpec): ParseWireResult => ({ ok: true, spec });
 
 function show(input: unknown): string {
-  return typeof input === "string" ? `"${input}"` : JSON.stringify(input) ?? String(input);
+  return typeof input === "string" ? `"${input}"` : (JSON.stringify(input) ?? String(input));
 }
 
 /** Parse a wire name or a measured { bare, overall } into a WireSpec; never throws. */
@@ -93,8 +93,7 @@ function parseText(text: string, original: string, role: WireRole): ParseWireRes
   if (text === "") return unknown();
 
   // Gauges: "33 AWG heavy", "AWG 33", "#33 AWG", "36 SWG grade 1", "SWG 36 G1".
-  const gauge =
-    /^#?\s*([0-9][0-9/]*)\s*(awg|swg)\b\s*(.*)$/i.exec(text) ?? swap(/^(awg|swg)\s*#?\s*([0-9][0-9/]*)\b\s*(.*)$/i.exec(text));
+  const gauge = /^#?\s*([0-9][0-9/]*)\s*(awg|swg)\b\s*(.*)$/i.exec(text) ?? swap(/^(awg|swg)\s*#?\s*([0-9][0-9/]*)\b\s*(.*)$/i.exec(text));
   if (gauge) {
     const [, size, sys, rest] = gauge;
     return sys.toLowerCase() === "awg" ? parseAwg(size, rest.trim(), original, role) : parseSwg(size, rest.trim(), original, role);
@@ -139,7 +138,9 @@ function parseText(text: string, original: string, role: WireRole): ParseWireRes
 
   const nominal = findNominalMetric(d);
   if (nominal === null) {
-    const near = nearestNominals(d).map((x) => `${metricName(x)} mm`).join(" or ");
+    const near = nearestNominals(d)
+      .map((x) => `${metricName(x)} mm`)
+      .join(" or ");
     if (grade !== undefined) {
       return fail(
         `${formatMm(d)} mm is not an IEC 60317 nominal size, so it has no grade ${grade}; the nearest are ${near}, or give a measured wire { bare: ${formatMm(d)} mm, overall: … }`,

@@ -23,7 +23,13 @@ const LONG_NOTES =
   "Invented notes of 300 characters: came in with a burnt smell; two bars blackened; the bearings were dry and one brush was worn to its shunt; the customer wants it back by Friday; the commutator needs a skim; " +
   "the old wire was brittle and counted twice at each coil to be sure of the turns count.";
 
-function withWinding(base: Record<string, any>, id: string, winding: Record<string, unknown>, turns: number, extra: Record<string, unknown> = {}): Record<string, unknown> {
+function withWinding(
+  base: Record<string, any>,
+  id: string,
+  winding: Record<string, unknown>,
+  turns: number,
+  extra: Record<string, unknown> = {},
+): Record<string, unknown> {
   const j = JSON.parse(JSON.stringify(base));
   j.id = id;
   Object.assign(j.armature, extra);

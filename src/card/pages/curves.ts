@@ -37,10 +37,27 @@ export function curvesPage(s: Sheet, plan: Plan): void {
   );
   // legend
   const ly = s.y;
-  s.doc.save().lineWidth(1.2).dash(5, { space: 3 }).moveTo(s.left, ly + 5).lineTo(s.left + 36, ly + 5).stroke().undash().restore();
+  s.doc
+    .save()
+    .lineWidth(1.2)
+    .dash(5, { space: 3 })
+    .moveTo(s.left, ly + 5)
+    .lineTo(s.left + 36, ly + 5)
+    .stroke()
+    .undash()
+    .restore();
   s.at("original winding", s.left + 42, ly, { size: T.label });
-  s.doc.save().lineWidth(2).moveTo(s.left + 160, ly + 5).lineTo(s.left + 196, ly + 5).stroke().restore();
-  s.at(`new winding (${plan.design.turns} × ${plan.design.wire.label}${plan.design.strands > 1 ? ` × ${plan.design.strands}` : ""})`, s.left + 202, ly, { size: T.label, bold: true });
+  s.doc
+    .save()
+    .lineWidth(2)
+    .moveTo(s.left + 160, ly + 5)
+    .lineTo(s.left + 196, ly + 5)
+    .stroke()
+    .restore();
+  s.at(`new winding (${plan.design.turns} × ${plan.design.wire.label}${plan.design.strands > 1 ? ` × ${plan.design.strands}` : ""})`, s.left + 202, ly, {
+    size: T.label,
+    bold: true,
+  });
   s.y += 18;
   const keys = s.L.curves.charts;
   const rows = Math.ceil(keys.length / 2);
@@ -84,7 +101,8 @@ export function candidatesPage(s: Sheet, plan: Plan): void {
       ohm(c.terminal_ohm),
       c.ke === null ? "—" : sig(kvFromKe(c.ke)),
       goalFigure(plan, c.achieved),
-      (chosen.has(i) ? "CHOSEN — " : "") + (c.meets_goal ? "meets the goal" : c.rejected_because.length ? `rejected: ${c.rejected_because.join(", ")}` : "misses the goal"),
+      (chosen.has(i) ? "CHOSEN — " : "") +
+        (c.meets_goal ? "meets the goal" : c.rejected_because.length ? `rejected: ${c.rejected_because.join(", ")}` : "misses the goal"),
     ];
   });
   s.table(cols, rows, { boldRows: chosen, size: T.table });

@@ -104,7 +104,11 @@ function toothDiagram(s: Sheet, plan: Plan): void {
   const rootR = R * 0.66;
   // rotor: core ring, slots cut in as white sectors
   d.save().lineWidth(1.2).circle(cx, cy, R).fillAndStroke(grey(0.93), "#000000").restore();
-  d.save().lineWidth(0.8).circle(cx, cy, rootR * 0.82).stroke().restore();
+  d.save()
+    .lineWidth(0.8)
+    .circle(cx, cy, rootR * 0.82)
+    .stroke()
+    .restore();
   for (let k = 1; k <= S; k++) {
     const a = slotAngle(lay, k);
     const half = Math.min(pitch * 0.2, 0.3);
@@ -218,7 +222,10 @@ function developedDiagram(s: Sheet, plan: Plan): void {
   const every = Math.max(1, Math.ceil(s.L.diagram.label_every_min_pitch / dx));
   for (let k = 1; k <= S; k++) {
     const xs = xAt(slotAngle(lay, k));
-    d.save().rect(xs - dx * 0.42, yTop, dx * 0.84, yBot - yTop).fill(grey(0.93)).restore();
+    d.save()
+      .rect(xs - dx * 0.42, yTop, dx * 0.84, yBot - yTop)
+      .fill(grey(0.93))
+      .restore();
     if ((k - 1) % every === 0) s.at(String(k), xs - 12, yLabel, { size: dx >= 14 ? T.label : T.small, bold: true, width: 24, align: "center" });
   }
   s.at("slots", x0, yLabel + 11, { size: T.small, grey: 0.3 });
@@ -228,9 +235,18 @@ function developedDiagram(s: Sheet, plan: Plan): void {
     const xb = xAt(barAngle(lay, b));
     {
       const x = ((((xb - x0) % W) + W) % W) + x0;
-      d.save().lineWidth(0.7).rect(x - barPitch * 0.42, yBars, barPitch * 0.84, barH).fillAndStroke(b === 1 ? grey(0.8) : "#ffffff", "#000000").restore();
+      d.save()
+        .lineWidth(0.7)
+        .rect(x - barPitch * 0.42, yBars, barPitch * 0.84, barH)
+        .fillAndStroke(b === 1 ? grey(0.8) : "#ffffff", "#000000")
+        .restore();
       if ((b - 1) % bevery === 0 || b === 1)
-        s.at(String(b), x - 12, barPitch >= 11 ? yBars + 4 : yBars + barH + 14, { size: barPitch >= 14 ? T.small + 0.5 : 6.5, bold: b === 1, width: 24, align: "center" });
+        s.at(String(b), x - 12, barPitch >= 11 ? yBars + 4 : yBars + barH + 14, {
+          size: barPitch >= 14 ? T.small + 0.5 : 6.5,
+          bold: b === 1,
+          width: 24,
+          align: "center",
+        });
     }
   }
   s.at("bars", x0, yBars + barH + (barPitch >= 11 ? 3 : 23), { size: T.small, grey: 0.3 });
@@ -265,9 +281,16 @@ function developedDiagram(s: Sheet, plan: Plan): void {
       const a = p.front1.map(sh);
       d.moveTo(a[0][0], a[0][1]);
       for (const q of a.slice(1)) d.lineTo(q[0], q[1]);
-      d.lineTo(p.xg + off, yTop).lineTo(p.apex[0] + off, p.apex[1]).lineTo(p.xr + off, yTop).stroke();
+      d.lineTo(p.xg + off, yTop)
+        .lineTo(p.apex[0] + off, p.apex[1])
+        .lineTo(p.xr + off, yTop)
+        .stroke();
       // return conductor dashed (bottom layer), then the front end to the finish bar
-      d.dash(4, { space: 3 }).moveTo(p.xr + off, yTop).lineTo(p.xr + off, yBot).stroke().undash();
+      d.dash(4, { space: 3 })
+        .moveTo(p.xr + off, yTop)
+        .lineTo(p.xr + off, yBot)
+        .stroke()
+        .undash();
       const b = p.front2.map(sh);
       d.moveTo(b[0][0], b[0][1]);
       for (const q of b.slice(1)) d.lineTo(q[0], q[1]);
@@ -285,23 +308,38 @@ function developedDiagram(s: Sheet, plan: Plan): void {
   const used: number[] = [];
   for (const c of tagged) {
     const p = paths(c);
-    let ax = ((p.apex[0] - x0) % W + W) % W + x0;
+    let ax = ((((p.apex[0] - x0) % W) + W) % W) + x0;
     while (used.some((u) => Math.abs(u - ax) < 15)) ax += 15;
     used.push(ax);
-    d.save().circle(ax, p.apex[1] - 9, 7).fillAndStroke("#ffffff", "#000000").restore();
+    d.save()
+      .circle(ax, p.apex[1] - 9, 7)
+      .fillAndStroke("#ffffff", "#000000")
+      .restore();
     s.at(String(c.index), ax - 8, p.apex[1] - 13, { size: 6.5, bold: true, width: 16, align: "center" });
     if (isDead(c)) s.at("dead", ax - 14, p.apex[1] - 25, { size: 6.5, bold: true, width: 28, align: "center" });
   }
   // coil 1's centre line and the lead throw
   const xc = (p1.xg + p1.xr) / 2;
-  d.save().lineWidth(0.6).dash(1.5, { space: 2 }).moveTo(xc, p1.apex[1]).lineTo(xc, yBars - 2).stroke().undash().restore();
+  d.save()
+    .lineWidth(0.6)
+    .dash(1.5, { space: 2 })
+    .moveTo(xc, p1.apex[1])
+    .lineTo(xc, yBars - 2)
+    .stroke()
+    .undash()
+    .restore();
   const xb1 = nearest(xAt(barAngle(lay, 1)), xc);
   const yLt = yBars + barH + (barPitch >= 11 ? 34 : 40);
   if (Math.abs(xb1 - xc) > 0.5) {
     d.save().lineWidth(1).moveTo(xc, yLt).lineTo(xb1, yLt).stroke().restore();
     arrowHead(s, [xc, yLt], [xb1, yLt], 6);
   }
-  d.save().lineWidth(0.6).moveTo(xc, yBars + barH).lineTo(xc, yLt + 4).stroke().restore();
+  d.save()
+    .lineWidth(0.6)
+    .moveTo(xc, yBars + barH)
+    .lineTo(xc, yLt + 4)
+    .stroke()
+    .restore();
   s.at(`lead throw ${num(lay.spec.lead_throw)} bars (coil 1 centre line → bar 1)`, Math.min(xc, xb1) - 4, yLt + 5, { size: T.small, bold: true });
   // brushes against the bars, at their real width and position
   const yBr = yBars + barH;
@@ -309,7 +347,11 @@ function developedDiagram(s: Sheet, plan: Plan): void {
     const xb = xAt(a);
     const x = xb > x0 + W ? xb - W : xb;
     const bwid = lay.spec.brushes.width_bars * barPitch;
-    d.save().lineWidth(0.8).rect(x - bwid / 2, yBr, bwid, 12).fillAndStroke(grey(0.55), "#000000").restore();
+    d.save()
+      .lineWidth(0.8)
+      .rect(x - bwid / 2, yBr, bwid, 12)
+      .fillAndStroke(grey(0.55), "#000000")
+      .restore();
     s.at(`B${i + 1}`, x + bwid / 2 + 2, yBr + 2, { size: T.small, bold: true });
   });
   // the field poles above the slots: N shaded, S white
@@ -320,17 +362,38 @@ function developedDiagram(s: Sheet, plan: Plan): void {
       if (xc + pw / 2 < x0 || xc - pw / 2 > x0 + W) continue;
       const xa = Math.max(x0, xc - pw / 2);
       const xb = Math.min(x0 + W, xc + pw / 2);
-      d.save().lineWidth(0.8).rect(xa, yPoles, xb - xa, 14).fillAndStroke(north ? grey(0.72) : "#ffffff", "#000000").restore();
+      d.save()
+        .lineWidth(0.8)
+        .rect(xa, yPoles, xb - xa, 14)
+        .fillAndStroke(north ? grey(0.72) : "#ffffff", "#000000")
+        .restore();
       if (xc > x0 + 8 && xc < x0 + W - 8) s.at(north ? "N" : "S", xc - 8, yPoles + 2, { size: T.label + 1, bold: true, width: 16, align: "center" });
     }
   }
   s.y = yLt + 22;
   const legendY = s.y;
-  d.save().lineWidth(1.2).moveTo(s.left, legendY + 5).lineTo(s.left + 30, legendY + 5).stroke().restore();
+  d.save()
+    .lineWidth(1.2)
+    .moveTo(s.left, legendY + 5)
+    .lineTo(s.left + 30, legendY + 5)
+    .stroke()
+    .restore();
   s.at("top layer (go side)", s.left + 34, legendY, { size: T.small });
-  d.save().lineWidth(1.2).dash(4, { space: 3 }).moveTo(s.left + 150, legendY + 5).lineTo(s.left + 180, legendY + 5).stroke().undash().restore();
+  d.save()
+    .lineWidth(1.2)
+    .dash(4, { space: 3 })
+    .moveTo(s.left + 150, legendY + 5)
+    .lineTo(s.left + 180, legendY + 5)
+    .stroke()
+    .undash()
+    .restore();
   s.at("bottom layer (return side)", s.left + 184, legendY, { size: T.small });
-  d.save().lineWidth(s.L.line_width.heavy).moveTo(s.left + 320, legendY + 5).lineTo(s.left + 350, legendY + 5).stroke().restore();
+  d.save()
+    .lineWidth(s.L.line_width.heavy)
+    .moveTo(s.left + 320, legendY + 5)
+    .lineTo(s.left + 350, legendY + 5)
+    .stroke()
+    .restore();
   s.at("coil 1", s.left + 354, legendY, { size: T.small });
   s.y = legendY + 16;
   const shown = few ? `all ${plan.coils.length} coils drawn` : `coils 1–${s.L.diagram.emphasise_coils} drawn black, the rest faint`;

@@ -51,7 +51,9 @@ export function jobPage(s: Sheet, plan: Plan): void {
       const lines = [
         `${wireSizes(d.wire)}; ${strandsText(d.strands)}${d.strands > 1 ? " (wind them side by side as one conductor)" : ""}.`,
         `Copper fill ${pct(d.copper_fill)} (limit ${pct(plan.fill_limit)}), space fill ${pct(d.space_fill)}` +
-          (d.build ? `; ${d.build.layers} layer${d.build.layers === 1 ? "" : "s"} of ${d.build.turnsPerLayer} turns, build ${mm(d.build.build)} of ${mm(d.build.room)} mm room.` : "; layer build not known (slot dimensions not given)."),
+          (d.build
+            ? `; ${d.build.layers} layer${d.build.layers === 1 ? "" : "s"} of ${d.build.turnsPerLayer} turns, build ${mm(d.build.build)} of ${mm(d.build.room)} mm room.`
+            : "; layer build not known (slot dimensions not given)."),
         `Goal ${goalName(plan)}: ${goalSummary(plan.goal)}.`,
       ];
       for (const l of lines) {
@@ -100,7 +102,10 @@ export function jobPage(s: Sheet, plan: Plan): void {
   ];
   if (sp.style !== "tooth") {
     win.push(["coils per slot u", String(sp.coils_per_slot)]);
-    win.push(["progression", `${sp.progression}, commutator pitch ${Number.isInteger(plan.layout.commutator_pitch) ? plan.layout.commutator_pitch : sig(plan.layout.commutator_pitch)}`]);
+    win.push([
+      "progression",
+      `${sp.progression}, commutator pitch ${Number.isInteger(plan.layout.commutator_pitch) ? plan.layout.commutator_pitch : sig(plan.layout.commutator_pitch)}`,
+    ]);
     if (sp.dead_coil) win.push(["dead coil", "yes (one coil wound, not connected)"]);
   } else win.push(["direction", `${sp.direction === "cw" ? "clockwise" : "anticlockwise"} round each tooth`]);
   win.push(["parallel paths", String(plan.paths)]);
@@ -126,7 +131,12 @@ export function jobPage(s: Sheet, plan: Plan): void {
   const hc = s.pairs(cut, s.left, s.y, s.width * 0.58, { keyWidth: 100 });
   const cx = s.left + s.width * 0.6;
   const cw = s.width * 0.4;
-  s.doc.save().lineWidth(s.L.line_width.heavy).rect(cx, s.y - 2, cw, hc + 2).stroke().restore();
+  s.doc
+    .save()
+    .lineWidth(s.L.line_width.heavy)
+    .rect(cx, s.y - 2, cw, hc + 2)
+    .stroke()
+    .restore();
   s.at("CUT", cx + 8, s.y + 4, { size: T.label, bold: true });
   s.at(`${sig(w.cut)} m`, cx + 8, s.y + 4 + T.label * 1.3, { size: T.hero * 0.85, bold: true });
   if (d.strands > 1)
@@ -154,11 +164,12 @@ export function jobPage(s: Sheet, plan: Plan): void {
       `Series motor figures at ${supplyText(sp.supply)}, rated load hot (${sig(plan.resistance.hot_temperature)} °C), locked rotor cold; the rated torque from the ${sp.ratedSource?.replace("_", " ") ?? "—"}. ${sp.basis.join("; ")}. Brush drop: ${c.brush_drop_basis}.`,
       { size: T.small, grey: 0.25 },
     );
-  } else s.para(
-    `Motor figures at ${sig(plan.supply)} V ${plan.supply_kind.toUpperCase()}, calibrated from the ${calibrationText[c.source] ?? c.source}` +
-      `${c.uncertainty !== null ? `, uncertainty about ±${sig(c.uncertainty * 100, 2)} % in Ke` : ", uncertainty not known"}. ${c.basis}. Brush drop: ${c.brush_drop_basis}.`,
-    { size: T.small, grey: 0.25 },
-  );
+  } else
+    s.para(
+      `Motor figures at ${sig(plan.supply)} V ${plan.supply_kind.toUpperCase()}, calibrated from the ${calibrationText[c.source] ?? c.source}` +
+        `${c.uncertainty !== null ? `, uncertainty about ±${sig(c.uncertainty * 100, 2)} % in Ke` : ", uncertainty not known"}. ${c.basis}. Brush drop: ${c.brush_drop_basis}.`,
+      { size: T.small, grey: 0.25 },
+    );
 
   // warnings and notes
   if (plan.warnings.length) {
@@ -186,24 +197,30 @@ function motorTable(s: Sheet, plan: Plan): void {
   const row = (label: string, f: (r: MotorReport) => string): string[] => [label, f(o), f(m)];
   const d = plan.design;
   const head: string[][] = [
-    ["winding", `${plan.original.turns} × ${plan.original.wire.label}${plan.original.strands > 1 ? ` × ${plan.original.strands}` : ""}`, `${d.turns} × ${d.wire.label}${d.strands > 1 ? ` × ${d.strands}` : ""}`],
+    [
+      "winding",
+      `${plan.original.turns} × ${plan.original.wire.label}${plan.original.strands > 1 ? ` × ${plan.original.strands}` : ""}`,
+      `${d.turns} × ${d.wire.label}${d.strands > 1 ? ` × ${d.strands}` : ""}`,
+    ],
     ["terminal Ω at 20 °C", `${ohm(plan.original.terminal_ohm)}${plan.original.terminal_measured ? " (measured)" : ""}`, ohm(plan.resistance.terminal_ohm)],
   ];
   // a series motor: the series model's figures (card/pages/series.ts), no Kv, no stall figure at the supply
   const sp = plan.series;
   const seriesTu = torqueUnit(sp?.ratedTorque || 0.001);
   const seriesTorque = (x: number | null) => (x === null ? "—" : sig(x * seriesTu.k));
-  const rows: string[][] = sp ? [...head, ...seriesMotorRows(sp, seriesTorque, seriesTu.unit)] : [
-    ...head,
-    ...kvRows(plan).map(([label, f]) => row(label, f)),
-    row("no-load speed, rpm", (r) => rpm(r.noLoadSpeed)),
-    row("no-load current, A", (r) => sig(r.noLoadCurrent)),
-    row("stall current hot, A", (r) => sig(r.stallCurrent)),
-    row("stall current cold, A", (r) => sig(r.stallCurrentCold)),
-    row(`stall torque, ${tu.unit}`, (r) => torque(r.stallTorque)),
-    row("peak efficiency", (r) => pct(r.peakEfficiency)),
-    row("max output, W", (r) => sig(r.maxOutputW)),
-  ];
+  const rows: string[][] = sp
+    ? [...head, ...seriesMotorRows(sp, seriesTorque, seriesTu.unit)]
+    : [
+        ...head,
+        ...kvRows(plan).map(([label, f]) => row(label, f)),
+        row("no-load speed, rpm", (r) => rpm(r.noLoadSpeed)),
+        row("no-load current, A", (r) => sig(r.noLoadCurrent)),
+        row("stall current hot, A", (r) => sig(r.stallCurrent)),
+        row("stall current cold, A", (r) => sig(r.stallCurrentCold)),
+        row(`stall torque, ${tu.unit}`, (r) => torque(r.stallTorque)),
+        row("peak efficiency", (r) => pct(r.peakEfficiency)),
+        row("max output, W", (r) => sig(r.maxOutputW)),
+      ];
   if (plan.duty && !sp) {
     const od = plan.original_duty;
     const du = plan.duty;

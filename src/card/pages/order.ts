@@ -34,9 +34,18 @@ export function orderSteps(plan: Plan, spoolMass?: number): [string, string][] {
           : `Cut one length per coil as the cut list on the first page says, or wind off the spool and cut at each finish bar.`),
     ],
     ["Wind", `Coil by coil in the order of the coil table, ticking the tally as the turns go on and each coil as it is hooked.`],
-    ["Bench checks before varnish", `Bar to bar (every pair), terminal resistance, ground, growler, polarity: the bench sheet, sections 1 and 2. Put right anything out of its window now: after varnish it is too late.`],
-    ["Varnish and cure", `As the varnish maker's data sheet says (dip or trickle, then oven or air cure). Ventilation, no flames near solvents, gloves and eye protection.`],
-    ["Skim and undercut, then bar to bar again", `Skim the commutator true, undercut the mica, clean the slots; then read bar to bar again (bench sheet, section 3).`],
+    [
+      "Bench checks before varnish",
+      `Bar to bar (every pair), terminal resistance, ground, growler, polarity: the bench sheet, sections 1 and 2. Put right anything out of its window now: after varnish it is too late.`,
+    ],
+    [
+      "Varnish and cure",
+      `As the varnish maker's data sheet says (dip or trickle, then oven or air cure). Ventilation, no flames near solvents, gloves and eye protection.`,
+    ],
+    [
+      "Skim and undercut, then bar to bar again",
+      `Skim the commutator true, undercut the mica, clean the slots; then read bar to bar again (bench sheet, section 3).`,
+    ],
     ["Balance", `Balance the armature (common practice for anything that runs fast); then assemble with the brushes bedded.`],
     [
       "The run",
@@ -44,7 +53,10 @@ export function orderSteps(plan: Plan, spoolMass?: number): [string, string][] {
         ? `A locked-rotor check at a reduced voltage, then a run under load: a series (universal) motor must never race unloaded (bench sheet, section 3).`
         : `No-load current and speed, then a brief stall at a reduced supply (bench sheet, section 3). Guard the shaft.`,
     ],
-    ["Record it", `armwind new measured <job file> writes the readings file to fill in; armwind log <job file> --measured <that file> keeps it in the logbook.`],
+    [
+      "Record it",
+      `armwind new measured <job file> writes the readings file to fill in; armwind log <job file> --measured <that file> keeps it in the logbook.`,
+    ],
   ];
 }
 

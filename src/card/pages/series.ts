@@ -63,14 +63,20 @@ export function seriesBenchChecks(plan: Plan): BenchCheck[] {
     out.push({
       title: "Load run at rated torque",
       body: `Coupled to its load or a brake set to ${sig(sp.ratedTorque * 1e3)} mN·m, at ${supplyText(sp.supply)}: expected ${sig(n.current)} A and ${rpm(n.speed)} rpm (winding hot), ${sig(n.inputW)} W input. Guard the shaft.`,
-      blanks: [["current", "A", 110], ["speed", "rpm", 130]],
+      blanks: [
+        ["current", "A", 110],
+        ["speed", "rpm", 130],
+      ],
     });
   }
   if (sp?.noLoad) {
     out.push({
       title: "No-load run: brief, in its housing",
       body: `Universal motor with its own fan, assembled in its housing: a few seconds at ${supplyText(sp.supply)}, expected about ${sig(sp.noLoad.current)} A and ${sig(toRpm(sp.noLoad.speed))} rpm. Stand clear of the plane of rotation; stop at once if it runs faster.`,
-      blanks: [["current", "A", 110], ["speed", "rpm", 130]],
+      blanks: [
+        ["current", "A", 110],
+        ["speed", "rpm", 130],
+      ],
     });
   } else {
     out.push({
@@ -84,7 +90,10 @@ export function seriesBenchChecks(plan: Plan): BenchCheck[] {
     out.push({
       title: `Locked-rotor check at ${supplyText(lr.supply)} (not at mains)`,
       body: `Rotor clamped, winding cold, from a variable transformer or bench supply, a few seconds only: expected ${sig(sp.rewound.lockedRotorCurrent)} A (the original: ${sig(sp.original.lockedRotorCurrent)} A). Why this voltage: ${lr.basis}.`,
-      blanks: [["supply", "V", 100], ["current", "A", 110]],
+      blanks: [
+        ["supply", "V", 100],
+        ["current", "A", 110],
+      ],
     });
   } else {
     out.push({
