@@ -18,6 +18,7 @@ import {
 } from "../armature/turn.js";
 import { copperFill } from "../armature/fill.js";
 import { layoutWinding } from "../winding/layout.js";
+import { layoutJobSpec } from "../winding/spec.js";
 import type { WindingLayout, WindingSpec } from "../winding/types.js";
 import { commonOverall, resolveWire } from "../wire/catalogue.js";
 import type { Wire } from "../wire/types.js";
@@ -103,22 +104,9 @@ export function supplyOf(job: Job): { volts: number; kind: SupplyKind } {
   return typeof s === "number" ? { volts: s, kind: "dc" } : { volts: s.value, kind: s.kind };
 }
 
+/** The winding spec of a full job (src/winding/layout-job.ts reads it for full and layout-only jobs alike). */
 export function windingSpec(job: Job): WindingSpec {
-  const w = job.winding;
-  return {
-    style: w.style,
-    slots: job.armature.slots,
-    bars: job.armature.bars,
-    poles: job.armature.field_poles,
-    span: w.span ?? 1,
-    coils_per_slot: w.coils_per_slot,
-    dead_coil: w.dead_coil,
-    equalizers: w.equalizers,
-    progression: w.progression,
-    lead_throw: w.lead_throw,
-    direction: w.direction,
-    brushes: { count: w.brushes.count, width_bars: w.brushes.width_bars },
-  };
+  return layoutJobSpec(job);
 }
 
 /** Riding increments (m) of each coil for a bundle b (m): 0 for a dead coil (src/armature/turn.ts `ridingIncrement`). */

@@ -6,7 +6,6 @@
  */
 import { z } from "zod";
 import { jobSchema } from "../job/schema.js";
-import type { WindingSpec } from "./types.js";
 
 const J = jobSchema.shape;
 const A = J.armature.shape;
@@ -59,21 +58,4 @@ export function isLayoutOnly(raw: unknown): boolean {
   return typeof raw === "object" && raw !== null && !Array.isArray(raw) && !("original" in raw) && !("target" in raw);
 }
 
-/** The winding spec of a layout-only job (the same fields `windingSpec` takes from a full job). */
-export function layoutJobSpec(job: LayoutJob): WindingSpec {
-  const w = job.winding;
-  return {
-    style: w.style,
-    slots: job.armature.slots,
-    bars: job.armature.bars,
-    poles: job.armature.field_poles,
-    span: w.span ?? 1,
-    coils_per_slot: w.coils_per_slot,
-    dead_coil: w.dead_coil,
-    equalizers: w.equalizers,
-    progression: w.progression,
-    lead_throw: w.lead_throw,
-    direction: w.direction,
-    brushes: { count: w.brushes.count, width_bars: w.brushes.width_bars },
-  };
-}
+export { layoutJobSpec } from "./spec.js";
