@@ -25,6 +25,7 @@
  */
 import { inputError } from "../errors.js";
 import { fmt, requireNonNegative, requirePositive, rpm } from "./check.js";
+import type { OperatingPoint } from "./model.js";
 
 /** ψ(I) = k·I / (1 + I/iSat) (Frölich [F]); iSat null: linear, ψ = k·I [C]. */
 export interface Magnetisation {
@@ -61,19 +62,12 @@ export interface Supply {
   frequency: number;
 }
 
-export interface SeriesPoint {
-  /** Shaft torque, N·m. */
-  torque: number;
-  /** rad/s. */
-  speed: number;
-  /** A (r.m.s. on AC). */
-  current: number;
-  /** Real input power I·(E + I·R + V_b), W. */
-  inputW: number;
-  /** Shaft output T·ω, W. */
-  outputW: number;
-  /** outputW / inputW, 0 … 1. */
-  efficiency: number;
+/**
+ * One steady operating point of a series motor: the fields of the constant-field model's point
+ * (src/motor/model.ts `OperatingPoint`), with the current r.m.s. on AC and the input the real power
+ * I·(E + I·R + V_b), plus the power factor.
+ */
+export interface SeriesPoint extends OperatingPoint {
   /** (E + I·R + V_b)/V: 1 on DC. */
   powerFactor: number;
 }
