@@ -140,6 +140,50 @@ describe.skipIf(!have && !process.env.CI)("the workbench in Chromium", () => {
     await p.context().close();
   });
 
+  it("lists and unions have their own controls: a row added and one removed, a tolerance as { below, above }; saved with comments and order kept", async () => {
+    const file = join(shop, "jobs/chair-wave-0045.yaml");
+    const before = readFileSync(file, "utf8");
+    const p = await page();
+    await p.goto(`${local.url}job/jobs/chair-wave-0045.yaml`);
+    await p.waitForSelector("#chosen");
+    // the goal is duty: the other goals' fields are out of the way
+    expect(await p.isVisible('[data-field="target.kv"]')).toBe(false);
+    expect(await p.isVisible('[data-field="target.duty.torque"]')).toBe(true);
+    // the second test removed, a third added and filled in, field by field
+    await p.click('[data-item="original.tests[1]"] [data-remove]');
+    await p.click('[data-add="original.tests"]');
+    await p.fill('[data-field="original.tests[1].supply"]', "18 V");
+    await p.fill('[data-field="original.tests[1].no_load_current"]', "0.95 A");
+    await p.fill('[data-field="original.tests[1].no_load_speed"]', "2450 rpm");
+    // a unit that makes no sense is shown at the row's field
+    await p.fill('[data-field="original.tests[1].temperature"]', "20 kg");
+    await p.waitForSelector('output[data-for="original.tests[1].temperature"] .error');
+    await p.fill('[data-field="original.tests[1].temperature"]', "20 C");
+    await p.waitForFunction(() => !document.querySelector('output[data-for="original.tests[1].temperature"] .error'));
+    // the tolerance as a one-sided band: the bare value carries over into below and above
+    await p.check('[data-variant-of="target.tolerance"][value="1"]');
+    expect(await p.inputValue('[data-field="target.tolerance.below"]')).toBe("0.03");
+    await p.fill('[data-field="target.tolerance.above"]', "0.05");
+    await p.click("#save");
+    await p.waitForSelector("#save-status.ok");
+    const after = readFileSync(file, "utf8");
+    expect(after).toContain(
+      "    - { supply: 24 V, no_load_current: 1.1 A, no_load_speed: 3350 rpm, temperature: 20 C }\n    - { supply: 18 V, no_load_current: 0.95 A, no_load_speed: 2450 rpm, temperature: 20 C }\n",
+    );
+    expect(after).not.toContain("supply: 12 V");
+    expect(after).toContain("  tolerance: { below: 0.03, above: 0.05 }\n");
+    const comments = (t: string) => t.split("\n").filter((l) => l.includes("#"));
+    expect(comments(after)).toEqual(comments(before));
+    // the lines not edited are where they were
+    const untouched = (t: string) => t.split("\n").filter((l) => !/tests:|- \{ supply|tolerance:/.test(l));
+    expect(untouched(after)).toEqual(untouched(before));
+    // reloaded, the form shows what was saved
+    await p.reload();
+    expect(await p.inputValue('[data-field="original.tests[1].supply"]')).toBe("18 V");
+    expect(await p.isChecked('[data-variant-of="target.tolerance"][value="1"]')).toBe(true);
+    await p.context().close();
+  });
+
   it("refuses a foreign Host and a path outside the folder", async () => {
     const p = await page();
     const port = new URL(local.url).port;

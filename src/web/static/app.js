@@ -75,10 +75,142 @@ function showProblems(form, problems, kind = "error") {
 
 // ---------------------------------------------------------------- the job page: form, plan, chart
 
-const job = { edits: new Map(), seq: 0, shown: 0, plan: null, picked: null };
+const job = { edits: [], seq: 0, shown: 0, plan: null, picked: null };
+
+/**
+ * The form's edits, in the order made: each a field's text at its path, or a structural one (a list
+ * row added or removed, a union switched to another form). Typing again in a field replaces its last
+ * edit unless a structural edit came after it (then the paths may mean other rows: a new edit).
+ */
+function setEdit(path, text, structural = false) {
+  const last = job.edits.findLastIndex((e) => e.path === path);
+  const laterStructural = job.edits.slice(last + 1).some((e) => e.structural);
+  if (!structural && last >= 0 && !laterStructural && !job.edits[last].structural) job.edits[last].text = text;
+  else job.edits.push({ path, text, structural });
+  $("#save-status").textContent = "unsaved changes";
+  $("#save-status").className = "";
+}
 
 function fieldEdits() {
-  return Array.from(job.edits, ([path, text]) => ({ path, text }));
+  return job.edits.map(({ path, text }) => ({ path, text }));
+}
+
+/** A typed value as it goes into a one-line { … } map: as typed, or quoted when it holds YAML's flow signs. */
+function flowScalar(text) {
+  const t = text.trim();
+  return /[,[\]{}#&*!|>'"%@`]|: |^-|^\?/.test(t) ? JSON.stringify(t) : t;
+}
+
+/** The value the controls under `base` say, as one line of YAML: the shown variant's map, or the one text box. */
+function compose(container, base) {
+  const own = container.querySelector(`[data-field="${CSS.escape(base)}"]`);
+  if (own && !own.closest("[hidden]")) return own.value.trim() === "" ? "''" : flowScalar(own.value);
+  const entries = [];
+  for (const el of $$("[data-field]", container)) {
+    if (el.closest("[hidden]")) continue;
+    const p = el.dataset.field;
+    if (!p.startsWith(`${base}.`) || el.value.trim() === "") continue;
+    const rest = p.slice(base.length + 1);
+    if (/[.[]/.test(rest)) continue; // a deeper field: composed with its own union
+    entries.push(`${rest}: ${flowScalar(el.value)}`);
+  }
+  for (const u of $$("[data-union]", container)) {
+    const p = u.dataset.union;
+    if (u.closest("[hidden]") || !p.startsWith(`${base}.`) || /[.[]/.test(p.slice(base.length + 1))) continue;
+    entries.push(`${p.slice(base.length + 1)}: ${compose(u, p)}`);
+  }
+  return entries.length ? `{ ${entries.join(", ")} }` : "{}";
+}
+
+/** The list row (not yet in the file) a control belongs to, if any. */
+const newRow = (el) => el.closest(".list-item[data-new]");
+
+function fieldChanged(f) {
+  const row = newRow(f);
+  if (row) setEdit(row.dataset.item, compose(row, row.dataset.item));
+  else setEdit(f.dataset.field, f.value);
+  if (f.dataset.field === "target.goal") showGoalFields();
+  previewSoon();
+}
+
+/** Show the union's variant k; with `carry`, the value moves over (a bare value into the map's first field, or back). */
+function showVariant(u, k, carry) {
+  const variants = $$(":scope > .variant", u);
+  const from = variants.find((v) => !v.hidden);
+  const to = variants[k];
+  if (carry && from && from !== to && !$$("[data-field]", to).some((e) => e.value.trim() !== "")) {
+    const src = $$("[data-field]", from).find((e) => e.value.trim() !== "");
+    const inputs = $$("input[data-field]", to);
+    // a bare value goes into the map's required fields (the value, the bare diameter), or into each when none is required (below and above)
+    const required = inputs.filter((e) => !e.closest(".field")?.querySelector("label .opt"));
+    if (src) for (const e of (required.length ? required : inputs).slice(0, to.querySelector(".subfields") ? 2 : 1)) e.value = src.value;
+  }
+  variants.forEach((v, i) => (v.hidden = i !== k));
+  const radio = u.querySelector(`[data-variant-of="${CSS.escape(u.dataset.union)}"][value="${k}"]`);
+  if (radio) radio.checked = true;
+}
+
+function variantChanged(radio) {
+  const u = radio.closest("[data-union]");
+  showVariant(u, Number(radio.value), true);
+  const row = newRow(u);
+  if (row) setEdit(row.dataset.item, compose(row, row.dataset.item));
+  else setEdit(u.dataset.union, compose(u, u.dataset.union), true);
+  previewSoon();
+}
+
+const sanitized = (p) => `f-${p.replace(/[^A-Za-z0-9_-]/g, "_")}`;
+
+/** Give a row the paths of index `to` (it was at `from`): every path, id and name under it. */
+function renumber(row, list, from, to) {
+  const a = `${list}[${from}]`;
+  const b = `${list}[${to}]`;
+  const sa = sanitized(a);
+  const sb = sanitized(b);
+  for (const el of [row, ...$$("*", row)]) {
+    for (const attr of ["data-item", "data-field", "data-path", "data-for", "data-union", "data-variant-of", "name"]) {
+      const v = el.getAttribute(attr);
+      if (v !== null) el.setAttribute(attr, v.replace(a, b));
+    }
+    for (const attr of ["id", "for"]) {
+      const v = el.getAttribute(attr);
+      if (v?.startsWith(sa)) el.setAttribute(attr, sb + v.slice(sa.length));
+    }
+  }
+  for (const l of $$("legend, .label", row)) l.textContent = l.textContent.replace(/^item \S+/, `item ${to + 1}`);
+}
+
+function addRow(fs) {
+  const list = fs.dataset.list;
+  const box = $(":scope > .list-items", fs);
+  const n = box.children.length;
+  if (fs.dataset.max && n >= Number(fs.dataset.max)) return;
+  const html = $(":scope > template", fs)
+    .innerHTML.replaceAll(`${list}[#]`, `${list}[${n}]`)
+    .replaceAll(sanitized(`${list}[#]`), sanitized(`${list}[${n}]`))
+    .replaceAll("item #", `item ${n + 1}`);
+  box.insertAdjacentHTML("beforeend", html);
+  const row = box.lastElementChild;
+  setEdit(`${list}[${n}]`, compose(row, `${list}[${n}]`), true);
+  row.querySelector("input, select")?.focus();
+  previewSoon();
+}
+
+function removeRow(row) {
+  const fs = row.closest("[data-list]");
+  const list = fs.dataset.list;
+  const rows = $$(":scope > .list-items > .list-item", fs);
+  const i = rows.indexOf(row);
+  setEdit(`${list}[${i}]`, "", true);
+  row.remove();
+  for (let j = i + 1; j < rows.length; j++) renumber(rows[j], list, j, j - 1);
+  previewSoon();
+}
+
+/** Fields that only one goal reads are shown with that goal (all of them while no goal is chosen). */
+function showGoalFields() {
+  const goal = $('[data-field="target.goal"]')?.value ?? "";
+  for (const el of $$("[data-goal]")) el.classList.toggle("other-goal", goal !== "" && el.dataset.goal !== goal);
 }
 
 async function preview() {
@@ -102,20 +234,30 @@ async function preview() {
 const previewSoon = debounce(preview, 120);
 
 function setField(path, text) {
-  job.edits.set(path, text);
   const input = $(`[data-field="${CSS.escape(path)}"]`);
-  if (input) input.value = text;
+  if (input) {
+    const v = input.closest(".variant");
+    if (v?.hidden) showVariant(v.closest("[data-union]"), Number(v.dataset.variant), false);
+    input.value = text;
+  }
+  setEdit(path, text);
+  if (path === "target.goal") showGoalFields();
 }
 
 function initJob() {
   const form = $("#job-form");
   if (!form) return;
+  showGoalFields();
   form.addEventListener("input", (ev) => {
+    if (ev.target.dataset.variantOf !== undefined) return variantChanged(ev.target);
     const f = ev.target.closest("[data-field]");
-    if (!f) return;
-    job.edits.set(f.dataset.field, f.value);
-    $("#save-status").textContent = "unsaved changes";
-    previewSoon();
+    if (f) fieldChanged(f);
+  });
+  form.addEventListener("click", (ev) => {
+    const add = ev.target.closest("[data-add]");
+    if (add) return addRow(add.closest("[data-list]"));
+    const rm = ev.target.closest("[data-remove]");
+    if (rm) removeRow(rm.closest(".list-item"));
   });
   form.addEventListener("submit", async (ev) => {
     ev.preventDefault();
@@ -124,7 +266,8 @@ function initJob() {
     if (status === 200) {
       data.text = json.text;
       data.version = json.version;
-      job.edits.clear();
+      job.edits = [];
+      for (const r of $$(".list-item[data-new]")) delete r.dataset.new;
       s.textContent = "saved";
       s.className = "ok";
     } else {
