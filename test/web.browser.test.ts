@@ -124,6 +124,53 @@ describe.skipIf(!have && !process.env.CI)("the workbench in Chromium", () => {
     await p.context().close();
   });
 
+  it("readings are judged as they are typed: alone against the plan first, coil 3 named once r3 and two others are in", async () => {
+    const p = await page();
+    await p.goto(`${local.url}bench/jobs/blind-motor-0031.yaml`);
+    await p.waitForSelector("[data-reading]");
+    await p.fill('input[name="temperature"]', "21 C");
+    const judged = async () => Number((await p.getAttribute("body", "data-judged")) ?? 0);
+    const type = async (i: number, v: string) => {
+      const n = await judged();
+      await p.fill(`[data-reading="${i}"]`, v);
+      await p.waitForFunction((k) => Number(document.body.dataset.judged ?? 0) > k, n);
+    };
+    await type(0, "1.329");
+    // one reading: judged alone against the plan, no median yet
+    expect(await p.textContent('.reading[data-index="0"] .judge')).toMatch(/of plan$/);
+    expect(await p.textContent("#verdict-line")).toBe("1 of 5 readings: none out so far");
+    await type(1, "1.327");
+    await type(3, "1.330");
+    expect(await p.locator(".suspect-label").count()).toBe(0);
+    await type(2, "1.234");
+    await p.waitForSelector('.suspect-label[data-suspect="3"]');
+    expect(await p.textContent("#verdict-line")).toBe("4 of 5 readings: none out so far");
+    expect(await p.textContent(".suspects")).toContain("coil 3");
+    expect(await p.textContent('.reading[data-index="2"] .judge')).toMatch(/of median/);
+    // the last one: the full diagnosis
+    await type(4, "1.327");
+    expect(await p.textContent("#verdict-line")).toMatch(/^every reading within the bench rules/);
+    expect(await p.locator(".suspect-label").count()).toBe(1);
+    await p.context().close();
+  });
+
+  it("the card is shown in the page, with print, paper and download", async () => {
+    const p = await page();
+    await p.goto(local.url);
+    await p.click("tr:has(a.job:text('robot-3slot-0007')) a:text('card')");
+    await p.waitForSelector("iframe#card");
+    const src = await p.getAttribute("iframe#card", "src");
+    expect(src).toBe("/api/card/jobs/robot-3slot-0007.yaml");
+    const pdf = await p.request.get(new URL(src!, local.url).href);
+    expect(pdf.status()).toBe(200);
+    expect(pdf.headers()["content-type"]).toBe("application/pdf");
+    expect(await p.isVisible("#print")).toBe(true);
+    await p.selectOption("#paper", "letter");
+    expect(await p.getAttribute("iframe#card", "src")).toBe("/api/card/jobs/robot-3slot-0007.yaml?paper=letter");
+    expect(await p.getAttribute("#download", "href")).toBe("/api/card/jobs/robot-3slot-0007.yaml?paper=letter&download=1");
+    await p.context().close();
+  });
+
   it("saves a job and reloads it with its comments intact", async () => {
     const p = await page();
     await p.goto(`${local.url}job/jobs/robot-3slot-0007.yaml`);

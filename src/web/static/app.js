@@ -486,6 +486,7 @@ async function initBench() {
     ),
   );
   drawDiagram([]);
+  judge();
   const form = $("#bench-form");
   form.addEventListener("input", debounce(judge, 150));
   form.addEventListener("submit", (ev) => {
@@ -498,24 +499,35 @@ function readings() {
   return $$("[data-reading]").map((i) => i.value.trim());
 }
 
+/** The sign and size of a fraction, in per cent: "+2.1 %", "−7.2 %". */
+const signed = (x) => (Math.abs(x) < 5e-4 ? "0 %" : `${x >= 0 ? "+" : "−"}${fmt(Math.abs(x) * 100, 2)} %`);
+
+/**
+ * Judge the readings as they are typed: while some are blank, `diagnose --partial` (each reading
+ * alone against the plan; from three on against their median, and the coils behind them); with
+ * all of them, `diagnose` itself. Every verdict comes from the server.
+ */
 async function judge() {
   const rs = readings();
   const form = $("#bench-form");
-  if (rs.some((r) => r === "")) {
-    const left = rs.map((r, i) => (r === "" ? `r${i + 1}` : null)).filter(Boolean);
-    $("#verdict").replaceChildren(h("p", { class: "sub" }, `waiting for ${left.length > 4 ? `${left.length} readings` : left.join(", ")}`));
+  const typed = rs.filter((r) => r !== "").length;
+  if (typed === 0) {
+    $("#verdict").replaceChildren(h("p", { class: "sub" }, "Type the readings as you take them: each is judged as it comes in."));
+    for (const l of $$(".reading")) l.classList.remove("fail", "pass", "invalid", "hint"), ($(".judge", l).textContent = "");
+    drawDiagram([]);
     return;
   }
   const seq = ++bench.seq;
   const temperature = form.elements.temperature.value.trim();
   const { status, json } = await api("POST", `/api/diagnose/${enc(data.file)}`, {
     bars: rs,
+    partial: typed < rs.length,
     temperature: temperature || undefined,
     resolution: form.elements.meter_resolution.value.trim() || undefined,
   });
   if (seq < bench.shown) return;
   bench.shown = seq;
-  for (const l of $$(".reading")) l.classList.remove("fail", "pass", "invalid"), ($(".judge", l).textContent = "");
+  for (const l of $$(".reading")) l.classList.remove("fail", "pass", "invalid", "hint"), ($(".judge", l).textContent = "");
   if (status !== 200) {
     showProblems(
       form,
@@ -525,37 +537,63 @@ async function judge() {
       const m = /bars\[(\d+)\]$/.exec(e.path);
       if (m) $$(".reading")[Number(m[1])]?.classList.add("invalid");
     }
+    document.body.dataset.judged = String(seq);
     return;
   }
   showProblems(form, []);
   bench.last = json;
-  const suspects = json.suspects || [];
+  const suspects = (json.suspects || []).filter((s) => s.kind !== "level_off_plan" && s.kind !== "readings_inconsistent");
   drawDiagram(suspects.flatMap((s) => s.coils));
+  const done = !json.partial;
   $("#verdict").replaceChildren(
-    h("p", { class: `verdict ${json.ok ? "ok" : "bad"}` }, json.ok ? "every reading within the bench rules" : "a reading is out of tolerance"),
+    h(
+      "p",
+      { class: `verdict ${json.ok ? (done ? (suspects.length ? "warn" : "ok") : "sub") : "bad"}`, id: "verdict-line" },
+      done
+        ? json.ok
+          ? suspects.length
+            ? "every reading within the bench rules, but a coil stands out:"
+            : "every reading within the bench rules"
+          : "a reading is out of tolerance"
+        : json.ok
+          ? `${json.read} of ${json.of} readings: none out so far`
+          : `${json.read} of ${json.of} readings: a reading is out already`,
+    ),
     suspects.length
       ? h(
           "ul",
           { class: "suspects" },
           suspects.map((s) => h("li", { "data-kind": s.kind }, s.message)),
         )
-      : h("p", {}, "No coil stands out."),
-    ...(json.notes || []).map((n) => h("p", { class: "sub" }, n)),
+      : h(
+          "p",
+          {},
+          done
+            ? "No coil stands out."
+            : json.read >= json.spread_from
+              ? "No coil stands out so far."
+              : `Coils are judged from ${json.spread_from} readings on.`,
+        ),
+    ...(json.partial ? json.notes : json.notes || []).map((n) => h("p", { class: "sub" }, n)),
   );
   markReadings(json);
+  document.body.dataset.judged = String(seq);
 }
 
-/** Each reading as diagnose judged it: its own pass/fail (the bench rules) and its distance from the set's median. */
+/** Each reading as diagnose judged it: alone against the plan (partial sets), against the median of the set (the spread rule). */
 function markReadings(d) {
   const labels = $$(".reading");
   (d.readings || []).forEach((r, i) => {
     const l = labels[i];
-    if (!l) return;
-    const bad = r.pass === false;
-    l.classList.add(bad ? "fail" : "pass");
-    const off = r.of_median_fraction;
-    $(".judge", l).textContent =
-      `${bad ? "out" : "within"}${typeof off === "number" ? `: ${off >= 0 ? "+" : "−"}${fmt(Math.abs(off) * 100, 2)} % of median` : ""}`;
+    if (!l || (d.partial && !r.read)) return;
+    const parts = [];
+    if (d.partial && r.alone) parts.push(r.alone.deviation_fraction === null ? "open" : `${signed(r.alone.deviation_fraction)} of plan`);
+    if (typeof r.of_median_fraction === "number") parts.push(`${signed(r.of_median_fraction)} of median`);
+    if (r.pass === false) l.classList.add("fail");
+    else if (r.pass === true) l.classList.add("pass");
+    else if (r.alone && !r.alone.pass) l.classList.add("hint");
+    const word = r.pass === false ? "out" : r.pass === true ? "within" : r.alone && !r.alone.pass ? "off the plan?" : "";
+    $(".judge", l).textContent = [word, parts.join(", ")].filter(Boolean).join(": ");
   });
   const level = d.level;
   if (level && typeof level.deviation_fraction === "number") {
@@ -563,7 +601,7 @@ function markReadings(d) {
       h(
         "p",
         { class: level.pass ? "sub" : "bad" },
-        `median ${fmt(d.median_ohm, 4)} Ω against ${fmt(level.expected_median_ohm, 4)} Ω expected (${level.deviation_fraction >= 0 ? "+" : "−"}${fmt(Math.abs(level.deviation_fraction) * 100, 2)} %, window ±${fmt(level.window_fraction * 100, 2)} %): ${level.pass ? "within" : "out"}`,
+        `median${d.partial ? " so far" : ""} ${fmt(d.median_ohm, 4)} Ω against ${fmt(level.expected_median_ohm, 4)} Ω expected (${signed(level.deviation_fraction)}, window ±${fmt(level.window_fraction * 100, 2)} %): ${level.pass ? "within" : "out"}`,
       ),
     );
   }
@@ -728,6 +766,31 @@ async function initList() {
   }
 }
 
+// ---------------------------------------------------------------- the card
+
+/** The card in its frame: print it, change the paper (the frame, the download and the tab follow). */
+function initCard() {
+  const frame = $("#card");
+  const base = `/api/card/${enc(data.file)}`;
+  const status = $("#card-status");
+  frame.addEventListener("load", () => (status.textContent = ""));
+  $("#paper").addEventListener("change", (ev) => {
+    const q = ev.target.value ? `?paper=${ev.target.value}` : "";
+    status.textContent = "making the card…";
+    frame.src = base + q;
+    $("#open").href = base + q;
+    $("#download").href = `${base}${q ? `${q}&` : "?"}download=1`;
+  });
+  $("#print").addEventListener("click", () => {
+    try {
+      frame.contentWindow.focus();
+      frame.contentWindow.print();
+    } catch {
+      window.open($("#open").href, "_blank", "noopener");
+    }
+  });
+}
+
 // ---------------------------------------------------------------- a new job
 
 function initNew() {
@@ -741,5 +804,5 @@ function initNew() {
   });
 }
 
-const init = { list: initList, job: initJob, bench: initBench, history: initHistory, new: initNew }[document.body.dataset.page];
+const init = { list: initList, job: initJob, bench: initBench, card: initCard, history: initHistory, new: initNew }[document.body.dataset.page];
 if (init) init();
