@@ -23,12 +23,10 @@ export function jobPage(s: Sheet, plan: Plan): void {
   if (!plan.feasible) {
     s.framed(
       (x, y, w) => {
-        const h1 = s.measure("CLOSEST WINDING — DOES NOT MEET THE GOAL", { size: 15, bold: true, width: w });
-        s.at("CLOSEST WINDING — DOES NOT MEET THE GOAL", x, y, { size: 15, bold: true, width: w });
+        const h1 = s.at("CLOSEST WINDING — DOES NOT MEET THE GOAL", x, y, { size: 15, bold: true, width: w });
         const why = plan.binding ?? "no candidate within the limits reaches the goal";
         const text = `${why.charAt(0).toUpperCase()}${why.slice(1)}. Goal ${goalName(plan)}: ${goalSummary(plan.goal)}. Decide with the customer before winding.`;
-        const h2 = s.measure(text, { size: T.body, width: w });
-        s.at(text, x, y + h1 + 3, { size: T.body, width: w });
+        const h2 = s.at(text, x, y + h1 + 3, { size: T.body, width: w });
         return h1 + 3 + h2;
       },
       { heavy: true, estimate: 60 },
@@ -57,8 +55,7 @@ export function jobPage(s: Sheet, plan: Plan): void {
         `Goal ${goalName(plan)}: ${goalSummary(plan.goal)}.`,
       ];
       for (const l of lines) {
-        const h = s.measure(l, { size: T.body + 1, width: w });
-        s.at(l, x, cy, { size: T.body + 1, width: w });
+        const h = s.at(l, x, cy, { size: T.body + 1, width: w });
         cy += h + 2;
       }
       return cy - y;
@@ -71,13 +68,11 @@ export function jobPage(s: Sheet, plan: Plan): void {
     s.framed(
       (x, y, w) => {
         const head = `COPY FROM THE OLD WINDING — LEAD THROW ${String(sp.lead_throw).replace("-", "−")} BAR${Math.abs(sp.lead_throw) === 1 ? "" : "S"}`;
-        s.at(head, x, y, { size: T.subheading + 1, bold: true, width: w });
-        const hh = s.measure(head, { size: T.subheading + 1, bold: true, width: w });
+        const hh = s.at(head, x, y, { size: T.subheading + 1, bold: true, width: w });
         const text =
           `Bar 1 sits ${String(sp.lead_throw).replace("-", "−")} bar${Math.abs(sp.lead_throw) === 1 ? "" : "s"} clockwise (seen from the commutator end; negative = anticlockwise) from the bar on coil 1's centre line, midway between its slots ${plan.coils[0].go_slot} and ${plan.coils[0].return_slot}. ` +
           `It sets the brush neutral: copy it from the old armature (slots and bars marked before stripping), never guess it. A wrong lead throw reads normal bar to bar but sparks and runs poorly.`;
-        const h = s.measure(text, { size: T.body, width: w });
-        s.at(text, x, y + hh + 3, { size: T.body, width: w });
+        const h = s.at(text, x, y + hh + 3, { size: T.body, width: w });
         return hh + 3 + h;
       },
       { heavy: false, estimate: 60 },
