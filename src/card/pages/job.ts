@@ -4,6 +4,7 @@ import type { MotorReport, Plan } from "../../design/types.js";
 import type { Sheet } from "../sheet.js";
 import { calibrationText, fieldText, goalName, goalSummary, mltSourceText, mm, ohm, pct, rpm, sig, strandsText, torqueUnit, wireSizes } from "../text.js";
 import { seriesMotorRows, supplyText } from "./series.js";
+import { spoolMassNeeded } from "../../shop/merge.js";
 
 export function jobPage(s: Sheet, plan: Plan): void {
   const j = plan.job;
@@ -111,33 +112,7 @@ export function jobPage(s: Sheet, plan: Plan): void {
   const h2 = s.pairs(win, s.left + s.width / 2 + 8, s.y, s.width / 2 - 8, { keyWidth: 92 });
   s.y += Math.max(h1, h2) + 6;
 
-  // cut list
-  s.subheading("Cut list", "strands counted together unless said");
-  const w = plan.wire;
-  const cut: [string, string][] = [
-    ["mean turn length", `${mm(w.mlt)} mm — ${mltSourceText[w.mlt_source] ?? w.mlt_source}`],
-    ["one coil", `${sig(w.per_coil)} m`],
-    ["whole winding", `${sig(w.winding)} m`],
-    ["leads", `${sig(w.leads)} m (${mm(w.lead_allowance)} mm per coil end)`],
-    ["spare margin", pct(w.spare_margin)],
-    ["copper mass", `${sig(w.copper_mass * 1e3)} g`],
-  ];
-  s.need(110);
-  const hc = s.pairs(cut, s.left, s.y, s.width * 0.58, { keyWidth: 100 });
-  const cx = s.left + s.width * 0.6;
-  const cw = s.width * 0.4;
-  s.doc
-    .save()
-    .lineWidth(s.L.line_width.heavy)
-    .rect(cx, s.y - 2, cw, hc + 2)
-    .stroke()
-    .restore();
-  s.at("CUT", cx + 8, s.y + 4, { size: T.label, bold: true });
-  s.at(`${sig(w.cut)} m`, cx + 8, s.y + 4 + T.label * 1.3, { size: T.hero * 0.85, bold: true });
-  if (d.strands > 1)
-    s.at(`${sig(w.cut_per_strand)} m from each of ${d.strands} spools`, cx + 8, s.y + 8 + T.label * 1.3 + T.hero, { size: T.body, bold: true, width: cw - 16 });
-  else s.at("leads and spare included", cx + 8, s.y + 8 + T.label * 1.3 + T.hero, { size: T.body, width: cw - 16 });
-  s.y += hc + 8;
+  cutList(s, plan);
 
   // expected results
   s.subheading("Expected results");
@@ -235,4 +210,64 @@ function motorTable(s: Sheet, plan: Plan): void {
     { size: s.L.type.table + 0.5, boldCols: new Set([2]), keepTogether: true },
   );
   if (kvRows(plan).length) s.para(KV_DEFINITIONS, { size: s.L.type.body - 0.5 });
+}
+
+/**
+ * The cut list: the wire's lengths (mean turn length, one coil, the whole winding, leads, spare
+ * margin) and its copper mass, beside the figure to take to the spool in large type. Cut coil by
+ * coil, that figure is the cut (m); a continuous winding (`winding.continuous: true`) is wound off
+ * the spool with no cut per coil, so the box gives the length to wind off and the spool mass to
+ * have, copper plus enamel (src/shop/merge.ts `spoolMassNeeded`).
+ */
+function cutList(s: Sheet, plan: Plan): void {
+  const T = s.L.type;
+  const d = plan.design;
+  const w = plan.wire;
+  const continuous = plan.job.winding.continuous === true;
+  s.subheading(
+    continuous ? "Wire off the spool" : "Cut list",
+    continuous ? "one wire through all the coils, no cut per coil" : "strands counted together unless said",
+  );
+  const need = spoolMassNeeded(plan);
+  const rows: [string, string][] = [
+    ["mean turn length", `${mm(w.mlt)} mm — ${mltSourceText[w.mlt_source] ?? w.mlt_source}`],
+    [continuous ? "in each coil" : "one coil", `${sig(w.per_coil)} m`],
+    ["whole winding", `${sig(w.winding)} m`],
+    [continuous ? "loops to the bars" : "leads", `${sig(w.leads)} m (${mm(w.lead_allowance)} mm per coil end)`],
+    ["spare margin", pct(w.spare_margin)],
+    ["copper mass", `${sig(w.copper_mass * 1e3)} g`],
+  ];
+  if (continuous) rows.push(["with its enamel", `${sig(need * 1e3)} g`]);
+  s.need(continuous ? 130 : 110);
+  const hc = s.pairs(rows, s.left, s.y, s.width * 0.58, { keyWidth: 100 });
+  const cx = s.left + s.width * 0.6;
+  const cw = s.width * 0.4;
+  const big = T.hero * 0.85;
+  const lines: [string, number, boolean][] = continuous
+    ? [
+        ["WIND OFF THE SPOOL", T.label, true],
+        [`${sig(w.cut)} m`, big, true],
+        [
+          `have ${sig(need * 1e3)} g on the spool (copper and enamel)${d.strands > 1 ? `: ${sig(w.cut_per_strand)} m from each of ${d.strands} spools` : ""}`,
+          T.body,
+          true,
+        ],
+      ]
+    : [
+        ["CUT", T.label, true],
+        [`${sig(w.cut)} m`, big, true],
+        d.strands > 1 ? [`${sig(w.cut_per_strand)} m from each of ${d.strands} spools`, T.body, true] : ["leads and spare included", T.body, false],
+      ];
+  let y = s.y + 4;
+  for (const [text, size, bold] of lines) {
+    y += s.at(text, cx + 8, y, { size, bold, width: cw - 16 }) + (size === big ? 0 : 2);
+  }
+  const boxH = Math.max(hc + 2, y - s.y + 4);
+  s.doc
+    .save()
+    .lineWidth(s.L.line_width.heavy)
+    .rect(cx, s.y - 2, cw, boxH)
+    .stroke()
+    .restore();
+  s.y += Math.max(hc, boxH - 2) + 8;
 }

@@ -89,7 +89,11 @@ export function stepsPage(s: Sheet, plan: Plan): void {
     sp.style === "tooth"
       ? `Wind in this order. Hook the start on the start bar, wind the turns ${sp.direction === "cw" ? "clockwise" : "anticlockwise"} round the tooth (looking at the tooth tip from outside), going in at the first slot and back through the second; hook the finish on the finish bar. Tick a tally box each time the count reaches the number under it, and the coil's box when it is hooked.`
       : `Wind in this order. Hook the start on the start bar, lay the go side in the first slot (top layer) and the return side in the second (bottom layer), ${sp.coils_per_slot > 1 ? "at the position given when a slot holds several coils, " : ""}and hook the finish on the finish bar. Tick a tally box each time the count reaches the number under it, and the coil's box when it is hooked. Lead throw ${String(sp.lead_throw).replace("-", "−")} bars, copied from the old winding.`;
-  s.para(`${intro} ${viewingConvention(plan.layout)}`, { size: T.body });
+  const continuous =
+    plan.job.winding.continuous === true
+      ? " Continuous winding, off the spool: do not cut at a finish bar — loop the wire round its hook and carry straight on into the next coil, whose start is that bar; cut only after the last coil."
+      : "";
+  s.para(`${intro}${continuous} ${viewingConvention(plan.layout)}`, { size: T.body });
   s.para(
     `${plan.design.turns} turns per coil of ${plan.design.wire.label}${plan.design.strands > 1 ? `, ${plan.design.strands} strands in hand (count a turn of all strands as one)` : ""}.`,
     { size: T.body + 1, bold: true },
