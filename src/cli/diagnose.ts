@@ -30,6 +30,7 @@ import type { Job } from "../job/schema.js";
 import type { WindingSpec } from "../winding/types.js";
 import { z } from "zod";
 import { withJob, withLogbook } from "./options.js";
+import { COMMAND_TEXT } from "./commands.js";
 
 export interface DiagnoseInput {
   /** Readings r1 … rC as read, Ω; Infinity for OL/open. */
@@ -321,8 +322,8 @@ function parseResolution(text: string): number {
 
 export function diagnoseCommand(yargs: Argv, io: Io, setStatus: (n: number) => void) {
   return yargs.command(
-    "diagnose <job>",
-    "Judge the bar-to-bar readings by the bench rules, solve them for each coil's resistance and name the coils behind each failing reading (exit 4 when one fails)",
+    COMMAND_TEXT.diagnose.command,
+    COMMAND_TEXT.diagnose.describe,
     (y) =>
       withLogbook(
         withJob(y, "job file (YAML), or a layout-only job (version, id, armature, winding)"),

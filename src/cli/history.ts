@@ -13,6 +13,7 @@ import { drawingSvg, historyCsv, historyDrawing, historyRows, type HistoryRow } 
 import { writeAtomic } from "./write.js";
 import { ArmwindError, inputError } from "../errors.js";
 import { ohm, sig, table } from "./format.js";
+import { COMMAND_TEXT } from "./commands.js";
 
 const pair = (p: number | null, m: number | null, f: (x: number | null) => string) => (p === null && m === null ? "—" : `${f(p)} / ${f(m)}`);
 
@@ -51,8 +52,8 @@ export function historyText(rows: HistoryRow[], book: Logbook, family?: string):
 
 export function historyCommand(yargs: Argv, io: Io, setStatus: (n: number) => void) {
   return yargs.command(
-    "history",
-    "List the finished rewinds in the logbook, predicted against measured (table, CSV, JSON, or a scatter plot)",
+    COMMAND_TEXT.history.command,
+    COMMAND_TEXT.history.describe,
     (y) =>
       y
         .option("family", { type: "string", describe: "only this armature family" })
