@@ -9,7 +9,8 @@ import { ArmwindError } from "../src/errors.js";
 import { trapezoidArea, trapezoidPerimeter, freeArea } from "../src/armature/slot.js";
 import { copperFill, HEX_PACKING, SQUARE_PACKING } from "../src/armature/fill.js";
 import { lengthFromMass, mltFromWireLength } from "../src/armature/turn.js";
-import { toothLayerBuild, slotLayerBuild, passesOpening } from "../src/armature/build.js";
+import { toothLayerBuild, slotLayerBuild, passesOpening, layersOf, type LayerTable } from "../src/armature/build.js";
+import fc from "fast-check";
 import { coilResistance } from "../src/design/context.js";
 import { ROOT, loadJobFile, loadJobText } from "./helpers/cli.js";
 
@@ -82,6 +83,36 @@ describe("geometry (plane geometry)", () => {
     // 4·3 + 5·4 + 6·4 + 7 = 63 conductors in 12 rows; 64 do not fit
     expect(slotLayerBuild(63, 0.5e-3, 6.5e-3, 4.2e-3, 2.6e-3, 0.2e-3).fits).toBe(true);
     expect(slotLayerBuild(64, 0.5e-3, 6.5e-3, 4.2e-3, 2.6e-3, 0.2e-3).fits).toBe(false);
+  });
+  it("laying any count on a layer table (by bisection on running sums) equals filling the layers one by one", () => {
+    // The reference: fill each layer in turn until the items run out or the layers do.
+    const naive = (items: number, capacity: number[]) => {
+      const perLayer: number[] = [];
+      let placed = 0;
+      for (let j = 0; j < capacity.length && placed < items; j++) {
+        const used = Math.min(capacity[j], items - placed);
+        perLayer.push(used);
+        placed += used;
+      }
+      return { perLayer, fits: placed >= items };
+    };
+    fc.assert(
+      fc.property(fc.array(fc.integer({ min: 1, max: 40 }), { maxLength: 30 }), fc.integer({ min: 0, max: 900 }), (capacity, items) => {
+        let sum = 0;
+        const cumulative = capacity.map((c) => {
+          sum += c;
+          return sum;
+        });
+        const table: LayerTable = { capacity, cumulative, layer: 1e-3, room: 5e-3 };
+        const got = layersOf(items, table);
+        const want = naive(items, capacity);
+        expect(got.perLayer).toEqual(want.perLayer);
+        expect(got.fits).toBe(want.fits);
+        expect(got.layers).toBe(want.perLayer.length);
+        expect(got.build).toBeCloseTo(want.perLayer.length * 1e-3, 12);
+      }),
+      { numRuns: 500 },
+    );
   });
 });
 

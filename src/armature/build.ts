@@ -33,18 +33,65 @@ function widthAt(y: number, h: number, wt: number, wb: number): number {
   return wb + ((wt - wb) * y) / h;
 }
 
-/** Lay `items` into layers of the given capacities (a capacity of 0 ends the build). */
-function fill(items: number, capacity: (j: number) => number, maxLayers: number): { perLayer: number[]; placed: number } {
-  const perLayer: number[] = [];
-  let placed = 0;
-  for (let j = 0; j < maxLayers && placed < items; j++) {
+/**
+ * How many items (tooth: turns; lap/wave: conductors) each layer takes, first to last, until a
+ * layer takes none or `maxLayers` are laid. It depends on the wire and the slot, not on how many
+ * items there are, so a sweep works it out once per wire and strands and lays any count on it
+ * (`layersOf`).
+ */
+function capacities(capacity: (j: number) => number, maxLayers: number): number[] {
+  const out: number[] = [];
+  for (let j = 0; j < maxLayers; j++) {
     const c = capacity(j);
     if (c <= 0) break;
-    const used = Math.min(c, items - placed);
-    perLayer.push(used);
-    placed += used;
+    out.push(c);
   }
-  return { perLayer, placed };
+  return out;
+}
+
+/** A layer table: each layer's capacity, the overall diameter a layer adds (m) and the room the build may reach (m). */
+export interface LayerTable {
+  capacity: number[];
+  /** Items the first j + 1 layers hold together. */
+  cumulative: number[];
+  /** Radial thickness of one layer (the overall diameter), m. */
+  layer: number;
+  room: number;
+}
+
+function tableOf(capacity: number[], layer: number, room: number): LayerTable {
+  const cumulative: number[] = [];
+  let sum = 0;
+  for (const c of capacity) {
+    sum += c;
+    cumulative.push(sum);
+  }
+  return { capacity, cumulative, layer, room };
+}
+
+/**
+ * Lay `items` on a layer table, filling each layer before the next: the build and whether it fits.
+ * The layers used are the fewest whose capacities sum to `items` (all of them when they do not fit),
+ * found by bisection on the running sums.
+ */
+export function layersOf(items: number, table: LayerTable): LayerBuild {
+  const cum = table.cumulative;
+  const n = cum.length;
+  const fits = n > 0 && cum[n - 1] >= items;
+  let layers = n;
+  if (fits) {
+    let lo = 0;
+    let hi = n - 1;
+    while (lo < hi) {
+      const mid = (lo + hi) >> 1;
+      if (cum[mid] >= items) hi = mid;
+      else lo = mid + 1;
+    }
+    layers = items > 0 ? lo + 1 : 0;
+  }
+  const perLayer = table.capacity.slice(0, layers);
+  if (fits && layers > 0) perLayer[layers - 1] = items - (layers > 1 ? cum[layers - 2] : 0);
+  return { turnsPerLayer: perLayer[0] ?? 0, perLayer, layers, build: layers * table.layer, room: table.room, fits: fits || items <= 0 };
 }
 
 /**
@@ -56,15 +103,7 @@ function fill(items: number, capacity: (j: number) => number, maxLayers: number)
  * slot that widens towards the gap the outer layers are shorter, not absent.
  * Geometry of the trapezoid; common practice, no published source.
  */
-export function toothLayerBuild(
-  turns: number,
-  strands: number,
-  overall: number,
-  slotDepth: number,
-  widthTop: number,
-  widthBottom: number,
-  liner: number,
-): LayerBuild {
+export function toothLayerTable(strands: number, overall: number, slotDepth: number, widthTop: number, widthBottom: number, liner: number): LayerTable {
   const h = slotDepth;
   const lo = liner;
   const hi = h - liner;
@@ -83,9 +122,20 @@ export function toothLayerBuild(
     return b > a ? Math.max(0, Math.floor((b - a) / pitch + 1e-9)) : 0;
   };
   const room = Math.max(widthTop, widthBottom) / 2 - liner;
-  const { perLayer, placed } = fill(turns, capacity, Math.ceil(room / overall) + 1);
-  const layers = perLayer.length;
-  return { turnsPerLayer: perLayer[0] ?? 0, perLayer, layers, build: layers * overall, room, fits: placed >= turns };
+  return tableOf(capacities(capacity, Math.ceil(room / overall) + 1), overall, room);
+}
+
+/** The tooth coil's layers for `turns` (m; see `toothLayerTable`). */
+export function toothLayerBuild(
+  turns: number,
+  strands: number,
+  overall: number,
+  slotDepth: number,
+  widthTop: number,
+  widthBottom: number,
+  liner: number,
+): LayerBuild {
+  return layersOf(turns, toothLayerTable(strands, overall, slotDepth, widthTop, widthBottom, liner));
 }
 
 /**
@@ -94,7 +144,7 @@ export function toothLayerBuild(
  * less a liner on each side; the rows must stay within the slot depth less the liner.
  * Geometry of the trapezoid; common practice, no published source.
  */
-export function slotLayerBuild(conductors: number, overall: number, slotDepth: number, widthTop: number, widthBottom: number, liner: number): LayerBuild {
+export function slotLayerTable(overall: number, slotDepth: number, widthTop: number, widthBottom: number, liner: number): LayerTable {
   const room = slotDepth - liner;
   const capacity = (j: number) => {
     const y0 = liner + j * overall;
@@ -103,7 +153,10 @@ export function slotLayerBuild(conductors: number, overall: number, slotDepth: n
     const w = Math.min(widthAt(y0, slotDepth, widthTop, widthBottom), widthAt(y1, slotDepth, widthTop, widthBottom)) - 2 * liner;
     return Math.max(0, Math.floor(w / overall + 1e-9));
   };
-  const { perLayer, placed } = fill(conductors, capacity, Math.ceil(room / overall) + 1);
-  const layers = perLayer.length;
-  return { turnsPerLayer: perLayer[0] ?? 0, perLayer, layers, build: layers * overall, room, fits: placed >= conductors };
+  return tableOf(capacities(capacity, Math.ceil(room / overall) + 1), overall, room);
+}
+
+/** The lap/wave slot's rows for `conductors` (m; see `slotLayerTable`). */
+export function slotLayerBuild(conductors: number, overall: number, slotDepth: number, widthTop: number, widthBottom: number, liner: number): LayerBuild {
+  return layersOf(conductors, slotLayerTable(overall, slotDepth, widthTop, widthBottom, liner));
 }

@@ -82,7 +82,7 @@ async function runHistory(io: Io, argv: HistoryArgs): Promise<number> {
   for (const w of book.warnings) io.err(`armwind: warning: ${w.message} [${w.code}]`);
   const rows = argv.family === undefined ? all : all.filter((r) => r.family === argv.family);
   if (argv.plot !== undefined) await writePlot(io, argv.plot, rows, argv);
-  if (argv.json) io.out(JSON.stringify({ ok: true, logbook: book.dir, records: rows, warnings: book.warnings }, null, 2));
+  if (argv.json) io.out(JSON.stringify({ ok: true, errors: [], logbook: book.dir, records: rows, warnings: book.warnings }, null, 2));
   else if (argv.csv) io.out(historyCsv(rows));
   else io.out(historyText(rows, book, argv.family));
   return 0;

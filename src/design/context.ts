@@ -26,13 +26,20 @@ import { COPPER_RESISTIVITY_20, copperFactor } from "../wire/copper.js";
 import { terminalResistance } from "../winding/ring.js";
 import type { WirePlan } from "./types.js";
 
+type LaidWire = Pick<Wire, "label" | "system" | "size" | "bare_diameter" | "overall_diameter" | "overall_source">;
+
+/** The overall diameter a wire is laid at, m: `layingOverall`'s figure without its wording (the sweep asks it of every candidate). */
+export function layingDiameter(wire: LaidWire): number {
+  return wire.overall_diameter ?? commonOverall(wire).value;
+}
+
 /**
  * The overall diameter (m) the turn-length model lays a wire at, and the sentence that says where it
  * came from: the wire's own (its IEC 60317 grade or NEMA film build in the catalogue, or measured)
  * when known; a wire named by its copper alone (an original "0.22 mm") is taken as the common
  * motor-winding wire of its size (src/wire/catalogue.ts `commonOverall`: grade 2, AWG heavy build).
  */
-export function layingOverall(wire: Pick<Wire, "label" | "system" | "size" | "bare_diameter" | "overall_diameter" | "overall_source">): {
+export function layingOverall(wire: LaidWire): {
   overall: number;
   basis: string;
 } {

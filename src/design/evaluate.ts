@@ -15,7 +15,7 @@
  * Units: SI (m, m², Ω, V, A, rad/s, N·m, W, kg, A/m²).
  */
 import { HEX_PACKING, copperFill, spaceFill } from "../armature/fill.js";
-import { passesOpening, slotLayerBuild, toothLayerBuild, type LayerBuild } from "../armature/build.js";
+import { layersOf, passesOpening, slotLayerTable, toothLayerTable, type LayerBuild, type LayerTable } from "../armature/build.js";
 import { bundleThickness, meanTurnLength, ridingIncrement } from "../armature/turn.js";
 import { copperFactor, COPPER_DENSITY } from "../wire/copper.js";
 import type { Wire } from "../wire/types.js";
@@ -27,7 +27,7 @@ import { resolveWire } from "../wire/catalogue.js";
 import { withinTolerance } from "./rank.js";
 import { keScaledByTurns } from "../motor/emf.js";
 import type { OperatingPoint } from "../motor/model.js";
-import { coilResistance, coilTurnLengths, layingOverall, meanOf, supplyOf, type ArmatureContext } from "./context.js";
+import { coilResistance, coilTurnLengths, layingDiameter, meanOf, supplyOf, type ArmatureContext } from "./context.js";
 import { motorPhysicsFor, type MotorPhysics } from "./motor.js";
 import type { Calibration, Candidate, DutyReport, GoalKind, MotorReport, RejectCode } from "./types.js";
 
@@ -123,6 +123,8 @@ interface Setup {
   density: DensityLimit;
   /** A restore at the original's turns: the space and layer checks warn (planJob), they do not reject. */
   geometryChecked: boolean;
+  /** The slot's layer tables already worked out, by overall diameter (m) then strands (0 for lap/wave): see `layerTable`. */
+  layerTables: Map<number, Map<number, LayerTable>>;
 }
 
 /** Riding increment of each coil per metre of bundle thickness (0 for a dead coil): src/armature/turn.ts `ridingIncrement`, linear in the bundle. */
@@ -251,7 +253,32 @@ function setupFor(ctx: ArmatureContext, cal: Calibration, supply: number, conver
     hotFactor: copperFactor(t.hot_temperature),
     ridingPerBundle: live.reduce((s, c) => s + ridingIncrement(c.rides_over, spec.coils_per_slot, spec.span, 1), 0) / live.length,
     trapezoid: slot.depth !== null && slot.width_top !== null && slot.width_bottom !== null,
+    layerTables: new Map(),
   };
+}
+
+/**
+ * The layer table of a wire of overall diameter `overall` (m), `strands` in hand, in this trapezoid
+ * slot (src/armature/build.ts): worked out once per wire and strands, since it does not depend on
+ * the turns; the sweep then lays each turns count on it.
+ */
+function layerTable(s: Setup, overall: number, strands: number): LayerTable {
+  const sl = s.ctx.slot;
+  const tooth = s.ctx.layout.spec.style === "tooth";
+  const key = tooth ? strands : 0;
+  let byStrands = s.layerTables.get(overall);
+  if (!byStrands) {
+    byStrands = new Map();
+    s.layerTables.set(overall, byStrands);
+  }
+  let table = byStrands.get(key);
+  if (!table) {
+    table = tooth
+      ? toothLayerTable(strands, overall, sl.depth!, sl.width_top!, sl.width_bottom!, sl.liner)
+      : slotLayerTable(overall, sl.depth!, sl.width_top!, sl.width_bottom!, sl.liner);
+    byStrands.set(key, table);
+  }
+  return table;
 }
 
 /** Copper fill, space fill, layer build and opening against the limits (src/armature/fill.ts, build.ts). */
@@ -270,10 +297,7 @@ function fitChecks(s: Setup, w: Winding, reasons: RejectCode[]): { copper_fill: 
   if (!passesOpening(overall, w.strands, slot.opening)) reasons.push("slot_opening");
   let build: LayerBuild | null = null;
   if (s.trapezoid) {
-    build =
-      layout.spec.style === "tooth"
-        ? toothLayerBuild(w.turns, w.strands, overall, slot.depth!, slot.width_top!, slot.width_bottom!, slot.liner)
-        : slotLayerBuild(conductors, overall, slot.depth!, slot.width_top!, slot.width_bottom!, slot.liner);
+    build = layersOf(layout.spec.style === "tooth" ? w.turns : conductors, layerTable(s, overall, w.strands));
     if (!build.fits && s.geometryChecked) reasons.push("layer_build");
   }
   return { copper_fill: cf, space_fill: sf, build };
@@ -286,7 +310,7 @@ function fitChecks(s: Setup, w: Winding, reasons: RejectCode[]): { copper_fill: 
 function turnLengthTerms(s: Setup, w: Winding): { base: number; b: number } {
   const ctx = s.ctx;
   const spec = ctx.layout.spec;
-  const b = bundleThickness(w.turns, w.strands, layingOverall(w.wire).overall, ctx.along);
+  const b = bundleThickness(w.turns, w.strands, layingDiameter(w.wire), ctx.along);
   if (ctx.mltMeasured !== null) return { base: ctx.mltMeasured - s.ridingPerBundle * b, b };
   return { base: meanTurnLength(spec.style, ctx.core, spec.span, b, ctx.mltFactor), b };
 }
@@ -431,7 +455,7 @@ function dutyOf(s: Setup, w: Winding, ke: number | null, terminalHot: number): D
 /** Full mode: each coil's turn length and resistance, the ring network's readings, the motor report and duty point. */
 function evaluateFull(s: Setup, w: Winding, options: FullOptions = {}): FullEvaluation {
   const { layout } = s.ctx;
-  const coilMlt = coilTurnLengths(s.ctx, w.turns, w.strands, layingOverall(w.wire).overall);
+  const coilMlt = coilTurnLengths(s.ctx, w.turns, w.strands, layingDiameter(w.wire));
   const coilOhms = coilMlt.map((m) => coilResistance(w.turns, m, w.strands, w.wire.area));
   const t = terminalResistance(layout, coilOhms);
   const ring: RingReadings = {
@@ -480,18 +504,10 @@ export function makeEvaluator(ctx: ArmatureContext, cal: Calibration, supply = s
 function originalChecks(s: Setup): { space_fill: number | null; layer_build: boolean } {
   const { ctx } = s;
   const o = ctx.original;
-  const overall = layingOverall(o.wire).overall;
+  const overall = layingDiameter(o.wire);
   const conductors = ctx.sides * o.turns * o.strands;
   const sf = spaceFill(conductors, overall, ctx.slot.free_area);
-  let layer = false;
-  if (s.trapezoid) {
-    const sl = ctx.slot;
-    const b =
-      ctx.layout.spec.style === "tooth"
-        ? toothLayerBuild(o.turns, o.strands, overall, sl.depth!, sl.width_top!, sl.width_bottom!, sl.liner)
-        : slotLayerBuild(conductors, overall, sl.depth!, sl.width_top!, sl.width_bottom!, sl.liner);
-    layer = !b.fits;
-  }
+  const layer = s.trapezoid && !layersOf(ctx.layout.spec.style === "tooth" ? o.turns : conductors, layerTable(s, overall, o.strands)).fits;
   return { space_fill: sf > s.spaceLimit + 1e-12 ? sf : null, layer_build: layer };
 }
 

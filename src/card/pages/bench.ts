@@ -4,7 +4,7 @@
  * checks, and the sign-off blanks.
  */
 import type { Plan } from "../../design/types.js";
-import type { Sheet } from "../sheet.js";
+import type { Sheet, TextBlock } from "../sheet.js";
 import { ohm, rpm, sig } from "../text.js";
 import { seriesBenchChecks } from "./series.js";
 import {
@@ -12,7 +12,9 @@ import {
   NULL_LEADS,
   SPREAD,
   fourWireAdvice,
+  levelBounds,
   levelRuleText,
+  turnLengthCalibrated,
   levelWindow,
   median,
   needsFourWire as needsFourWireRule,
@@ -44,7 +46,7 @@ export function benchPage(s: Sheet, plan: Plan): void {
   // the rules `log` and `diagnose` apply, in their words (src/bench/rules.ts)
   const tol = SPREAD.fraction;
   const res = s.context.meterResolution ?? DEFAULT_METER_RESOLUTION_OHM;
-  const calibrated = plan.wire.mlt_source !== "model";
+  const calibrated = turnLengthCalibrated(plan.wire.mlt_source);
   const expectedMedian = median(r.bar_to_bar);
   const level = levelWindow(calibrated, plan.design.wire.bare_diameter, res, expectedMedian);
   s.para(
@@ -57,13 +59,15 @@ export function benchPage(s: Sheet, plan: Plan): void {
   s.framed(
     (x, y, w) => {
       const text = advice ? `${advice} ${NULL_LEADS}` : NULL_LEADS;
-      s.at(text, x, y, { size: T.body, bold: true, width: w });
-      return s.measure(text, { size: T.body, bold: true, width: w });
+      return s.at(text, x, y, { size: T.body, bold: true, width: w });
     },
     { heavy: advice !== null, estimate: advice ? 40 : 14 },
   );
   // two sets of columns side by side when the widest window fits its column, else one
-  const windowText = (v: number) => `${ohm(v * (1 - level))}–${ohm(v * (1 + level))}`;
+  const windowText = (v: number) => {
+    const b = levelBounds(v, level);
+    return `${ohm(b.low)}–${ohm(b.high)}`;
+  };
   const widest = Math.max(...r.bar_to_bar.map((v) => s.widthOf(windowText(v), { size: T.table + 1, bold: true })));
   const fits = (n: number) => ((s.width - (n - 1) * 12) / n) * 0.29 - 4 >= widest;
   const sets = Math.max(1, B.column_sets) > 1 && fits(Math.max(1, B.column_sets)) ? Math.max(1, B.column_sets) : 1;
@@ -116,22 +120,21 @@ export function benchPage(s: Sheet, plan: Plan): void {
     s.y = yStart + perCol * rh + 6;
   }
   s.para(
-    `Median of the expected readings: ${ohm(expectedMedian)} Ω; your median within ${ohm(expectedMedian * (1 - level))}–${ohm(expectedMedian * (1 + level))} Ω. Median of your readings: ________ Ω; each reading within ±${plain(tol * 100)} % of it (your median × ${plain(1 - tol)} to × ${plain(1 + tol)}), widened by one count of the meter.`,
+    `Median of the expected readings: ${ohm(expectedMedian)} Ω; your median within ${windowText(expectedMedian)} Ω. Median of your readings: ________ Ω; each reading within ±${plain(tol * 100)} % of it (your median × ${plain(1 - tol)} to × ${plain(1 + tol)}), widened by one count of the meter.`,
     { size: T.body },
   );
 
   // each group of checks is measured whole and kept together with its heading and its sign-off
   type Check = [title: string, body: string, blanks: [string, string, number][]];
-  const checkHeight = ([, body, blanks]: Check) =>
-    T.subheading * 1.5 + s.measure(body, { size: T.body, width: s.width - 24 }) + 4 + (blanks.length ? s.L.blank.height + 10 : 4);
-  const check = ([title, body, blanks]: Check) => {
-    const bh = s.measure(body, { size: T.body, width: s.width - 24 });
+  type Laid = [title: string, body: TextBlock, blanks: [string, string, number][]];
+  const checkHeight = ([, body, blanks]: Laid) => T.subheading * 1.5 + body.height + 4 + (blanks.length ? s.L.blank.height + 10 : 4);
+  const check = ([title, body, blanks]: Laid) => {
     s.need(checkHeight([title, body, blanks]));
     s.tickBox(s.left, s.y + 1, s.L.tick_box, true);
     s.at(title, s.left + 24, s.y + 2, { size: T.subheading, bold: true });
     s.y += T.subheading * 1.5;
-    s.at(body, s.left + 24, s.y, { size: T.body, width: s.width - 24 });
-    s.y += bh + 4;
+    s.draw(body, s.left + 24, s.y);
+    s.y += body.height + 4;
     let x = s.left + 24;
     for (const [label, unit, w] of blanks) {
       s.blank(x, s.y, w, label, unit);
@@ -148,7 +151,8 @@ export function benchPage(s: Sheet, plan: Plan): void {
     s.blank(s.left + 380, ys, s.width - 380, "date", "");
     s.y += s.L.blank.height + 8;
   };
-  const group = (heading: string, checks: Check[], sign: string) => {
+  const group = (heading: string, written: Check[], sign: string) => {
+    const checks = written.map(([title, body, blanks]): Laid => [title, s.layout(body, { size: T.body, width: s.width - 24 }), blanks]);
     const whole = T.subheading * 1.65 + 40 + checks.reduce((a, c) => a + checkHeight(c), 0) + s.L.blank.height + 14;
     // the whole group on one page when a page can hold it; else at least the heading with its first check
     s.need(whole <= s.bottom - s.top - 40 ? whole : T.subheading * 1.65 + 40 + checkHeight(checks[0]));
