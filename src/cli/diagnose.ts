@@ -25,7 +25,7 @@ import { recordSchema, type LogRecord } from "../logbook/record.js";
 import { diagnose, type Diagnosis } from "../winding/diagnose.js";
 import { DEFAULT_METER_RESOLUTION_OHM, isOpenText, readingName, turnLengthCalibrated } from "../bench/rules.js";
 import { to20C } from "../wire/copper.js";
-import { ohm, sig, table } from "./format.js";
+import { ohm, sig, signedPct, table } from "./format.js";
 import type { Job } from "../job/schema.js";
 import type { WindingSpec } from "../winding/types.js";
 import { z } from "zod";
@@ -173,8 +173,6 @@ export function diagnoseJson(job: { id: string }, input: DiagnoseInput, d: Diagn
     warnings: d.warnings,
   };
 }
-
-const signedPct = (x: number) => `${x >= 0 ? "+" : "−"}${sig(Math.abs(x) * 100)} %`;
 
 export function diagnoseText(job: { id: string }, input: DiagnoseInput, d: Diagnosis): string {
   const L: string[] = [];
