@@ -26,11 +26,12 @@ import { diagnose, type Diagnosis } from "../winding/diagnose.js";
 import { diagnosePartial, SPREAD_FROM, type PartialDiagnosis } from "../winding/diagnose-partial.js";
 import { DEFAULT_METER_RESOLUTION_OHM, isOpenText, readingName, turnLengthCalibrated } from "../bench/rules.js";
 import { to20C } from "../wire/copper.js";
-import { ohm, sig, table } from "./format.js";
+import { ohm, sig, signedPct, table } from "./format.js";
 import type { Job } from "../job/schema.js";
 import type { WindingSpec } from "../winding/types.js";
 import { z } from "zod";
 import { withJob, withLogbook } from "./options.js";
+import { COMMAND_TEXT } from "./commands.js";
 
 export interface DiagnoseInput {
   /** Readings r1 … rC as read, Ω; Infinity for OL/open. */
@@ -238,8 +239,6 @@ function partialText(job: { id: string }, d: PartialDiagnosis): string {
   return L.join("\n");
 }
 
-const signedPct = (x: number) => `${x >= 0 ? "+" : "−"}${sig(Math.abs(x) * 100)} %`;
-
 export function diagnoseText(job: { id: string }, input: DiagnoseInput, d: Diagnosis): string {
   const L: string[] = [];
   L.push(
@@ -388,8 +387,8 @@ function parseResolution(text: string): number {
 
 export function diagnoseCommand(yargs: Argv, io: Io, setStatus: (n: number) => void) {
   return yargs.command(
-    "diagnose <job>",
-    "Judge the bar-to-bar readings by the bench rules, solve them for each coil's resistance and name the coils behind each failing reading (exit 4 when one fails)",
+    COMMAND_TEXT.diagnose.command,
+    COMMAND_TEXT.diagnose.describe,
     (y) =>
       withLogbook(
         withJob(y, "job file (YAML), or a layout-only job (version, id, armature, winding)"),
