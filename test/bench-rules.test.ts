@@ -12,7 +12,17 @@ import { join } from "node:path";
 import { describe, expect, it } from "vitest";
 import { main } from "../src/cli/main.js";
 import type { Io } from "../src/cli/io.js";
-import { DEFAULT_METER_RESOLUTION_OHM, FOUR_WIRE_FACTOR, SPREAD, checkLabel, judgeLevel, judgeSpread, median, needsFourWire } from "../src/bench/rules.js";
+import {
+  DEFAULT_METER_RESOLUTION_OHM,
+  FOUR_WIRE_FACTOR,
+  SPREAD,
+  checkLabel,
+  judgeLevel,
+  judgeSpread,
+  levelBounds,
+  median,
+  needsFourWire,
+} from "../src/bench/rules.js";
 import { diagnose } from "../src/winding/diagnose.js";
 import { layoutWinding } from "../src/winding/layout.js";
 import { loadYaml } from "../src/job/load.js";
@@ -30,6 +40,17 @@ function fakeIo(cwd = ROOT): Io & { stdout: string[]; stderr: string[] } {
 const lap12 = layoutWinding(spec({}));
 
 describe("the rules themselves", () => {
+  it("the level window's readings: expected × (1 ± window), floored at 0 Ω when one meter count exceeds the expected reading", () => {
+    // 1.355 Ω expected, ±15.4 %: 1.1463 … 1.5637 Ω (arithmetic)
+    const b = levelBounds(1.355, 0.154);
+    expect(b.low).toBeCloseTo(1.14633, 5);
+    expect(b.high).toBeCloseTo(1.56367, 5);
+    // 0.09 Ω expected on a 0.1 Ω meter: 5 % + 3 % + 0.1/0.09 = 119 %: from 0 Ω, never a negative resistance
+    const w = judgeLevel([0.1], [0.09], true, 0.5e-3, 0.1).window_fraction;
+    expect(w).toBeGreaterThan(1);
+    expect(levelBounds(0.09, w).low).toBe(0);
+    expect(levelBounds(0.09, w).high).toBeCloseTo(0.09 * (1 + w), 12);
+  });
   it("the median, not the mean: one bridged pair among 1.33 Ω readings leaves the good pairs passing", () => {
     const r = new Array(12).fill(1.33);
     r[4] = 0.02;

@@ -202,6 +202,23 @@ export function levelWindow(calibrated: boolean, bareDiameterM: number, resoluti
   return model.fraction + conductorTolerance(bareDiameterM).fraction + resolutionOhm / expectedMedianOhm;
 }
 
+/**
+ * The readings (Ω) the level rule accepts around an expected reading `expectedOhm` (Ω) for a window
+ * of ±`window` (fraction): expected × (1 ± window), never below 0 Ω (a window wider than 100 %, an
+ * expected reading under one count of the meter, reaches down to zero, not to a negative resistance).
+ */
+export function levelBounds(expectedOhm: number, window: number): { low: number; high: number } {
+  return { low: Math.max(0, expectedOhm * (1 - window)), high: expectedOhm * (1 + window) };
+}
+
+/**
+ * Whether the level rule takes the ±5 % of a measured or calibrated turn length (true) or the ±15 %
+ * of the end-turn model alone (false), from the plan's `mlt_source` (docs/contracts.md "Bench rules").
+ */
+export function turnLengthCalibrated(mltSource: string): boolean {
+  return mltSource !== "model";
+}
+
 function levelSource(calibrated: boolean, bareDiameterM: number): string {
   const model = calibrated ? "±5 % with the turn length measured or calibrated" : "±15 % from the end-turn model alone";
   return `${SOURCE_COMMON}: ${model}, plus ±${pctText(conductorTolerance(bareDiameterM).fraction)} ${conductorTolerance(bareDiameterM).source}, plus one meter count`;

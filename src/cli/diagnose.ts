@@ -23,7 +23,7 @@ import { loadMeasured } from "./log.js";
 import { predictWound, type WoundInput } from "../logbook/predict.js";
 import { recordSchema, type LogRecord } from "../logbook/record.js";
 import { diagnose, type Diagnosis } from "../winding/diagnose.js";
-import { DEFAULT_METER_RESOLUTION_OHM, isOpenText, readingName } from "../bench/rules.js";
+import { DEFAULT_METER_RESOLUTION_OHM, isOpenText, readingName, turnLengthCalibrated } from "../bench/rules.js";
 import { to20C } from "../wire/copper.js";
 import { ohm, sig, table } from "./format.js";
 import type { Job } from "../job/schema.js";
@@ -261,7 +261,7 @@ function gatherInput(io: Io, argv: DiagnoseArgs, loaded: { job: Job | null; id: 
       expected: rec.predicted.coil_ohm,
       turns: rec.winding.turns,
       resolution: res ?? rec.measured.meter_resolution_ohm ?? DEFAULT_METER_RESOLUTION_OHM,
-      calibrated: rec.predicted.mean_turn_length_source !== "model",
+      calibrated: turnLengthCalibrated(rec.predicted.mean_turn_length_source),
       bareDiameter: rec.winding.wire.bare_diameter_mm * 1e-3,
       source: `logbook record ${argv.record}`,
     };
@@ -305,7 +305,7 @@ function gatherInput(io: Io, argv: DiagnoseArgs, loaded: { job: Job | null; id: 
   const options = argv.learn ? logbookOptionsFor(io, job, argv.logbook, date ? { before: date } : {}) : {};
   const plan = planJob(job, options);
   const p = predictWound(job, plan, wound, options);
-  return { ...base, expected: p.coil_ohm, turns: p.turns, calibrated: plan.wire.mlt_source !== "model", bareDiameter: p.wire.bare_diameter };
+  return { ...base, expected: p.coil_ohm, turns: p.turns, calibrated: turnLengthCalibrated(plan.wire.mlt_source), bareDiameter: p.wire.bare_diameter };
 }
 
 function parseResolution(text: string): number {

@@ -12,6 +12,7 @@ import { toRpm } from "../format/units.js";
 import { kvFromKe } from "../motor/emf.js";
 import { jobId } from "../job/schema.js";
 import { COUNTS, ID_MAX_LENGTH, RECORD_RANGES } from "../job/ranges.js";
+import { turnLengthCalibrated } from "../bench/rules.js";
 import { compareReadings, type Comparison, type Derived } from "./compare.js";
 import type { Measured } from "./measured.js";
 import { predictNoLoad, predictStall, type Prediction } from "./predict.js";
@@ -95,7 +96,7 @@ const nn = (x: number | null | undefined): number | null => (x === null || x ===
 
 /** Build the record of a finished rewind: pure (the time of logging is given). */
 export function buildRecord(job: Job, plan: Plan, prediction: Prediction, m: Measured, loggedAt: string): LogRecord {
-  const { comparison, derived } = compareReadings(prediction, m, plan.wire.mlt_source !== "model");
+  const { comparison, derived } = compareReadings(prediction, m, turnLengthCalibrated(plan.wire.mlt_source));
   const p = prediction;
   const supply = plan.supply;
   const nl = predictNoLoad(p, supply, 20);

@@ -12,7 +12,9 @@ import {
   NULL_LEADS,
   SPREAD,
   fourWireAdvice,
+  levelBounds,
   levelRuleText,
+  turnLengthCalibrated,
   levelWindow,
   median,
   needsFourWire as needsFourWireRule,
@@ -44,7 +46,7 @@ export function benchPage(s: Sheet, plan: Plan): void {
   // the rules `log` and `diagnose` apply, in their words (src/bench/rules.ts)
   const tol = SPREAD.fraction;
   const res = s.context.meterResolution ?? DEFAULT_METER_RESOLUTION_OHM;
-  const calibrated = plan.wire.mlt_source !== "model";
+  const calibrated = turnLengthCalibrated(plan.wire.mlt_source);
   const expectedMedian = median(r.bar_to_bar);
   const level = levelWindow(calibrated, plan.design.wire.bare_diameter, res, expectedMedian);
   s.para(
@@ -63,7 +65,10 @@ export function benchPage(s: Sheet, plan: Plan): void {
     { heavy: advice !== null, estimate: advice ? 40 : 14 },
   );
   // two sets of columns side by side when the widest window fits its column, else one
-  const windowText = (v: number) => `${ohm(v * (1 - level))}–${ohm(v * (1 + level))}`;
+  const windowText = (v: number) => {
+    const b = levelBounds(v, level);
+    return `${ohm(b.low)}–${ohm(b.high)}`;
+  };
   const widest = Math.max(...r.bar_to_bar.map((v) => s.widthOf(windowText(v), { size: T.table + 1, bold: true })));
   const fits = (n: number) => ((s.width - (n - 1) * 12) / n) * 0.29 - 4 >= widest;
   const sets = Math.max(1, B.column_sets) > 1 && fits(Math.max(1, B.column_sets)) ? Math.max(1, B.column_sets) : 1;
@@ -116,7 +121,7 @@ export function benchPage(s: Sheet, plan: Plan): void {
     s.y = yStart + perCol * rh + 6;
   }
   s.para(
-    `Median of the expected readings: ${ohm(expectedMedian)} Ω; your median within ${ohm(expectedMedian * (1 - level))}–${ohm(expectedMedian * (1 + level))} Ω. Median of your readings: ________ Ω; each reading within ±${plain(tol * 100)} % of it (your median × ${plain(1 - tol)} to × ${plain(1 + tol)}), widened by one count of the meter.`,
+    `Median of the expected readings: ${ohm(expectedMedian)} Ω; your median within ${windowText(expectedMedian)} Ω. Median of your readings: ________ Ω; each reading within ±${plain(tol * 100)} % of it (your median × ${plain(1 - tol)} to × ${plain(1 + tol)}), widened by one count of the meter.`,
     { size: T.body },
   );
 
