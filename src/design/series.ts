@@ -315,7 +315,8 @@ function jobFigures(job: Job, setup: SeriesSetup): SeriesJobFigures {
   const T = setup.ratedTorque;
   if (job.target.goal === "convert") {
     const n = conversionRatio(setup, job.target.hot_temperature);
-    const conv = (f: number) => rescaleSeries(modelAt(setup, f), { armature: n ?? 1, field: n ?? 1 }, setup.ra20 * f * (n ?? 1) ** 2, setup.rf20 * f * (n ?? 1) ** 2);
+    const conv = (f: number) =>
+      rescaleSeries(modelAt(setup, f), { armature: n ?? 1, field: n ?? 1 }, setup.ra20 * f * (n ?? 1) ** 2, setup.rf20 * f * (n ?? 1) ** 2);
     const rated = n !== null && T !== null ? pointAtTorqueSeries(conv(hot), setup.supply, T) : null;
     return { setup, check: checkSupply(job, setup, conv(1), rated?.current ?? null), convertRatio: n, convertSpeed: setup.ratedSpeed };
   }

@@ -587,5 +587,14 @@ export function calibrateSeries(inp: SeriesInputs): SeriesCalibration | null {
     const torque = r.torque ?? ratedPt.psi * r.current - lossTorque(lf.loss, r.speed);
     if (torque > 0) rated = { supply: r.supply, current: r.current, speed: r.speed, torque };
   }
-  return { mag: mag.mag, loss: lf.loss, lossKnown: known.length > 0, la: ind.la, lf: ind.lf, inductanceKnown: ind.known, rated, basis: [mag.basis, lf.basis, ...ind.basis] };
+  return {
+    mag: mag.mag,
+    loss: lf.loss,
+    lossKnown: known.length > 0,
+    la: ind.la,
+    lf: ind.lf,
+    inductanceKnown: ind.known,
+    rated,
+    basis: [mag.basis, lf.basis, ...ind.basis],
+  };
 }
