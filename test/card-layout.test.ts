@@ -7,6 +7,7 @@ import { cardLayout, layoutProblems, tallyBoxes, tallyGroups } from "../src/card
 import { FONT_FILES, SHAPING_TABLES, cardFonts, woffToSfnt } from "../src/card/fonts.js";
 import { ticksFromZero as niceTicks } from "../src/plot/ticks.js";
 import { needsFourWire } from "../src/card/pages/bench.js";
+import { Sheet } from "../src/card/sheet.js";
 
 const L = cardLayout();
 
@@ -86,5 +87,49 @@ describe("small rules", () => {
     expect(needsFourWire(0.0196, 0.01)).toBe(true);
     expect(needsFourWire(0.399, 0.01)).toBe(true);
     expect(needsFourWire(1.329, 0.01)).toBe(false);
+  });
+});
+
+describe("text laid out once, drawn as laid out (issue 15 item 2)", () => {
+  const INFO = { CreationDate: new Date(0), ModDate: new Date(0) };
+  const TEXT =
+    "Bar to bar (every pair), terminal resistance, ground, growler, polarity: the bench sheet, sections 1 and 2. Ω ± ° ² — a long_unbroken_word_of_more_than_twenty_five_characters_that_must_be_cut here.";
+  it("a block's lines fit its width and its height is pdfkit's heightOfString", () => {
+    const s = new Sheet(L, "a4", INFO);
+    s.newPage();
+    for (const width of [60, 140, 300]) {
+      const b = s.layout(TEXT, { size: 9.5, width });
+      expect(b.lines.length).toBeGreaterThan(1);
+      for (const line of b.lines) expect(s.widthOf(line.text.trimEnd(), { size: 9.5 })).toBeLessThanOrEqual(width + 1e-6);
+      expect(
+        b.lines
+          .map((l) => l.text.trim())
+          .join(" ")
+          .replace(/\s+/g, ""),
+      ).toBe(TEXT.replace(/\s+/g, ""));
+      s.font({ size: 9.5 });
+      // the same text as pdfkit measures it (cut the same way first)
+      const cut = b.lines.map((l) => l.text).join("");
+      expect(b.height).toBeCloseTo(s.doc.heightOfString(cut, { width, lineGap: 1 }), 6);
+    }
+  });
+  it("drawing a laid-out block writes the same page as pdfkit's text() (the two private steps it calls are pdfkit 0.20's)", async () => {
+    const draw = async (once: boolean) => {
+      const s = new Sheet(L, "a4", INFO);
+      s.newPage();
+      for (const [i, align] of (["left", "right", "center"] as const).entries()) {
+        const style = { size: 9 + i, bold: i === 1, grey: i === 2 ? 0.3 : undefined, width: 200, align };
+        // words short enough that nothing is cut first (src/card/wrap.ts), so both draw the same string
+        const text = TEXT.replace(/_/g, " ");
+        if (once) s.at(text, 50, 80 + i * 150, style);
+        else {
+          s.font(style);
+          s.doc.text(text, 50, 80 + i * 150, { width: 200, align, lineGap: 1 });
+        }
+      }
+      return s.finish();
+    };
+    const [a, b] = await Promise.all([draw(true), draw(false)]);
+    expect(a.equals(b)).toBe(true);
   });
 });

@@ -15,6 +15,7 @@ import type { Plan } from "../src/design/types.js";
 import { renderCard } from "../src/card/render.js";
 import { ohm, sig } from "../src/cli/format.js";
 import { cardLayout } from "../src/card/layout.js";
+import { spoolMassNeeded } from "../src/shop/merge.js";
 
 const JOBS = join(import.meta.dirname, "..", "jobs");
 const demoFiles = readdirSync(JOBS)
@@ -244,8 +245,21 @@ describe("renderCard on every demo job and the variants", () => {
     expect(all).toMatch(/Have at least [\d.]+ g of .* on the spool \(copper [\d.]+ g and its enamel\)/);
     expect(all).not.toMatch(/Wind off the spool: one wire/);
     const cont = { ...plan, job: { ...plan.job, winding: { ...plan.job.winding, continuous: true } } } as Plan;
-    const all2 = (await readPdf(await renderCard(cont, { paper: "a4", ...OPTS }))).all.replace(/\s+/g, " ");
+    const read2 = await readPdf(await renderCard(cont, { paper: "a4", ...OPTS }));
+    const all2 = read2.all.replace(/\s+/g, " ");
     expect(all2).toMatch(/Wind off the spool: one wire through all the coils, no cut per coil/);
+    // every page that lists the wire gives the spool length and mass, never a cut per coil (issue 11)
+    const page1 = read2.pages[0].text.replace(/\s+/g, " ");
+    const grams = sig(spoolMassNeeded(plan) * 1e3);
+    expect(page1).toContain("WIND OFF THE SPOOL");
+    expect(page1).toContain(`${sig(plan.wire.cut)} m`);
+    expect(page1).toContain(`have ${grams} g on the spool (copper and enamel)`);
+    expect(page1).not.toMatch(/\bCUT\b|Cut list|one coil/);
+    expect(all2).toContain("do not cut at a finish bar");
+    expect(all2).toContain(`Have at least ${grams} g of`);
+    const page1cut = (await readPdf(await renderCard(plan, { paper: "a4", ...OPTS }))).pages[0].text;
+    expect(page1cut).toMatch(/Cut list[\s\S]*\bCUT\b/);
+    expect(page1cut).not.toContain("WIND OFF THE SPOOL");
     // the no-load run comes after varnish, not among the checks before it
     expect(all.lastIndexOf("No-load current and speed")).toBeGreaterThan(all.indexOf("3. After varnish"));
     expect(all.indexOf("3. After varnish")).toBeGreaterThan(all.indexOf("2. Before varnish"));

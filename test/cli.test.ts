@@ -35,7 +35,8 @@ describe("plan --json (DESIGN.md contract)", () => {
       const r = await runMain(["plan", file, "--json"]);
       expect([0, 2]).toContain(r.status);
       const j = JSON.parse(r.stdout);
-      expect(j.ok).toBe(true);
+      expect(j.ok).toBe(r.status === 0);
+      expect(j.errors).toEqual([]);
       for (const k of [
         "job_id",
         "feasible",

@@ -132,7 +132,7 @@ describe("armwind new", () => {
     const io = fakeIo(dir, { SOURCE_DATE_EPOCH: "1764547200" }); // 2025-12-01T00:00:00Z
     expect(await main(["new", "--style", "wave", "--json"], io)).toBe(0);
     const out = JSON.parse(io.stdout.join(""));
-    expect(out).toEqual({ ok: true, file: join(dir, "rewind-2025-12-01.yaml"), id: "rewind-2025-12-01", style: "wave" });
+    expect(out).toEqual({ ok: true, errors: [], file: join(dir, "rewind-2025-12-01.yaml"), id: "rewind-2025-12-01", style: "wave" });
     expect(loadYaml(readFileSync(out.file, "utf8"), "x", jobSchema).value.id).toBe("rewind-2025-12-01");
   });
 

@@ -11,7 +11,7 @@ describe("runWires --json", () => {
     expect(r.status).toBe(0);
     expect(r.stderr).toBe("");
     const out = JSON.parse(r.stdout);
-    expect(Object.keys(out)).toEqual(["ok", "wires"]);
+    expect(Object.keys(out)).toEqual(["ok", "errors", "wires"]);
     expect(out.ok).toBe(true);
     for (const w of out.wires) {
       expect(Object.keys(w)).toEqual(KEYS);

@@ -20,9 +20,10 @@ export interface CardLayout {
   sections: SectionName[];
   tally: { turns_per_box: number[]; max_boxes: number; group_size: number; box: number; gap: number; group_gap: number; label_size: number };
   tick_box: number;
-  blank: { height: number; min_width: number };
+  blank: { height: number };
   steps: { row_min_height: number; columns: { tick: number; coil: number; start: number; slots: number; finish: number } };
-  bench: { row_height: number; column_sets: number; even_tolerance: number; riser_rule: number; meter_resolution_ohm: number; four_wire_factor: number };
+  /** The bench sheet's look only: its tolerances live in src/bench/rules.ts, the one place `log` and `diagnose` take them from. */
+  bench: { row_height: number; column_sets: number };
   diagram: { emphasise_coils: number; label_every_min_pitch: number };
   curves: { charts: ("speed" | "current" | "efficiency" | "output")[]; height: number };
   candidates: { rows: number };

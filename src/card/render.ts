@@ -5,7 +5,7 @@
  * nothing: the CLI writes the returned bytes.
  */
 import type { Plan } from "../design/types.js";
-import { cardLayout, type Paper, type SectionName } from "./layout.js";
+import { cardLayout, type CardLayout, type Paper, type SectionName } from "./layout.js";
 import { Sheet, type CardContext } from "./sheet.js";
 import { jobPage } from "./pages/job.js";
 import { stepsPage } from "./pages/steps.js";
@@ -22,6 +22,8 @@ export interface CardOptions {
   version: string;
   /** Shop, bench, meter and spool from the shop profile. */
   context?: CardContext;
+  /** Layout data other than templates/card-layout.json (a shop trying a look; tests). */
+  layout?: CardLayout;
 }
 
 const BUILDERS: Record<SectionName, (s: Sheet, plan: Plan) => void> = {
@@ -36,7 +38,7 @@ const BUILDERS: Record<SectionName, (s: Sheet, plan: Plan) => void> = {
 };
 
 export async function renderCard(plan: Plan, opts: CardOptions): Promise<Buffer> {
-  const L = cardLayout();
+  const L = opts.layout ?? cardLayout();
   // the footer date also stamps the PDF, so the same plan and date give the same card
   const when = /^\d{4}-\d{2}-\d{2}$/.test(opts.date) ? new Date(`${opts.date}T00:00:00Z`) : new Date(0);
   const s = new Sheet(L, opts.paper, {

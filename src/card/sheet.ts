@@ -36,6 +36,35 @@ export interface TextStyle {
   lineGap?: number;
 }
 
+/** One line of a laid-out text: its characters and the options pdfkit's line wrapper gave it (width, alignment, measured width). */
+export interface TextLine {
+  text: string;
+  options: object;
+}
+
+/** A text laid out once (`Sheet.layout`): its lines, the height of each, and the whole height, pt. */
+export interface TextBlock {
+  readonly style: TextStyle;
+  readonly width: number;
+  readonly lines: readonly TextLine[];
+  /** Height of one line, pt: the font's line height plus the line gap. */
+  readonly step: number;
+  readonly height: number;
+}
+
+/**
+ * The two steps of pdfkit 0.20's `text()` the card calls apart (pdfkit's own names; not in its
+ * public API, so a test draws a block both ways and compares the page contents): `_text` runs the
+ * line wrapper and calls back once a line, `_fragment` writes one line at a place.
+ */
+interface PdfkitText {
+  x: number;
+  y: number;
+  currentLineHeight(includeGap?: boolean): number;
+  _text(text: string, x: number, y: number, options: object, line: (text: string, options: object) => void): unknown;
+  _fragment(text: string, x: number, y: number, options: object): void;
+}
+
 /** What the card knows besides the plan: the shop and bench (shop profile) and the bench meter. */
 export interface CardContext {
   shop?: string;
@@ -134,18 +163,53 @@ export class Sheet {
     return this.bottom - this.y;
   }
 
-  font(style: TextStyle = {}): PDFDocument {
+  /** Set the font and size of a style, and its colour unless `colour` is false (laying out needs no colour). */
+  font(style: TextStyle = {}, colour = true): PDFDocument {
     const d = this.doc;
     d.font(style.bold ? BOLD : REG).fontSize(style.size ?? this.L.type.body);
-    d.fillColor(style.grey ? grey(style.grey) : BLACK);
+    if (colour) d.fillColor(style.grey ? grey(style.grey) : BLACK);
     return d;
   }
 
-  /** Height a wrapped text takes at a width and style. */
-  measure(text: string, style: TextStyle = {}): number {
-    this.font(style);
+  /**
+   * Lay a text out once at a width and style: pdfkit's own line wrapper breaks it into lines (the
+   * same breaks `doc.text` would make), and the block keeps those lines and its height, so what is
+   * measured is what is drawn (`draw`), with no second wrapping pass. Long unbroken words are cut
+   * first (src/card/wrap.ts). The height is pdfkit's `heightOfString`: each line
+   * `currentLineHeight(true) + lineGap`.
+   */
+  layout(text: string, style: TextStyle = {}): TextBlock {
     const width = style.width ?? this.width;
-    return this.doc.heightOfString(this.breakable(text, width), { width, lineGap: style.lineGap ?? 1 });
+    const lineGap = style.lineGap ?? 1;
+    this.font(style, false);
+    const d = this.doc as unknown as PdfkitText;
+    const step = d.currentLineHeight(true) + lineGap;
+    const lines: TextLine[] = [];
+    const { x, y } = d;
+    // height: Infinity, as heightOfString does: laying out never opens a page
+    const options = { width, align: style.align ?? "left", lineGap, height: Infinity };
+    d._text(this.breakable(text, width), 0, 0, options, (line, opts) => {
+      lines.push({ text: line, options: { ...opts } });
+      d.y += step;
+    });
+    d.x = x;
+    d.y = y;
+    let height = 0;
+    for (let i = 0; i < lines.length; i++) height += step;
+    return { style, width, lines, step, height };
+  }
+
+  /** Draw a laid-out block with its top-left at (x, y): each line where `doc.text` would have put it. */
+  draw(block: TextBlock, x: number, y: number): void {
+    this.font(block.style);
+    const d = this.doc as unknown as PdfkitText;
+    let ly = y;
+    for (const line of block.lines) {
+      d._fragment(line.text, x, ly, line.options);
+      ly += block.step;
+    }
+    d.x = x;
+    d.y = ly;
   }
 
   /** Text whose long unbroken words are cut to `width` in the current font (linear cost: src/card/wrap.ts). */
@@ -154,30 +218,30 @@ export class Sheet {
   }
 
   widthOf(text: string, style: TextStyle = {}): number {
-    this.font(style);
+    this.font(style, false);
     return this.doc.widthOfString(text);
   }
 
-  /** Wrapped text at the running y (page break first when it does not fit); returns its height. */
-  para(text: string, style: TextStyle = {}): number {
+  /** Wrapped text (or a block laid out before) at the running y, page break first when it does not fit; returns its height. */
+  para(text: string | TextBlock, style: TextStyle = {}): number {
     const width = style.width ?? this.width - ((style.x ?? this.left) - this.left);
-    const h = this.measure(text, { ...style, width });
-    this.need(h);
-    this.font(style);
-    this.doc.text(this.breakable(text, width), style.x ?? this.left, this.y, { width, align: style.align ?? "left", lineGap: style.lineGap ?? 1 });
-    this.y += h + (style.after ?? (style.size ?? this.L.type.body) / 3);
-    return h;
+    const block = typeof text === "string" ? this.layout(text, { ...style, width }) : text;
+    this.need(block.height);
+    this.draw(block, style.x ?? this.left, this.y);
+    this.y += block.height + (style.after ?? (block.style.size ?? this.L.type.body) / 3);
+    return block.height;
   }
 
-  /** Text at a fixed place, no page logic, no wrapping unless a width is given. */
-  at(text: string, x: number, y: number, style: TextStyle = {}): void {
+  /** Text at a fixed place, no page logic; wrapped (laid out once) when a width is given, else one line. Returns its height. */
+  at(text: string, x: number, y: number, style: TextStyle = {}): number {
+    if (style.width !== undefined) {
+      const block = this.layout(text, style);
+      this.draw(block, x, y);
+      return block.height;
+    }
     this.font(style);
-    this.doc.text(style.width !== undefined ? this.breakable(text, style.width) : text, x, y, {
-      width: style.width,
-      align: style.align ?? "left",
-      lineBreak: style.width !== undefined,
-      lineGap: style.lineGap ?? 1,
-    });
+    this.doc.text(text, x, y, { align: style.align ?? "left", lineBreak: false, lineGap: style.lineGap ?? 1 });
+    return this.doc.currentLineHeight(true) + (style.lineGap ?? 1);
   }
 
   heading(text: string): void {
@@ -269,26 +333,26 @@ export class Sheet {
     const x0 = opts.x ?? this.left;
     const totalW = cols.reduce((a, c) => a + c.width, 0);
     const pad = 3;
-    const headH = Math.max(...cols.map((c) => this.measure(c.head, { size, bold: true, width: c.width - 2 * pad }))) + 2 * pad;
+    const cell = (text: string, i: number, bold: boolean | undefined) =>
+      this.layout(text, { size, bold, width: cols[i].width - 2 * pad, align: cols[i].align ?? "left" });
+    // every cell laid out once: its height places the row, its lines are what is drawn
+    const heads = cols.map((c, i) => cell(c.head, i, true));
+    const headH = Math.max(...heads.map((b) => b.height)) + 2 * pad;
     const drawHead = () => {
       this.doc.save().rect(x0, this.y, totalW, headH).fill(grey(this.L.grey.fill)).restore();
       let x = x0;
-      for (const c of cols) {
-        this.at(c.head, x + pad, this.y + pad, { size, bold: true, width: c.width - 2 * pad, align: c.align ?? "left" });
+      cols.forEach((c, i) => {
+        this.draw(heads[i], x + pad, this.y + pad);
         x += c.width;
-      }
+      });
       this.y += headH;
     };
-    const rowHeights = rows.map((r, ri) =>
-      Math.max(
-        opts.rowHeight ?? 0,
-        ...cols.map((c, i) => this.measure(r[i] ?? "", { size, bold: opts.boldRows?.has(ri) || opts.boldCols?.has(i), width: c.width - 2 * pad }) + 2 * pad),
-      ),
-    );
+    const cells = rows.map((r, ri) => cols.map((_, i) => cell(r[i] ?? "", i, opts.boldRows?.has(ri) || opts.boldCols?.has(i))));
+    const rowHeights = cells.map((r) => Math.max(opts.rowHeight ?? 0, ...r.map((b) => b.height + 2 * pad)));
     const whole = headH + rowHeights.reduce((a, b) => a + b, 0);
     this.need(opts.keepTogether && whole < this.bottom - this.top - 40 ? whole : headH + rowHeights.slice(0, 2).reduce((a, b) => a + b, 0));
     drawHead();
-    rows.forEach((r, ri) => {
+    cells.forEach((r, ri) => {
       const h = rowHeights[ri];
       if (this.y + h > this.bottom) {
         this.need(this.bottom); // forces a page
@@ -296,8 +360,7 @@ export class Sheet {
       }
       let x = x0;
       cols.forEach((c, i) => {
-        const bold = opts.boldRows?.has(ri) || opts.boldCols?.has(i);
-        this.at(r[i] ?? "", x + pad, this.y + pad, { size, bold, width: c.width - 2 * pad, align: c.align ?? "left" });
+        this.draw(r[i], x + pad, this.y + pad);
         x += c.width;
       });
       this.y += h;
@@ -325,10 +388,8 @@ export class Sheet {
       let cy = y;
       for (const [k, v] of items.slice(c * perCol, (c + 1) * perCol)) {
         const cx = x + c * colW;
-        const hv = this.measure(v, { size, width: colW - keyW - 6 });
-        const hk = this.measure(k, { size, width: keyW - 4 });
-        this.at(k, cx, cy, { size, grey: 0.3, width: keyW - 4 });
-        this.at(v, cx + keyW, cy, { size, width: colW - keyW - 6 });
+        const hk = this.at(k, cx, cy, { size, grey: 0.3, width: keyW - 4 });
+        const hv = this.at(v, cx + keyW, cy, { size, width: colW - keyW - 6 });
         cy += Math.max(hv, hk) + 2;
       }
       maxH = Math.max(maxH, cy - y);

@@ -78,7 +78,7 @@ export function cardCommand(yargs: Argv, io: Io, setStatus: (n: number) => void)
             curves = join(dir, `${stem}-curves.svg`);
             await writeAtomic(curves, drawingSvg(curvesDrawing(plan, { width: 720, height: 560, legend: true, size: 9 })));
           }
-          if (argv.json) io.out(JSON.stringify({ ok: true, card: file, curves, feasible: plan.feasible, plan: planJson(plan) }, null, 2));
+          if (argv.json) io.out(JSON.stringify({ ok: plan.feasible, errors: [], card: file, curves, feasible: plan.feasible, plan: planJson(plan) }, null, 2));
           else {
             io.out(`card written: ${shown}`);
             if (curves) io.out(`curves image: ${relative(io.cwd, curves) || curves}`);

@@ -99,7 +99,7 @@ export function historyCommand(yargs: Argv, io: Io, setStatus: (n: number) => vo
               );
           }
           if (argv.json) {
-            io.out(JSON.stringify({ ok: true, logbook: book.dir, records: rows, warnings: book.warnings }, null, 2));
+            io.out(JSON.stringify({ ok: true, errors: [], logbook: book.dir, records: rows, warnings: book.warnings }, null, 2));
           } else if (argv.csv) {
             io.out(historyCsv(rows));
           } else {

@@ -173,7 +173,7 @@ export function runNew(io: Io, opts: NewOptions): number {
   checkId(id);
   const { file, shown } = target(io, opts.output, `${id}.yaml`);
   writeNew(file, withSchemaRef(templateText(opts.style, id), dirname(file), "job.schema.json"), shown);
-  if (opts.json) io.out(JSON.stringify({ ok: true, file, id, style: opts.style }, null, 2));
+  if (opts.json) io.out(JSON.stringify({ ok: true, errors: [], file, id, style: opts.style }, null, 2));
   else {
     io.out(`job file written: ${shown} (${opts.style} winding, id ${id})`);
     io.out(`  every value in it is an example: replace them with your measurements, then run armwind check ${shown}`);
@@ -186,7 +186,7 @@ export function runNewShop(io: Io, opts: { output?: string; json?: boolean }): n
   const { file, shown } = target(io, opts.output, "armwind.yaml");
   const text = readFileSync(join(templatesDir(), "shop.yaml"), "utf8");
   writeNew(file, withSchemaRef(text, dirname(file), "shop.schema.json"), shown);
-  if (opts.json) io.out(JSON.stringify({ ok: true, file }, null, 2));
+  if (opts.json) io.out(JSON.stringify({ ok: true, errors: [], file }, null, 2));
   else {
     io.out(`shop profile written: ${shown}`);
     io.out(`  every value in it is an example: set your shop, bench, shelf and logbook; commands run in this folder or below it use it`);
@@ -208,7 +208,7 @@ export async function runNewMeasured(
   const date = today(io);
   const { file, shown } = target(io, opts.output, `${plan.job.id}-measured-${date}.yaml`);
   writeNew(file, measuredTemplate(plan, date, schemaRef(dirname(file), "measured.schema.json"), loadShop(io)?.shop.meter_resolution), shown);
-  if (opts.json) io.out(JSON.stringify({ ok: true, file, job: plan.job.id }, null, 2));
+  if (opts.json) io.out(JSON.stringify({ ok: true, errors: [], file, job: plan.job.id }, null, 2));
   else {
     io.out(`measured file written: ${shown} (job ${plan.job.id}, ${plan.layout.bars} bar-to-bar readings to fill in)`);
     io.out(`  fill in every ~, then run armwind log ${where.file ?? job} --measured ${shown}`);

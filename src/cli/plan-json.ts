@@ -313,7 +313,9 @@ export function planJson(plan: Plan) {
   const { kind } = supplyOf(plan.job);
   const series = plan.job.armature.field === "series";
   return {
-    ok: true,
+    // ok exactly when the exit status is 0 (docs/contracts.md): a plan that meets no goal exits 2
+    ok: plan.feasible,
+    errors: [] as never[],
     job_id: plan.job.id,
     title: plan.job.title,
     feasible: plan.feasible,

@@ -60,7 +60,7 @@ export function planCommand(yargs: Argv, io: Io, setStatus: (n: number) => void)
           await guarded(io, argv.json, (where) => {
             const plan = planFromFile(io, argv.job, where, { logbook: argv.logbook, learn: argv.learn });
             if (argv.json) {
-              io.out(JSON.stringify({ ok: true, job_id: plan.job.id, feasible: plan.feasible, warnings: plan.warnings }, null, 2));
+              io.out(JSON.stringify({ ok: plan.feasible, errors: [], job_id: plan.job.id, feasible: plan.feasible, warnings: plan.warnings }, null, 2));
             } else {
               io.out(
                 `${where.file}: ${plan.job.id} is a valid job file; ${plan.feasible ? "a winding meets the goal" : "no winding meets the goal within the limits"}.`,

@@ -126,7 +126,7 @@ export function runWires(args: WiresArgs): WiresResult {
 
   const entries = catalogue(filter);
   if (args.json) {
-    return { stdout: JSON.stringify({ ok: true, wires: entries.map(toJson) }, null, 2) + "\n", stderr: "", status: 0 };
+    return { stdout: JSON.stringify({ ok: true, errors: [], wires: entries.map(toJson) }, null, 2) + "\n", stderr: "", status: 0 };
   }
   return { stdout: table(entries, filter), stderr: "", status: 0 };
 }

@@ -4,7 +4,7 @@
  * checks, and the sign-off blanks.
  */
 import type { Plan } from "../../design/types.js";
-import type { Sheet } from "../sheet.js";
+import type { Sheet, TextBlock } from "../sheet.js";
 import { ohm, rpm, sig } from "../text.js";
 import { seriesBenchChecks } from "./series.js";
 import {
@@ -59,8 +59,7 @@ export function benchPage(s: Sheet, plan: Plan): void {
   s.framed(
     (x, y, w) => {
       const text = advice ? `${advice} ${NULL_LEADS}` : NULL_LEADS;
-      s.at(text, x, y, { size: T.body, bold: true, width: w });
-      return s.measure(text, { size: T.body, bold: true, width: w });
+      return s.at(text, x, y, { size: T.body, bold: true, width: w });
     },
     { heavy: advice !== null, estimate: advice ? 40 : 14 },
   );
@@ -127,16 +126,15 @@ export function benchPage(s: Sheet, plan: Plan): void {
 
   // each group of checks is measured whole and kept together with its heading and its sign-off
   type Check = [title: string, body: string, blanks: [string, string, number][]];
-  const checkHeight = ([, body, blanks]: Check) =>
-    T.subheading * 1.5 + s.measure(body, { size: T.body, width: s.width - 24 }) + 4 + (blanks.length ? s.L.blank.height + 10 : 4);
-  const check = ([title, body, blanks]: Check) => {
-    const bh = s.measure(body, { size: T.body, width: s.width - 24 });
+  type Laid = [title: string, body: TextBlock, blanks: [string, string, number][]];
+  const checkHeight = ([, body, blanks]: Laid) => T.subheading * 1.5 + body.height + 4 + (blanks.length ? s.L.blank.height + 10 : 4);
+  const check = ([title, body, blanks]: Laid) => {
     s.need(checkHeight([title, body, blanks]));
     s.tickBox(s.left, s.y + 1, s.L.tick_box, true);
     s.at(title, s.left + 24, s.y + 2, { size: T.subheading, bold: true });
     s.y += T.subheading * 1.5;
-    s.at(body, s.left + 24, s.y, { size: T.body, width: s.width - 24 });
-    s.y += bh + 4;
+    s.draw(body, s.left + 24, s.y);
+    s.y += body.height + 4;
     let x = s.left + 24;
     for (const [label, unit, w] of blanks) {
       s.blank(x, s.y, w, label, unit);
@@ -153,7 +151,8 @@ export function benchPage(s: Sheet, plan: Plan): void {
     s.blank(s.left + 380, ys, s.width - 380, "date", "");
     s.y += s.L.blank.height + 8;
   };
-  const group = (heading: string, checks: Check[], sign: string) => {
+  const group = (heading: string, written: Check[], sign: string) => {
+    const checks = written.map(([title, body, blanks]): Laid => [title, s.layout(body, { size: T.body, width: s.width - 24 }), blanks]);
     const whole = T.subheading * 1.65 + 40 + checks.reduce((a, c) => a + checkHeight(c), 0) + s.L.blank.height + 14;
     // the whole group on one page when a page can hold it; else at least the heading with its first check
     s.need(whole <= s.bottom - s.top - 40 ? whole : T.subheading * 1.65 + 40 + checkHeight(checks[0]));

@@ -60,9 +60,10 @@ export function cautionsPage(s: Sheet, plan: Plan): void {
   s.startSection("Cautions", { share: 0.25 });
   for (const [title, text] of cautions(plan)) {
     const mark = title.startsWith("Mains") || title.startsWith("Series") ? "▲ " : "";
-    s.need(s.measure(text, { size: T.body + 0.5 }) + T.subheading * 1.6);
+    const body = s.layout(text, { size: T.body + 0.5 });
+    s.need(body.height + T.subheading * 1.6);
     s.para(`${mark}${title}`, { size: T.subheading, bold: true, after: 2 });
-    s.para(text, { size: T.body + 0.5, after: 7 });
+    s.para(body, { size: T.body + 0.5, after: 7 });
   }
   s.subheading("Finishing");
   for (const item of FINISHING) {

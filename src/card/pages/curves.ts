@@ -23,8 +23,7 @@ export function curvesPage(s: Sheet, plan: Plan): void {
           plan.job.armature.field === "series"
             ? "Its field current is its armature current, so its curves need the field: give field_winding (the field's resistance, and on AC its inductance or a locked-rotor reading) with a no-load test or the nameplate. Never run it unloaded; judge the rewind by the bench checks and a brief run under load. The armature figures on page 1 (resistances, Ke scaling with turns) still hold."
             : "Without a generator test, a no-load test, a nameplate, logbook records or magnet data the motor constant is unknown; the card shows resistances and the cut list only.";
-        s.at(text, x, y + 22, { size: T.body + 1, width: w });
-        return 22 + s.measure(text, { size: T.body + 1, width: w });
+        return 22 + s.at(text, x, y + 22, { size: T.body + 1, width: w });
       },
       { heavy: true, estimate: 90 },
     );

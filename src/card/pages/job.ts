@@ -4,6 +4,7 @@ import type { MotorReport, Plan } from "../../design/types.js";
 import type { Sheet } from "../sheet.js";
 import { calibrationText, fieldText, goalName, goalSummary, mltSourceText, mm, ohm, pct, rpm, sig, strandsText, torqueUnit, wireSizes } from "../text.js";
 import { seriesMotorRows, supplyText } from "./series.js";
+import { spoolMassNeeded } from "../../shop/merge.js";
 
 export function jobPage(s: Sheet, plan: Plan): void {
   const j = plan.job;
@@ -23,12 +24,10 @@ export function jobPage(s: Sheet, plan: Plan): void {
   if (!plan.feasible) {
     s.framed(
       (x, y, w) => {
-        const h1 = s.measure("CLOSEST WINDING — DOES NOT MEET THE GOAL", { size: 15, bold: true, width: w });
-        s.at("CLOSEST WINDING — DOES NOT MEET THE GOAL", x, y, { size: 15, bold: true, width: w });
+        const h1 = s.at("CLOSEST WINDING — DOES NOT MEET THE GOAL", x, y, { size: 15, bold: true, width: w });
         const why = plan.binding ?? "no candidate within the limits reaches the goal";
         const text = `${why.charAt(0).toUpperCase()}${why.slice(1)}. Goal ${goalName(plan)}: ${goalSummary(plan.goal)}. Decide with the customer before winding.`;
-        const h2 = s.measure(text, { size: T.body, width: w });
-        s.at(text, x, y + h1 + 3, { size: T.body, width: w });
+        const h2 = s.at(text, x, y + h1 + 3, { size: T.body, width: w });
         return h1 + 3 + h2;
       },
       { heavy: true, estimate: 60 },
@@ -57,8 +56,7 @@ export function jobPage(s: Sheet, plan: Plan): void {
         `Goal ${goalName(plan)}: ${goalSummary(plan.goal)}.`,
       ];
       for (const l of lines) {
-        const h = s.measure(l, { size: T.body + 1, width: w });
-        s.at(l, x, cy, { size: T.body + 1, width: w });
+        const h = s.at(l, x, cy, { size: T.body + 1, width: w });
         cy += h + 2;
       }
       return cy - y;
@@ -71,13 +69,11 @@ export function jobPage(s: Sheet, plan: Plan): void {
     s.framed(
       (x, y, w) => {
         const head = `COPY FROM THE OLD WINDING — LEAD THROW ${String(sp.lead_throw).replace("-", "−")} BAR${Math.abs(sp.lead_throw) === 1 ? "" : "S"}`;
-        s.at(head, x, y, { size: T.subheading + 1, bold: true, width: w });
-        const hh = s.measure(head, { size: T.subheading + 1, bold: true, width: w });
+        const hh = s.at(head, x, y, { size: T.subheading + 1, bold: true, width: w });
         const text =
           `Bar 1 sits ${String(sp.lead_throw).replace("-", "−")} bar${Math.abs(sp.lead_throw) === 1 ? "" : "s"} clockwise (seen from the commutator end; negative = anticlockwise) from the bar on coil 1's centre line, midway between its slots ${plan.coils[0].go_slot} and ${plan.coils[0].return_slot}. ` +
           `It sets the brush neutral: copy it from the old armature (slots and bars marked before stripping), never guess it. A wrong lead throw reads normal bar to bar but sparks and runs poorly.`;
-        const h = s.measure(text, { size: T.body, width: w });
-        s.at(text, x, y + hh + 3, { size: T.body, width: w });
+        const h = s.at(text, x, y + hh + 3, { size: T.body, width: w });
         return hh + 3 + h;
       },
       { heavy: false, estimate: 60 },
@@ -116,33 +112,7 @@ export function jobPage(s: Sheet, plan: Plan): void {
   const h2 = s.pairs(win, s.left + s.width / 2 + 8, s.y, s.width / 2 - 8, { keyWidth: 92 });
   s.y += Math.max(h1, h2) + 6;
 
-  // cut list
-  s.subheading("Cut list", "strands counted together unless said");
-  const w = plan.wire;
-  const cut: [string, string][] = [
-    ["mean turn length", `${mm(w.mlt)} mm — ${mltSourceText[w.mlt_source] ?? w.mlt_source}`],
-    ["one coil", `${sig(w.per_coil)} m`],
-    ["whole winding", `${sig(w.winding)} m`],
-    ["leads", `${sig(w.leads)} m (${mm(w.lead_allowance)} mm per coil end)`],
-    ["spare margin", pct(w.spare_margin)],
-    ["copper mass", `${sig(w.copper_mass * 1e3)} g`],
-  ];
-  s.need(110);
-  const hc = s.pairs(cut, s.left, s.y, s.width * 0.58, { keyWidth: 100 });
-  const cx = s.left + s.width * 0.6;
-  const cw = s.width * 0.4;
-  s.doc
-    .save()
-    .lineWidth(s.L.line_width.heavy)
-    .rect(cx, s.y - 2, cw, hc + 2)
-    .stroke()
-    .restore();
-  s.at("CUT", cx + 8, s.y + 4, { size: T.label, bold: true });
-  s.at(`${sig(w.cut)} m`, cx + 8, s.y + 4 + T.label * 1.3, { size: T.hero * 0.85, bold: true });
-  if (d.strands > 1)
-    s.at(`${sig(w.cut_per_strand)} m from each of ${d.strands} spools`, cx + 8, s.y + 8 + T.label * 1.3 + T.hero, { size: T.body, bold: true, width: cw - 16 });
-  else s.at("leads and spare included", cx + 8, s.y + 8 + T.label * 1.3 + T.hero, { size: T.body, width: cw - 16 });
-  s.y += hc + 8;
+  cutList(s, plan);
 
   // expected results
   s.subheading("Expected results");
@@ -240,4 +210,64 @@ function motorTable(s: Sheet, plan: Plan): void {
     { size: s.L.type.table + 0.5, boldCols: new Set([2]), keepTogether: true },
   );
   if (kvRows(plan).length) s.para(KV_DEFINITIONS, { size: s.L.type.body - 0.5 });
+}
+
+/**
+ * The cut list: the wire's lengths (mean turn length, one coil, the whole winding, leads, spare
+ * margin) and its copper mass, beside the figure to take to the spool in large type. Cut coil by
+ * coil, that figure is the cut (m); a continuous winding (`winding.continuous: true`) is wound off
+ * the spool with no cut per coil, so the box gives the length to wind off and the spool mass to
+ * have, copper plus enamel (src/shop/merge.ts `spoolMassNeeded`).
+ */
+function cutList(s: Sheet, plan: Plan): void {
+  const T = s.L.type;
+  const d = plan.design;
+  const w = plan.wire;
+  const continuous = plan.job.winding.continuous === true;
+  s.subheading(
+    continuous ? "Wire off the spool" : "Cut list",
+    continuous ? "one wire through all the coils, no cut per coil" : "strands counted together unless said",
+  );
+  const need = spoolMassNeeded(plan);
+  const rows: [string, string][] = [
+    ["mean turn length", `${mm(w.mlt)} mm — ${mltSourceText[w.mlt_source] ?? w.mlt_source}`],
+    [continuous ? "in each coil" : "one coil", `${sig(w.per_coil)} m`],
+    ["whole winding", `${sig(w.winding)} m`],
+    [continuous ? "loops to the bars" : "leads", `${sig(w.leads)} m (${mm(w.lead_allowance)} mm per coil end)`],
+    ["spare margin", pct(w.spare_margin)],
+    ["copper mass", `${sig(w.copper_mass * 1e3)} g`],
+  ];
+  if (continuous) rows.push(["with its enamel", `${sig(need * 1e3)} g`]);
+  s.need(continuous ? 130 : 110);
+  const hc = s.pairs(rows, s.left, s.y, s.width * 0.58, { keyWidth: 100 });
+  const cx = s.left + s.width * 0.6;
+  const cw = s.width * 0.4;
+  const big = T.hero * 0.85;
+  const lines: [string, number, boolean][] = continuous
+    ? [
+        ["WIND OFF THE SPOOL", T.label, true],
+        [`${sig(w.cut)} m`, big, true],
+        [
+          `have ${sig(need * 1e3)} g on the spool (copper and enamel)${d.strands > 1 ? `: ${sig(w.cut_per_strand)} m from each of ${d.strands} spools` : ""}`,
+          T.body,
+          true,
+        ],
+      ]
+    : [
+        ["CUT", T.label, true],
+        [`${sig(w.cut)} m`, big, true],
+        d.strands > 1 ? [`${sig(w.cut_per_strand)} m from each of ${d.strands} spools`, T.body, true] : ["leads and spare included", T.body, false],
+      ];
+  let y = s.y + 4;
+  for (const [text, size, bold] of lines) {
+    y += s.at(text, cx + 8, y, { size, bold, width: cw - 16 }) + (size === big ? 0 : 2);
+  }
+  const boxH = Math.max(hc + 2, y - s.y + 4);
+  s.doc
+    .save()
+    .lineWidth(s.L.line_width.heavy)
+    .rect(cx, s.y - 2, cw, boxH)
+    .stroke()
+    .restore();
+  s.y += Math.max(hc, boxH - 2) + 8;
 }

@@ -63,14 +63,15 @@ export function orderSteps(plan: Plan, spoolMass?: number): [string, string][] {
 export function orderPage(s: Sheet, plan: Plan): void {
   const T = s.L.type;
   const steps = orderSteps(plan, s.context.spoolMass);
-  const heights = steps.map(([, body]) => T.subheading * 1.45 + s.measure(body, { size: T.body, width: s.width - 28 }) + 8);
+  const bodies = steps.map(([, body]) => s.layout(body, { size: T.body, width: s.width - 28 }));
+  const heights = bodies.map((b) => T.subheading * 1.45 + b.height + 8);
   s.startSection("Order of work", { needed: heights.reduce((a, b) => a + b, 0) + 10 });
-  steps.forEach(([title, body], i) => {
+  steps.forEach(([title], i) => {
     s.need(heights[i]);
     s.tickBox(s.left, s.y + 1, s.L.tick_box, true);
     s.at(`${i + 1}. ${title}`, s.left + 28, s.y + 2, { size: T.subheading, bold: true, width: s.width - 28 });
     s.y += T.subheading * 1.45;
-    s.at(body, s.left + 28, s.y, { size: T.body, width: s.width - 28 });
+    s.draw(bodies[i], s.left + 28, s.y);
     s.y += heights[i] - T.subheading * 1.45;
   });
 }

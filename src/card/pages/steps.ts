@@ -1,7 +1,7 @@
 /** Page 2, coil by coil in winding order: hook, go slot → return slot, turns with tally boxes, finish hook, a tick per coil. */
 import type { CoilPlan, Plan } from "../../design/types.js";
 import { tallyBoxes, tallyGroups, type CardLayout, type TallyBox } from "../layout.js";
-import type { Sheet } from "../sheet.js";
+import type { Sheet, TextBlock } from "../sheet.js";
 import { DEAD_COIL, isDead, sideText } from "../text.js";
 import { viewingConvention } from "../../winding/layout.js";
 
@@ -25,26 +25,25 @@ function routeLines(plan: Plan, c: CoilPlan): [string, string] {
 }
 
 interface RowText {
-  main: string;
-  detail: string;
-  mainH: number;
+  /** The route in large type and its detail below, or the dead coil's line; laid out once. */
+  main: TextBlock;
+  detail?: TextBlock;
   /** Height of the route text (main and detail, or the dead coil's line), pt. */
   height: number;
-  dead?: string;
+  dead: boolean;
 }
 
-/** A coil row's text, measured at the widths it will be drawn at. */
+/** A coil row's text, laid out at the widths it will be drawn at. */
 function coilRow(s: Sheet, plan: Plan, c: CoilPlan, width: number, deadWidth: number): RowText {
   const T = s.L.type;
   if (isDead(c)) {
-    const dead = `${coilRoute(plan, c)} — ${DEAD_COIL}`;
-    const h = s.measure(dead, { size: T.step - 1, bold: true, width: deadWidth });
-    return { main: "", detail: "", mainH: h, height: h, dead };
+    const main = s.layout(`${coilRoute(plan, c)} — ${DEAD_COIL}`, { size: T.step - 1, bold: true, width: deadWidth });
+    return { main, height: main.height, dead: true };
   }
-  const [main, detail] = routeLines(plan, c);
-  const mainH = s.measure(main, { size: T.step, bold: true, width });
-  const detailH = detail ? s.measure(detail, { size: T.step - 3, width }) + 1 : 0;
-  return { main, detail, mainH, height: mainH + detailH };
+  const [route, more] = routeLines(plan, c);
+  const main = s.layout(route, { size: T.step, bold: true, width });
+  const detail = more ? s.layout(more, { size: T.step - 3, width }) : undefined;
+  return { main, detail, height: main.height + (detail ? detail.height + 1 : 0), dead: false };
 }
 
 interface TallyGeometry {
@@ -90,7 +89,11 @@ export function stepsPage(s: Sheet, plan: Plan): void {
     sp.style === "tooth"
       ? `Wind in this order. Hook the start on the start bar, wind the turns ${sp.direction === "cw" ? "clockwise" : "anticlockwise"} round the tooth (looking at the tooth tip from outside), going in at the first slot and back through the second; hook the finish on the finish bar. Tick a tally box each time the count reaches the number under it, and the coil's box when it is hooked.`
       : `Wind in this order. Hook the start on the start bar, lay the go side in the first slot (top layer) and the return side in the second (bottom layer), ${sp.coils_per_slot > 1 ? "at the position given when a slot holds several coils, " : ""}and hook the finish on the finish bar. Tick a tally box each time the count reaches the number under it, and the coil's box when it is hooked. Lead throw ${String(sp.lead_throw).replace("-", "−")} bars, copied from the old winding.`;
-  s.para(`${intro} ${viewingConvention(plan.layout)}`, { size: T.body });
+  const continuous =
+    plan.job.winding.continuous === true
+      ? " Continuous winding, off the spool: do not cut at a finish bar — loop the wire round its hook and carry straight on into the next coil, whose start is that bar; cut only after the last coil."
+      : "";
+  s.para(`${intro}${continuous} ${viewingConvention(plan.layout)}`, { size: T.body });
   s.para(
     `${plan.design.turns} turns per coil of ${plan.design.wire.label}${plan.design.strands > 1 ? `, ${plan.design.strands} strands in hand (count a turn of all strands as one)` : ""}.`,
     { size: T.body + 1, bold: true },
@@ -148,12 +151,12 @@ export function stepsPage(s: Sheet, plan: Plan): void {
     s.tickBox(x.tick + 2, mid - s.L.tick_box / 2, s.L.tick_box, true);
     s.at(String(c.index), x.coil, mid - T.step * 0.6, { size: T.step + 2, bold: true });
     const ty = y + (rowH - text.height) / 2;
-    if (text.dead !== undefined) {
-      s.at(text.dead, x.start, ty, { size: T.step - 1, bold: true, width: x.tally - x.start - 6 });
+    if (text.dead) {
+      s.draw(text.main, x.start, ty);
     } else {
       s.at(String(c.start_bar), x.start + 4, mid - T.step * 0.6, { size: T.step + 2, bold: true });
-      s.at(text.main, x.slots, ty, { size: T.step, bold: true, width: cw.slots - 4 });
-      if (text.detail) s.at(text.detail, x.slots, ty + text.mainH + 1, { size: T.step - 3, width: cw.slots - 4 });
+      s.draw(text.main, x.slots, ty);
+      if (text.detail) s.draw(text.detail, x.slots, ty + text.main.height + 1);
       s.at(String(c.end_bar), x.finish + 4, mid - T.step * 0.6, { size: T.step + 2, bold: true });
     }
     drawTally(s, tally, x.tally, y + (rowH - tally.height) / 2);
