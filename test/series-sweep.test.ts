@@ -15,7 +15,8 @@ import { buildContext } from "../src/design/context.js";
 import { calibrateOriginal } from "../src/design/calibration.js";
 import { evaluateWinding, makeEvaluator } from "../src/design/evaluate.js";
 import { planJob } from "../src/design/plan.js";
-import { ROOT, loadJobText } from "./helpers/cli.js";
+import { sig } from "../src/format/number.js";
+import { ROOT, loadJobText, runMain } from "./helpers/cli.js";
 
 const drillText = readFileSync(join(ROOT, "jobs/drill-lap-0112.yaml"), "utf8");
 const RPM = (2 * Math.PI) / 60;
@@ -126,5 +127,44 @@ describe("goal convert is solved by the sweep: the original's rated speed at its
     // about 120/230 of the turns (a little fewer: the 2 V brush drop is a larger share of 120 V)
     expect(plan.design.turns).toBeGreaterThanOrEqual(14);
     expect(plan.design.turns).toBeLessThanOrEqual(16);
+  });
+});
+
+describe("the terminal plan text has a series block: original against new, '—' for unknowns, no stall figure at mains", () => {
+  it("the drill demo: k, the rated-load point, efficiency and the locked-rotor current at the reduced voltage", async () => {
+    const r = await runMain(["plan", join(ROOT, "jobs/drill-lap-0112.yaml")]);
+    expect(r.status).toBe(0);
+    const plan = planJob(loadJobText(drillText));
+    const sp = plan.series!;
+    const block = r.stdout.slice(r.stdout.indexOf("Series motor at 230 V 50 Hz AC"), r.stdout.indexOf("Candidates:"));
+    expect(block).toMatch(/the rated torque from the nameplate/);
+    // the same numbers as the plan, as the card prints them (3 significant figures)
+    expect(block).toMatch(new RegExp(`k \\(series field\\), mV·s/\\(A·rad\\) +${sig(sp.original.k! * 1e3)} +${sig(sp.rewound.k! * 1e3)}`));
+    expect(block).toMatch(new RegExp(`at rated load ${sig(sp.ratedTorque! * 1e3)} mN·m: speed, rpm`));
+    expect(block).toMatch(new RegExp(`current, A +${sig(sp.original.rated!.current)} +${sig(sp.rewound.rated!.current)}`));
+    expect(block).toMatch(/efficiency +\d+\.\d %/);
+    expect(block).toMatch(
+      new RegExp(`locked rotor at 40 V 50 Hz AC, cold, A +${sig(sp.original.lockedRotorCurrent!)} +${sig(sp.rewound.lockedRotorCurrent!)}`),
+    );
+    expect(block).toMatch(/locked-rotor check at 40 V 50 Hz AC, never at mains/);
+    expect(r.stdout).not.toMatch(/stall current|stall torque|no-load speed rpm/);
+  });
+
+  it("a series job with its field but nothing running: k and the rated point are '—', the locked-rotor check stays", async () => {
+    const text = drillText.replace(/  nameplate: .*\n/, "").replace(/  tests:\n(    - .*\n)+/, "");
+    const r = await runMain(["plan", "-"], { input: text });
+    expect(r.status).toBe(0);
+    expect(r.stdout).toMatch(/the rated torque not known/);
+    expect(r.stdout).toMatch(/k \(series field\), mV·s\/\(A·rad\) +— +—/);
+    expect(r.stdout).toMatch(/rated load \(not known\): speed, rpm +— +—/);
+    expect(r.stdout).toMatch(/locked rotor at 40 V 50 Hz AC, cold, A +\d/);
+    expect(r.stdout).not.toMatch(/stall current/);
+  });
+
+  it("a series job with no field_winding: no running figures, and says why", async () => {
+    const r = await runMain(["plan", "-"], { input: drillText.replace(/field_winding:[\s\S]*?turns_per_pole: 110\n/, "") });
+    expect(r.status).toBe(0);
+    expect(r.stdout).toMatch(/Series motor at 230 V AC: no running figures \(the job does not describe the field: field_winding\)/);
+    expect(r.stdout).not.toMatch(/stall current/);
   });
 });
