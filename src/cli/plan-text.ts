@@ -122,7 +122,10 @@ function seriesMotorText(plan: Plan, L: string[]): void {
 
 /** The original and the new motor side by side (rpm, A, mN·m, W), and at the duty point. */
 function motorText(plan: Plan, L: string[]): void {
-  if (plan.job.armature.field === "series") return seriesMotorText(plan, L);
+  if (plan.job.armature.field === "series") {
+    seriesMotorText(plan, L);
+    return;
+  }
   L.push("");
   L.push(
     `Motor at ${sig(plan.supply)} V ${plan.supply_kind.toUpperCase()} (Ke from ${plan.calibration.source.replace(/_/g, "-")}${plan.calibration.uncertainty !== null ? `, ±${sig(plan.calibration.uncertainty * 100, 2)} %` : ""})`,
