@@ -25,11 +25,12 @@ import { recordSchema, type LogRecord } from "../logbook/record.js";
 import { diagnose, type Diagnosis } from "../winding/diagnose.js";
 import { DEFAULT_METER_RESOLUTION_OHM, isOpenText, readingName, turnLengthCalibrated } from "../bench/rules.js";
 import { to20C } from "../wire/copper.js";
-import { ohm, sig, table } from "./format.js";
+import { ohm, sig, signedPct, table } from "./format.js";
 import type { Job } from "../job/schema.js";
 import type { WindingSpec } from "../winding/types.js";
 import { z } from "zod";
 import { withJob, withLogbook } from "./options.js";
+import { COMMAND_TEXT } from "./commands.js";
 
 export interface DiagnoseInput {
   /** Readings r1 … rC as read, Ω; Infinity for OL/open. */
@@ -172,8 +173,6 @@ export function diagnoseJson(job: { id: string }, input: DiagnoseInput, d: Diagn
     warnings: d.warnings,
   };
 }
-
-const signedPct = (x: number) => `${x >= 0 ? "+" : "−"}${sig(Math.abs(x) * 100)} %`;
 
 export function diagnoseText(job: { id: string }, input: DiagnoseInput, d: Diagnosis): string {
   const L: string[] = [];
@@ -321,8 +320,8 @@ function parseResolution(text: string): number {
 
 export function diagnoseCommand(yargs: Argv, io: Io, setStatus: (n: number) => void) {
   return yargs.command(
-    "diagnose <job>",
-    "Judge the bar-to-bar readings by the bench rules, solve them for each coil's resistance and name the coils behind each failing reading (exit 4 when one fails)",
+    COMMAND_TEXT.diagnose.command,
+    COMMAND_TEXT.diagnose.describe,
     (y) =>
       withLogbook(
         withJob(y, "job file (YAML), or a layout-only job (version, id, armature, winding)"),
