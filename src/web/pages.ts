@@ -124,7 +124,7 @@ function benchPage(ctx: Context, rel: string): Res {
 <div class="row"><label>terminal resistance <input name="terminal_resistance" placeholder="1.57 ohm"></label></div>
 <div class="row"><label>no-load supply <input name="nl_supply" placeholder="12 V"></label><label>current <input name="nl_current" placeholder="0.17 A"></label><label>speed <input name="nl_speed" placeholder="9650 rpm"></label></div>
 <div class="row"><label>notes <input name="notes"></label></div></fieldset>
-<div class="save-row"><button type="submit" id="log">Log this rewind</button><span id="log-status" role="status"></span></div>
+<div class="save-row"><button type="submit" id="log">Log this rewind</button><span id="log-status" role="status"></span></div><div id="log-result"></div>
 </form></section>
 <section class="diagram-col"><div id="verdict" aria-live="polite"></div><div id="diagram"></div></section></div>`;
   return html(200, layout(`Readings ${id}`, main, "bench", { file: f.rel, id }));
