@@ -84,7 +84,8 @@ export function runJobText(text: string): Outcome {
       if (!/^[a-z][a-z0-9_]*$/.test(w.code) || /[\r\n]/.test(w.message) || w.message.trim() === "") throw new Error(`bad warning ${JSON.stringify(w)}`);
     }
     const json = JSON.stringify(planJson(plan));
-    if (!json.startsWith('{"ok":true')) throw new Error("plan JSON does not start with ok:true");
+    // ok exactly when the plan exits 0, that is when a winding meets the goal (docs/contracts.md "--json output")
+    if (!json.startsWith(`{"ok":${plan.feasible},"errors":[]`)) throw new Error("plan JSON does not start with ok (= feasible) and errors: []");
     planText(plan);
     return { kind: "planned", plan };
   } catch (e) {

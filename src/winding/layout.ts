@@ -41,8 +41,25 @@ function nearestMultiples(n: number, m: number): string {
   return lo >= m ? `${lo} or ${hi}` : `${hi}`;
 }
 
+/**
+ * Refuse a winding spec that no coil table can follow, each problem one located line naming what
+ * would be right: the counts and words every style shares, then the style's own rules (tooth,
+ * lap, wave: their bar counts, spans and pitches).
+ */
 function checkSpec(spec: WindingSpec): void {
-  const { style, slots: S, bars: C, poles: P, span, coils_per_slot: u } = spec;
+  checkCommon(spec);
+  if (spec.style === "tooth") {
+    checkTooth(spec);
+  } else {
+    checkSpan(spec);
+    if (spec.style === "lap") checkLap(spec);
+    else checkWave(spec);
+  }
+}
+
+/** Style, counts, poles in pairs, progression, direction, lead throw, brushes, a dead coil only on a wave. */
+function checkCommon(spec: WindingSpec): void {
+  const { style, slots: S, bars: C, poles: P, coils_per_slot: u } = spec;
   if (style !== "tooth" && style !== "lap" && style !== "wave") {
     throw inputError("style_unknown", "winding.style", `winding style '${String(style)}' is not known; use tooth, lap or wave`);
   }
@@ -80,28 +97,32 @@ function checkSpec(spec: WindingSpec): void {
   if (spec.dead_coil && style !== "wave") {
     throw inputError("dead_coil_not_wave", "winding.dead_coil", `a dead coil belongs to wave windings only; set dead_coil: false for a ${style} winding`);
   }
+}
 
-  if (style === "tooth") {
-    if (span !== 1) throw inputError("span_invalid", "winding.span", `a tooth coil spans one tooth: span must be 1 (got ${span})`);
-    if (u !== 1)
-      throw inputError("coils_per_slot_invalid", "winding.coils_per_slot", `a tooth winding has one coil per tooth: coils_per_slot must be 1 (got ${u})`);
-    if (C !== S) {
-      throw inputError("bars_mismatch", "armature.bars", `a tooth winding has one bar per tooth: bars must equal slots (${S}), got ${C}`);
-    }
-    if (P > S) {
-      // a tooth then spans more than a pole pitch: a coil's two sides lie under poles of the same
-      // polarity and partly cancel, and brushes a pole pitch apart would meet on one bar
-      const fit = P - 2 * Math.ceil((P - S) / 2);
-      throw inputError(
-        "poles_invalid",
-        "armature.field_poles",
-        `a tooth winding needs at least as many teeth as field poles: ${P} poles on ${S} teeth put each coil across more than a pole pitch, where its sides cancel; count the stator's poles again (at most ${fit} here) or the slots`,
-      );
-    }
-    return;
+/** A tooth winding: one coil per tooth spanning one tooth, a bar per tooth, no more poles than teeth. */
+function checkTooth(spec: WindingSpec): void {
+  const { slots: S, bars: C, poles: P, span, coils_per_slot: u } = spec;
+  if (span !== 1) throw inputError("span_invalid", "winding.span", `a tooth coil spans one tooth: span must be 1 (got ${span})`);
+  if (u !== 1)
+    throw inputError("coils_per_slot_invalid", "winding.coils_per_slot", `a tooth winding has one coil per tooth: coils_per_slot must be 1 (got ${u})`);
+  if (C !== S) {
+    throw inputError("bars_mismatch", "armature.bars", `a tooth winding has one bar per tooth: bars must equal slots (${S}), got ${C}`);
   }
+  if (P > S) {
+    // a tooth then spans more than a pole pitch: a coil's two sides lie under poles of the same
+    // polarity and partly cancel, and brushes a pole pitch apart would meet on one bar
+    const fit = P - 2 * Math.ceil((P - S) / 2);
+    throw inputError(
+      "poles_invalid",
+      "armature.field_poles",
+      `a tooth winding needs at least as many teeth as field poles: ${P} poles on ${S} teeth put each coil across more than a pole pitch, where its sides cancel; count the stator's poles again (at most ${fit} here) or the slots`,
+    );
+  }
+}
 
-  // lap and wave
+/** Lap and wave: a whole span of at least one slot, at most the pole pitch plus {SPAN_OVER_POLE_PITCH} slot; no wave on 2 poles. */
+function checkSpan(spec: WindingSpec): void {
+  const { style, slots: S, poles: P, span } = spec;
   const pitch = S / P;
   const maxSpan = Math.min(S - 1, Math.floor(pitch + SPAN_OVER_POLE_PITCH));
   if (!Number.isInteger(span)) {
@@ -132,36 +153,43 @@ function checkSpec(spec: WindingSpec): void {
       `on 2 poles a wave winding's commutator pitch (C ± 1)/1 is ±1 bar: it is a lap winding; use style: lap`,
     );
   }
+}
+
+/** A lap winding: bars = coils per slot × slots, divisible by the pole pairs above 2 poles. */
+function checkLap(spec: WindingSpec): void {
+  const { slots: S, bars: C, poles: P, coils_per_slot: u } = spec;
   const live = u * S;
-  if (style === "lap") {
-    if (C !== live) {
-      const hint = C % S === 0 ? `; bars ${C} = ${C / S} × slots: set coils_per_slot: ${C / S}` : "";
+  if (C !== live) {
+    const hint = C % S === 0 ? `; bars ${C} = ${C / S} × slots: set coils_per_slot: ${C / S}` : "";
+    throw inputError(
+      "bars_mismatch",
+      "armature.bars",
+      `a lap winding with ${u} coil${u > 1 ? "s" : ""} per slot on ${S} slots has ${live} bars, got ${C}${hint}; valid bar counts are multiples of the slots (${S}, ${2 * S}, ${3 * S} …)`,
+    );
+  }
+  const p = P / 2;
+  if (p > 1) {
+    if (S % p !== 0) {
       throw inputError(
-        "bars_mismatch",
-        "armature.bars",
-        `a lap winding with ${u} coil${u > 1 ? "s" : ""} per slot on ${S} slots has ${live} bars, got ${C}${hint}; valid bar counts are multiples of the slots (${S}, ${2 * S}, ${3 * S} …)`,
+        "lap_not_divisible",
+        "armature.slots",
+        `a ${P}-pole lap winding needs slots divisible by the ${p} pole pairs; ${S} is not (nearest: ${nearestMultiples(S, p)} slots)`,
       );
     }
-    const p = P / 2;
-    if (p > 1) {
-      if (S % p !== 0) {
-        throw inputError(
-          "lap_not_divisible",
-          "armature.slots",
-          `a ${P}-pole lap winding needs slots divisible by the ${p} pole pairs; ${S} is not (nearest: ${nearestMultiples(S, p)} slots)`,
-        );
-      }
-      if (C % p !== 0) {
-        throw inputError(
-          "lap_not_divisible",
-          "armature.bars",
-          `a ${P}-pole lap winding needs bars divisible by the ${p} pole pairs; ${C} is not (nearest: ${nearestMultiples(C, p)} bars)`,
-        );
-      }
+    if (C % p !== 0) {
+      throw inputError(
+        "lap_not_divisible",
+        "armature.bars",
+        `a ${P}-pole lap winding needs bars divisible by the ${p} pole pairs; ${C} is not (nearest: ${nearestMultiples(C, p)} bars)`,
+      );
     }
-    return;
   }
-  // wave
+}
+
+/** A wave winding: bars = coils (one less with a dead coil), and a whole commutator pitch (C ± 1)/p in the direction asked. */
+function checkWave(spec: WindingSpec): void {
+  const { slots: S, bars: C, poles: P, coils_per_slot: u } = spec;
+  const live = u * S;
   const p = P / 2;
   if (spec.dead_coil) {
     if (C !== live - 1) {
