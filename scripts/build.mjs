@@ -15,6 +15,7 @@ import { execFileSync } from "node:child_process";
 import { readFileSync, rmSync } from "node:fs";
 import { dirname, join, relative, resolve } from "node:path";
 import { fileURLToPath } from "node:url";
+import { patchStringWidth } from "./string-width-patch.mjs";
 
 const ROOT = resolve(dirname(fileURLToPath(import.meta.url)), "..");
 const DIST = join(ROOT, "dist");
@@ -51,6 +52,18 @@ const noBrotli = {
   },
 };
 
+/** string-width, measured only for help text, evaluated without its start-up costs (scripts/string-width-patch.mjs). */
+const lazyStringWidth = {
+  name: "lazy-string-width",
+  setup(build) {
+    build.onLoad({ filter: /[\\/]string-width[\\/]index\.js$/ }, (args) => ({
+      contents: patchStringWidth(readFileSync(args.path, "utf8"), args.path),
+      loader: "js",
+      resolveDir: dirname(args.path),
+    }));
+  },
+};
+
 rmSync(join(DIST, "armwind.cjs.cache"), { force: true });
 const result = await esbuild.build({
   entryPoints: [join(ROOT, "src/cli/main.ts")],
@@ -59,9 +72,10 @@ const result = await esbuild.build({
   platform: "node",
   target: "node20",
   format: "cjs",
-  plugins: [metaUrl, noBrotli],
+  plugins: [lazyStringWidth, metaUrl, noBrotli],
   logLevel: "warning",
   legalComments: "none",
+  minifyWhitespace: true,
   // a file's own place from the bundle's folder (a module's local `require` may shadow the bundle's, so these are named apart)
   // (function declarations at the end, so that "use strict" stays the bundle's first statement)
   footer: {

@@ -20,7 +20,9 @@ const BOOK = join(ROOT, "jobs/logbook");
 function fakeIo(): Io & { stdout: string[]; stderr: string[] } {
   const stdout: string[] = [];
   const stderr: string[] = [];
-  return { out: (s) => stdout.push(s), err: (s) => stderr.push(s), stdin: () => "", env: {}, cwd: ROOT, stdout, stderr };
+  // the family index and the history summary go to the tests' cache folder (test/helpers/setup.ts), never the user's
+  const env = { ARMWIND_CACHE_DIR: process.env.ARMWIND_CACHE_DIR };
+  return { out: (s) => stdout.push(s), err: (s) => stderr.push(s), stdin: () => "", env, cwd: ROOT, stdout, stderr };
 }
 
 function bookWithDamage(): string {

@@ -7,7 +7,7 @@ import { describe, expect, it } from "vitest";
 import { existsSync, mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
-import { cacheFolder, indexFile, readInBatches, recordsOfFamily, refreshIndex } from "../src/logbook/family-index.js";
+import { cacheFolder, indexFile, recordsOfFamily, refreshIndex } from "../src/logbook/family-index.js";
 import { byFileName, readLogbook } from "../src/logbook/store.js";
 import { ROOT } from "./helpers/cli.js";
 
@@ -102,22 +102,6 @@ describe("history refreshes the index", () => {
       cache,
     );
     expect(recordsOfFamily(dir, "blind-5slot", cache).records.map((r) => r.file)).toContain(other);
-  });
-});
-
-describe("reading in batches", () => {
-  it("gives every record once, in batches no larger than asked, and the same warnings as one whole read", () => {
-    const dir = logbook(5);
-    writeFileSync(join(dir, "bad-2026-01-01-1.yaml"), "{ not a record");
-    const whole = readLogbook(dir);
-    const seen: string[] = [];
-    const sizes: number[] = [];
-    const book = readInBatches(dir, (records) => (seen.push(...records.map((r) => r.file)), sizes.push(records.length)), 3);
-    expect(seen.sort()).toEqual(whole.records.map((r) => r.file).sort());
-    expect(Math.max(...sizes)).toBeLessThanOrEqual(3);
-    expect(sizes.length).toBeGreaterThan(2);
-    expect(book.warnings).toEqual(whole.warnings);
-    expect(book.records).toEqual([]);
   });
 });
 

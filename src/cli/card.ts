@@ -13,6 +13,7 @@ import { withJob, withLogbook } from "./options.js";
 import { resolveMeter, withResolution } from "./meter.js";
 import { curvesDrawing, hasCurves } from "../plot/curves.js";
 import { drawingSvg } from "../plot/drawing.js";
+import { COMMAND_TEXT } from "./commands.js";
 
 export function today(io: Io): string {
   // SOURCE_DATE_EPOCH (reproducible-builds.org) fixes the date for reproducible cards and tests
@@ -47,8 +48,8 @@ export function cardPaper(option: string | undefined, env: string | undefined, p
 
 export function cardCommand(yargs: Argv, io: Io, setStatus: (n: number) => void) {
   return yargs.command(
-    "card <job>",
-    "Print the PDF job card for the winding jig: cut list, coil steps, diagram, bench checks, curves, cautions",
+    COMMAND_TEXT.card.command,
+    COMMAND_TEXT.card.describe,
     (y) =>
       withResolution(withLogbook(withJob(y)), false)
         .option("output", {

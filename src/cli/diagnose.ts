@@ -26,11 +26,12 @@ import { diagnose, type Diagnosis } from "../winding/diagnose.js";
 import { isOpenText, readingName, turnLengthCalibrated } from "../bench/rules.js";
 import { resolveMeter, withResolution } from "./meter.js";
 import { to20C } from "../wire/copper.js";
-import { ohm, sig, table } from "./format.js";
+import { ohm, sig, signedPct, table } from "./format.js";
 import type { Job } from "../job/schema.js";
 import type { WindingSpec } from "../winding/types.js";
 import { z } from "zod";
 import { withJob, withLogbook } from "./options.js";
+import { COMMAND_TEXT } from "./commands.js";
 
 export interface DiagnoseInput {
   /** Readings r1 … rC as read, Ω; Infinity for OL/open. */
@@ -174,8 +175,6 @@ export function diagnoseJson(job: { id: string }, input: DiagnoseInput, d: Diagn
   };
 }
 
-const signedPct = (x: number) => `${x >= 0 ? "+" : "−"}${sig(Math.abs(x) * 100)} %`;
-
 export function diagnoseText(job: { id: string }, input: DiagnoseInput, d: Diagnosis): string {
   const L: string[] = [];
   L.push(
@@ -310,8 +309,8 @@ function gatherInput(io: Io, argv: DiagnoseArgs, loaded: { job: Job | null; id: 
 
 export function diagnoseCommand(yargs: Argv, io: Io, setStatus: (n: number) => void) {
   return yargs.command(
-    "diagnose <job>",
-    "Judge the bar-to-bar readings by the bench rules, solve them for each coil's resistance and name the coils behind each failing reading (exit 4 when one fails)",
+    COMMAND_TEXT.diagnose.command,
+    COMMAND_TEXT.diagnose.describe,
     (y) =>
       withResolution(
         withLogbook(

@@ -8,11 +8,13 @@ import { extname, relative, resolve } from "node:path";
 import { guarded, type Io } from "./io.js";
 import { logbookDir } from "./learning.js";
 import { byFileName, type Logbook } from "../logbook/store.js";
-import { cacheFolder, readInBatches, refreshIndex } from "../logbook/family-index.js";
-import { drawingSvg, historyCsv, historyDrawing, historyRows, type HistoryRow } from "../logbook/history.js";
+import { cacheFolder, refreshIndex } from "../logbook/family-index.js";
+import { historyOfFolder } from "../logbook/history-index.js";
+import { drawingSvg, historyCsv, historyDrawing, type HistoryRow } from "../logbook/history.js";
 import { writeAtomic } from "./write.js";
 import { ArmwindError, inputError } from "../errors.js";
 import { ohm, sig, table } from "./format.js";
+import { COMMAND_TEXT } from "./commands.js";
 
 const pair = (p: number | null, m: number | null, f: (x: number | null) => string) => (p === null && m === null ? "—" : `${f(p)} / ${f(m)}`);
 
@@ -51,8 +53,8 @@ export function historyText(rows: HistoryRow[], book: Logbook, family?: string):
 
 export function historyCommand(yargs: Argv, io: Io, setStatus: (n: number) => void) {
   return yargs.command(
-    "history",
-    "List the finished rewinds in the logbook, predicted against measured (table, CSV, JSON, or a scatter plot)",
+    COMMAND_TEXT.history.command,
+    COMMAND_TEXT.history.describe,
     (y) =>
       y
         .option("family", { type: "string", describe: "only this armature family" })
@@ -61,53 +63,71 @@ export function historyCommand(yargs: Argv, io: Io, setStatus: (n: number) => vo
         .option("csv", { type: "boolean", default: false, describe: "print the table as CSV for a spreadsheet" })
         .option("plot", { type: "string", describe: "also draw predicted against measured to FILE.svg or FILE.pdf" }),
 
-    async (argv) => {
-      setStatus(
-        await guarded(io, argv.json, async () => {
-          if (argv.json && argv.csv) throw inputError("option_conflict", "--csv", "--json and --csv: choose one");
-          if (argv.plot !== undefined && ![".svg", ".pdf"].includes(extname(argv.plot).toLowerCase())) {
-            throw inputError("bad_plot_file", "--plot", `--plot ${argv.plot}: the plot is written as SVG or PDF; name the file FILE.svg or FILE.pdf`);
-          }
-          // the records a batch at a time, each batch turned into rows at once (a big logbook is never held whole)
-          let rows: HistoryRow[] = [];
-          const book = readInBatches(logbookDir(io, argv.logbook), (records) => rows.push(...historyRows(records)));
-          // listing is all history does: a folder it cannot read is an error here (a plan goes on without it)
-          if (book.unreadable)
-            throw new ArmwindError({
-              code: "file_unreadable",
-              path: "",
-              file: book.dir,
-              message: book.warnings[0].message.replace(/; going on without its records$/, ""),
-            });
-          refreshIndex(
-            book.dir,
-            rows.map((r) => [r.file, r.family] as [string, string | null]),
-            cacheFolder(io.env),
-          );
-          for (const w of book.warnings) io.err(`armwind: warning: ${w.message} [${w.code}]`);
-          rows.sort((a, b) => (a.date < b.date ? -1 : a.date > b.date ? 1 : byFileName(a.file, b.file)));
-          if (argv.family !== undefined) rows = rows.filter((r) => r.family === argv.family);
-          if (argv.plot !== undefined) {
-            const file = argv.plot;
-            const title = `armwind logbook${argv.family ? `, family ${argv.family}` : ""}`;
-            const d = historyDrawing(rows, title);
-            const data = extname(file).toLowerCase() === ".pdf" ? await (await import("../logbook/history-pdf.js")).drawingPdf(d, { title }) : drawingSvg(d);
-            await writeAtomic(resolve(io.cwd, file), data);
-            if (!argv.json && !argv.csv)
-              io.err(
-                `armwind: plot written to ${relative(io.cwd, resolve(io.cwd, file)).startsWith("..") ? resolve(io.cwd, file) : relative(io.cwd, resolve(io.cwd, file))}`,
-              );
-          }
-          if (argv.json) {
-            io.out(JSON.stringify({ ok: true, errors: [], logbook: book.dir, records: rows, warnings: book.warnings }, null, 2));
-          } else if (argv.csv) {
-            io.out(historyCsv(rows));
-          } else {
-            io.out(historyText(rows, book, argv.family));
-          }
-          return 0;
-        }),
-      );
-    },
+    async (argv) => setStatus(await guarded(io, argv.json, () => runHistory(io, argv))),
   );
+}
+
+interface HistoryArgs {
+  family?: string;
+  logbook?: string;
+  json: boolean;
+  csv: boolean;
+  plot?: string;
+}
+
+/** `armwind history`: check the options, read the rows, draw the plot when asked, print. */
+async function runHistory(io: Io, argv: HistoryArgs): Promise<number> {
+  checkOptions(argv);
+  const { book, rows: all } = readHistory(io, logbookDir(io, argv.logbook));
+  for (const w of book.warnings) io.err(`armwind: warning: ${w.message} [${w.code}]`);
+  const rows = argv.family === undefined ? all : all.filter((r) => r.family === argv.family);
+  if (argv.plot !== undefined) await writePlot(io, argv.plot, rows, argv);
+  if (argv.json) io.out(JSON.stringify({ ok: true, errors: [], logbook: book.dir, records: rows, warnings: book.warnings }, null, 2));
+  else if (argv.csv) io.out(historyCsv(rows));
+  else io.out(historyText(rows, book, argv.family));
+  return 0;
+}
+
+function checkOptions(argv: HistoryArgs): void {
+  if (argv.json && argv.csv) throw inputError("option_conflict", "--csv", "--json and --csv: choose one");
+  if (argv.plot !== undefined && ![".svg", ".pdf"].includes(extname(argv.plot).toLowerCase())) {
+    throw inputError("bad_plot_file", "--plot", `--plot ${argv.plot}: the plot is written as SVG or PDF; name the file FILE.svg or FILE.pdf`);
+  }
+}
+
+/**
+ * Every record's row, sorted by date then file name (one collator), through the history summary in
+ * the user's cache folder (only records changed since the last history are read in full); when any
+ * changed, the family index is rewritten from the rows (a record edited in place to another family
+ * is then seen by learning).
+ */
+function readHistory(io: Io, dir: string): { book: Logbook; rows: HistoryRow[] } {
+  const cache = cacheFolder(io.env);
+  const { book, rows, changed } = historyOfFolder(dir, cache);
+  // listing is all history does: a folder it cannot read is an error here (a plan goes on without it)
+  if (book.unreadable)
+    throw new ArmwindError({
+      code: "file_unreadable",
+      path: "",
+      file: book.dir,
+      message: book.warnings[0].message.replace(/; going on without its records$/, ""),
+    });
+  if (changed)
+    refreshIndex(
+      book.dir,
+      rows.map((r) => [r.file, r.family] as [string, string | null]),
+      cache,
+    );
+  rows.sort((a, b) => (a.date < b.date ? -1 : a.date > b.date ? 1 : byFileName(a.file, b.file)));
+  return { book, rows };
+}
+
+/** --plot FILE.svg or FILE.pdf: predicted against measured, written whole; said on stderr unless the output is data. */
+async function writePlot(io: Io, file: string, rows: HistoryRow[], argv: HistoryArgs): Promise<void> {
+  const title = `armwind logbook${argv.family ? `, family ${argv.family}` : ""}`;
+  const d = historyDrawing(rows, title);
+  const data = extname(file).toLowerCase() === ".pdf" ? await (await import("../logbook/history-pdf.js")).drawingPdf(d, { title }) : drawingSvg(d);
+  const at = resolve(io.cwd, file);
+  await writeAtomic(at, data);
+  if (!argv.json && !argv.csv) io.err(`armwind: plot written to ${relative(io.cwd, at).startsWith("..") ? at : relative(io.cwd, at)}`);
 }

@@ -9,8 +9,8 @@
  */
 import { resolve } from "node:path";
 import { ArmwindError, formatProblem, type Problem } from "../errors.js";
-import { readStdin, readUserFile, TEXT_FILE_LIMIT } from "../files.js";
-import { OutputError, writeStream } from "./output.js";
+import { readUserFile } from "../files.js";
+import { OutputError } from "./output.js";
 
 export { readUserFile } from "../files.js";
 export { OutputError } from "./output.js";
@@ -21,24 +21,8 @@ import { isLayoutOnly } from "../winding/layout-job.js";
 import { loadShop } from "./shop.js";
 import { mergeShopIntoJob } from "../shop/merge.js";
 
-export interface Io {
-  out: (s: string) => void;
-  err: (s: string) => void;
-  /** Standard input, read whole, for "-". */
-  stdin: () => string;
-  env: NodeJS.ProcessEnv;
-  cwd: string;
-  /** The shop profile named by --shop (docs/contracts.md "The shop profile"), when given. */
-  shop?: string;
-}
-
-export const processIo = (): Io => ({
-  out: (s) => writeStream(1, s.endsWith("\n") ? s : s + "\n"),
-  err: (s) => writeStream(2, s.endsWith("\n") ? s : s + "\n"),
-  stdin: () => readStdin(TEXT_FILE_LIMIT),
-  env: process.env,
-  cwd: process.cwd(),
-});
+export { type Io, processIo } from "./process-io.js";
+import type { Io } from "./process-io.js";
 
 /**
  * Read a job, measured or profile file's text, or standard input for "-": a regular file only (a

@@ -20,6 +20,7 @@ import type { Job } from "../job/schema.js";
 import { join, relative } from "node:path";
 import { withJob, withLogbook } from "./options.js";
 import { resolveMeter, withResolution } from "./meter.js";
+import { COMMAND_TEXT } from "./commands.js";
 
 /** Load a measured file and check it against the job (id, bar count); problems located in the measured file. */
 export function loadMeasured(io: Io, file: string, job: Job): Measured {
@@ -172,8 +173,8 @@ function refuseIfLogged(dir: string, record: LogRecord): void {
 
 export function logCommand(yargs: Argv, io: Io, setStatus: (n: number) => void) {
   return yargs.command(
-    "log <job>",
-    "Record a finished rewind in the logbook: the bench readings beside the plan (exit 4 when a check fails)",
+    COMMAND_TEXT.log.command,
+    COMMAND_TEXT.log.describe,
     (y) =>
       withResolution(
         withLogbook(

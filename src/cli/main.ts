@@ -2,7 +2,8 @@
 /** armwind: the command line. Each command lives in its own file; this one only wires them up. */
 import yargs, { type Argv } from "yargs";
 import { hideBin } from "yargs/helpers";
-import { processIo, type Io } from "./io.js";
+import { COMMAND_TEXT, type CommandName } from "./commands.js";
+import { processIo, type Io } from "./process-io.js";
 import { endForOutputError, OutputError, writeStream } from "./output.js";
 import { VERSION } from "./version.js";
 
@@ -27,10 +28,14 @@ export async function main(args: string[], io = processIo()): Promise<number> {
       // a bad command line stops here: the command does not run
       throw err ?? new UsageError(msg);
     });
-  // load only the command asked for (each pulls in its own part of armwind); all of them for help,
-  // a mistyped command (so yargs can suggest the nearest) or no command at all
-  const wanted = COMMANDS.find((c) => c.names.includes(args[0] ?? ""));
-  for (const c of wanted ? [wanted] : COMMANDS) y = await c.register(y, io, setStatus);
+  // yargs renders a command's whole help right after starting its handler, to have it should the
+  // handler fail; armwind never prints help for a failed command (its errors are one line), and
+  // rendering it was a tenth of a plan's time
+  usageOf(y).cacheHelpMessage = () => {};
+  // evaluate only the commands named on the command line (each pulls in its own part of armwind:
+  // the job schema, the design core, pdfkit); the others are listed from their text alone, which
+  // is all that top-level help, no command or a mistyped one (yargs suggests the nearest) need
+  for (const c of COMMANDS) y = c.names.some((n) => args.includes(n)) ? await c.register(y, io, setStatus) : listOnly(y, c.names);
   try {
     // with a callback yargs never exits the process, and hands help and version text back: printed
     // through io, so that `main` can run in-process (tests) exactly as it runs in a process
@@ -51,8 +56,24 @@ class UsageError extends Error {}
 
 type Register = (y: Argv, io: Io, setStatus: (n: number) => void) => Promise<Argv>;
 
+/** yargs' help renderer (an internal of yargs 18, pinned). */
+const usageOf = (y: Argv) =>
+  (y as unknown as { getInternalMethods(): { getUsageInstance(): { cacheHelpMessage: () => void } } }).getInternalMethods().getUsageInstance();
+
+/**
+ * A command listed by its usage line and description only. Never run: a command whose name is on
+ * the command line is registered whole (a name that reaches yargs as a command is on the line).
+ */
+function listOnly(y: Argv, names: readonly CommandName[]): Argv {
+  for (const n of names)
+    y = y.command(COMMAND_TEXT[n].command, COMMAND_TEXT[n].describe, {}, () => {
+      throw new Error(`command ${n} was not loaded`);
+    });
+  return y;
+}
+
 /** Every command, in the order --help lists them. */
-const COMMANDS: { names: string[]; register: Register }[] = [
+const COMMANDS: { names: CommandName[]; register: Register }[] = [
   { names: ["plan", "check"], register: async (y, io, s) => (await import("./plan.js")).planCommand(y, io, s) },
   { names: ["card"], register: async (y, io, s) => (await import("./card.js")).cardCommand(y, io, s) },
   { names: ["wires"], register: async (y, io, s) => (await import("./wires-command.js")).wiresCommand(y, io, s) },

@@ -18,6 +18,7 @@ import { ArmwindError } from "../errors.js";
 import { jobSchema } from "../job/schema.js";
 import { guarded, type Io, type Where } from "./io.js";
 import { today } from "./card.js";
+import { COMMAND_TEXT } from "./commands.js";
 
 export const STYLES = ["tooth", "lap", "wave"] as const;
 export type Style = (typeof STYLES)[number];
@@ -220,8 +221,8 @@ const KINDS = ["job", "measured", "shop"] as const;
 
 export function newCommand(yargs: Argv, io: Io, setStatus: (n: number) => void) {
   return yargs.command(
-    "new [kind] [job]",
-    "Start a file to fill in, every field commented: a job file (new job --style …, or new --style …), a measured-readings file for a job (new measured JOB), a shop profile (new shop)",
+    COMMAND_TEXT.new.command,
+    COMMAND_TEXT.new.describe,
     (y) =>
       y
         .positional("kind", { choices: KINDS, describe: "what to write: job (default), measured or shop" })

@@ -9,6 +9,7 @@ import { logbookOptionsFor } from "./learning.js";
 import { withJob, withLogbook } from "./options.js";
 import { loadShop } from "./shop.js";
 import { spoolWarnings } from "../shop/merge.js";
+import { COMMAND_TEXT } from "./commands.js";
 
 export type { Where } from "./io.js";
 
@@ -33,8 +34,8 @@ export function planStatus(plan: Plan): 0 | 2 {
 export function planCommand(yargs: Argv, io: Io, setStatus: (n: number) => void) {
   return yargs
     .command(
-      "plan <job>",
-      "Work out the winding: turns, wire, fill, resistances, cut list, and the motor old and new",
+      COMMAND_TEXT.plan.command,
+      COMMAND_TEXT.plan.describe,
       (y) =>
         withLogbook(withJob(y)).option("json", {
           type: "boolean",
@@ -52,8 +53,8 @@ export function planCommand(yargs: Argv, io: Io, setStatus: (n: number) => void)
       },
     )
     .command(
-      "check <job>",
-      "Validate a job file and print its warnings (exits as plan would)",
+      COMMAND_TEXT.check.command,
+      COMMAND_TEXT.check.describe,
       (y) => withLogbook(withJob(y)).option("json", { type: "boolean", default: false, describe: "print { ok, feasible, warnings } as JSON" }),
       async (argv) => {
         setStatus(

@@ -6,6 +6,7 @@ import { jobJsonSchemaText } from "../job/json-schema.js";
 import { measuredJsonSchemaText, shopJsonSchemaText } from "../shop/json-schemas.js";
 import { guarded, type Io } from "./io.js";
 import { makeFolders, writeAtomic } from "./write.js";
+import { COMMAND_TEXT } from "./commands.js";
 
 /** Print the schema, or write it to `output` (temporary file, then renamed); returns the exit status. */
 export async function runSchema(io: Io, output?: string, of: "job" | "measured" | "shop" = "job"): Promise<number> {
@@ -30,8 +31,8 @@ export async function runSchema(io: Io, output?: string, of: "job" | "measured" 
 
 export function schemaCommand(yargs: Argv, io: Io, setStatus: (n: number) => void) {
   return yargs.command(
-    "schema",
-    "Print the JSON Schema of the job file, for editors (the YAML language server reads it)",
+    COMMAND_TEXT.schema.command,
+    COMMAND_TEXT.schema.describe,
     (y) =>
       y.option("output", { alias: "o", type: "string", describe: "write it to this file instead (replaced whole, never half-written)" }).option("of", {
         choices: ["job", "measured", "shop"] as const,

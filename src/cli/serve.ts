@@ -8,11 +8,12 @@ import { resolve } from "node:path";
 import { statSync } from "node:fs";
 import { guarded, type Io } from "./io.js";
 import { inputError } from "../errors.js";
+import { COMMAND_TEXT } from "./commands.js";
 
 export function serveCommand(yargs: Argv, io: Io, setStatus: (n: number) => void) {
   return yargs.command(
-    "serve",
-    "The workbench: plan, card, readings and logbook in a web page, for this machine (or, with --host, the shop's network)",
+    COMMAND_TEXT.serve.command,
+    COMMAND_TEXT.serve.describe,
     (y) =>
       y
         .option("dir", {

@@ -2,11 +2,12 @@
 import type { Argv } from "yargs";
 import type { Io } from "./io.js";
 import { runWires } from "./wires.js";
+import { COMMAND_TEXT } from "./commands.js";
 
 export function wiresCommand(yargs: Argv, io: Io, setStatus: (n: number) => void) {
   return yargs.command(
-    "wires",
-    "List the wire catalogue: AWG, SWG and IEC 60317 metric sizes with bare and overall diameters, Ω/m and g/m",
+    COMMAND_TEXT.wires.command,
+    COMMAND_TEXT.wires.describe,
     (y) =>
       y
         .option("system", { type: "string", describe: "only one system: awg, swg or metric" })

@@ -3,7 +3,7 @@
  * chosen winding comes, in the goal's unit, with the tolerance as it was given.
  */
 import type { GoalReport } from "../design/types.js";
-import { pctGiven } from "./number.js";
+import { pctGiven, signedPct } from "./number.js";
 import { GOAL_UNIT, goalValue } from "./units.js";
 
 /**
@@ -30,7 +30,7 @@ export function goalSummary(goal: GoalReport): string {
   const achieved = goalValue(goal.kind, goal.achieved);
   const err = goal.error_fraction;
   if (achieved === null || err === null) return `the ${goal.kind.replace(/_/g, " ")} cannot be predicted: nothing calibrates the motor`;
-  const signed = `${err >= 0 ? "+" : "−"}${Math.abs(err * 100).toFixed(1)} %`;
+  const signed = signedPct(err, 1);
   if (goal.fixed) {
     const f = goal.fixed;
     return `the winding chosen: ${f.turns} turns of ${f.wire}${f.strands > 1 ? `, ${f.strands} in hand` : ""} (copper area ${fig(achieved)} mm²)`;

@@ -8,7 +8,20 @@ export function sig(x: number | null | undefined, digits = 3): string {
   const mag = Math.floor(Math.log10(Math.abs(x)));
   if (mag >= digits - 1) return String(Math.round(x)).replace("-", "−");
   const decimals = Math.min(12, digits - 1 - mag);
-  return x.toFixed(decimals).replace("-", "−");
+  const text = x.toFixed(decimals);
+  // float noise (1e-16 of a deviation) rounds to nothing at 12 decimals: it is zero, not "−0.000000000000"
+  return /^-?0\.0*$/.test(text) ? "0" : text.replace("-", "−");
+}
+
+/**
+ * A signed fraction as a percentage: "+0.2 %", "−9.16 %", and "0 %" (no sign) when it rounds to
+ * nothing. `decimals` fixes the decimals ("+0.6 %" with 1); without it, 3 significant figures.
+ */
+export function signedPct(fraction: number, decimals?: number): string {
+  const x = fraction * 100;
+  const text = decimals === undefined ? sig(Math.abs(x)) : Math.abs(x).toFixed(decimals);
+  if (/^0(\.0*)?$/.test(text)) return `${text} %`;
+  return `${x > 0 ? "+" : "−"}${text} %`;
 }
 
 /** Resistance, 4 significant figures. */

@@ -6,6 +6,7 @@
  */
 import { copperFactor, to20C } from "../wire/copper.js";
 import { toRpm } from "../format/units.js";
+import { signedPct } from "../format/number.js";
 import type { Measured } from "./measured.js";
 import {
   DEFAULT_METER_RESOLUTION_OHM,
@@ -105,7 +106,7 @@ export interface Derived {
   readings_sound: boolean;
 }
 
-const fmtPct = (x: number) => `${x >= 0 ? "+" : "−"}${Math.abs(x * 100).toFixed(1)} %`;
+const fmtPct = (x: number) => signedPct(x, 1);
 const r4 = (x: number) => x.toPrecision(4);
 
 function verdictOf(dev: number, tol: number): CheckVerdict {

@@ -10,9 +10,10 @@
  * `armwind log`, by hand, by another bench or by a merge; records removed), the whole index is
  * brought up to date by reading only the names it does not know, and the share is written anew.
  * A record is named once and never rewritten (store.ts); a record edited in place by hand to
- * another family is seen again after `armwind history`, which reads every record, rewrites the
- * index and drops the shares. A missing, damaged or unwritable cache only costs the time of
- * reading every record, never a wrong plan: the records read are still checked for their family.
+ * another family is seen again after `armwind history`, which reads every record changed since it
+ * last ran (its own summary, history-index.ts, knows which), rewrites the index and drops the
+ * shares. A missing, damaged or unwritable cache only costs the time of reading every record,
+ * never a wrong plan: the records read are still checked for their family.
  */
 import { createHash } from "node:crypto";
 import { mkdirSync, readdirSync, renameSync, rmSync, writeFileSync } from "node:fs";
@@ -57,14 +58,17 @@ export function cacheFolder(env: NodeJS.ProcessEnv, platform: NodeJS.Platform = 
 
 /** Where the index of logbook folder `dir` is kept inside `cache` (with `family`: that family's share). */
 export function indexFile(cache: string, dir: string, family?: string): string {
-  const h = (x: string) => createHash("sha256").update(x).digest("hex").slice(0, 16);
-  return join(cache, `logbook-${h(resolve(dir))}${family === undefined ? "" : `-${h(family)}`}.json`);
+  return join(cache, `logbook-${shortHash(resolve(dir))}${family === undefined ? "" : `-${shortHash(family)}`}.json`);
 }
+
+/** 16 hex digits of SHA-256: a name for a folder's (or a family's) cache file. */
+export const shortHash = (x: string): string => createHash("sha256").update(x).digest("hex").slice(0, 16);
 
 /** A hash of the folder's file names, in the order the folder lists them. */
 const listingOf = (names: string[]) => createHash("sha256").update(names.join("\n")).digest("hex");
 
-function readJson<T>(file: string): T | undefined {
+/** A cache file's JSON, or undefined when it is missing or damaged. */
+export function readJson<T>(file: string): T | undefined {
   try {
     // a regular file only, never waited on (a FIFO planted in the cache folder), at most 64 MiB
     return JSON.parse(readUserFile(file, { limit: 64 * 1024 * 1024 })) as T;
@@ -73,7 +77,8 @@ function readJson<T>(file: string): T | undefined {
   }
 }
 
-function writeJson(file: string, body: unknown): void {
+/** Write a cache file whole (temporary file, then rename); a cache that cannot be written is skipped. */
+export function writeJson(file: string, body: unknown): void {
   const tmp = `${file}.${process.pid}.tmp`;
   try {
     mkdirSync(dirname(file), { recursive: true });
@@ -141,25 +146,4 @@ export function refreshIndex(dir: string, read: Iterable<[string, string | null]
     /* no cache folder yet */
   }
   writeJson(indexFile(cache, dir), { version: VERSION, dir: resolve(dir), listing: listingOf(names), families } satisfies IndexFile);
-}
-
-/**
- * Read every record of `dir` a batch at a time, handing each batch to `take` and keeping none of
- * them (history turns each batch into its rows), so that a big logbook is never held whole.
- * Returns the folder's facts and warnings as `readLogbook` would, without records.
- */
-export function readInBatches(dir: string, take: (records: Logbook["records"]) => void, size = 256): Logbook {
-  let names: string[];
-  try {
-    names = readdirSync(dir).sort();
-  } catch {
-    return readLogbook(dir); // missing or unreadable: readLogbook says which
-  }
-  const warnings: Logbook["warnings"] = [];
-  for (let i = 0; i < names.length; i += size) {
-    const book = readLogbook(dir, { names: names.slice(i, i + size) });
-    warnings.push(...book.warnings);
-    take(book.records);
-  }
-  return { dir, exists: true, records: [], warnings };
 }

@@ -189,7 +189,12 @@ export interface ReadOptions {
 }
 
 /** File names in numeric order (…-2- before …-10-): one collator for every comparison (a locale lookup per call is slow). */
-export const byFileName = new Intl.Collator("en", { numeric: true }).compare;
+export function byFileName(a: string, b: string): number {
+  // made on first use: loading the locale's collation rules is about 10 ms, which a plan without records need not spend
+  if (!fileNameCollator) fileNameCollator = new Intl.Collator("en", { numeric: true });
+  return fileNameCollator.compare(a, b);
+}
+let fileNameCollator: Intl.Collator | undefined;
 
 export interface Logbook {
   dir: string;
@@ -231,7 +236,7 @@ export function readLogbook(dir: string, opts: ReadOptions = {}): Logbook {
   const records: { file: string; record: ReadRecord }[] = [];
   const warnings: LogbookWarning[] = [];
   for (const name of names.sort()) {
-    if (isTempName(name) || name.startsWith(".") || !name.endsWith(".yaml")) continue;
+    if (!mayBeRecord(name)) continue;
     const r = readRecordFile(dir, name);
     if ("warning" in r) warnings.push(r.warning);
     else records.push({ file: name, record: r.record });
@@ -240,8 +245,11 @@ export function readLogbook(dir: string, opts: ReadOptions = {}): Logbook {
   return { dir, exists: true, records, warnings };
 }
 
+/** Whether a file of the logbook folder is read as a record at all (hidden and temporary files, and anything not .yaml, are not). */
+export const mayBeRecord = (name: string): boolean => !(isTempName(name) || name.startsWith(".") || !name.endsWith(".yaml"));
+
 /** One record file of the folder, read and checked; a warning when it is not to be trusted. */
-function readRecordFile(dir: string, name: string): { record: ReadRecord } | { warning: LogbookWarning } {
+export function readRecordFile(dir: string, name: string): { record: ReadRecord } | { warning: LogbookWarning } {
   const damaged = (why: string) => ({
     warning: { code: "record_damaged" as const, file: name, path: "", message: `${name}: damaged record, left out (${why})` },
   });
