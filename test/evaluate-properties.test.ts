@@ -52,8 +52,35 @@ const arbArm: fc.Arbitrary<Arm> = fc.record({
   goal: fc.constantFrom("no_load_speed", "kv", "duty", "stall_current") as fc.Arbitrary<Arm["goal"]>,
 });
 
+/** The series goals and the motor data that go with them (a universal motor on 230 V 50 Hz, or a series DC motor; invented). */
+type SeriesGoal = "restore" | "duty" | "convert";
+interface SeriesMotorData {
+  goal: SeriesGoal;
+  ac: boolean;
+}
+
+/** The series field, its tests and nameplate, and the target, for a random series armature (invented values, test data only). */
+function seriesParts(m: SeriesMotorData): { field: string; original: string; target: string } {
+  const f = m.ac ? ", frequency: 50 Hz" : "";
+  const supply = m.ac ? "{ value: 230 V, kind: ac, frequency: 50 Hz }" : "230 V";
+  const goal = {
+    restore: "goal: restore",
+    duty: "goal: duty\n  duty: { torque: 0.1 N m, speed: 15000 rpm }\n  tolerance: 0.1\n  limits: { current_density: 20 A/mm2 }",
+    convert: "goal: convert\n  tolerance: 0.1",
+  }[m.goal];
+  return {
+    field: `field_winding:\n  resistance: { value: 3 ohm, at: 20 C }\n${m.ac ? "  inductance: 50 mH\n" : ""}`,
+    original:
+      `${m.ac ? "  armature_inductance: 30 mH\n" : ""}  tests:\n` +
+      `    - { supply: 230 V, no_load_current: 0.5 A, no_load_speed: 20000 rpm${f} }\n` +
+      `    - { supply: 120 V, no_load_current: 0.4 A, no_load_speed: 12000 rpm${f} }\n` +
+      `  nameplate: { supply: 230 V, current: 1.5 A, speed: 12000 rpm${f} }\n`,
+    target: `supply: ${m.goal === "convert" ? (m.ac ? "{ value: 120 V, kind: ac, frequency: 50 Hz }" : "120 V") : supply}\n  ${goal}`,
+  };
+}
+
 /** A job text for a random armature (invented values, test data only); null when the layout cannot exist. */
-function jobText(a: Arm): string | null {
+function jobText(a: Arm, series?: SeriesMotorData): string | null {
   const u = a.style === "tooth" ? 1 : a.u;
   const bars = a.slots * u;
   if (a.style === "wave" && ((bars + 1) % (a.poles / 2) !== 0 || a.poles === 2)) return null;
@@ -72,6 +99,7 @@ function jobText(a: Arm): string | null {
   }[a.goal];
   const mlt = a.mltSource === "measured" ? `  mean_turn_length: ${2 * a.stack + (a.style === "tooth" ? 1 : 2.5) * a.rotor} mm\n` : "";
   const len = a.mltSource === "length" ? `  wire_length: ${(((2 * a.stack + 1.2 * a.rotor) * a.turns * bars) / 1000).toFixed(2)} m\n` : "";
+  const sp = series ? seriesParts(series) : null;
   return `version: 1
 id: prop-job
 title: random armature (invented)
@@ -79,7 +107,7 @@ armature:
   slots: ${a.slots}
   bars: ${bars}
   field_poles: ${a.poles}
-  field: permanent_magnet
+  field: ${sp ? "series" : "permanent_magnet"}
   stack_length: ${a.stack} mm
   rotor_diameter: ${a.rotor} mm
   tooth_width: ${(pitch * 0.45).toFixed(2)} mm
@@ -89,80 +117,113 @@ winding:
   span: ${span}
   coils_per_slot: ${u}
 ${mlt}  brushes: { count: 2, width_bars: 1, material: carbon }
-original:
+${sp ? sp.field : ""}original:
   turns: ${a.turns}
   wire: ${a.wireMm} mm
-${len}  tests:
-    - { supply: 12 V, no_load_current: 0.3 A, no_load_speed: 5000 rpm }
-target:
-  supply: 12 V
-  ${goalLine}
+${len}${sp ? sp.original : "  tests:\n    - { supply: 12 V, no_load_current: 0.3 A, no_load_speed: 5000 rpm }\n"}target:
+  ${sp ? sp.target : `supply: 12 V\n  ${goalLine}`}
 max_in_hand: 3
 `;
 }
+
+/** Check that the cheap evaluation of each picked winding equals the full one; how many were checked, with unequal coils, on the series model. */
+function checkPicks(text: string | null, picks: [number, number, number][]): { checked: number; unequal: number; series: number; running: number } {
+  const none = { checked: 0, unequal: 0, series: 0, running: 0 };
+  if (text === null) return none;
+  let ctx: ArmatureContext;
+  let ev: ReturnType<typeof makeEvaluator>;
+  try {
+    ctx = buildContext(loadJobText(text));
+    const cal: Calibration = calibrateOriginal(ctx).calibration;
+    ev = makeEvaluator(ctx, cal);
+  } catch (e) {
+    if (e instanceof ArmwindError) return none; // an armature the loader, the geometry or the series fit refuses: not this property's concern
+    throw e;
+  }
+  const mlts = ctx.layout.coils.filter((c) => !c.dead).map((c) => c.rides_over);
+  const equalCoils = ctx.layout.spec.style === "tooth" || mlts.every((r) => r === mlts[0]);
+  const out = { ...none };
+  for (const [turns, wi, strands] of picks) {
+    const w = { turns, wire: stock[wi], strands };
+    // more copper than a slot can hold is never swept (src/design/sweep.ts stops at the fill limit + 15 %)
+    if ((ctx.sides * turns * strands * w.wire.area) / ctx.slot.free_area > 0.6) continue;
+    const cheap = ev.evaluate(turns, w.wire, strands);
+    const full = ev.full(w);
+    out.checked++;
+    const same = (x: number | null, y: number | null, tol = 1e-9) => {
+      if (x === null || y === null) return expect(x).toBe(y);
+      expect(Math.abs(x - y)).toBeLessThanOrEqual(tol * Math.max(Math.abs(x), Math.abs(y), 1e-300));
+    };
+    same(cheap.copper_fill, full.copper_fill);
+    same(cheap.space_fill, full.space_fill);
+    expect(cheap.build).toEqual(full.build);
+    same(cheap.mlt, full.mlt);
+    same(cheap.coil_ohm, full.coil_ohm);
+    same(cheap.copper_mass, full.copper_mass);
+    same(cheap.ke, full.ke);
+    same(cheap.terminal_ohm, full.terminal_ohm);
+    same(cheap.terminal_hot_ohm, full.terminal_hot_ohm);
+    same(cheap.achieved, full.achieved);
+    same(cheap.error, full.error, 1e-6);
+    same(cheap.stall_current_hot, full.stall_current_hot);
+    same(cheap.stall_current_cold, full.stall_current_cold);
+    same(cheap.current_density, full.current_density);
+    same(cheap.duty_input_w, full.duty_input_w);
+    expect(cheap.rejected_because).toEqual(full.rejected_because);
+    expect(cheap.meets_goal).toBe(full.meets_goal);
+    if (ev.physics.series) {
+      // the series model's own figures: the sweep's goal figure is the full report's (duty: the duty point; convert: the
+      // speed at the original's rated torque on the new supply, the report's rated point), never a constant-field figure
+      out.series++;
+      expect(full.motor.series).not.toBeNull();
+      expect(full.stall_current_hot).toBeNull();
+      if (ev.goal !== "restore" && (cheap.achieved ?? 0) > 0) out.running++;
+      if (ev.goal === "duty") same(cheap.achieved, full.duty?.speed ?? 0);
+      if (ev.goal === "convert") same(cheap.achieved, full.motor.series!.rated?.speed ?? 0);
+    }
+    if (!equalCoils) out.unequal++;
+  }
+  return out;
+}
+
+const arbPicks = fc.array(fc.tuple(fc.integer({ min: 1, max: 150 }), fc.integer({ min: 0, max: stock.length - 1 }), fc.integer({ min: 1, max: 3 })), {
+  minLength: 1,
+  maxLength: 6,
+});
 
 describe("the sweep's figures are the full evaluation's (property)", () => {
   it("over random armatures and candidates", () => {
     let checked = 0;
     let unequal = 0;
     fc.assert(
-      fc.property(
-        arbArm,
-        fc.array(fc.tuple(fc.integer({ min: 1, max: 150 }), fc.integer({ min: 0, max: stock.length - 1 }), fc.integer({ min: 1, max: 3 })), {
-          minLength: 1,
-          maxLength: 6,
-        }),
-        (a, picks) => {
-          const text = jobText(a);
-          if (text === null) return;
-          let ctx: ArmatureContext;
-          let cal: Calibration;
-          try {
-            ctx = buildContext(loadJobText(text));
-            cal = calibrateOriginal(ctx).calibration;
-          } catch (e) {
-            if (e instanceof ArmwindError) return; // an armature the loader or the geometry refuses: not this property's concern
-            throw e;
-          }
-          const ev = makeEvaluator(ctx, cal);
-          const mlts = ctx.layout.coils.filter((c) => !c.dead).map((c) => c.rides_over);
-          const equalCoils = ctx.layout.spec.style === "tooth" || mlts.every((r) => r === mlts[0]);
-          for (const [turns, wi, strands] of picks) {
-            const w = { turns, wire: stock[wi], strands };
-            // more copper than a slot can hold is never swept (src/design/sweep.ts stops at the fill limit + 15 %)
-            if ((ctx.sides * turns * strands * w.wire.area) / ctx.slot.free_area > 0.6) continue;
-            const cheap = ev.evaluate(turns, w.wire, strands);
-            const full = ev.full(w);
-            checked++;
-            const same = (x: number | null, y: number | null, tol = 1e-9) => {
-              if (x === null || y === null) return expect(x).toBe(y);
-              expect(Math.abs(x - y)).toBeLessThanOrEqual(tol * Math.max(Math.abs(x), Math.abs(y), 1e-300));
-            };
-            same(cheap.copper_fill, full.copper_fill);
-            same(cheap.space_fill, full.space_fill);
-            expect(cheap.build).toEqual(full.build);
-            same(cheap.mlt, full.mlt);
-            same(cheap.coil_ohm, full.coil_ohm);
-            same(cheap.copper_mass, full.copper_mass);
-            same(cheap.ke, full.ke);
-            same(cheap.terminal_ohm, full.terminal_ohm);
-            same(cheap.terminal_hot_ohm, full.terminal_hot_ohm);
-            same(cheap.achieved, full.achieved);
-            same(cheap.error, full.error, 1e-6);
-            same(cheap.stall_current_hot, full.stall_current_hot);
-            same(cheap.stall_current_cold, full.stall_current_cold);
-            same(cheap.current_density, full.current_density);
-            same(cheap.duty_input_w, full.duty_input_w);
-            expect(cheap.rejected_because).toEqual(full.rejected_because);
-            expect(cheap.meets_goal).toBe(full.meets_goal);
-            if (!equalCoils) unequal++;
-          }
-        },
-      ),
+      fc.property(arbArm, arbPicks, (a, picks) => {
+        const r = checkPicks(jobText(a), picks);
+        checked += r.checked;
+        unequal += r.unequal;
+      }),
       { numRuns: 150 },
     );
     expect(checked).toBeGreaterThan(150);
     expect(unequal).toBeGreaterThan(0);
+  });
+
+  it("over random series and universal armatures (the series model behind the same evaluation)", () => {
+    let series = 0;
+    let running = 0;
+    const arbSeries = fc.record({
+      goal: fc.constantFrom("restore", "duty", "convert") as fc.Arbitrary<SeriesGoal>,
+      ac: fc.boolean(),
+    });
+    fc.assert(
+      fc.property(arbArm, arbSeries, arbPicks, (a, m, picks) => {
+        const r = checkPicks(jobText(a, m), picks);
+        series += r.series;
+        running += r.running;
+      }),
+      { numRuns: 80 },
+    );
+    expect(series).toBeGreaterThan(60);
+    expect(running).toBeGreaterThan(20); // duty and convert windings that carry their load: the series model predicted them
   });
 });
 

@@ -105,6 +105,26 @@ describe("the API is the CLI", () => {
     expect(j.suspects.flatMap((s: { coils: number[] }) => s.coils)).toEqual([3]);
   });
 
+  it("readings still being typed: diagnose --partial, as the CLI does; coil 3 named once r3 and two others are in", async () => {
+    const post = (bars: string[]) =>
+      http(`${local.url}api/diagnose/jobs/blind-motor-0031.yaml`, { method: "POST", body: JSON.stringify({ bars, temperature: "21 C", partial: true }) });
+    const bars = ["1.329", "", "1.234", "1.330", ""];
+    const web = await post(bars);
+    const cli = await runMain(["diagnose", "jobs/blind-motor-0031.yaml", `--bars=${bars.join(",")}`, "--temperature=21 C", "--partial", "--json"]);
+    expect(web.status).toBe(200);
+    expect(web.body).toBe(cli.stdout);
+    const j = JSON.parse(web.body);
+    expect(j).toMatchObject({ partial: true, read: 3, of: 5 });
+    expect(j.suspects.flatMap((s: { coils: number[] }) => s.coils)).toEqual([3]);
+    // without r3, nothing to say of coil 3
+    const without = JSON.parse((await post(["1.329", "1.327", "", "1.330", ""])).body);
+    expect(without.suspects).toEqual([]);
+    expect(without.coils[2].verdict).toBe("unknown");
+    // a blank without --partial is still a reading that is not a number
+    const strict = await http(`${local.url}api/diagnose/jobs/blind-motor-0031.yaml`, { method: "POST", body: JSON.stringify({ bars }) });
+    expect(strict.status).toBe(422);
+  });
+
   it("a reading that is not a number is 422 naming its reading", async () => {
     const web = await http(`${local.url}api/diagnose/jobs/blind-motor-0031.yaml`, {
       method: "POST",
@@ -132,6 +152,13 @@ describe("the API is the CLI", () => {
     expect(web.status).toBe(200);
     expect(web.headers["content-type"]).toBe("application/pdf");
     expect(web.body.startsWith("%PDF-")).toBe(true);
+    // the card page frames it: its own origin may, no other (the pages themselves are never framed)
+    expect(web.headers["content-security-policy"]).toContain("frame-ancestors 'self'");
+    expect(web.headers["x-frame-options"]).toBe("SAMEORIGIN");
+    const page = await http(`${local.url}job/jobs/robot-3slot-0007.yaml`);
+    expect(page.headers["x-frame-options"]).toBe("DENY");
+    const download = await http(`${local.url}api/card/jobs/robot-3slot-0007.yaml?download=1&paper=letter`);
+    expect(download.headers["content-disposition"]).toMatch(/^attachment; filename="robot-3slot-0007.pdf"/);
   });
 });
 

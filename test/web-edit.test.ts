@@ -59,3 +59,58 @@ describe("applyEdits", () => {
     expect((err as ArmwindError).problems[0]).toMatchObject({ code: "bad_yaml", path: "target.no_load_speed" });
   });
 });
+
+describe("applyEdits on lists and one-line maps (the form's list rows and variants)", () => {
+  const comments = (s: string) => s.split("\n").filter((l) => l.includes("#"));
+  const chair = readFileSync(join(ROOT, "jobs/chair-wave-0045.yaml"), "utf8");
+
+  it("adds a row at the end of a block list and removes one by its lines, comments kept", () => {
+    const added = applyEdits(blind, [
+      { path: "original.tests[1]", text: "{ supply: 6 V, no_load_current: 0.15 A, no_load_speed: 4700 rpm, temperature: 21 C }" },
+    ]);
+    expect(added).toContain("    - { supply: 12 V, no_load_current: 0.18 A, no_load_speed: 9800 rpm, temperature: 21 C }\n    - { supply: 6 V,");
+    expect(loadJobText(added).original.tests).toHaveLength(2);
+    expect(comments(added)).toEqual(comments(blind));
+    const removed = applyEdits(chair, [{ path: "original.tests[0]", text: "" }]);
+    expect(loadJobText(removed).original.tests?.map((t) => t.supply)).toEqual([12]);
+    expect(comments(removed)).toEqual(comments(chair));
+    // a wire on the shelf: the fourth row removed, a new one added, the rest byte for byte
+    const shelf = applyEdits(blind, [
+      { path: "wire_stock[3]", text: "" },
+      { path: "wire_stock[4]", text: "0.18 mm grade 2" },
+    ]);
+    expect(shelf).toBe(blind.replace("  - 32 AWG heavy\n", "").replace("  - 33 AWG heavy\n", "  - 33 AWG heavy\n  - 0.18 mm grade 2\n"));
+  });
+
+  it("refuses a row beyond the list's end (the form numbers rows from 0 without gaps)", () => {
+    expect(() => applyEdits(blind, [{ path: "original.tests[3]", text: "{ supply: 6 V }" }])).toThrow(/a new one goes at \[1\]/);
+  });
+
+  it("takes and loses a key inside a one-line { … } map, in place", () => {
+    const drill = readFileSync(join(ROOT, "jobs/drill-lap-0112.yaml"), "utf8");
+    const a = applyEdits(drill, [{ path: "target.supply.frequency", text: "" }]);
+    expect(a).toContain("  supply: { value: 230 V, kind: ac }\n");
+    const b = applyEdits(a, [{ path: "target.supply.frequency", text: "60 Hz" }]);
+    expect(b).toContain("  supply: { value: 230 V, kind: ac, frequency: 60 Hz }\n");
+    const c = applyEdits(drill, [{ path: "target.supply.value", text: "" }]);
+    expect(c).toContain("  supply: { kind: ac, frequency: 50 Hz }\n");
+    expect(applyEdits("a: {}\n", [{ path: "a.b", text: "1" }])).toBe("a: { b: 1 }\n");
+    expect(applyEdits("a: []\n", [{ path: "a[0]", text: "x" }])).toBe("a: [x]\n");
+    expect(applyEdits("a: [x, y, z]\n", [{ path: "a[1]", text: "" }])).toBe("a: [x, z]\n");
+    expect(applyEdits("a: [x, y, z]\n", [{ path: "a[2]", text: "" }])).toBe("a: [x, y]\n");
+  });
+
+  it("a union switches form: a bare tolerance becomes { below, above } and back", () => {
+    const a = applyEdits(blind, [{ path: "target.tolerance", text: "{ below: 0.02, above: 0.05 }" }]);
+    expect(a).toContain("  tolerance: { below: 0.02, above: 0.05 }\n");
+    expect(loadJobText(a).target.tolerance).toEqual({ below: 0.02, above: 0.05 });
+    expect(applyEdits(a, [{ path: "target.tolerance", text: "0.03" }])).toBe(blind);
+  });
+
+  it("a missing list is created with its first row", () => {
+    const t = "version: 1\noriginal:\n  turns: 3   # counted\n";
+    expect(applyEdits(t, [{ path: "original.tests[0]", text: "{ supply: 6 V }" }])).toBe(
+      "version: 1\noriginal:\n  turns: 3   # counted\n  tests: [{ supply: 6 V }]\n",
+    );
+  });
+});

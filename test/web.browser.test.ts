@@ -124,6 +124,53 @@ describe.skipIf(!have && !process.env.CI)("the workbench in Chromium", () => {
     await p.context().close();
   });
 
+  it("readings are judged as they are typed: alone against the plan first, coil 3 named once r3 and two others are in", async () => {
+    const p = await page();
+    await p.goto(`${local.url}bench/jobs/blind-motor-0031.yaml`);
+    await p.waitForSelector("[data-reading]");
+    await p.fill('input[name="temperature"]', "21 C");
+    const judged = async () => Number((await p.getAttribute("body", "data-judged")) ?? 0);
+    const type = async (i: number, v: string) => {
+      const n = await judged();
+      await p.fill(`[data-reading="${i}"]`, v);
+      await p.waitForFunction((k) => Number(document.body.dataset.judged ?? 0) > k, n);
+    };
+    await type(0, "1.329");
+    // one reading: judged alone against the plan, no median yet
+    expect(await p.textContent('.reading[data-index="0"] .judge')).toMatch(/of plan$/);
+    expect(await p.textContent("#verdict-line")).toBe("1 of 5 readings: none out so far");
+    await type(1, "1.327");
+    await type(3, "1.330");
+    expect(await p.locator(".suspect-label").count()).toBe(0);
+    await type(2, "1.234");
+    await p.waitForSelector('.suspect-label[data-suspect="3"]');
+    expect(await p.textContent("#verdict-line")).toBe("4 of 5 readings: none out so far");
+    expect(await p.textContent(".suspects")).toContain("coil 3");
+    expect(await p.textContent('.reading[data-index="2"] .judge')).toMatch(/of median/);
+    // the last one: the full diagnosis
+    await type(4, "1.327");
+    expect(await p.textContent("#verdict-line")).toMatch(/^every reading within the bench rules/);
+    expect(await p.locator(".suspect-label").count()).toBe(1);
+    await p.context().close();
+  });
+
+  it("the card is shown in the page, with print, paper and download", async () => {
+    const p = await page();
+    await p.goto(local.url);
+    await p.click("tr:has(a.job:text('robot-3slot-0007')) a:text('card')");
+    await p.waitForSelector("iframe#card");
+    const src = await p.getAttribute("iframe#card", "src");
+    expect(src).toBe("/api/card/jobs/robot-3slot-0007.yaml");
+    const pdf = await p.request.get(new URL(src!, local.url).href);
+    expect(pdf.status()).toBe(200);
+    expect(pdf.headers()["content-type"]).toBe("application/pdf");
+    expect(await p.isVisible("#print")).toBe(true);
+    await p.selectOption("#paper", "letter");
+    expect(await p.getAttribute("iframe#card", "src")).toBe("/api/card/jobs/robot-3slot-0007.yaml?paper=letter");
+    expect(await p.getAttribute("#download", "href")).toBe("/api/card/jobs/robot-3slot-0007.yaml?paper=letter&download=1");
+    await p.context().close();
+  });
+
   it("saves a job and reloads it with its comments intact", async () => {
     const p = await page();
     await p.goto(`${local.url}job/jobs/robot-3slot-0007.yaml`);
@@ -137,6 +184,50 @@ describe.skipIf(!have && !process.env.CI)("the workbench in Chromium", () => {
     const after = readFileSync(join(shop, "jobs/robot-3slot-0007.yaml"), "utf8");
     const comments = (t: string) => t.split("\n").filter((l) => l.includes("#"));
     expect(comments(after)).toEqual(comments(before));
+    await p.context().close();
+  });
+
+  it("lists and unions have their own controls: a row added and one removed, a tolerance as { below, above }; saved with comments and order kept", async () => {
+    const file = join(shop, "jobs/chair-wave-0045.yaml");
+    const before = readFileSync(file, "utf8");
+    const p = await page();
+    await p.goto(`${local.url}job/jobs/chair-wave-0045.yaml`);
+    await p.waitForSelector("#chosen");
+    // the goal is duty: the other goals' fields are out of the way
+    expect(await p.isVisible('[data-field="target.kv"]')).toBe(false);
+    expect(await p.isVisible('[data-field="target.duty.torque"]')).toBe(true);
+    // the second test removed, a third added and filled in, field by field
+    await p.click('[data-item="original.tests[1]"] [data-remove]');
+    await p.click('[data-add="original.tests"]');
+    await p.fill('[data-field="original.tests[1].supply"]', "18 V");
+    await p.fill('[data-field="original.tests[1].no_load_current"]', "0.95 A");
+    await p.fill('[data-field="original.tests[1].no_load_speed"]', "2450 rpm");
+    // a unit that makes no sense is shown at the row's field
+    await p.fill('[data-field="original.tests[1].temperature"]', "20 kg");
+    await p.waitForSelector('output[data-for="original.tests[1].temperature"] .error');
+    await p.fill('[data-field="original.tests[1].temperature"]', "20 C");
+    await p.waitForFunction(() => !document.querySelector('output[data-for="original.tests[1].temperature"] .error'));
+    // the tolerance as a one-sided band: the bare value carries over into below and above
+    await p.check('[data-variant-of="target.tolerance"][value="1"]');
+    expect(await p.inputValue('[data-field="target.tolerance.below"]')).toBe("0.03");
+    await p.fill('[data-field="target.tolerance.above"]', "0.05");
+    await p.click("#save");
+    await p.waitForSelector("#save-status.ok");
+    const after = readFileSync(file, "utf8");
+    expect(after).toContain(
+      "    - { supply: 24 V, no_load_current: 1.1 A, no_load_speed: 3350 rpm, temperature: 20 C }\n    - { supply: 18 V, no_load_current: 0.95 A, no_load_speed: 2450 rpm, temperature: 20 C }\n",
+    );
+    expect(after).not.toContain("supply: 12 V");
+    expect(after).toContain("  tolerance: { below: 0.03, above: 0.05 }\n");
+    const comments = (t: string) => t.split("\n").filter((l) => l.includes("#"));
+    expect(comments(after)).toEqual(comments(before));
+    // the lines not edited are where they were
+    const untouched = (t: string) => t.split("\n").filter((l) => !/tests:|- \{ supply|tolerance:/.test(l));
+    expect(untouched(after)).toEqual(untouched(before));
+    // reloaded, the form shows what was saved
+    await p.reload();
+    expect(await p.inputValue('[data-field="original.tests[1].supply"]')).toBe("18 V");
+    expect(await p.isChecked('[data-variant-of="target.tolerance"][value="1"]')).toBe(true);
     await p.context().close();
   });
 

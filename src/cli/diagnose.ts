@@ -23,6 +23,7 @@ import { loadMeasured } from "./log.js";
 import { predictWound, type WoundInput } from "../logbook/predict.js";
 import { recordSchema, type LogRecord } from "../logbook/record.js";
 import { diagnose, type Diagnosis } from "../winding/diagnose.js";
+import { diagnosePartial, SPREAD_FROM, type PartialDiagnosis } from "../winding/diagnose-partial.js";
 import { DEFAULT_METER_RESOLUTION_OHM, isOpenText, readingName, turnLengthCalibrated } from "../bench/rules.js";
 import { to20C } from "../wire/copper.js";
 import { ohm, sig, signedPct, table } from "./format.js";
@@ -51,11 +52,17 @@ export interface DiagnoseInput {
   source: string;
 }
 
-/** `--bars 1.05,1.05,OL,…` → Ω; each item may carry a unit ("1.05 ohm", "1050 mohm"), or read OL / open (Infinity). */
-export function parseBars(text: string, bars: number): number[] {
+/**
+ * `--bars 1.05,1.05,OL,…` → Ω; each item may carry a unit ("1.05 ohm", "1050 mohm"), or read OL / open (Infinity).
+ * With `partial`, an item left blank (`1.05,,1.04,…`) is a reading not taken yet: null.
+ */
+export function parseBars(text: string, bars: number): number[];
+export function parseBars(text: string, bars: number, partial: true): (number | null)[];
+export function parseBars(text: string, bars: number, partial = false): (number | null)[] {
   const items = text.split(",").map((s) => s.trim());
   const problems: Problem[] = [];
   const out = items.map((s, i) => {
+    if (partial && s === "") return null;
     if (isOpenText(s)) return Infinity;
     const r = parseQuantity(s === "" ? "x" : s, "resistance");
     if (!r.ok) {
@@ -71,7 +78,7 @@ export function parseBars(text: string, bars: number): number[] {
     throw inputError(
       "readings_count",
       "--bars",
-      `${out.length} bar-to-bar readings for ${bars} bars; give r1 … r${bars} separated by commas (r_i between bar i and bar i+1, r${bars} between bar ${bars} and bar 1)`,
+      `${out.length} bar-to-bar readings for ${bars} bars; give r1 … r${bars} separated by commas (r_i between bar i and bar i+1, r${bars} between bar ${bars} and bar 1)${partial ? ", a blank for each one not read yet" : ""}`,
     );
   }
   return out;
@@ -174,6 +181,64 @@ export function diagnoseJson(job: { id: string }, input: DiagnoseInput, d: Diagn
   };
 }
 
+/** `diagnose --partial --json`: the readings so far, each as far as the set allows (src/winding/diagnose-partial.ts). */
+export function partialJson(job: { id: string }, input: DiagnoseInput, d: PartialDiagnosis) {
+  return {
+    ok: d.ok,
+    errors: [],
+    partial: true,
+    job_id: job.id,
+    source: input.source,
+    temperature_c: input.temperature,
+    turns_per_coil: input.turns,
+    meter_resolution_ohm: input.resolution,
+    read: d.read,
+    of: d.of,
+    spread_from: d.spread_from,
+    median_ohm: nullable(d.median_ohm),
+    level: d.level && {
+      median_ohm: nullable(d.level.median_ohm),
+      expected_median_ohm: d.level.expected_median_ohm,
+      deviation_fraction: nullable(d.level.deviation_fraction),
+      window_fraction: d.level.window_fraction,
+      pass: d.level.pass,
+      source: d.level.source,
+    },
+    readings: d.readings.map((r, i) => ({ ...r, reading_as_read_ohm: r.read && !r.open ? input.readings[i] : null })),
+    coils: d.coils,
+    failures: d.failures.map((f) => ({ ...f, reading_ohm: nullable(f.reading_ohm) })),
+    suspects: d.suspects.map((s) => ({
+      kind: s.kind,
+      coils: s.coils,
+      bars: s.bars,
+      readings: s.readings,
+      turns_estimate: s.turns_estimate,
+      message: s.message,
+    })),
+    notes: d.notes,
+    warnings: [],
+  };
+}
+
+function partialText(job: { id: string }, d: PartialDiagnosis): string {
+  const L = [`${job.id}: ${d.notes[0]}`];
+  for (const r of d.readings) {
+    if (!r.read) continue;
+    const alone = r.alone
+      ? r.alone.deviation_fraction === null
+        ? "open"
+        : `${signedPct(r.alone.deviation_fraction)} from the plan's ${ohm(r.expected_ohm!)} (${r.alone.pass ? "within" : "outside"} ±${sig(r.alone.window_fraction * 100)} %)`
+      : "";
+    const spread =
+      r.pass === null ? "" : `; ${r.of_median_fraction === null ? "open" : `${signedPct(r.of_median_fraction)} from the median`}: ${r.pass ? "ok" : "OUT"}`;
+    L.push(`  ${r.name} ${r.open ? "OL" : ohm(r.reading_ohm!)}  ${alone}${spread}`);
+  }
+  for (const f of d.failures) L.push(`  ✗ ${f.message}`);
+  for (const s of d.suspects) L.push(`  ! ${s.message} [${s.kind}]`);
+  L.push(d.ok ? "No reading so far is outside the bench rules." : "A reading so far is outside the bench rules (exit status 4).");
+  return L.join("\n");
+}
+
 export function diagnoseText(job: { id: string }, input: DiagnoseInput, d: Diagnosis): string {
   const L: string[] = [];
   L.push(
@@ -244,6 +309,7 @@ interface DiagnoseArgs {
   resolution?: string;
   learn: boolean;
   logbook?: string;
+  partial?: boolean;
 }
 
 /** The readings and what to judge them against, from a record, a measured file or --bars (with the plan), or from a layout-only job (no plan). */
@@ -283,7 +349,8 @@ function gatherInput(io: Io, argv: DiagnoseArgs, loaded: { job: Job | null; id: 
     meter = m.meter_resolution;
     given = true;
   } else {
-    readings = parseBars(argv.bars!, loaded.bars);
+    // a reading not taken yet (--partial) is NaN here, null again in diagnosePartial
+    readings = argv.partial ? parseBars(argv.bars!, loaded.bars, true).map((r) => r ?? NaN) : parseBars(argv.bars!, loaded.bars);
     if (argv.temperature !== undefined) {
       const t = parseQuantity(argv.temperature, "temperature");
       if (!t.ok) throw inputError("bad_quantity", "--temperature", `--temperature ${argv.temperature}: ${t.message}`);
@@ -336,6 +403,10 @@ export function diagnoseCommand(yargs: Argv, io: Io, setStatus: (n: number) => v
           describe: `the meter's resolution, e.g. "0.001 ohm" (default: the file's, else ${DEFAULT_METER_RESOLUTION_OHM} ohm)`,
         })
         .option("tolerance", { type: "number", describe: "tolerance on each coil as a fraction (default 0.05, the spread rule; common practice)" })
+        .option("partial", {
+          type: "boolean",
+          describe: `readings still being taken: a blank for each one not read yet (1.33,,1.32,…); each read one is judged alone against the plan, and from ${SPREAD_FROM} on against their median`,
+        })
         .option("json", { type: "boolean", default: false, describe: "print { ok, errors, failures, coils, suspects, … } as JSON" }),
 
     async (argv) => {
@@ -343,6 +414,8 @@ export function diagnoseCommand(yargs: Argv, io: Io, setStatus: (n: number) => v
         await guarded(io, argv.json, (where) => {
           const ways = [argv.bars, argv.measured, argv.record].filter((x) => x !== undefined).length;
           if (ways !== 1) throw inputError("readings_missing", "", "give the readings one way: --bars r1,r2,…, --measured FILE or --record FILE");
+          if (argv.partial && argv.bars === undefined)
+            throw inputError("option_conflict", "--partial", "--partial goes with --bars (a blank for each reading not taken yet)");
           if (argv.temperature !== undefined && argv.bars === undefined)
             throw inputError("option_conflict", "--temperature", "--temperature goes with --bars (measured files and records carry their own)");
           if (argv.tolerance !== undefined && !(argv.tolerance > 0 && argv.tolerance < 1)) {
@@ -359,6 +432,17 @@ export function diagnoseCommand(yargs: Argv, io: Io, setStatus: (n: number) => v
             );
           }
           const at20 = input.readings.map((r) => (Number.isFinite(r) ? to20C(r, input.temperature) : r));
+          if (argv.partial) {
+            const d = diagnosePartial(
+              layout,
+              at20.map((r) => (Number.isNaN(r) ? null : r)),
+              input.expected,
+              input.turns,
+              { resolutionOhm: input.resolution, calibrated: input.calibrated, bareDiameterM: input.bareDiameter ?? undefined },
+            );
+            io.out(argv.json ? JSON.stringify(partialJson(loaded, input, d), null, 2) : partialText(loaded, d));
+            return d.ok ? 0 : 4;
+          }
           const d = diagnose(layout, at20, input.expected, input.turns, argv.tolerance, {
             resolutionOhm: input.resolution,
             calibrated: input.calibrated,

@@ -5,6 +5,8 @@ import { reasonText } from "../design/plan.js";
 import { mm, ohm, pct, rpm, sig, table } from "../format/number.js";
 import { goalSummary } from "../format/goal.js";
 import { GOAL_UNIT, goalValue, toGrams } from "../format/units.js";
+import { seriesMotorRows, supplyText } from "../format/series.js";
+import { torqueUnit } from "../plot/curves.js";
 
 /** The job, the layout and its notes; the winding to wind (or the closest), its goal and fills. */
 function headText(plan: Plan, L: string[]): void {
@@ -53,9 +55,77 @@ function cutAndReadingsText(plan: Plan, L: string[]): void {
   for (const v of plan.resistance.validity) L.push(`  note: ${v}`);
 }
 
+/** The rows every motor table starts with: the windings and their terminal resistance at 20 °C. */
+function windingRows(plan: Plan): [string, string, string][] {
+  const d = plan.design;
+  return [
+    [
+      "turns × wire",
+      `${plan.original.turns} × ${plan.original.wire.label}${plan.original.strands > 1 ? ` ×${plan.original.strands}` : ""}`,
+      `${d.turns} × ${d.wire.label}${d.strands > 1 ? ` ×${d.strands}` : ""}`,
+    ],
+    ["terminal Ω (20 °C)", ohm(plan.original.terminal_ohm) + (plan.original.terminal_measured ? " meas." : ""), ohm(plan.resistance.terminal_ohm)],
+  ];
+}
+
+/** The figures at the duty point, original and new (rpm, A), when the job gives a duty. */
+function dutyRows(plan: Plan): [string, string, string][] {
+  if (!plan.duty || !plan.original_duty) return [];
+  return [
+    [`at ${sig(plan.duty.torque * 1e3)} mN·m: speed rpm`, rpm(plan.original_duty.speed), rpm(plan.duty.speed)],
+    ["  current A", sig(plan.original_duty.current), sig(plan.duty.current)],
+    ["  efficiency", pct(plan.original_duty.efficiency), pct(plan.duty.efficiency)],
+  ];
+}
+
+/** A table of [label, original, new] rows, indented. */
+function sideBySide(rows: string[][]): string {
+  return table(["", "original", "new"], rows)
+    .split("\n")
+    .map((s) => "  " + s)
+    .join("\n");
+}
+
+/**
+ * A series (universal) motor: the series model's figures side by side (src/format/series.ts, the
+ * card's rows), the brief no-load run only for a universal motor, the locked-rotor check at its
+ * reduced voltage, and how the model was calibrated; never a stall figure at the supply.
+ */
+function seriesMotorText(plan: Plan, L: string[]): void {
+  const sp = plan.series;
+  L.push("");
+  if (!sp) {
+    L.push(`Series motor at ${sig(plan.supply)} V ${plan.supply_kind.toUpperCase()}: no running figures (the job does not describe the field: field_winding)`);
+    L.push(sideBySide(windingRows(plan)));
+    return;
+  }
+  L.push(
+    `Series motor at ${supplyText(sp.supply)}: rated load hot (${sig(plan.resistance.hot_temperature)} °C), locked rotor cold; ${sp.ratedSource ? `the rated torque from the ${sp.ratedSource.replace("_", " ")}` : "the rated torque not known (give the nameplate or a load test)"}`,
+  );
+  const tu = torqueUnit(sp.ratedTorque || 0.001);
+  const torque = (x: number | null) => (x === null ? "—" : sig(x * tu.k));
+  L.push(sideBySide([...windingRows(plan), ...seriesMotorRows(sp, torque, tu.unit), ...dutyRows(plan)]));
+  if (sp.noLoad) {
+    L.push(`  no-load run, briefly, in its housing with its own fan: ${sig(sp.noLoad.current)} A at ${rpm(sp.noLoad.speed)} rpm (new winding)`);
+  } else if (sp.supply.frequency > 0) {
+    L.push("  no-load run: no expected figure (nothing running calibrates the field); never longer than a few seconds, in its housing");
+  } else {
+    L.push("  no-load run: not for this motor (a series DC motor races unloaded)");
+  }
+  L.push(
+    sp.lockedRotor
+      ? `  locked-rotor check at ${supplyText(sp.lockedRotor.supply)}, never at mains: ${sp.lockedRotor.basis}`
+      : "  locked-rotor check: no expected figure (the field's resistance, on AC its inductance or a locked-rotor reading, and a rated current are needed); never at mains",
+  );
+  for (const b of sp.basis) L.push(`  model: ${b}`);
+}
+
 /** The original and the new motor side by side (rpm, A, mN·m, W), and at the duty point. */
 function motorText(plan: Plan, L: string[]): void {
-  const d = plan.design;
+  if (plan.job.armature.field === "series") {
+    seriesMotorText(plan, L);
+    return;
+  }
   L.push("");
   L.push(
     `Motor at ${sig(plan.supply)} V ${plan.supply_kind.toUpperCase()} (Ke from ${plan.calibration.source.replace(/_/g, "-")}${plan.calibration.uncertainty !== null ? `, ±${sig(plan.calibration.uncertainty * 100, 2)} %` : ""})`,
@@ -63,12 +133,7 @@ function motorText(plan: Plan, L: string[]): void {
   const m = plan.motor;
   const o = plan.original_motor;
   const rows: [string, string, string][] = [
-    [
-      "turns × wire",
-      `${plan.original.turns} × ${plan.original.wire.label}${plan.original.strands > 1 ? ` ×${plan.original.strands}` : ""}`,
-      `${d.turns} × ${d.wire.label}${d.strands > 1 ? ` ×${d.strands}` : ""}`,
-    ],
-    ["terminal Ω (20 °C)", ohm(plan.original.terminal_ohm) + (plan.original.terminal_measured ? " meas." : ""), ohm(plan.resistance.terminal_ohm)],
+    ...windingRows(plan),
     ...kvRows(plan).map(([label, f]) => [label, f(o), f(m)] as [string, string, string]),
     ["no-load speed rpm", rpm(o.noLoadSpeed), rpm(m.noLoadSpeed)],
     ["no-load current A", sig(o.noLoadCurrent), sig(m.noLoadCurrent)],
@@ -77,22 +142,10 @@ function motorText(plan: Plan, L: string[]): void {
     ["stall torque mN·m", o.stallTorque === null ? "—" : sig(o.stallTorque * 1e3), m.stallTorque === null ? "—" : sig(m.stallTorque * 1e3)],
     ["peak efficiency", pct(o.peakEfficiency), pct(m.peakEfficiency)],
     ["max output W", sig(o.maxOutputW), sig(m.maxOutputW)],
+    ...dutyRows(plan),
   ];
-  if (plan.duty && plan.original_duty) {
-    rows.push([`at ${sig(plan.duty.torque * 1e3)} mN·m: speed rpm`, rpm(plan.original_duty.speed), rpm(plan.duty.speed)]);
-    rows.push(["  current A", sig(plan.original_duty.current), sig(plan.duty.current)]);
-    rows.push(["  efficiency", pct(plan.original_duty.efficiency), pct(plan.duty.efficiency)]);
-  }
   if (kvRows(plan).length) L.push(`  ${KV_DEFINITIONS}`);
-  L.push(
-    table(
-      ["", "original", "new"],
-      rows.map((r) => [...r]),
-    )
-      .split("\n")
-      .map((s) => "  " + s)
-      .join("\n"),
-  );
+  L.push(sideBySide(rows));
 }
 
 /** The best candidates and nearest misses (goal figure in goal.unit), rejections, sensitivity, learning, warnings. */

@@ -10,7 +10,7 @@ import { copperFactor } from "../wire/copper.js";
 import type { Warning } from "../errors.js";
 import type { ArmatureContext } from "./context.js";
 import type { Calibration } from "./types.js";
-import { nameplateMotorSpeed } from "./series.js";
+import { nameplateMotorSpeed, setupSeries } from "./series.js";
 
 /** Default brush material when the job does not say: metal for small permanent-magnet motors (rotor under 30 mm), else carbon (common practice, no published source). */
 export function defaultBrushMaterial(job: Job): BrushMaterial {
@@ -92,6 +92,9 @@ export function calibrateOriginal(ctx: ArmatureContext, logbook?: LogbookCalibra
       message: "no no-load test: the loss torque is unknown and taken as zero, so no-load speeds read high and no-load currents read zero",
     });
   }
+  // the series model's calibration, when the job describes the field (design/series.ts)
+  const series = seriesModel ? setupSeries(ctx, bd.volts) : null;
+  if (series) warnings.push(...series.warnings);
   let disagreementValue: number | null = null;
   if (c.fits.generator && c.fits.noLoad) disagreementValue = Math.abs(c.fits.generator.value - c.fits.noLoad.value) / c.fits.generator.value;
   return {
@@ -106,6 +109,7 @@ export function calibrateOriginal(ctx: ArmatureContext, logbook?: LogbookCalibra
       disagreement: disagreementValue,
       brush_drop: bd.volts,
       brush_drop_basis: bd.basis,
+      series,
     },
     warnings,
   };

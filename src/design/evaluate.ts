@@ -72,6 +72,8 @@ export interface FullEvaluation extends Candidate {
 export interface FullOptions {
   /** A measured terminal resistance at 20 °C (Ω) that wins over the computed one for the motor figures (the original). */
   measuredTerminal20?: number;
+  /** The original winding: its motor report on its own supply (a conversion's original runs on the old one). */
+  original?: boolean;
 }
 
 export interface Evaluator {
@@ -96,6 +98,8 @@ export interface Evaluator {
   /** Terminal resistance of a ring of equal coils of 1 Ω (brushes each on one bar). */
   ringFactor: number;
   supply: number;
+  /** The motor model of the job (src/design/motor.ts): the plan reads the series model's job-wide figures from it. */
+  physics: MotorPhysics;
 }
 
 /** What does not change from one winding to the next: limits, target, ring factor, hot factor, the motor model. */
@@ -108,8 +112,10 @@ interface Setup {
   target: number;
   fillLimit: number;
   spaceLimit: number;
-  /** Restore, or convert (judged as a restore is): the copper area is the goal. */
+  /** Restore: the copper area is the goal. */
   likeRestore: boolean;
+  /** The load torque the goal is judged at (N·m): the duty's, or a conversion's rated torque; null for other goals. */
+  loadTorque: number | null;
   ringFactor: number;
   hotFactor: number;
   /** Mean riding increment per metre of bundle thickness over the live coils (the increment is linear in it). */
@@ -197,16 +203,16 @@ function terminalModel(layout: WindingLayout, g: number[], ringFactor: number): 
 }
 
 /**
- * The goal's target in SI from the job (restore: the original's copper area, m²; convert: that area
- * ÷ the conversion's turns ratio, the same copper in the slot, src/design/series.ts).
+ * The goal's target in SI from the job (restore: the original's copper area, m²; convert: the
+ * original's rated speed, rad/s, to be kept at its rated torque on the new supply, src/design/series.ts).
  */
-function goalTarget(ctx: ArmatureContext, convertRatio: number | null): number {
+function goalTarget(ctx: ArmatureContext, physics: MotorPhysics): number {
   const t = ctx.job.target;
   switch (t.goal) {
     case "restore":
       return ctx.original.strands * ctx.original.wire.area;
     case "convert":
-      return (ctx.original.strands * ctx.original.wire.area) / (convertRatio ?? 1);
+      return physics.series?.convertSpeed ?? NaN;
     case "fixed":
       return t.fixed!.strands * resolveWire(t.fixed!.wire).area;
     case "no_load_speed":
@@ -220,7 +226,7 @@ function goalTarget(ctx: ArmatureContext, convertRatio: number | null): number {
   }
 }
 
-function setupFor(ctx: ArmatureContext, cal: Calibration, supply: number, convertRatio: number | null = null): Setup {
+function setupFor(ctx: ArmatureContext, cal: Calibration, supply: number): Setup {
   const t = ctx.job.target;
   const layout = ctx.layout;
   const spec = layout.spec;
@@ -230,8 +236,8 @@ function setupFor(ctx: ArmatureContext, cal: Calibration, supply: number, conver
     layout,
     layout.coils.map(() => 1),
   ).single;
-  const likeRestore = t.goal === "restore" || t.goal === "convert";
-  const physics = motorPhysicsFor(ctx.job);
+  const likeRestore = t.goal === "restore";
+  const physics = motorPhysicsFor(ctx.job, cal, ctx.original.turns);
   const share = coilCurrentShare(layout).rms;
   const atPoint = t.duty !== undefined || t.rated_current !== undefined;
   return {
@@ -244,9 +250,11 @@ function setupFor(ctx: ArmatureContext, cal: Calibration, supply: number, conver
     geometryChecked: t.goal !== "restore",
     supply,
     goal: t.goal,
-    target: goalTarget(ctx, convertRatio),
+    target: goalTarget(ctx, physics),
     likeRestore,
-    fillLimit: likeRestore ? Math.max(t.limits.copper_fill, ctx.original.copperFill) : t.limits.copper_fill,
+    loadTorque: t.duty?.torque ?? (t.goal === "convert" ? (cal.series?.ratedTorque ?? null) : null),
+    // a conversion's winding takes the place of the original's, which fitted: its own fill counts as fitting
+    fillLimit: likeRestore || t.goal === "convert" ? Math.max(t.limits.copper_fill, ctx.original.copperFill) : t.limits.copper_fill,
     spaceLimit: Math.min(t.limits.space_fill, HEX_PACKING),
     ringFactor,
     terminalOf: terminalModel(layout, ridingPerMetre(layout), ringFactor),
@@ -334,37 +342,37 @@ interface GoalFigures {
 function goalFigures(s: Setup, w: Winding, terminal20: number): GoalFigures {
   const { ctx, cal, physics, supply } = s;
   const t = ctx.job.target;
-  const terminalHot = terminal20 * s.hotFactor;
   const ke = cal.ke === null ? null : keScaledByTurns(cal.ke, ctx.original.turns, w.turns);
   const out: GoalFigures = {
     ke,
     achieved: null,
-    stall_current_hot: physics.stallCurrent(ke, terminalHot, cal, supply),
-    stall_current_cold: physics.stallCurrent(ke, terminal20, cal, supply),
+    stall_current_hot: physics.stallCurrent(ke, w.turns, terminal20, s.hotFactor, supply),
+    stall_current_cold: physics.stallCurrent(ke, w.turns, terminal20, 1, supply),
     current_density: null,
     duty_input_w: null,
     dutyPoint: null,
   };
   switch (s.goal) {
     case "restore":
-    case "convert":
     case "fixed":
       out.achieved = w.strands * w.wire.area;
       break;
     case "no_load_speed":
-      if (ke !== null) out.achieved = physics.noLoad(ke, terminal20, cal, supply)?.speed ?? null;
+      if (ke !== null) out.achieved = physics.noLoad(ke, w.turns, terminal20, 1, supply)?.speed ?? null;
       break;
     case "kv":
       // Kv in rad/s per volt: the constant 1/Ke (60/(2π·Ke) rpm/V), or no-load speed ÷ supply (docs "Kv")
-      if (ke !== null && t.kv_basis === "no_load") out.achieved = (physics.noLoad(ke, terminal20, cal, supply)?.speed ?? 0) / supply;
+      if (ke !== null && t.kv_basis === "no_load") out.achieved = (physics.noLoad(ke, w.turns, terminal20, 1, supply)?.speed ?? 0) / supply;
       else if (ke !== null) out.achieved = 1 / ke;
       break;
     case "stall_current":
       out.achieved = out.stall_current_cold;
       break;
     case "duty":
-      if (ke !== null && physics.field === "constant") {
-        out.dutyPoint = physics.atTorque(ke, terminalHot, cal, supply, t.duty!.torque);
+    case "convert":
+      // the speed at the load torque (a conversion: the original's rated torque on the new supply), hot
+      if (physics.canPredict(ke) && s.loadTorque !== null) {
+        out.dutyPoint = physics.atTorque(ke, w.turns, terminal20, s.hotFactor, supply, s.loadTorque);
         out.achieved = out.dutyPoint ? out.dutyPoint.speed : 0;
         out.duty_input_w = out.dutyPoint ? out.dutyPoint.inputW : null;
       }
@@ -434,18 +442,18 @@ function evaluateCheap(s: Setup, w: Winding): Candidate {
   return candidate(s, w, mlt, K * mlt, s.terminalOf(base, b, K)).c;
 }
 
-/** The duty report of a winding at its duty point (null without a duty goal, or beyond stall). */
-function dutyOf(s: Setup, w: Winding, ke: number | null, terminalHot: number): DutyReport | null {
+/** The duty report of a winding at its duty point (null without a duty goal, or beyond stall); `r20` its terminal resistance at 20 °C (Ω). */
+function dutyOf(s: Setup, w: Winding, ke: number | null, r20: number): DutyReport | null {
   const d = s.ctx.job.target.duty;
-  if (!d || ke === null) return null;
-  const p = s.physics.atTorque(ke, terminalHot, s.cal, s.supply, d.torque);
+  if (!d || !s.physics.canPredict(ke)) return null;
+  const p = s.physics.atTorque(ke, w.turns, r20, s.hotFactor, s.supply, d.torque);
   if (p === null) return null;
   return {
     torque: d.torque,
     target_speed: d.speed,
     current: p.current,
     speed: p.speed,
-    efficiency: s.cal.loss_known ? p.efficiency : null,
+    efficiency: s.physics.lossKnown ? p.efficiency : null,
     input_w: p.inputW,
     output_w: p.outputW,
     current_density: currentDensityByShare(p.current, s.share, w.strands, w.wire.area),
@@ -470,16 +478,16 @@ function evaluateFull(s: Setup, w: Winding, options: FullOptions = {}): FullEval
   };
   const { c } = candidate(s, w, meanOf(coilMlt, layout), meanOf(coilOhms, layout), t.single);
   const r20 = options.measuredTerminal20 ?? t.single;
-  const motor = s.physics.report(c.ke, r20, s.hotFactor, s.cal, s.supply);
-  return { ...c, coil_mlt: coilMlt, coil_ohms: coilOhms, ring, motor, duty: dutyOf(s, w, c.ke, r20 * s.hotFactor) };
+  const motor = s.physics.report(c.ke, w.turns, r20, s.hotFactor, s.supply, options.original ? "original" : "new");
+  return { ...c, coil_mlt: coilMlt, coil_ohms: coilOhms, ring, motor, duty: dutyOf(s, w, c.ke, r20) };
 }
 
 /**
  * The evaluator of one armature and calibration at the job's supply (V): the setup done once, both
- * modes. `convertRatio`: goal convert's turns ratio (src/design/series.ts).
+ * modes, and the motor model in use (src/design/motor.ts).
  */
-export function makeEvaluator(ctx: ArmatureContext, cal: Calibration, supply = supplyOf(ctx.job).volts, convertRatio: number | null = null): Evaluator {
-  const s = setupFor(ctx, cal, supply, convertRatio);
+export function makeEvaluator(ctx: ArmatureContext, cal: Calibration, supply = supplyOf(ctx.job).volts): Evaluator {
+  const s = setupFor(ctx, cal, supply);
   return {
     evaluate: (turns, wire, strands) => evaluateCheap(s, { turns, wire, strands }),
     full: (w, options) => evaluateFull(s, w, options),
@@ -493,6 +501,7 @@ export function makeEvaluator(ctx: ArmatureContext, cal: Calibration, supply = s
     spaceLimit: s.spaceLimit,
     ringFactor: s.ringFactor,
     supply,
+    physics: s.physics,
   };
 }
 
@@ -520,8 +529,9 @@ function originalDensity(ctx: ArmatureContext, cal: Calibration, physics: MotorP
   const t = ctx.job.target;
   const o = ctx.original;
   let current: number | null = t.rated_current ?? null;
-  if (t.duty && cal.ke !== null && physics.field === "constant") {
-    current = physics.atTorque(cal.ke, o.terminal20 * copperFactor(t.hot_temperature), cal, supply, t.duty.torque)?.current ?? null;
+  const ke = cal.ke;
+  if (t.duty && physics.canPredict(ke)) {
+    current = physics.atTorque(ke, o.turns, o.terminal20, copperFactor(t.hot_temperature), supply, t.duty.torque)?.current ?? null;
   }
   return current === null ? null : currentDensityByShare(current, share, o.strands, o.wire.area);
 }

@@ -3,32 +3,48 @@
  * (src/design/evaluate.ts) asks the model for the figures a goal needs (no-load speed, stall
  * current, the point at a load torque) and for the full report of a chosen winding; it never
  * works a motor figure out itself. The sweep and the plan call the same functions here, and these
- * call the scalar functions of src/motor/model.ts.
+ * call the scalar functions of src/motor/model.ts (constant field) or src/motor/series.ts (series).
  *
- * Today: the constant-field model (permanent magnet, shunt at constant field current). A series or
- * universal motor is planned with the same object for now (armature figures only, src/motor/model.ts
- * `summarize`); a series model plugs in by implementing `MotorPhysics` and being returned by
- * `motorPhysicsFor` for `field: series` jobs (docs/contracts.md, "The models").
+ * Two models: the constant field (permanent magnet; a shunt field at constant field current, its
+ * current taken off the no-load test's before Ke is fitted, src/motor/calibrate.ts) and the series
+ * field (src/design/series.ts `seriesPhysics`, for `field: series` jobs whose field the job
+ * describes). A series job with no `field_winding` gets the armature-only model: Ke and the
+ * resistance, every other figure unknown (null). docs/contracts.md, "The models".
+ *
+ * A winding is given to the model by its Ke (the constant field's, V·s/rad, scaled by turns; null
+ * when nothing calibrates it), its turns per coil (the series model scales from the original's),
+ * its terminal resistance at 20 °C (Ω) and the factor R(T)/R(20 °C) of the temperature meant
+ * (IEC 60028), so that a series model can heat its field with it.
  *
  * Units: SI (V·s/rad, Ω, V, A, rad/s, N·m, W, A/m²).
  */
 import type { Job } from "../job/schema.js";
-import { curve, noLoad, pointAtTorque, stallCurrent, summarize, type MotorModel, type OperatingPoint } from "../motor/model.js";
-import { kvFromKe } from "../motor/emf.js";
+import { curve, noLoad, pointAtTorque, stallCurrent, summarize, unknownSummary, type MotorModel, type OperatingPoint } from "../motor/model.js";
+import type { Warning } from "../errors.js";
+import { seriesPhysics, type SeriesJobFigures, type SeriesSide } from "./series.js";
 import type { Calibration, MotorReport } from "./types.js";
 
-/** What the evaluation asks of a motor model, for a winding of constant `ke` (V·s/rad) and terminal resistance (Ω). */
+/** Which report a full evaluation asks for: the rewound winding's, or the original's (a conversion's original runs on its own supply). */
+export type ReportSide = "new" | "original";
+
+/** What the evaluation asks of a motor model for one winding (see the module's note for the arguments). */
 export interface MotorPhysics {
   readonly field: "constant" | "series";
-  /** No-load speed (rad/s) and current (A) at supply V through resistance `r` (Ω); null when the model cannot say; the
-   * current is null when no loss data calibrates it (docs "Unknown is null"). */
-  noLoad(ke: number, r: number, cal: Calibration, V: number): { speed: number; current: number | null } | null;
-  /** Stall current (A) at supply V through resistance `r` (Ω, at the temperature meant); null when the model cannot say. */
-  stallCurrent(ke: number | null, r: number, cal: Calibration, V: number): number | null;
-  /** The steady point at load torque T (N·m), hot resistance `rHot` (Ω); null beyond stall or when the model cannot say. */
-  atTorque(ke: number, rHot: number, cal: Calibration, V: number, T: number): OperatingPoint | null;
-  /** Every figure of the report for a winding of Ke `ke` (null: uncalibrated) and terminal `r20` (Ω at 20 °C). */
-  report(ke: number | null, r20: number, hotFactor: number, cal: Calibration, V: number): MotorReport;
+  /** True when the losses are known, so that efficiencies and no-load currents can be given (docs "Unknown is null"). */
+  readonly lossKnown: boolean;
+  /** The series model's job-wide figures (rated torque, the locked-rotor check voltage, a conversion's ratio); null for the others. */
+  readonly series: SeriesJobFigures | null;
+  /** Can this model predict a running figure of a winding of Ke `ke` (constant field: a calibrated Ke; series: a calibrated field)? */
+  canPredict(ke: number | null): boolean;
+  /** No-load speed (rad/s) and current (A) at supply V, winding at R(T)/R20 = `factor`; null when the model cannot say; the
+   * current is null when no loss data calibrates it. */
+  noLoad(ke: number | null, turns: number, r20: number, factor: number, V: number): { speed: number; current: number | null } | null;
+  /** Stall current (A) at supply V, winding at R(T)/R20 = `factor`; null when the model cannot say (never for a series motor at its supply). */
+  stallCurrent(ke: number | null, turns: number, r20: number, factor: number, V: number): number | null;
+  /** The steady point at load torque T (N·m), winding at R(T)/R20 = `factor`; null beyond stall or when the model cannot say. */
+  atTorque(ke: number | null, turns: number, r20: number, factor: number, V: number, T: number): OperatingPoint | null;
+  /** Every figure of the report for a winding, hot where the figure is hot (`hotFactor`). */
+  report(ke: number | null, turns: number, r20: number, hotFactor: number, V: number, side: ReportSide): MotorReport;
 }
 
 /** The model object of src/motor/model.ts for a winding. */
@@ -36,26 +52,12 @@ function modelOf(ke: number, resistance: number, cal: Calibration, field: MotorM
   return { ke, resistance, brushDrop: cal.brush_drop, loss: cal.loss, field };
 }
 
-/** A report with nothing known but Ke and the resistance. */
-function emptyReport(ke: number | null, rHot: number): MotorReport {
-  return {
-    ke: ke ?? NaN,
-    kt: ke ?? NaN,
-    kv: ke ? kvFromKe(ke) : NaN,
-    noLoadPerVolt: null,
-    resistance: rHot,
-    noLoadSpeed: null,
-    noLoadCurrent: null,
-    stallCurrent: null,
-    stallTorque: null,
-    peakEfficiency: null,
-    peakEfficiencyCurrent: null,
-    maxOutputW: null,
-    warnings: [],
-    stallCurrentCold: null,
-    model: null,
-    curve: [],
-  };
+/**
+ * A report with nothing known but Ke (null: uncalibrated) and the hot resistance (Ω), and the series
+ * model's figures when it has them: the one "unknown" report (src/motor/model.ts `unknownSummary`).
+ */
+export function unknownReport(ke: number | null, rHot: number, series: SeriesSide | null = null, warnings: Warning[] = []): MotorReport {
+  return { ...unknownSummary(ke, rHot, warnings), stallCurrentCold: null, model: null, curve: [], series };
 }
 
 /**
@@ -67,54 +69,65 @@ function lossesUnknown(r: MotorReport): MotorReport {
   return { ...r, noLoadCurrent: null, peakEfficiency: null, peakEfficiencyCurrent: null, curve: r.curve.map((p) => ({ ...p, efficiency: null })) };
 }
 
-/** Constant field: V = Ke·ω + I·R + V_b, T = Kt·I − T_f(ω) (src/motor/model.ts, the linear DC motor model). */
-export const CONSTANT_FIELD: MotorPhysics = {
-  field: "constant",
-  noLoad(ke, r, cal, V) {
-    const nl = noLoad(modelOf(ke, r, cal, "constant"), V);
-    return cal.loss_known ? nl : { speed: nl.speed, current: null };
-  },
-  stallCurrent: (ke, r, cal, V) => (ke === null ? null : stallCurrent(r, cal.brush_drop, V)),
-  atTorque: (ke, rHot, cal, V, T) => pointAtTorque(modelOf(ke, rHot, cal, "constant"), V, T),
-  report(ke, r20, hotFactor, cal, V) {
-    const rHot = r20 * hotFactor;
-    if (ke === null) return emptyReport(null, rHot);
-    const hot = modelOf(ke, rHot, cal, "constant");
-    const cold = modelOf(ke, r20, cal, "constant");
-    const nl = noLoad(cold, V);
-    const report: MotorReport = {
-      ...summarize(hot, V),
-      noLoadSpeed: nl.speed,
-      noLoadPerVolt: V > 0 ? nl.speed / V : null,
-      noLoadCurrent: nl.current,
-      stallCurrentCold: stallCurrent(r20, cal.brush_drop, V),
-      model: hot,
-      curve: curve(hot, V, 41),
-    };
-    return cal.loss_known ? report : lossesUnknown(report);
-  },
-};
+/**
+ * Constant field: V = Ke·ω + I·R + V_b, T = Kt·I − T_f(ω) (src/motor/model.ts, the linear DC motor
+ * model), for the calibration `cal`.
+ */
+export function constantField(cal: Calibration): MotorPhysics {
+  return {
+    field: "constant",
+    lossKnown: cal.loss_known,
+    series: null,
+    canPredict: (ke) => ke !== null,
+    noLoad(ke, _turns, r20, factor, V) {
+      if (ke === null) return null;
+      const nl = noLoad(modelOf(ke, r20 * factor, cal, "constant"), V);
+      return cal.loss_known ? nl : { speed: nl.speed, current: null };
+    },
+    stallCurrent: (ke, _turns, r20, factor, V) => (ke === null ? null : stallCurrent(r20 * factor, cal.brush_drop, V)),
+    atTorque: (ke, _turns, r20, factor, V, T) => (ke === null ? null : pointAtTorque(modelOf(ke, r20 * factor, cal, "constant"), V, T)),
+    report(ke, _turns, r20, hotFactor, V) {
+      const rHot = r20 * hotFactor;
+      if (ke === null) return unknownReport(null, rHot);
+      const hot = modelOf(ke, rHot, cal, "constant");
+      const nl = noLoad(modelOf(ke, r20, cal, "constant"), V);
+      const report: MotorReport = {
+        ...summarize(hot, V),
+        noLoadSpeed: nl.speed,
+        noLoadPerVolt: V > 0 ? nl.speed / V : null,
+        noLoadCurrent: nl.current,
+        stallCurrentCold: stallCurrent(r20, cal.brush_drop, V),
+        model: hot,
+        curve: curve(hot, V, 41),
+        series: null,
+      };
+      return cal.loss_known ? report : lossesUnknown(report);
+    },
+  };
+}
 
 /**
- * Series field, armature only: Ke scaled by turns and the resistance; no stall figure (the field is
- * in the circuit) and no operating point. The series model's own figures come from
- * src/design/series.ts (`planSeries`, the plan's `series` section).
+ * Series field the job does not describe (no `field_winding`): only what the armature alone
+ * determines (Ke scaled by turns, the resistance); no stall figure (the field is in the circuit)
+ * and no operating point.
  */
 export const SERIES_ARMATURE_ONLY: MotorPhysics = {
   field: "series",
+  lossKnown: false,
+  series: null,
+  canPredict: () => false,
   noLoad: () => null,
   stallCurrent: () => null,
   atTorque: () => null,
-  report(ke, r20, hotFactor, _cal, V) {
-    const rHot = r20 * hotFactor;
-    const base = emptyReport(ke, rHot);
-    if (ke === null) return base;
-    const hot = modelOf(ke, rHot, _cal, "series");
-    return { ...base, ...summarize(hot, V), stallCurrent: null, stallCurrentCold: null, model: hot, curve: [] };
-  },
+  report: (ke, _turns, r20, hotFactor) => unknownReport(ke, r20 * hotFactor),
 };
 
-/** The motor model for a job's field. */
-export function motorPhysicsFor(job: Job): MotorPhysics {
-  return job.armature.field === "series" ? SERIES_ARMATURE_ONLY : CONSTANT_FIELD;
+/**
+ * The motor model for a job's field and its calibration: the series model when the job describes
+ * a series field (`cal.series`), the armature-only model for a series job that does not, else
+ * the constant field (permanent magnet, shunt). `originalTurns`: the original's turns per coil.
+ */
+export function motorPhysicsFor(job: Job, cal: Calibration, originalTurns: number = job.original.turns): MotorPhysics {
+  if (job.armature.field !== "series") return constantField(cal);
+  return cal.series ? seriesPhysics(job, cal.series, originalTurns) : SERIES_ARMATURE_ONLY;
 }

@@ -12,14 +12,12 @@ import { buildContext, supplyOf, type ArmatureContext } from "./context.js";
 import { calibrateOriginal, type LogbookCalibration } from "./calibration.js";
 import { makeEvaluator, type Evaluator, type FullEvaluation } from "./evaluate.js";
 import { sweep, type SweepResult } from "./sweep.js";
-import { conversionRatio, planSeries, setupSeries, type SeriesPlan, type SeriesSetup } from "./series.js";
+import { ELV_AC, ELV_DC, seriesPlanOf, type SeriesPlan } from "./series.js";
 import { inputError } from "../errors.js";
 import { toleranceText } from "../format/goal.js";
 import type { Candidate, CoilPlan, GoalKind, GoalReport, Plan, RejectCode, ResistancePlan, Sensitivity, WirePlan } from "./types.js";
 
-/** Extra-low voltage limits, IEC 60449 band I: 50 V AC r.m.s., 120 V ripple-free DC. */
-export const ELV_AC = 50;
-export const ELV_DC = 120;
+export { ELV_AC, ELV_DC };
 
 export interface PlanOptions {
   /** What the logbook of the same family contributes (the CLI reads it; the core only uses it). */
@@ -72,20 +70,13 @@ function goalReport(ev: Evaluator, c: Candidate, tolerance: Job["target"]["toler
   };
 }
 
-/** The sweep over the stock (restore: the original's turns only; convert: the original's × the conversion ratio). */
-function runSweep(ev: Evaluator, ctx: ArmatureContext, wires: Wire[], ratio: number | null) {
+/** The sweep over the stock (restore and fixed: the given turns only). */
+function runSweep(ev: Evaluator, ctx: ArmatureContext, wires: Wire[]) {
   const job = ctx.job;
   return sweep(ev, {
     wires,
     maxInHand: job.max_in_hand,
-    fixedTurns:
-      ev.goal === "restore"
-        ? job.original.turns
-        : ev.goal === "fixed"
-          ? job.target.fixed!.turns
-          : ratio !== null
-            ? Math.max(1, Math.round(job.original.turns * ratio))
-            : undefined,
+    fixedTurns: ev.goal === "restore" ? job.original.turns : ev.goal === "fixed" ? job.target.fixed!.turns : undefined,
     fixedStrands: ev.goal === "fixed" ? job.target.fixed!.strands : undefined,
     sides: ctx.sides,
     freeArea: ctx.slot.free_area,
@@ -101,13 +92,13 @@ function bindingOf(ev: Evaluator, chosen: Candidate, result: SweepResult, job: J
 }
 
 /** Warnings the motor figures raise: the series field, the model's own, a duty beyond stall (new and original). */
-function motorWarnings(job: Job, supply: number, chosen: FullEvaluation, original: FullEvaluation, seriesSetup: SeriesSetup | null, warnings: Warning[]): void {
+function motorWarnings(job: Job, supply: number, chosen: FullEvaluation, original: FullEvaluation, fieldDescribed: boolean, warnings: Warning[]): void {
   const series = job.armature.field === "series";
   if (series && !warnings.some((w) => w.code === "series_field")) {
     warnings.push({
       code: "series_field",
-      path: seriesSetup ? "armature.field" : "field_winding",
-      message: seriesSetup
+      path: fieldDescribed ? "armature.field" : "field_winding",
+      message: fieldDescribed
         ? "series (universal) motor: its figures are the series model's (motor.series), not the constant-field ones; locked-rotor figures only at a reduced voltage, never at mains; never run a large series motor unloaded"
         : "series (universal) motor: only what the armature alone determines is predicted (resistance, Ke scaled by turns); give field_winding (the field's resistance, and its inductance or a locked-rotor reading on AC) with a no-load test or the nameplate for the motor's figures; never run a series motor unloaded, it races",
     });
@@ -221,44 +212,30 @@ function resistancePlan(job: Job, chosen: FullEvaluation): ResistancePlan {
 }
 
 /**
- * The armature, its calibration and the evaluator for a job (the logbook's correction applied when
- * the armature is built); for a series motor with a described field, the series model's setup and,
- * for goal convert, its turns ratio (src/design/series.ts).
+ * The armature, its calibration (a series motor's field model included) and the evaluator for a
+ * job (the logbook's correction applied when the armature is built). Goal convert needs the
+ * original's rated point (src/design/series.ts).
  */
 export function preparePlan(job: Job, options: PlanOptions = {}) {
   const ctx = buildContext(job, { mltFactor: options.logbook?.mltFactor });
   const { calibration, warnings } = calibrateOriginal(ctx, options.logbook);
-  const seriesSetup = job.armature.field === "series" ? setupSeries(ctx, calibration.brush_drop) : null;
-  const ratio = seriesSetup && job.target.goal === "convert" ? conversionRatio(seriesSetup, job.target.hot_temperature) : null;
-  if (job.target.goal === "convert" && ratio === null) {
+  const ev = makeEvaluator(ctx, calibration);
+  if (job.target.goal === "convert" && (ev.physics.series?.convertRatio ?? null) === null) {
     throw inputError(
       "goal_uncalibrated",
       "original.nameplate",
       "goal convert needs the original's rated point: field_winding (resistance, and inductance on AC) with a nameplate or load test that leaves the motor a load torque",
     );
   }
-  return { ctx, calibration, calibrationWarnings: warnings, seriesSetup, ratio, ev: makeEvaluator(ctx, calibration, undefined, ratio) };
+  return { ctx, calibration, calibrationWarnings: warnings, ev };
 }
 
-/** The series model's figures for the chosen winding (null unless a series motor's field is described). */
-function seriesOf(
-  job: Job,
-  setup: SeriesSetup | null,
-  chosen: FullEvaluation,
-  ctx: ArmatureContext,
-  ratio: number | null,
-  warnings: Warning[],
-): SeriesPlan | null {
-  if (!setup) return null;
-  const sp = planSeries(job, setup, {
-    turns: chosen.turns,
-    originalTurns: ctx.original.turns,
-    armature20: chosen.ring.single,
-    hotTemperature: job.target.hot_temperature,
-    convertRatio: ratio,
-  });
-  warnings.push(...sp.warnings);
-  return sp.plan;
+/** The series model's section of the plan from the two full evaluations (null unless a series motor's field is described). */
+function seriesOf(job: Job, ev: Evaluator, chosen: FullEvaluation, original: FullEvaluation, warnings: Warning[]): SeriesPlan | null {
+  const figures = ev.physics.series;
+  if (!figures || !chosen.motor.series || !original.motor.series) return null;
+  warnings.push(...original.motor.warnings);
+  return seriesPlanOf(job, figures, original.motor.series, chosen.motor.series, chosen.turns, original.turns);
 }
 
 /**
@@ -267,30 +244,30 @@ function seriesOf(
  * in full. Nothing is changed after it is made.
  */
 export function planJob(job: Job, options: PlanOptions = {}): Plan {
-  const { ctx, calibration: cal, calibrationWarnings, seriesSetup, ratio, ev } = preparePlan(job, options);
+  const { ctx, calibration: cal, calibrationWarnings, ev } = preparePlan(job, options);
   const warnings: Warning[] = [...ctx.warnings];
   if (job.original.wire.assumed) warnings.push({ code: "wire_assumed", path: "original.wire", message: job.original.wire.assumed });
   warnings.push(...calibrationWarnings);
   const { volts: supply, kind: supplyKind } = supplyOf(job);
   const stock = fixedOrStock(job);
   warnings.push(...stock.warnings);
-  if (ev.goal !== "restore" && ev.goal !== "convert" && cal.ke === null) {
+  if (ev.goal !== "restore" && !ev.physics.canPredict(cal.ke)) {
     warnings.push({
       code: "goal_uncalibrated",
       path: "target.goal",
       message: `the ${ev.goal.replace(/_/g, " ")} cannot be predicted without a calibrated Ke; the plan falls back to the most copper that fits`,
     });
   }
-  const result = runSweep(ev, ctx, stock.wires, ratio);
+  const result = runSweep(ev, ctx, stock.wires);
   if (!result.best) throw new Error("empty sweep"); // no wire in stock at all (cannot happen with a non-empty stock)
   const chosen = ev.full(result.best);
   const candidates = result.shown.map((c) => (c === result.best ? chosen : c)); // cheap figures equal the full ones (test/evaluate-properties.test.ts)
   const binding = chosen.meets_goal ? null : bindingOf(ev, chosen, result, job);
   if (binding) warnings.push({ code: "goal_not_met", path: "target.goal", message: `no winding meets the goal within the limits: ${binding}` });
   const o = ctx.original;
-  const original = ev.full({ turns: o.turns, wire: o.wire, strands: o.strands }, { measuredTerminal20: o.terminal20 });
-  const series = seriesOf(job, seriesSetup, chosen, ctx, ratio, warnings);
-  motorWarnings(job, supply, chosen, original, seriesSetup, warnings);
+  const original = ev.full({ turns: o.turns, wire: o.wire, strands: o.strands }, { measuredTerminal20: o.terminal20, original: true });
+  const series = seriesOf(job, ev, chosen, original, warnings);
+  motorWarnings(job, supply, chosen, original, cal.series !== null, warnings);
   originalFillWarnings(ctx, ev.goal, warnings);
   warnings.push(...limitWarnings(ev, chosen));
   warnings.push(...oneTestWarnings(job, chosen, supply));

@@ -1,23 +1,27 @@
 /**
- * Series and universal motors in a plan (docs/contracts.md, "Series and universal motors"): gather what
- * the job recorded about the field and the running motor, calibrate `motor/series`, and report
- * the original and the rewound motor side by side: rated-load figures, curves from light load to
- * rated, a locked-rotor check at a reduced voltage (never at mains) and, for `goal: convert`,
- * the turns ratio and what the field must become.
+ * Series and universal motors (docs/contracts.md, "Series and universal motors"): the series model
+ * as one more `MotorPhysics` behind the one evaluation of a winding (src/design/evaluate.ts).
  *
- * It plugs in behind the plan as the motor model for `field: series`; it takes the armature
- * context and the brush drop and returns plain data. Pure: no files, no terminal.
+ *  - `setupSeries` calibrates `motor/series` on the original from what the job recorded about the
+ *    field and the running motor (it is part of the plan's calibration, `Calibration.series`);
+ *  - `seriesPhysics` gives the figures of any winding: the point at a load torque (the sweep's
+ *    duty and convert goals), and for a full evaluation the rated-load point, curves from light
+ *    load to rated, the locked-rotor current at a reduced voltage (never at mains) and, for
+ *    universal motors, the brief no-load point;
+ *  - `seriesPlanOf` puts the original's and the chosen winding's figures side by side for the
+ *    plan, with the locked-rotor check and, for `goal: convert`, what the field must become.
+ *
+ * Pure: no files, no terminal. Units SI.
  */
 import type { Warning } from "../errors.js";
 import type { Job } from "../job/schema.js";
 import {
-  atTorqueSeries,
   calibrateSeries,
   convertRatio,
   fitSeriesInductance,
   lockedRotorCurrent,
   lockedRotorVoltage,
-  noLoadSeries,
+  pointAtTorqueSeries,
   rescaleSeries,
   seriesCurve,
   type SeriesCalibration,
@@ -29,22 +33,34 @@ import {
 } from "../motor/series.js";
 import { copperFactor, to20C } from "../wire/copper.js";
 import type { ArmatureContext } from "./context.js";
+import { unknownReport, type MotorPhysics, type ReportSide } from "./motor.js";
 
 /** Extra-low voltage limits, IEC 60449 band I: 50 V AC r.m.s., 120 V ripple-free DC. */
 export const ELV_AC = 50;
 export const ELV_DC = 120;
 
+/** The series model's figures of one winding (a full evaluation's `motor.series`). */
 export interface SeriesSide {
   /** k of this winding, V·s/(A·rad); null when nothing running calibrates it. */
   k: number | null;
+  /** The supply these figures are at (a conversion's original: its own). */
+  supply: Supply;
   /** At the rated torque on `supply`, hot. */
   rated: SeriesPoint | null;
   /** Light load (0.1 × rated torque) to rated, hot. */
   curve: SeriesPoint[];
   /** Locked rotor at the check voltage, winding cold, A. */
   lockedRotorCurrent: number | null;
-  /** Field resistance at 20 °C, Ω. */
+  /** Field resistance at 20 °C, Ω (× the field's turns ratio² when it is rewound in the same copper). */
   fieldOhm: number;
+  /** No-load point, cold: universal motors only (briefly, in their housing); null otherwise. */
+  noLoad: SeriesPoint | null;
+}
+
+/** The locked-rotor check: r.m.s. volts (or DC), frequency Hz (0: DC) and why this voltage. */
+export interface LockedRotorCheck {
+  supply: Supply;
+  basis: string;
 }
 
 export interface SeriesPlan {
@@ -57,9 +73,8 @@ export interface SeriesPlan {
   /** Rated shaft torque, N·m, and where it came from. */
   ratedTorque: number | null;
   ratedSource: "nameplate" | "load_test" | "duty" | null;
-  /** The locked-rotor check: r.m.s. volts (or DC), frequency Hz (0: DC) and why this voltage. */
-  lockedRotor: { supply: Supply; basis: string } | null;
-  /** No-load run: only for universal motors (briefly, in their housing); null otherwise. */
+  lockedRotor: LockedRotorCheck | null;
+  /** No-load run of the new winding: only for universal motors (briefly, in their housing); null otherwise. */
   noLoad: SeriesPoint | null;
   convert: SeriesConversion | null;
   /** How the model was calibrated: sentences. */
@@ -67,9 +82,9 @@ export interface SeriesPlan {
 }
 
 export interface SeriesConversion {
-  /** Exact turns ratio for the new supply (armature and field). */
+  /** Exact turns ratio for the new supply (armature and field) on the continuous model. */
   ratio: number;
-  /** Armature turns per coil, rounded. */
+  /** Armature turns per coil chosen. */
   turns: number;
   /** Field turns per pole, rounded; null when the original's are not recorded. */
   fieldTurnsPerPole: number | null;
@@ -95,6 +110,17 @@ export interface SeriesSetup {
   ratedSpeed: number | null;
   ratedSource: SeriesPlan["ratedSource"];
   warnings: Warning[];
+}
+
+/** What the series model knows of the job as a whole, the same for every winding. */
+export interface SeriesJobFigures {
+  setup: SeriesSetup;
+  /** The locked-rotor check voltage, or null when nothing sets it. */
+  check: LockedRotorCheck | null;
+  /** Goal convert: the exact turns ratio on the continuous model (`convertRatio`); else null. */
+  convertRatio: number | null;
+  /** Goal convert: the original's rated speed (rad/s) at the rated torque, the target on the new supply; else null. */
+  convertSpeed: number | null;
 }
 
 /** The target supply as volts and frequency (0 Hz for DC). */
@@ -238,18 +264,12 @@ function roundDown2(v: number): number {
   return Math.floor(v / p + 1e-9) * p;
 }
 
-function sideOf(
-  m: SeriesMotor,
-  supply: Supply,
-  torque: number | null,
-  calibrated: boolean,
-): { rated: SeriesPoint | null; curve: SeriesPoint[]; warning: string | null } {
-  if (!calibrated || torque === null) return { rated: null, curve: [], warning: null };
-  try {
-    return { rated: atTorqueSeries(m, supply, torque), curve: seriesCurve(m, supply, torque, 21), warning: null };
-  } catch {
-    return { rated: null, curve: [], warning: `cannot carry the rated torque ${(torque * 1e3).toPrecision(3)} mN·m at ${supply.volts} V` };
-  }
+/** The rated point and the curve from light load to rated of motor `m` on `supply`, or why it cannot carry the rated torque. */
+function ratedOf(m: SeriesMotor, supply: Supply, torque: number | null): { rated: SeriesPoint | null; curve: SeriesPoint[]; warning: string | null } {
+  if (torque === null) return { rated: null, curve: [], warning: null };
+  const rated = pointAtTorqueSeries(m, supply, torque);
+  if (rated === null) return { rated: null, curve: [], warning: `cannot carry the rated torque ${(torque * 1e3).toPrecision(3)} mN·m at ${supply.volts} V` };
+  return { rated, curve: seriesCurve(m, supply, torque, 21), warning: null };
 }
 
 /**
@@ -259,7 +279,7 @@ function sideOf(
  * to two significant figures. Null when neither a reading nor a rated current is known, or when an
  * AC motor's inductance is unknown (the reactance sets the current).
  */
-function checkSupply(job: Job, setup: SeriesSetup, cold: SeriesMotor, ratedCurrent: number | null): { supply: Supply; basis: string } | null {
+function checkSupply(job: Job, setup: SeriesSetup, cold: SeriesMotor, ratedCurrent: number | null): LockedRotorCheck | null {
   const lr = job.field_winding?.locked_rotor;
   const f = setup.supply.frequency;
   if (f > 0 && !setup.inductanceKnown && !(lr && (lr.frequency ?? f) > 0)) return null;
@@ -279,76 +299,113 @@ function checkSupply(job: Job, setup: SeriesSetup, cold: SeriesMotor, ratedCurre
   return { supply: { volts, frequency: f }, basis: `${volts} V ${f > 0 ? `${f} Hz AC` : "DC"}: ${why}` };
 }
 
-/** The rewound winding as the plan chose it. */
-export interface SeriesRewind {
-  /** Turns per coil, new and original. */
-  turns: number;
-  originalTurns: number;
-  /** Armature terminal resistance of the new winding at 20 °C, brushes excluded, Ω. */
-  armature20: number;
-  hotTemperature: number;
-  /** Goal convert: the exact ratio found before the sweep. */
-  convertRatio: number | null;
+/** The field's turns ratio of a job whose field is rewound to a new count (`rewound_turns_per_pole`), else 1. */
+function rewoundFieldRatio(job: Job): number {
+  const fw = job.field_winding;
+  return fw?.rewound_turns_per_pole && fw.turns_per_pole ? fw.rewound_turns_per_pole / fw.turns_per_pole : 1;
 }
 
 /**
- * Original and rewound series motor side by side (SI): rated-load figures and curves hot on their
- * supplies, the locked-rotor current cold at the check voltage, the no-load point for universal
- * motors only, and for a conversion what the field must become. Sources: `motor/series.ts`;
- * resistance with temperature IEC 60028; field resistance × ratio² for a field rewound in the same
- * copper (R ∝ N² at constant copper volume).
+ * The job-wide figures: the locked-rotor check drives about the rated current, the original's
+ * through the circuit a rewind restores, or for a conversion the converted motor's (both windings
+ * × the exact ratio, resistances × ratio² in the same copper) on its new supply.
  */
-export function planSeries(job: Job, setup: SeriesSetup, w: SeriesRewind): { plan: SeriesPlan; warnings: Warning[] } {
-  const warnings: Warning[] = [...setup.warnings];
-  const fw = job.field_winding!;
-  const armRatio = w.turns / w.originalTurns;
-  const fieldRatio =
-    job.target.goal === "convert" ? armRatio : fw.rewound_turns_per_pole && fw.turns_per_pole ? fw.rewound_turns_per_pole / fw.turns_per_pole : 1;
-  const rf20New = setup.rf20 * fieldRatio * fieldRatio;
-  const hot = copperFactor(w.hotTemperature);
-  const origHot = modelAt(setup, hot);
-  const origCold = modelAt(setup, 1);
-  const rewound = (m: SeriesMotor, f: number) => rescaleSeries(m, { armature: armRatio, field: fieldRatio }, w.armature20 * f, rf20New * f);
-  const newHot = rewound(origHot, hot);
-  const newCold = rewound(origCold, 1);
-  const calibrated = setup.cal !== null;
-  const o = sideOf(origHot, setup.originalSupply, setup.ratedTorque, calibrated);
-  const n = sideOf(newHot, setup.supply, setup.ratedTorque, calibrated);
-  for (const [which, s] of [
-    ["original", o],
-    ["new", n],
-  ] as const) {
-    if (s.warning) warnings.push({ code: "duty_beyond_stall", path: "original.nameplate", message: `the ${which} winding ${s.warning}` });
-  }
-  // the check drives about the rated current: the original's through the circuit the rewind restores,
-  // or for a conversion the new winding's on its new supply
-  const check =
-    job.target.goal === "convert" ? checkSupply(job, setup, newCold, n.rated?.current ?? null) : checkSupply(job, setup, origCold, o.rated?.current ?? null);
-  const lrOf = (m: SeriesMotor) => (check ? lockedRotorCurrent(m, check.supply) : null);
-  const universal = setup.supply.frequency > 0;
-  let noLoad: SeriesPoint | null = null;
-  if (universal && calibrated) noLoad = noLoadSeries(newCold, setup.supply);
-  let convert: SeriesConversion | null = null;
+function jobFigures(job: Job, setup: SeriesSetup): SeriesJobFigures {
+  const hot = copperFactor(job.target.hot_temperature);
+  const T = setup.ratedTorque;
   if (job.target.goal === "convert") {
-    convert = {
-      ratio: w.convertRatio ?? armRatio,
-      turns: w.turns,
-      fieldTurnsPerPole: fw.turns_per_pole ? Math.round(fw.turns_per_pole * fieldRatio) : null,
-      fieldOhm: rf20New,
-      fieldAreaFactor: 1 / fieldRatio,
-    };
+    const n = conversionRatio(setup, job.target.hot_temperature);
+    const conv = (f: number) =>
+      rescaleSeries(modelAt(setup, f), { armature: n ?? 1, field: n ?? 1 }, setup.ra20 * f * (n ?? 1) ** 2, setup.rf20 * f * (n ?? 1) ** 2);
+    const rated = n !== null && T !== null ? pointAtTorqueSeries(conv(hot), setup.supply, T) : null;
+    return { setup, check: checkSupply(job, setup, conv(1), rated?.current ?? null), convertRatio: n, convertSpeed: setup.ratedSpeed };
   }
-  const plan: SeriesPlan = {
-    original: { k: calibrated ? origHot.mag.k : null, rated: o.rated, curve: o.curve, lockedRotorCurrent: lrOf(origCold), fieldOhm: setup.rf20 },
-    rewound: { k: calibrated ? newHot.mag.k : null, rated: n.rated, curve: n.curve, lockedRotorCurrent: lrOf(newCold), fieldOhm: rf20New },
+  const rated = setup.cal && T !== null ? pointAtTorqueSeries(modelAt(setup, hot), setup.originalSupply, T) : null;
+  return { setup, check: checkSupply(job, setup, modelAt(setup, 1), rated?.current ?? null), convertRatio: null, convertSpeed: null };
+}
+
+/**
+ * The series model as the evaluation's motor model (src/design/motor.ts `MotorPhysics`). A winding of
+ * `turns` per coil is the original rescaled (`rescaleSeries`): k × the armature's turns ratio × the
+ * field's, L_a × its square, R_a the winding's own terminal resistance; the field stays, or is
+ * rewound to `rewound_turns_per_pole`, or for `goal: convert` follows the armature's ratio in the
+ * same copper (R_f × ratio²). Resistances at R(T)/R20 = `factor` (IEC 60028), both armature and
+ * field. No stall figure at the supply and no constant-field no-load point: a series motor's
+ * running figures are at a load torque. Sources: src/motor/series.ts.
+ */
+export function seriesPhysics(job: Job, setup: SeriesSetup, originalTurns: number): MotorPhysics {
+  const convert = job.target.goal === "convert";
+  const fixedField = rewoundFieldRatio(job);
+  const base = modelAt(setup, 1);
+  const calibrated = setup.cal !== null;
+  const frequency = setup.supply.frequency;
+  const figures = jobFigures(job, setup);
+  const fieldRatio = (turns: number) => (convert ? turns / originalTurns : fixedField);
+  const motorOf = (turns: number, r20: number, factor: number): SeriesMotor => {
+    const field = fieldRatio(turns);
+    return rescaleSeries(base, { armature: turns / originalTurns, field }, r20 * factor, setup.rf20 * field * field * factor);
+  };
+  return {
+    field: "series",
+    lossKnown: setup.cal?.lossKnown ?? false,
+    series: figures,
+    canPredict: () => calibrated,
+    noLoad: () => null,
+    stallCurrent: () => null,
+    atTorque: (_ke, turns, r20, factor, V, T) => (calibrated ? pointAtTorqueSeries(motorOf(turns, r20, factor), { volts: V, frequency }, T) : null),
+    report(ke, turns, r20, hotFactor, V, side: ReportSide) {
+      const supply = side === "original" ? setup.originalSupply : { volts: V, frequency };
+      const hot = motorOf(turns, r20, hotFactor);
+      const cold = motorOf(turns, r20, 1);
+      const r = calibrated ? ratedOf(hot, supply, setup.ratedTorque) : { rated: null, curve: [], warning: null };
+      const field = fieldRatio(turns);
+      const series: SeriesSide = {
+        k: calibrated ? hot.mag.k : null,
+        supply,
+        rated: r.rated,
+        curve: r.curve,
+        lockedRotorCurrent: figures.check ? lockedRotorCurrent(cold, figures.check.supply) : null,
+        fieldOhm: setup.rf20 * field * field,
+        noLoad: calibrated && supply.frequency > 0 ? pointAtTorqueSeries(cold, supply, 0) : null,
+      };
+      const which = side === "original" ? "original" : "new";
+      const warnings = r.warning ? [{ code: "duty_beyond_stall", path: "original.nameplate", message: `the ${which} winding ${r.warning}` }] : [];
+      return unknownReport(ke, r20 * hotFactor, series, warnings);
+    },
+  };
+}
+
+/**
+ * The plan's series section: the original's and the chosen winding's figures from their full
+ * evaluations side by side, the job's locked-rotor check, the new winding's no-load run (universal
+ * motors only), and for a conversion what the field must become: its turns per pole × the
+ * armature's ratio, its resistance × ratio² and its wire's copper area ÷ ratio in the same copper
+ * (R ∝ N² at constant copper volume).
+ */
+export function seriesPlanOf(job: Job, figures: SeriesJobFigures, original: SeriesSide, rewound: SeriesSide, turns: number, originalTurns: number): SeriesPlan {
+  const setup = figures.setup;
+  const fw = job.field_winding!;
+  const ratio = turns / originalTurns;
+  const convert: SeriesConversion | null =
+    job.target.goal === "convert"
+      ? {
+          ratio: figures.convertRatio ?? ratio,
+          turns,
+          fieldTurnsPerPole: fw.turns_per_pole ? Math.round(fw.turns_per_pole * ratio) : null,
+          fieldOhm: rewound.fieldOhm,
+          fieldAreaFactor: 1 / ratio,
+        }
+      : null;
+  return {
+    original,
+    rewound,
     supply: setup.supply,
     originalSupply: setup.originalSupply,
     ratedTorque: setup.ratedTorque,
     ratedSource: setup.ratedSource,
-    lockedRotor: check,
-    noLoad,
+    lockedRotor: figures.check,
+    noLoad: rewound.noLoad,
     convert,
     basis: setup.cal?.basis ?? [],
   };
-  return { plan, warnings };
 }

@@ -6,7 +6,7 @@ import type { Coil, WindingLayout } from "../winding/types.js";
 import type { SlotGeometry } from "../armature/slot.js";
 import type { LayerBuild } from "../armature/build.js";
 import type { MotorModel, MotorSummary, OperatingPoint } from "../motor/model.js";
-import type { SeriesPlan } from "./series.js";
+import type { SeriesPlan, SeriesSetup, SeriesSide } from "./series.js";
 
 export type GoalKind = Job["target"]["goal"];
 
@@ -135,6 +135,8 @@ export interface Calibration {
   disagreement: number | null;
   brush_drop: number;
   brush_drop_basis: string;
+  /** A series motor whose field the job describes: the series model calibrated on the original (design/series.ts); else null. */
+  series: SeriesSetup | null;
 }
 
 /** A point of the motor's curve; its efficiency null when the losses are unknown. */
@@ -145,6 +147,8 @@ export interface MotorReport extends MotorSummary {
   stallCurrentCold: number | null;
   model: MotorModel | null;
   curve: CurvePoint[];
+  /** A series motor whose field the job describes: the series model's figures of this winding; else null. */
+  series: SeriesSide | null;
 }
 
 export interface DutyReport {

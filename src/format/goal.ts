@@ -36,7 +36,8 @@ export function goalSummary(goal: GoalReport): string {
     return `the winding chosen: ${f.turns} turns of ${f.wire}${f.strands > 1 ? `, ${f.strands} in hand` : ""} (copper area ${fig(achieved)} mm²)`;
   }
   if (goal.kind === "restore") return `copper area ${fig(achieved)} mm² against the original's ${fig(target)} mm² (${signed})`;
-  if (goal.kind === "convert") return `copper area ${fig(achieved)} mm² against the converted winding's ${fig(target)} mm² (${signed})`;
+  if (goal.kind === "convert")
+    return `${fig(achieved)} rpm at the original's rated torque on the new supply against its ${fig(target)} rpm (${signed}, tolerance ${toleranceText(goal.kind, goal.tolerance)})`;
   const atMost = goal.kind === "stall_current" ? "at most " : "";
   return `${fig(achieved)} ${unit} against ${atMost}${fig(target)} ${unit} (${signed}, tolerance ${toleranceText(goal.kind, goal.tolerance)})`;
 }

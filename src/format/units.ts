@@ -38,7 +38,7 @@ export const GOAL_UNIT: Record<GoalKind, string> = {
   kv: "rpm/V",
   stall_current: "A",
   duty: "rpm",
-  convert: "mm2",
+  convert: "rpm",
 };
 
 /**
@@ -49,11 +49,11 @@ export function goalValue(kind: GoalKind, si: number | null | undefined): number
   switch (kind) {
     case "restore":
     case "fixed":
-    case "convert":
       return convert(si, toMm2);
     case "no_load_speed":
     case "kv":
     case "duty":
+    case "convert":
       return convert(si, toRpm);
     case "stall_current":
       return convert(si, (x) => x);

@@ -106,7 +106,7 @@ export function predictWound(job: Job, plan: Plan, wound: WoundInput | undefined
 /** Predicted no-load speed (rad/s) and current (A) at supply V (V), winding at tC °C (the job's motor model); null without Ke or for a series field. */
 export function predictNoLoad(p: Prediction, V: number, tC: number): { speed: number; current: number | null } | null {
   if (p.ke === null) return null;
-  return motorPhysicsFor(p.job).noLoad(p.ke, p.terminal.single * copperFactor(tC), p.calibration, V);
+  return motorPhysicsFor(p.job, p.calibration, p.original_turns).noLoad(p.ke, p.turns, p.terminal.single, copperFactor(tC), V);
 }
 
 /** Predicted brief stall current (A) at supply V (V), winding at tC °C: (V − V_brush)/R (src/motor/model.ts `stallCurrent`). */

@@ -268,6 +268,30 @@ export interface MotorSummary {
 }
 
 /**
+ * The summary of a motor of which nothing is known but Ke (V·s/rad; null when nothing calibrates
+ * it: Ke, Kt and Kv are then NaN) and the terminal resistance (Ω): every figure that needs more
+ * (a constant field, the losses, a series field the job does not describe) is null, never a guess
+ * (docs/contracts.md "Unknown is null"). The one place such a summary is made.
+ */
+export function unknownSummary(ke: number | null, resistance: number, warnings: Warning[] = []): MotorSummary {
+  return {
+    ke: ke ?? NaN,
+    kt: ke ?? NaN,
+    kv: ke ? kvFromKe(ke) : NaN,
+    noLoadPerVolt: null,
+    resistance,
+    noLoadSpeed: null,
+    noLoadCurrent: null,
+    stallCurrent: null,
+    stallTorque: null,
+    peakEfficiency: null,
+    peakEfficiencyCurrent: null,
+    maxOutputW: null,
+    warnings,
+  };
+}
+
+/**
  * The headline figures at supply V, SI. For `field: "series"` every figure that needs a constant
  * field is null (the stall current too: the field winding's resistance is not in the armature
  * model) and a warning says never to run the motor unloaded. Source: the functions above.
@@ -275,28 +299,16 @@ export interface MotorSummary {
 export function summarize(model: MotorModel, V: number): MotorSummary {
   checkModel(model);
   requireNonNegative(V, "supply voltage", "target.supply");
-  const base = { ke: model.ke, kt: model.ke, kv: kvFromKe(model.ke), resistance: model.resistance };
   if (model.field === "series") {
-    return {
-      ...base,
-      noLoadPerVolt: null,
-      noLoadSpeed: null,
-      noLoadCurrent: null,
-      stallCurrent: null,
-      stallTorque: null,
-      peakEfficiency: null,
-      peakEfficiencyCurrent: null,
-      maxOutputW: null,
-      warnings: [
-        {
-          code: "series_field",
-          path: "armature.field",
-          message:
-            "series (universal) motor: no constant field, so only the armature figures (Ke scaled by turns, resistance) " +
-            "are given; never run a series motor unloaded, it races until it bursts",
-        },
-      ],
-    };
+    return unknownSummary(model.ke, model.resistance, [
+      {
+        code: "series_field",
+        path: "armature.field",
+        message:
+          "series (universal) motor: no constant field, so only the armature figures (Ke scaled by turns, resistance) " +
+          "are given; never run a series motor unloaded, it races until it bursts",
+      },
+    ]);
   }
   const nl = noLoad(model, V);
   const st = stall(model, V);
@@ -313,7 +325,10 @@ export function summarize(model: MotorModel, V: number): MotorSummary {
     });
   }
   return {
-    ...base,
+    ke: model.ke,
+    kt: model.ke,
+    kv: kvFromKe(model.ke),
+    resistance: model.resistance,
     noLoadPerVolt: V > 0 ? nl.speed / V : null,
     noLoadSpeed: nl.speed,
     noLoadCurrent: nl.current,

@@ -157,31 +157,58 @@ function bisect(f: (i: number) => number, lo: number, hi: number): number {
 }
 
 /**
- * The operating point at shaft torque T (N·m) on supply s: the current with ψ(I)·I − T_loss(ω(I)) = T,
- * found by bisection (the left side rises with I: more current, more torque and less speed, so
- * less fan loss). A torque beyond the locked-rotor torque throws `beyond_stall` at `path`.
- * Source: the equations above [C]; with V_b = 0, no loss and a linear field it is Chapman's
- * ω = V/√(k·T) − R/k (DC).
+ * Shaft torque at current I (A) on supply s, N·m: ψ(I)·I − T_loss(ω(I)) with ω(I) as `atCurrent`
+ * gives it (the same arithmetic, without building a point: the sweep's inner loop). x the
+ * reactance (Ω), r the circuit resistance (Ω). Source: the equations above [C].
  */
-export function atTorqueSeries(m: SeriesMotor, s: Supply, torque: number, path = "target.duty.torque"): SeriesPoint {
-  requireNonNegative(torque, "load torque", path);
+function shaftTorque(m: SeriesMotor, s: Supply, x: number, r: number, current: number): number {
+  const d = s.volts * s.volts - (current * x) ** 2;
+  const psi = fluxLinkage(m.mag, current);
+  const e = d >= 0 ? Math.sqrt(d) - current * r - m.brushDrop : 0;
+  return psi * current - lossTorque(m.loss, Math.max(0, e / psi));
+}
+
+/**
+ * The operating point at shaft torque T (N·m) on supply s, or null when the motor cannot carry it
+ * (at or beyond the locked-rotor torque) or has no finite speed there (no load and no loss torque:
+ * it races). The current with ψ(I)·I − T_loss(ω(I)) = T is found by bisection (the left side rises
+ * with I: more current, more torque and less speed, so less fan loss). Without messages: the sweep
+ * asks it of many windings. Source: the equations above [C]; with V_b = 0, no loss and a linear
+ * field it is Chapman's ω = V/√(k·T) − R/k (DC).
+ */
+export function pointAtTorqueSeries(m: SeriesMotor, s: Supply, torque: number): SeriesPoint | null {
   const iLock = lockedRotorCurrent(m, s);
   const locked = iLock > 0 ? fluxLinkage(m.mag, iLock) * iLock - m.loss.tc : 0;
-  if (!(torque < locked)) {
-    throw inputError(
-      "beyond_stall",
-      path,
-      `load torque ${fmt(torque)} N·m is beyond the locked-rotor torque ${fmt(Math.max(0, locked))} N·m at ${fmt(s.volts)} V; ` +
-        `choose a smaller torque or a higher supply`,
-    );
-  }
-  if (torque === 0 && m.loss.tc <= 0 && m.loss.c2 <= 0) {
-    throw inputError("series_no_load", path, "with no loss torque a series motor has no finite no-load speed: it races; give a load torque");
-  }
+  if (!(torque < locked)) return null;
+  if (torque === 0 && m.loss.tc <= 0 && m.loss.c2 <= 0) return null;
+  const x = reactance(m, s.frequency);
+  const r = circuitResistance(m);
   return atCurrent(
     m,
     s,
-    bisect((c) => atCurrent(m, s, c).torque - torque, 0, iLock),
+    bisect((c) => shaftTorque(m, s, x, r, c) - torque, 0, iLock),
+  );
+}
+
+/**
+ * The operating point at shaft torque T (N·m) on supply s, as `pointAtTorqueSeries`; a torque
+ * beyond the locked-rotor torque throws `beyond_stall` at `path`, no load with no loss torque
+ * `series_no_load`. Source: the equations above [C].
+ */
+export function atTorqueSeries(m: SeriesMotor, s: Supply, torque: number, path = "target.duty.torque"): SeriesPoint {
+  requireNonNegative(torque, "load torque", path);
+  const p = pointAtTorqueSeries(m, s, torque);
+  if (p !== null) return p;
+  if (torque === 0 && m.loss.tc <= 0 && m.loss.c2 <= 0) {
+    throw inputError("series_no_load", path, "with no loss torque a series motor has no finite no-load speed: it races; give a load torque");
+  }
+  const iLock = lockedRotorCurrent(m, s);
+  const locked = iLock > 0 ? fluxLinkage(m.mag, iLock) * iLock - m.loss.tc : 0;
+  throw inputError(
+    "beyond_stall",
+    path,
+    `load torque ${fmt(torque)} N·m is beyond the locked-rotor torque ${fmt(Math.max(0, locked))} N·m at ${fmt(s.volts)} V; ` +
+      `choose a smaller torque or a higher supply`,
   );
 }
 
@@ -484,6 +511,8 @@ export interface SeriesInputs {
 export interface SeriesCalibration {
   mag: Magnetisation;
   loss: SeriesLoss;
+  /** False when no reading with a known shaft torque gives the loss torque (taken as zero): efficiencies are then unknown. */
+  lossKnown: boolean;
   la: number;
   lf: number;
   /** False when an AC motor has no inductance data: the reactance was taken as zero. */
@@ -558,5 +587,14 @@ export function calibrateSeries(inp: SeriesInputs): SeriesCalibration | null {
     const torque = r.torque ?? ratedPt.psi * r.current - lossTorque(lf.loss, r.speed);
     if (torque > 0) rated = { supply: r.supply, current: r.current, speed: r.speed, torque };
   }
-  return { mag: mag.mag, loss: lf.loss, la: ind.la, lf: ind.lf, inductanceKnown: ind.known, rated, basis: [mag.basis, lf.basis, ...ind.basis] };
+  return {
+    mag: mag.mag,
+    loss: lf.loss,
+    lossKnown: known.length > 0,
+    la: ind.la,
+    lf: ind.lf,
+    inductanceKnown: ind.known,
+    rated,
+    basis: [mag.basis, lf.basis, ...ind.basis],
+  };
 }

@@ -126,17 +126,23 @@ async function preview(r: Req, ctx: Context, f: { rel: string; abs: string }): P
 }
 
 async function card(r: Req, ctx: Context, f: { rel: string }): Promise<Res> {
-  const paper = r.query.get("paper") === "letter" ? "letter" : "a4";
+  // the paper as asked, else the CLI's own default (ARMWIND_PAPER, the shop profile's, A4)
+  const paper = r.query.get("paper");
   const out = mkdtempSync(join(tmpdir(), "armwind-card-"));
   try {
-    const run = await runCli(ctx.dir, ["card", f.rel, "-o", out, "--paper", paper, "--json"]);
+    const run = await runCli(ctx.dir, ["card", f.rel, "-o", out, ...(paper === "a4" || paper === "letter" ? ["--paper", paper] : []), "--json"]);
     if (httpStatus(run.status) !== 200) return cliResponse(run);
     const made = JSON.parse(run.stdout) as { card: string; plan: { job_id: string } };
     return {
       status: 200,
       type: "application/pdf",
       body: readFileSync(made.card),
-      headers: { "content-disposition": `inline; filename="${made.plan.job_id}.pdf"` },
+      headers: {
+        "content-disposition": `${r.query.get("download") === "1" ? "attachment" : "inline"}; filename="${made.plan.job_id}.pdf"`,
+        // the card page shows it in a frame: its own pages may frame it, no other site
+        "x-frame-options": "SAMEORIGIN",
+        "content-security-policy": "default-src 'self'; frame-ancestors 'self'",
+      },
     };
   } finally {
     rmSync(out, { recursive: true, force: true });
@@ -157,9 +163,9 @@ async function historySvg(r: Req, ctx: Context): Promise<Res> {
   }
 }
 
-/** Readings typed at the bench → `diagnose JOB --bars … --temperature … --json`. */
+/** Readings typed at the bench → `diagnose JOB --bars … --temperature … --json` (with `--partial` while some are blank). */
 async function diagnoseReadings(r: Req, ctx: Context, f: { rel: string }): Promise<Res> {
-  const b = parseBody<{ bars?: unknown[]; temperature?: string; resolution?: string; tolerance?: number }>(r);
+  const b = parseBody<{ bars?: unknown[]; temperature?: string; resolution?: string; tolerance?: number; partial?: boolean }>(r);
   if (isRes(b)) return b;
   const bars = (b.bars ?? []).map((x) =>
     String(x ?? "")
@@ -167,6 +173,7 @@ async function diagnoseReadings(r: Req, ctx: Context, f: { rel: string }): Promi
       .replace(/,/g, "."),
   );
   const args = ["diagnose", f.rel, `--bars=${bars.join(",")}`, "--json"];
+  if (b.partial === true) args.push("--partial");
   if (b.temperature) args.push(`--temperature=${b.temperature}`);
   if (b.resolution) args.push(`--resolution=${b.resolution}`);
   if (typeof b.tolerance === "number") args.push(`--tolerance=${b.tolerance}`);

@@ -2,10 +2,12 @@
  * Field edits from the job form applied to the job file's own text, so that comments, key order,
  * alignment and the user's way of writing stay exactly as they were. The `yaml` package's Document
  * API finds each value's place in the text (its source range); the edit replaces only those
- * characters, removes only a removed key's lines, or adds a key's line under its parent.
+ * characters, removes only a removed key's lines, or adds a key's line under its parent. Lists
+ * (`original.tests[1]`, `wire_stock[3]`) take an item at their end and lose one by its lines (a
+ * block list) or its entry (a one-line [ … ] list); a one-line { … } map takes or loses a key in place.
  * Pure: text in, text out.
  */
-import { isMap, isPair, isScalar, parseDocument, stringify, type Document, type Node, type Pair, type YAMLMap } from "yaml";
+import { isMap, isPair, isScalar, isSeq, parseDocument, stringify, type Document, type Node, type Pair, type YAMLMap, type YAMLSeq } from "yaml";
 import { ArmwindError } from "../errors.js";
 
 /** One field of the form: its dotted path (`armature.slot.area`, `wire_stock[2]`) and the text typed ("" removes the key). */
@@ -66,11 +68,12 @@ function insert(text: string, doc: Document, parentPath: (string | number)[], ke
     const name = String(parentPath[parentPath.length - 1]);
     return insert(text, doc, up, name, `\n${" ".repeat(2 * parentPath.length)}${key}: ${value}`);
   }
+  if (isMap(parent) && parent.flow && parent.range && !value.startsWith("\n")) return insertFlow(text, parent.items, parent.range, `${key}: ${value}`, "}");
   if (!isMap(parent) || parent.flow || !parent.range) {
     throw new ArmwindError({
       code: "bad_yaml",
       path: [...parentPath, key].join("."),
-      message: "cannot add a key inside a one-line { … } map from the form; edit the whole map's field or the file",
+      message: "cannot add a key here from the form (the section is not a map of keys); edit the file",
     });
   }
   const last = parent.items[parent.items.length - 1] as Pair<Node, Node> | undefined;
@@ -81,19 +84,65 @@ function insert(text: string, doc: Document, parentPath: (string | number)[], ke
   return text.slice(0, end) + `\n${" ".repeat(indent)}${key}:${value.startsWith("\n") ? "" : " "}${value}` + text.slice(end);
 }
 
-/** Remove a key of a block map: its lines, from the key to the end of its value. */
+/** An entry added at the end of a one-line { … } or [ … ] collection, before its closing bracket. */
+function insertFlow(text: string, items: unknown[], range: [number, number, number?], entry: string, close: "}" | "]"): string {
+  const end = text.lastIndexOf(close, range[1] - 1);
+  if (!items.length) {
+    const pad = close === "}" ? " " : "";
+    return `${text.slice(0, range[0] + 1)}${pad}${entry}${pad}${text.slice(end)}`;
+  }
+  let at = end;
+  while (at > range[0] && /\s/.test(text[at - 1])) at--;
+  return `${text.slice(0, at)}, ${entry}${text.slice(at)}`;
+}
+
+/** Remove the entry spanning [from, to) of a one-line collection, with the comma that joins it to its neighbour. */
+function removeFlow(text: string, from: number, to: number, isLast: boolean): string {
+  if (!isLast) {
+    const m = /^\s*,\s*/.exec(text.slice(to));
+    return text.slice(0, from) + text.slice(to + (m ? m[0].length : 0));
+  }
+  const before = /,\s*$/.exec(text.slice(0, from));
+  return text.slice(0, before ? from - before[0].length : from) + text.slice(to);
+}
+
+/** Remove an item of a list: a block item's lines (from its dash to its end), or a one-line list's entry. */
+function removeItem(text: string, seq: YAMLSeq, i: number): string {
+  const item = seq.items[i] as Node | undefined;
+  if (!item?.range) return text;
+  if (seq.flow) return removeFlow(text, item.range[0], item.range[1], i === seq.items.length - 1);
+  const from = lineStart(text, item.range[0]);
+  const to = lineEnd(text, Math.max(item.range[1] - 1, item.range[0]));
+  return text.slice(0, from) + text.slice(Math.min(to + 1, text.length));
+}
+
+/** Add an item at the end of a list: a new `- item` line under the last one, or an entry before a one-line list's `]`. */
+function appendItem(text: string, seq: YAMLSeq, value: string): string {
+  if (seq.flow || !seq.items.length) {
+    if (!seq.range || !seq.flow) throw new ArmwindError({ code: "bad_yaml", path: "", message: "cannot add to an empty list from the form" });
+    return insertFlow(text, seq.items, seq.range, value, "]");
+  }
+  const first = seq.items[0] as Node;
+  const last = seq.items[seq.items.length - 1] as Node;
+  const dash = text.lastIndexOf("-", first.range![0]);
+  const indent = dash - lineStart(text, dash);
+  const end = lineEnd(text, Math.max(last.range![1] - 1, last.range![0]));
+  return `${text.slice(0, end)}\n${" ".repeat(indent)}- ${value}${text.slice(end)}`;
+}
+
+/** Remove a key of a map (its lines in a block map, its entry in a one-line map) or an item of a list. */
 function remove(text: string, doc: Document, path: (string | number)[]): string {
   const parent = (path.length > 1 ? doc.getIn(path.slice(0, -1), true) : doc.contents) as Node | null;
+  const key = path[path.length - 1];
+  if (isSeq(parent) && typeof key === "number") return removeItem(text, parent, key);
   if (!isMap(parent)) return text;
-  const pair = pairOf(parent, path[path.length - 1]);
+  const pair = pairOf(parent, key);
   if (!pair || !isScalar(pair.key) || !pair.key.range) return text;
-  if (parent.flow)
-    throw new ArmwindError({
-      code: "bad_yaml",
-      path: path.join("."),
-      message: "cannot remove a key from a one-line { … } map from the form; edit the whole map's field",
-    });
   const value = pair.value as Node | null;
+  if (parent.flow) {
+    const to = value?.range ? value.range[1] : pair.key.range[1];
+    return removeFlow(text, pair.key.range[0], to, parent.items[parent.items.length - 1] === pair);
+  }
   const from = lineStart(text, pair.key.range[0]);
   const to = lineEnd(text, value?.range ? Math.max(value.range[1] - 1, pair.key.range[1]) : pair.key.range[1]);
   return text.slice(0, from) + text.slice(Math.min(to + 1, text.length));
@@ -112,7 +161,14 @@ function applyOne(text: string, edit: FieldEdit): string {
     return text.slice(0, start) + value + text.slice(end);
   }
   const key = path[path.length - 1];
-  if (typeof key === "number") throw new ArmwindError({ code: "bad_yaml", path: edit.path, message: "add list items in the list's own field" });
+  if (typeof key === "number") {
+    const list = doc.getIn(path.slice(0, -1), true) as Node | undefined;
+    const size = isSeq(list) ? list.items.length : 0;
+    if (key !== size) throw new ArmwindError({ code: "bad_yaml", path: edit.path, message: `the list has ${size} items: a new one goes at [${size}]` });
+    if (isSeq(list)) return appendItem(text, list, value);
+    if (list !== undefined && list !== null) throw new ArmwindError({ code: "bad_yaml", path: edit.path, message: "this field is not a list in the file" });
+    return insert(text, doc, path.slice(0, -2), String(path[path.length - 2]), `[${value}]`);
+  }
   return insert(text, doc, path.slice(0, -1), key, value);
 }
 

@@ -1,12 +1,21 @@
 /**
  * The job form, generated from the job file's JSON Schema (itself generated from the zod schema,
  * src/job/schema.ts, with each field's help and unit): a fieldset per section, an input per field,
- * filled from the job file's own YAML document. Pure: schema and document in, HTML out.
+ * filled from the job file's own YAML document.
+ *  - a list (`original.tests`, `wire_stock`) is a row per item, each with a remove button, and an
+ *    add button that copies the item's <template> (paths `list[#]`, numbered by the page's script);
+ *  - a union with a map among its variants (`target.supply`: a voltage or { value, kind, frequency };
+ *    `target.tolerance`: a fraction or { below, above }; a wire: a name or { bare, overall }) is a
+ *    choice of variant, and each variant's own fields; the variant shown is the one the file holds;
+ *  - a field that only one goal reads ("Goal kv: …" in its help) carries `data-goal` so the page
+ *    shows it with that goal only.
+ * Pure: schema and document in, HTML out.
  */
-import { isCollection, isScalar, stringify, type Document, type Node } from "yaml";
+import { isCollection, isMap, isScalar, isSeq, stringify, type Document, type Node } from "yaml";
 import { esc } from "./html.js";
 
 type Json = Record<string, unknown>;
+type Path = (string | number)[];
 
 const isObject = (x: unknown): x is Json => x !== null && typeof x === "object" && !Array.isArray(x);
 
@@ -19,7 +28,7 @@ export function unitOf(description: string): string {
 }
 
 /** What the field holds in the file, as one line of text (YAML flow style for lists and maps). */
-export function fieldText(doc: Document, path: (string | number)[]): string {
+export function fieldText(doc: Document, path: Path): string {
   const node = doc.getIn(path, true) as Node | undefined;
   if (node === undefined || node === null) return "";
   if (isScalar(node)) return node.value === null || node.value === undefined ? "" : String(node.value);
@@ -27,55 +36,179 @@ export function fieldText(doc: Document, path: (string | number)[]): string {
   return String(node);
 }
 
-const pathText = (path: (string | number)[]) => path.map((p, i) => (typeof p === "number" ? `[${p}]` : i ? `.${p}` : p)).join("");
+/** `["original", "tests", 0, "supply"]` → "original.tests[0].supply"; a "#" index stays "#" (the row template's). */
+export const pathText = (path: Path) => path.map((p, i) => (typeof p === "number" || p === "#" ? `[${p}]` : i ? `.${p}` : p)).join("");
 
-function leaf(node: Json, path: (string | number)[], doc: Document, required: boolean): string {
-  const p = pathText(path);
-  const help = typeof node.description === "string" ? node.description : "";
+const idOf = (p: string) => `f-${p.replace(/[^A-Za-z0-9_-]/g, "_")}`;
+const label = (key: string | number) => String(key).replace(/_/g, " ");
+const problemOut = (p: string) => `<output class="problem" data-for="${esc(p)}"></output>`;
+const helpOf = (node: Json) => (typeof node.description === "string" ? node.description : "");
+
+/** The goal a field belongs to, from its help ("Goal kv: …"); null for a field every goal reads. */
+export function goalOf(node: Json): string | null {
+  return /^Goal ([a-z_]+):/.exec(helpOf(node))?.[1] ?? null;
+}
+
+/** The branches of a union that are maps (each its own group of fields); the others are one text box. */
+const mapBranches = (node: Json) => ((node.anyOf as Json[] | undefined) ?? []).filter((b) => isObject(b.properties));
+const isUnionWithMap = (node: Json) => Array.isArray(node.anyOf) && mapBranches(node).length > 0;
+const isList = (node: Json) => node.type === "array" && isObject(node.items);
+
+interface Ctx {
+  doc: Document | null;
+}
+
+function input(node: Json, p: string, value: string, required: boolean): string {
+  const id = idOf(p);
+  const title = helpOf(node) ? ` title="${esc(helpOf(node))}"` : "";
   const anyOf = Array.isArray(node.anyOf) ? (node.anyOf as Json[]) : [];
-  const unit = unitOf(help) || anyOf.map((b) => unitOf(String(b.description ?? ""))).find(Boolean) || "";
-  const examples = (node.examples as unknown[] | undefined) ?? anyOf.flatMap((b) => (b.examples as unknown[] | undefined) ?? []);
-  const value = fieldText(doc, path);
-  const id = `f-${p.replace(/[^A-Za-z0-9_-]/g, "_")}`;
-  const key = String(path[path.length - 1]);
-  let input: string;
   const choices = Array.isArray(node.enum) ? (node.enum as unknown[]).map(String) : node.type === "boolean" ? ["true", "false"] : null;
   if (choices) {
     const opts = ["", ...choices]
       .map((c) => `<option value="${esc(c)}"${c === value ? " selected" : ""}>${c ? esc(c) : required ? "(choose)" : "(default)"}</option>`)
       .join("");
-    input = `<select id="${id}" name="${esc(p)}" data-field="${esc(p)}">${opts}</select>`;
-  } else {
-    const mode = node.type === "integer" ? ` inputmode="numeric"` : "";
-    const ph = examples.length ? ` placeholder="${esc(String(examples[0]))}"` : "";
-    input = `<input id="${id}" name="${esc(p)}" data-field="${esc(p)}" value="${esc(value)}"${ph}${mode} autocomplete="off" spellcheck="false">`;
+    return `<select id="${id}" name="${esc(p)}" data-field="${esc(p)}"${title}>${opts}</select>`;
   }
+  const examples = (node.examples as unknown[] | undefined) ?? anyOf.flatMap((b) => (b.examples as unknown[] | undefined) ?? []);
+  const mode = node.type === "integer" ? ` inputmode="numeric"` : "";
+  const ph = examples.length ? ` placeholder="${esc(String(examples[0]))}"` : "";
+  return `<input id="${id}" name="${esc(p)}" data-field="${esc(p)}" value="${esc(value)}"${ph}${mode}${title} autocomplete="off" spellcheck="false">`;
+}
+
+function unitText(node: Json, help: string): string {
+  const anyOf = Array.isArray(node.anyOf) ? (node.anyOf as Json[]) : [];
+  return unitOf(help) || anyOf.map((b) => unitOf(String(b.description ?? ""))).find(Boolean) || "";
+}
+
+function leaf(node: Json, path: Path, ctx: Ctx, required: boolean, name: string | number = path[path.length - 1]): string {
+  const p = pathText(path);
+  const help = helpOf(node);
+  const unit = unitText(node, help);
+  const value = ctx.doc ? fieldText(ctx.doc, path) : "";
+  const goal = goalOf(node);
   return (
-    `<div class="field" data-path="${esc(p)}"><label for="${id}">${esc(key.replace(/_/g, " "))}${required ? "" : ' <span class="opt">optional</span>'}</label>` +
-    `<span class="input">${input}${unit ? `<span class="unit">${esc(unit)}</span>` : ""}</span>` +
+    `<div class="field" data-path="${esc(p)}"${goal ? ` data-goal="${goal}"` : ""}><label for="${idOf(p)}">${esc(label(name))}${required ? "" : ' <span class="opt">optional</span>'}</label>` +
+    `<span class="input">${input(node, p, value, required)}${unit ? `<span class="unit">${esc(unit)}</span>` : ""}</span>` +
     (help ? `<small class="help">${esc(help)}</small>` : "") +
-    `<output class="problem" data-for="${esc(p)}"></output></div>`
+    problemOut(p) +
+    `</div>`
   );
 }
 
-function section(node: Json, path: (string | number)[], doc: Document): string {
+/** Which variant of a union the file holds: the map variant whose keys it uses, else the one-line one. */
+function variantHeld(node: Json, path: Path, ctx: Ctx): number {
+  const held = ctx.doc?.getIn(path, true) as Node | undefined;
+  const maps = mapBranches(node);
+  const hasScalar = maps.length < (node.anyOf as Json[]).length;
+  if (!isMap(held)) return 0;
+  const keys = held.items.map((i) => String((i.key as { value?: unknown })?.value ?? i.key));
+  const k = maps.findIndex((b) => keys.every((x) => x in (b.properties as Json)));
+  return (hasScalar ? 1 : 0) + Math.max(0, k);
+}
+
+/** The short name of a variant, for the choice: "one value (V)" for the one-line form, the fields of a map. */
+function variantName(b: Json, unit: string): string {
+  if (isObject(b.properties)) return `{ ${Object.keys(b.properties).join(", ")} }`;
+  return `one value${unit ? ` (${unit})` : ""}`;
+}
+
+/** A union with a map among its variants: a choice of variant, then the variant's own fields. */
+function union(node: Json, path: Path, ctx: Ctx, required: boolean, name: string | number = path[path.length - 1]): string {
+  const p = pathText(path);
+  const help = helpOf(node);
+  const branches = node.anyOf as Json[];
+  const maps = mapBranches(node);
+  const scalars = branches.filter((b) => !isObject(b.properties));
+  const variants: { name: string; body: string }[] = [];
+  const held = variantHeld(node, path, ctx);
+  if (scalars.length) {
+    const first = scalars[0];
+    const merged: Json = { ...first, type: undefined, anyOf: scalars, description: first.description };
+    const heldScalar = held === 0 && ctx.doc ? fieldText(ctx.doc, path) : "";
+    const unit = unitText(merged, String(first.description ?? ""));
+    variants.push({
+      name: variantName(first, unit),
+      body: `<span class="input">${input(merged, p, heldScalar, required)}${unit ? `<span class="unit">${esc(unit)}</span>` : ""}</span>`,
+    });
+  }
+  maps.forEach((b) => {
+    const inner = variants.length === held ? ctx : { doc: null };
+    variants.push({ name: variantName(b, ""), body: `<div class="subfields">${section(b, path, inner)}</div>` });
+  });
+  const choice = variants
+    .map(
+      (v, i) =>
+        `<label class="variant-choice"><input type="radio" name="${esc(`variant:${p}`)}" value="${i}" data-variant-of="${esc(p)}"${i === held ? " checked" : ""}> ${esc(v.name)}</label>`,
+    )
+    .join("");
+  const bodies = variants.map((v, i) => `<div class="variant" data-variant="${i}"${i === held ? "" : " hidden"}>${v.body}</div>`).join("");
+  const goal = goalOf(node);
+  return (
+    `<div class="field union" data-union="${esc(p)}" data-path="${esc(p)}"${goal ? ` data-goal="${goal}"` : ""}>` +
+    `<span class="label">${esc(label(name))}${required ? "" : ' <span class="opt">optional</span>'}</span>` +
+    `<div class="variants" role="radiogroup" aria-label="${esc(label(name))}: its form">${choice}</div>${bodies}` +
+    (help ? `<small class="help">${esc(help)}</small>` : "") +
+    problemOut(p) +
+    `</div>`
+  );
+}
+
+/** One item of a list: the item's own control(s) and a remove button. */
+function listItem(items: Json, path: Path, ctx: Ctx, isNew: boolean): string {
+  const p = pathText(path);
+  const idx = path[path.length - 1];
+  const name = `item ${typeof idx === "number" ? idx + 1 : "#"}`;
+  const body = isUnionWithMap(items)
+    ? union(items, path, ctx, true, name)
+    : isObject(items.properties)
+      ? `<fieldset class="item-fields"><legend>${esc(name)}</legend>${section(items, path, ctx)}${problemOut(p)}</fieldset>`
+      : leaf(items, path, ctx, true, name);
+  return `<div class="list-item" data-item="${esc(p)}"${isNew ? " data-new" : ""}>${body}<button type="button" class="remove" data-remove aria-label="remove ${esc(name)}">remove</button></div>`;
+}
+
+/** A list: a row per item, an add button, and the item's template for the page's script. */
+function list(node: Json, path: Path, ctx: Ctx, required: boolean): string {
+  const p = pathText(path);
+  const items = node.items as Json;
+  const held = ctx.doc?.getIn(path, true) as Node | undefined;
+  const count = isSeq(held) ? held.items.length : 0;
+  const rows = Array.from({ length: count }, (_, i) => listItem(items, [...path, i], ctx, false)).join("");
+  const template = listItem(items, [...path, "#"], { doc: null }, true);
+  const help = helpOf(node);
+  const max = typeof node.maxItems === "number" ? ` data-max="${node.maxItems}"` : "";
+  return (
+    `<fieldset class="list" data-list="${esc(p)}" data-path="${esc(p)}"${max}><legend>${esc(label(path[path.length - 1]))}${required ? "" : ' <span class="opt">optional</span>'}</legend>` +
+    (help ? `<small class="help">${esc(help)}</small>` : "") +
+    `<div class="list-items">${rows}</div>` +
+    `<template>${template}</template>` +
+    `<button type="button" class="add" data-add="${esc(p)}">add ${esc(label(path[path.length - 1]).replace(/s$/, ""))}</button>` +
+    problemOut(p) +
+    `</fieldset>`
+  );
+}
+
+function section(node: Json, path: Path, ctx: Ctx): string {
   const props = node.properties as Record<string, Json>;
   const required = new Set((node.required as string[] | undefined) ?? []);
   const parts: string[] = [];
   for (const [k, v] of Object.entries(props)) {
     if (k === "$schema" || k === "version") continue;
     const sub = [...path, k];
+    const req = required.has(k);
     if (isObject(v) && isObject(v.properties) && !Array.isArray(v.anyOf)) {
-      const help = typeof v.description === "string" ? `<small class="help">${esc(v.description)}</small>` : "";
+      const help = helpOf(v) ? `<small class="help">${esc(helpOf(v))}</small>` : "";
+      const goal = goalOf(v);
       parts.push(
-        `<fieldset data-path="${esc(pathText(sub))}"><legend>${esc(k.replace(/_/g, " "))}</legend>${help}${section(v, sub, doc)}<output class="problem" data-for="${esc(pathText(sub))}"></output></fieldset>`,
+        `<fieldset data-path="${esc(pathText(sub))}"${goal ? ` data-goal="${goal}"` : ""}><legend>${esc(label(k))}</legend>${help}${section(v, sub, ctx)}${problemOut(pathText(sub))}</fieldset>`,
       );
-    } else parts.push(leaf(v, sub, doc, required.has(k)));
+    } else if (isList(v)) parts.push(list(v, sub, ctx, req));
+    else if (isUnionWithMap(v)) parts.push(union(v, sub, ctx, req));
+    else parts.push(leaf(v, sub, ctx, req));
   }
   return parts.join("\n");
 }
 
 /** The whole form's fields for a job document. */
 export function jobForm(schema: Json, doc: Document): string {
-  return section(schema, [], doc);
+  return section(schema, [], { doc });
 }

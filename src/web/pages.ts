@@ -61,7 +61,7 @@ async function listPage(ctx: Context): Promise<Res> {
     const f = encodeURI(j.file);
     return `<tr><td><a class="job" href="/job/${f}">${esc(j.id ?? j.file)}</a><div class="sub">${esc(j.title ?? "")}</div><div class="sub file">${esc(j.file)}</div></td>
 <td class="verdict-cell" data-check="${esc(j.file)}"><span class="sub">planning…</span></td>
-<td>${rec}</td><td class="actions"><a href="/job/${f}">plan</a> <a href="/bench/${f}">readings</a> <a href="/api/card/${f}">card</a></td></tr>`;
+<td>${rec}</td><td class="actions"><a href="/job/${f}">plan</a> <a href="/bench/${f}">readings</a> <a href="/card/${f}">card</a></td></tr>`;
   });
   const table = jobs.length
     ? `<table class="jobs"><thead><tr><th>job</th><th>last plan</th><th>last logbook record</th><th></th></tr></thead><tbody>${rows.join("\n")}</tbody></table>`
@@ -91,7 +91,7 @@ function jobPage(ctx: Context, rel: string): Res {
     : jobForm(jobJsonSchema(), doc);
   const u = encodeURI(f.rel);
   const main = `<div class="head"><h1 id="title">${esc(String(doc.get("id") ?? f.rel))}</h1><span class="sub file">${esc(f.rel)}</span>
-<nav class="tools"><a href="/api/card/${u}" id="card-link">card (PDF)</a><a href="/bench/${u}">readings at the bench</a><a href="/history${doc.getIn(["armature", "family"]) ? `?family=${encodeURIComponent(String(doc.getIn(["armature", "family"])))}` : ""}">logbook</a></nav></div>
+<nav class="tools"><a href="/card/${u}" id="card-link">card (PDF)</a><a href="/bench/${u}">readings at the bench</a><a href="/history${doc.getIn(["armature", "family"]) ? `?family=${encodeURIComponent(String(doc.getIn(["armature", "family"])))}` : ""}">logbook</a></nav></div>
 <div class="split"><section class="form-col"><form id="job-form" autocomplete="off">
 <div class="save-row"><button type="submit" id="save">Save</button><span id="save-status" role="status"></span></div>
 <output class="problem" data-for=""></output>
@@ -114,9 +114,9 @@ function benchPage(ctx: Context, rel: string): Res {
   const doc = parseDocument(f.text);
   const id = String(doc.get("id") ?? "");
   const today = new Date().toISOString().slice(0, 10);
-  const main = `<div class="head"><h1>Readings: ${esc(id)}</h1><span class="sub file">${esc(f.rel)}</span><nav class="tools"><a href="/job/${encodeURI(f.rel)}">plan</a><a href="/api/card/${encodeURI(f.rel)}">card (PDF)</a></nav></div>
+  const main = `<div class="head"><h1>Readings: ${esc(id)}</h1><span class="sub file">${esc(f.rel)}</span><nav class="tools"><a href="/job/${encodeURI(f.rel)}">plan</a><a href="/card/${encodeURI(f.rel)}">card (PDF)</a></nav></div>
 <p class="caution">Null the test leads first. Read bar to bar stepping round the commutator: r1 between bar 1 and bar 2, … the last between the last bar and bar 1.</p>
-<div class="split"><section><form id="bench-form" autocomplete="off">
+<div class="split bench"><section class="grid-col"><form id="bench-form" autocomplete="off">
 <div class="row"><label>date <input name="date" type="date" value="${today}"></label><label>winding temperature <input name="temperature" value="20 C" placeholder="21 C"></label><label>meter resolution <input name="meter_resolution" placeholder="0.001 ohm"></label></div>
 <div id="grid" class="readings"><p class="sub">loading the coil table…</p></div>
 <output class="problem" data-for=""></output>
@@ -126,8 +126,24 @@ function benchPage(ctx: Context, rel: string): Res {
 <div class="row"><label>notes <input name="notes"></label></div></fieldset>
 <div class="save-row"><button type="submit" id="log">Log this rewind</button><span id="log-status" role="status"></span></div>
 </form></section>
-<section><div id="diagram"></div><div id="verdict" aria-live="polite"></div></section></div>`;
+<section class="diagram-col"><div id="verdict" aria-live="polite"></div><div id="diagram"></div></section></div>`;
   return html(200, layout(`Readings ${id}`, main, "bench", { file: f.rel, id }));
+}
+
+/** The card: the PDF the card command makes, shown in the page, with print, paper and download. */
+function cardPage(ctx: Context, rel: string): Res {
+  const f = jobFile(ctx, rel);
+  if (isRes(f)) return f;
+  const id = String(parseDocument(f.text).get("id") ?? f.rel);
+  const u = encodeURI(f.rel);
+  const main = `<div class="head"><h1>Card: ${esc(id)}</h1><span class="sub file">${esc(f.rel)}</span><nav class="tools"><a href="/job/${u}">plan</a><a href="/bench/${u}">readings at the bench</a></nav></div>
+<div class="card-bar"><button type="button" id="print">Print the card</button>
+<label>paper <select id="paper"><option value="">the shop's default</option><option value="a4">A4</option><option value="letter">Letter</option></select></label>
+<a id="download" href="/api/card/${u}?download=1" download="${esc(id)}.pdf">download the PDF</a>
+<a id="open" href="/api/card/${u}" target="_blank" rel="noopener">open it in its own tab</a><span id="card-status" role="status" class="sub">making the card…</span></div>
+<iframe id="card" class="card-frame" title="the job card (PDF)" src="/api/card/${u}"></iframe>
+<p class="sub">If the card does not show here, this browser has no PDF viewer: download it, or open it in its own tab, and print from there.</p>`;
+  return html(200, layout(`Card ${id}`, main, "card", { file: f.rel, id }));
 }
 
 function newPage(): Res {
@@ -150,9 +166,11 @@ export async function handlePage(r: Req, ctx: Context): Promise<Res> {
   if (r.method !== "GET" && r.method !== "HEAD") return problem(405, "bad_request", "pages are read with GET");
   if (r.path === "/") return listPage(ctx);
   if (r.path === "/new") return newPage();
+  if (r.path === "/favicon.ico") return { status: 204, type: "image/x-icon", body: "" };
   if (r.path === "/history") return historyPage(r);
   if (r.path.startsWith("/static/")) return asset(r.path.slice(8));
   if (r.path.startsWith("/job/")) return jobPage(ctx, r.path.slice(5));
   if (r.path.startsWith("/bench/")) return benchPage(ctx, r.path.slice(7));
+  if (r.path.startsWith("/card/")) return cardPage(ctx, r.path.slice(6));
   return html(404, layout("Not found", `<h1>Not found</h1><p>No page at ${esc(r.path)}. <a href="/">The job list.</a></p>`, "error"));
 }

@@ -532,7 +532,7 @@ function checkInputs(layout: WindingLayout, readings: number[], expectedCoilOhm:
 }
 
 /** Each reading outside the spread band, and the level when it is off the plan: the failures behind exit status 4. */
-function readingFailures(layout: WindingLayout, spread: Spread, level: Level | null, behind: number[][], planned: boolean): Failure[] {
+export function readingFailures(layout: WindingLayout, spread: Spread, level: Level | null, behind: number[][], planned: boolean): Failure[] {
   const out: Failure[] = [];
   const C = layout.bars;
   for (const row of spread.rows) {
@@ -638,7 +638,7 @@ function inconsistentSuspect(residual: number): Suspect {
 }
 
 /** Suspects from the readings themselves: open readings, bridged bars, poor riser connections (US Army TM 55-2210-223-34); a reading across an open coil is the open coil, not a riser. */
-function readingSuspects(layout: WindingLayout, spread: Spread, behind: number[][], coils: CoilFinding[]): Suspect[] {
+export function readingSuspects(layout: WindingLayout, spread: Spread, behind: number[][], coils: CoilFinding[]): Suspect[] {
   const out: Suspect[] = [];
   const C = layout.bars;
   const verdictOf = (k: number) => coils[k - 1].verdict;
@@ -733,7 +733,7 @@ function offCoilSuspect(where: string, base: { coils: number[]; bars: number[]; 
 }
 
 /** With equalizers fitted the coils cannot be solved one by one: each reading outside the spread band (and not named already) is reported as it stands. */
-function deviatingReadings(layout: WindingLayout, spread: Spread): Suspect[] {
+export function deviatingReadings(layout: WindingLayout, spread: Spread): Suspect[] {
   return spread.rows
     .filter((r) => !r.pass && (r.side === "high" || r.side === "low"))
     .map((r) => {

@@ -5,48 +5,12 @@
  * check at its reduced voltage, never at mains. Figures come from the plan (design/series.ts).
  */
 import type { Plan } from "../../design/types.js";
-import type { SeriesPoint } from "../../motor/series.js";
 import { toRpm } from "../../format/units.js";
-import { pct, rpm, sig } from "../text.js";
+import { seriesMotorRows, supplyText } from "../../format/series.js";
+import { rpm, sig } from "../text.js";
 
-type SeriesPlan = NonNullable<Plan["series"]>;
-
-/** "230 V 50 Hz AC" or "12 V DC". */
-export function supplyText(s: { volts: number; frequency: number }): string {
-  const plain = (x: number) => String(Number(x.toPrecision(4)));
-  return s.frequency > 0 ? `${plain(s.volts)} V ${plain(s.frequency)} Hz AC` : `${plain(s.volts)} V DC`;
-}
-
-/** Rows [label, original, new] of the motor table for a series motor; torque in the table's unit. */
-export function seriesMotorRows(sp: SeriesPlan, torque: (nm: number | null) => string, torqueUnit: string): string[][] {
-  const o = sp.original;
-  const n = sp.rewound;
-  const at = (p: SeriesPoint | null, f: (p: SeriesPoint) => string) => (p ? f(p) : "—");
-  const rated = sp.ratedTorque === null ? "rated load (not known)" : `at rated load ${torque(sp.ratedTorque)} ${torqueUnit}`;
-  const rows: string[][] = [
-    ["k (series field), mV·s/(A·rad)", o.k === null ? "—" : sig(o.k * 1e3), n.k === null ? "—" : sig(n.k * 1e3)],
-    ["supply", supplyText(sp.originalSupply), supplyText(sp.supply)],
-    [`${rated}: speed, rpm`, at(o.rated, (p) => rpm(p.speed)), at(n.rated, (p) => rpm(p.speed))],
-    ["   current, A", at(o.rated, (p) => sig(p.current)), at(n.rated, (p) => sig(p.current))],
-    ["   input, W", at(o.rated, (p) => sig(p.inputW)), at(n.rated, (p) => sig(p.inputW))],
-    ["   efficiency", at(o.rated, (p) => pct(p.efficiency)), at(n.rated, (p) => pct(p.efficiency))],
-    [
-      sp.lockedRotor ? `locked rotor at ${supplyText(sp.lockedRotor.supply)}, cold, A` : "locked rotor at reduced voltage, A",
-      o.lockedRotorCurrent === null ? "—" : sig(o.lockedRotorCurrent),
-      n.lockedRotorCurrent === null ? "—" : sig(n.lockedRotorCurrent),
-    ],
-    ["field resistance at 20 °C, Ω", sig(o.fieldOhm), sig(n.fieldOhm)],
-  ];
-  if (sp.convert) {
-    const c = sp.convert;
-    rows.push([
-      "field for the new supply",
-      "",
-      `${c.fieldTurnsPerPole === null ? `turns × ${sig(c.ratio)}` : `${c.fieldTurnsPerPole} turns a pole`}, copper area × ${sig(c.fieldAreaFactor)}`,
-    ]);
-  }
-  return rows;
-}
+// the motor table's rows and the supply in words are shared with the terminal (src/format/series.ts)
+export { seriesMotorRows, supplyText };
 
 export interface BenchCheck {
   title: string;

@@ -75,10 +75,142 @@ function showProblems(form, problems, kind = "error") {
 
 // ---------------------------------------------------------------- the job page: form, plan, chart
 
-const job = { edits: new Map(), seq: 0, shown: 0, plan: null, picked: null };
+const job = { edits: [], seq: 0, shown: 0, plan: null, picked: null };
+
+/**
+ * The form's edits, in the order made: each a field's text at its path, or a structural one (a list
+ * row added or removed, a union switched to another form). Typing again in a field replaces its last
+ * edit unless a structural edit came after it (then the paths may mean other rows: a new edit).
+ */
+function setEdit(path, text, structural = false) {
+  const last = job.edits.findLastIndex((e) => e.path === path);
+  const laterStructural = job.edits.slice(last + 1).some((e) => e.structural);
+  if (!structural && last >= 0 && !laterStructural && !job.edits[last].structural) job.edits[last].text = text;
+  else job.edits.push({ path, text, structural });
+  $("#save-status").textContent = "unsaved changes";
+  $("#save-status").className = "";
+}
 
 function fieldEdits() {
-  return Array.from(job.edits, ([path, text]) => ({ path, text }));
+  return job.edits.map(({ path, text }) => ({ path, text }));
+}
+
+/** A typed value as it goes into a one-line { … } map: as typed, or quoted when it holds YAML's flow signs. */
+function flowScalar(text) {
+  const t = text.trim();
+  return /[,[\]{}#&*!|>'"%@`]|: |^-|^\?/.test(t) ? JSON.stringify(t) : t;
+}
+
+/** The value the controls under `base` say, as one line of YAML: the shown variant's map, or the one text box. */
+function compose(container, base) {
+  const own = container.querySelector(`[data-field="${CSS.escape(base)}"]`);
+  if (own && !own.closest("[hidden]")) return own.value.trim() === "" ? "''" : flowScalar(own.value);
+  const entries = [];
+  for (const el of $$("[data-field]", container)) {
+    if (el.closest("[hidden]")) continue;
+    const p = el.dataset.field;
+    if (!p.startsWith(`${base}.`) || el.value.trim() === "") continue;
+    const rest = p.slice(base.length + 1);
+    if (/[.[]/.test(rest)) continue; // a deeper field: composed with its own union
+    entries.push(`${rest}: ${flowScalar(el.value)}`);
+  }
+  for (const u of $$("[data-union]", container)) {
+    const p = u.dataset.union;
+    if (u.closest("[hidden]") || !p.startsWith(`${base}.`) || /[.[]/.test(p.slice(base.length + 1))) continue;
+    entries.push(`${p.slice(base.length + 1)}: ${compose(u, p)}`);
+  }
+  return entries.length ? `{ ${entries.join(", ")} }` : "{}";
+}
+
+/** The list row (not yet in the file) a control belongs to, if any. */
+const newRow = (el) => el.closest(".list-item[data-new]");
+
+function fieldChanged(f) {
+  const row = newRow(f);
+  if (row) setEdit(row.dataset.item, compose(row, row.dataset.item));
+  else setEdit(f.dataset.field, f.value);
+  if (f.dataset.field === "target.goal") showGoalFields();
+  previewSoon();
+}
+
+/** Show the union's variant k; with `carry`, the value moves over (a bare value into the map's first field, or back). */
+function showVariant(u, k, carry) {
+  const variants = $$(":scope > .variant", u);
+  const from = variants.find((v) => !v.hidden);
+  const to = variants[k];
+  if (carry && from && from !== to && !$$("[data-field]", to).some((e) => e.value.trim() !== "")) {
+    const src = $$("[data-field]", from).find((e) => e.value.trim() !== "");
+    const inputs = $$("input[data-field]", to);
+    // a bare value goes into the map's required fields (the value, the bare diameter), or into each when none is required (below and above)
+    const required = inputs.filter((e) => !e.closest(".field")?.querySelector("label .opt"));
+    if (src) for (const e of (required.length ? required : inputs).slice(0, to.querySelector(".subfields") ? 2 : 1)) e.value = src.value;
+  }
+  variants.forEach((v, i) => (v.hidden = i !== k));
+  const radio = u.querySelector(`[data-variant-of="${CSS.escape(u.dataset.union)}"][value="${k}"]`);
+  if (radio) radio.checked = true;
+}
+
+function variantChanged(radio) {
+  const u = radio.closest("[data-union]");
+  showVariant(u, Number(radio.value), true);
+  const row = newRow(u);
+  if (row) setEdit(row.dataset.item, compose(row, row.dataset.item));
+  else setEdit(u.dataset.union, compose(u, u.dataset.union), true);
+  previewSoon();
+}
+
+const sanitized = (p) => `f-${p.replace(/[^A-Za-z0-9_-]/g, "_")}`;
+
+/** Give a row the paths of index `to` (it was at `from`): every path, id and name under it. */
+function renumber(row, list, from, to) {
+  const a = `${list}[${from}]`;
+  const b = `${list}[${to}]`;
+  const sa = sanitized(a);
+  const sb = sanitized(b);
+  for (const el of [row, ...$$("*", row)]) {
+    for (const attr of ["data-item", "data-field", "data-path", "data-for", "data-union", "data-variant-of", "name"]) {
+      const v = el.getAttribute(attr);
+      if (v !== null) el.setAttribute(attr, v.replace(a, b));
+    }
+    for (const attr of ["id", "for"]) {
+      const v = el.getAttribute(attr);
+      if (v?.startsWith(sa)) el.setAttribute(attr, sb + v.slice(sa.length));
+    }
+  }
+  for (const l of $$("legend, .label", row)) l.textContent = l.textContent.replace(/^item \S+/, `item ${to + 1}`);
+}
+
+function addRow(fs) {
+  const list = fs.dataset.list;
+  const box = $(":scope > .list-items", fs);
+  const n = box.children.length;
+  if (fs.dataset.max && n >= Number(fs.dataset.max)) return;
+  const html = $(":scope > template", fs)
+    .innerHTML.replaceAll(`${list}[#]`, `${list}[${n}]`)
+    .replaceAll(sanitized(`${list}[#]`), sanitized(`${list}[${n}]`))
+    .replaceAll("item #", `item ${n + 1}`);
+  box.insertAdjacentHTML("beforeend", html);
+  const row = box.lastElementChild;
+  setEdit(`${list}[${n}]`, compose(row, `${list}[${n}]`), true);
+  row.querySelector("input, select")?.focus();
+  previewSoon();
+}
+
+function removeRow(row) {
+  const fs = row.closest("[data-list]");
+  const list = fs.dataset.list;
+  const rows = $$(":scope > .list-items > .list-item", fs);
+  const i = rows.indexOf(row);
+  setEdit(`${list}[${i}]`, "", true);
+  row.remove();
+  for (let j = i + 1; j < rows.length; j++) renumber(rows[j], list, j, j - 1);
+  previewSoon();
+}
+
+/** Fields that only one goal reads are shown with that goal (all of them while no goal is chosen). */
+function showGoalFields() {
+  const goal = $('[data-field="target.goal"]')?.value ?? "";
+  for (const el of $$("[data-goal]")) el.classList.toggle("other-goal", goal !== "" && el.dataset.goal !== goal);
 }
 
 async function preview() {
@@ -102,20 +234,30 @@ async function preview() {
 const previewSoon = debounce(preview, 120);
 
 function setField(path, text) {
-  job.edits.set(path, text);
   const input = $(`[data-field="${CSS.escape(path)}"]`);
-  if (input) input.value = text;
+  if (input) {
+    const v = input.closest(".variant");
+    if (v?.hidden) showVariant(v.closest("[data-union]"), Number(v.dataset.variant), false);
+    input.value = text;
+  }
+  setEdit(path, text);
+  if (path === "target.goal") showGoalFields();
 }
 
 function initJob() {
   const form = $("#job-form");
   if (!form) return;
+  showGoalFields();
   form.addEventListener("input", (ev) => {
+    if (ev.target.dataset.variantOf !== undefined) return variantChanged(ev.target);
     const f = ev.target.closest("[data-field]");
-    if (!f) return;
-    job.edits.set(f.dataset.field, f.value);
-    $("#save-status").textContent = "unsaved changes";
-    previewSoon();
+    if (f) fieldChanged(f);
+  });
+  form.addEventListener("click", (ev) => {
+    const add = ev.target.closest("[data-add]");
+    if (add) return addRow(add.closest("[data-list]"));
+    const rm = ev.target.closest("[data-remove]");
+    if (rm) removeRow(rm.closest(".list-item"));
   });
   form.addEventListener("submit", async (ev) => {
     ev.preventDefault();
@@ -124,7 +266,8 @@ function initJob() {
     if (status === 200) {
       data.text = json.text;
       data.version = json.version;
-      job.edits.clear();
+      job.edits = [];
+      for (const r of $$(".list-item[data-new]")) delete r.dataset.new;
       s.textContent = "saved";
       s.className = "ok";
     } else {
@@ -343,6 +486,7 @@ async function initBench() {
     ),
   );
   drawDiagram([]);
+  judge();
   const form = $("#bench-form");
   form.addEventListener("input", debounce(judge, 150));
   form.addEventListener("submit", (ev) => {
@@ -355,24 +499,35 @@ function readings() {
   return $$("[data-reading]").map((i) => i.value.trim());
 }
 
+/** The sign and size of a fraction, in per cent: "+2.1 %", "−7.2 %". */
+const signed = (x) => (Math.abs(x) < 5e-4 ? "0 %" : `${x >= 0 ? "+" : "−"}${fmt(Math.abs(x) * 100, 2)} %`);
+
+/**
+ * Judge the readings as they are typed: while some are blank, `diagnose --partial` (each reading
+ * alone against the plan; from three on against their median, and the coils behind them); with
+ * all of them, `diagnose` itself. Every verdict comes from the server.
+ */
 async function judge() {
   const rs = readings();
   const form = $("#bench-form");
-  if (rs.some((r) => r === "")) {
-    const left = rs.map((r, i) => (r === "" ? `r${i + 1}` : null)).filter(Boolean);
-    $("#verdict").replaceChildren(h("p", { class: "sub" }, `waiting for ${left.length > 4 ? `${left.length} readings` : left.join(", ")}`));
+  const typed = rs.filter((r) => r !== "").length;
+  if (typed === 0) {
+    $("#verdict").replaceChildren(h("p", { class: "sub" }, "Type the readings as you take them: each is judged as it comes in."));
+    for (const l of $$(".reading")) l.classList.remove("fail", "pass", "invalid", "hint"), ($(".judge", l).textContent = "");
+    drawDiagram([]);
     return;
   }
   const seq = ++bench.seq;
   const temperature = form.elements.temperature.value.trim();
   const { status, json } = await api("POST", `/api/diagnose/${enc(data.file)}`, {
     bars: rs,
+    partial: typed < rs.length,
     temperature: temperature || undefined,
     resolution: form.elements.meter_resolution.value.trim() || undefined,
   });
   if (seq < bench.shown) return;
   bench.shown = seq;
-  for (const l of $$(".reading")) l.classList.remove("fail", "pass", "invalid"), ($(".judge", l).textContent = "");
+  for (const l of $$(".reading")) l.classList.remove("fail", "pass", "invalid", "hint"), ($(".judge", l).textContent = "");
   if (status !== 200) {
     showProblems(
       form,
@@ -382,37 +537,63 @@ async function judge() {
       const m = /bars\[(\d+)\]$/.exec(e.path);
       if (m) $$(".reading")[Number(m[1])]?.classList.add("invalid");
     }
+    document.body.dataset.judged = String(seq);
     return;
   }
   showProblems(form, []);
   bench.last = json;
-  const suspects = json.suspects || [];
+  const suspects = (json.suspects || []).filter((s) => s.kind !== "level_off_plan" && s.kind !== "readings_inconsistent");
   drawDiagram(suspects.flatMap((s) => s.coils));
+  const done = !json.partial;
   $("#verdict").replaceChildren(
-    h("p", { class: `verdict ${json.ok ? "ok" : "bad"}` }, json.ok ? "every reading within the bench rules" : "a reading is out of tolerance"),
+    h(
+      "p",
+      { class: `verdict ${json.ok ? (done ? (suspects.length ? "warn" : "ok") : "sub") : "bad"}`, id: "verdict-line" },
+      done
+        ? json.ok
+          ? suspects.length
+            ? "every reading within the bench rules, but a coil stands out:"
+            : "every reading within the bench rules"
+          : "a reading is out of tolerance"
+        : json.ok
+          ? `${json.read} of ${json.of} readings: none out so far`
+          : `${json.read} of ${json.of} readings: a reading is out already`,
+    ),
     suspects.length
       ? h(
           "ul",
           { class: "suspects" },
           suspects.map((s) => h("li", { "data-kind": s.kind }, s.message)),
         )
-      : h("p", {}, "No coil stands out."),
-    ...(json.notes || []).map((n) => h("p", { class: "sub" }, n)),
+      : h(
+          "p",
+          {},
+          done
+            ? "No coil stands out."
+            : json.read >= json.spread_from
+              ? "No coil stands out so far."
+              : `Coils are judged from ${json.spread_from} readings on.`,
+        ),
+    ...(json.partial ? json.notes : json.notes || []).map((n) => h("p", { class: "sub" }, n)),
   );
   markReadings(json);
+  document.body.dataset.judged = String(seq);
 }
 
-/** Each reading as diagnose judged it: its own pass/fail (the bench rules) and its distance from the set's median. */
+/** Each reading as diagnose judged it: alone against the plan (partial sets), against the median of the set (the spread rule). */
 function markReadings(d) {
   const labels = $$(".reading");
   (d.readings || []).forEach((r, i) => {
     const l = labels[i];
-    if (!l) return;
-    const bad = r.pass === false;
-    l.classList.add(bad ? "fail" : "pass");
-    const off = r.of_median_fraction;
-    $(".judge", l).textContent =
-      `${bad ? "out" : "within"}${typeof off === "number" ? `: ${off >= 0 ? "+" : "−"}${fmt(Math.abs(off) * 100, 2)} % of median` : ""}`;
+    if (!l || (d.partial && !r.read)) return;
+    const parts = [];
+    if (d.partial && r.alone) parts.push(r.alone.deviation_fraction === null ? "open" : `${signed(r.alone.deviation_fraction)} of plan`);
+    if (typeof r.of_median_fraction === "number") parts.push(`${signed(r.of_median_fraction)} of median`);
+    if (r.pass === false) l.classList.add("fail");
+    else if (r.pass === true) l.classList.add("pass");
+    else if (r.alone && !r.alone.pass) l.classList.add("hint");
+    const word = r.pass === false ? "out" : r.pass === true ? "within" : r.alone && !r.alone.pass ? "off the plan?" : "";
+    $(".judge", l).textContent = [word, parts.join(", ")].filter(Boolean).join(": ");
   });
   const level = d.level;
   if (level && typeof level.deviation_fraction === "number") {
@@ -420,7 +601,7 @@ function markReadings(d) {
       h(
         "p",
         { class: level.pass ? "sub" : "bad" },
-        `median ${fmt(d.median_ohm, 4)} Ω against ${fmt(level.expected_median_ohm, 4)} Ω expected (${level.deviation_fraction >= 0 ? "+" : "−"}${fmt(Math.abs(level.deviation_fraction) * 100, 2)} %, window ±${fmt(level.window_fraction * 100, 2)} %): ${level.pass ? "within" : "out"}`,
+        `median${d.partial ? " so far" : ""} ${fmt(d.median_ohm, 4)} Ω against ${fmt(level.expected_median_ohm, 4)} Ω expected (${signed(level.deviation_fraction)}, window ±${fmt(level.window_fraction * 100, 2)} %): ${level.pass ? "within" : "out"}`,
       ),
     );
   }
@@ -585,6 +766,31 @@ async function initList() {
   }
 }
 
+// ---------------------------------------------------------------- the card
+
+/** The card in its frame: print it, change the paper (the frame, the download and the tab follow). */
+function initCard() {
+  const frame = $("#card");
+  const base = `/api/card/${enc(data.file)}`;
+  const status = $("#card-status");
+  frame.addEventListener("load", () => (status.textContent = ""));
+  $("#paper").addEventListener("change", (ev) => {
+    const q = ev.target.value ? `?paper=${ev.target.value}` : "";
+    status.textContent = "making the card…";
+    frame.src = base + q;
+    $("#open").href = base + q;
+    $("#download").href = `${base}${q ? `${q}&` : "?"}download=1`;
+  });
+  $("#print").addEventListener("click", () => {
+    try {
+      frame.contentWindow.focus();
+      frame.contentWindow.print();
+    } catch {
+      window.open($("#open").href, "_blank", "noopener");
+    }
+  });
+}
+
 // ---------------------------------------------------------------- a new job
 
 function initNew() {
@@ -598,5 +804,5 @@ function initNew() {
   });
 }
 
-const init = { list: initList, job: initJob, bench: initBench, history: initHistory, new: initNew }[document.body.dataset.page];
+const init = { list: initList, job: initJob, bench: initBench, card: initCard, history: initHistory, new: initNew }[document.body.dataset.page];
 if (init) init();
