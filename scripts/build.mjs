@@ -17,6 +17,7 @@ import { execFileSync } from "node:child_process";
 import { readFileSync, rmSync } from "node:fs";
 import { dirname, join, relative, resolve } from "node:path";
 import { fileURLToPath } from "node:url";
+import { patchPdfModule } from "./pdf-patch.mjs";
 import { patchStringWidth } from "./string-width-patch.mjs";
 
 const ROOT = resolve(dirname(fileURLToPath(import.meta.url)), "..");
@@ -66,6 +67,18 @@ const lazyStringWidth = {
   },
 };
 
+/** fontkit's shaping tables and the AES tables, made on first use (scripts/pdf-patch.mjs). */
+const lazyPdfTables = {
+  name: "lazy-pdf-tables",
+  setup(build) {
+    build.onLoad({ filter: /[\\/](fontkit[\\/]dist[\\/]module\.mjs|@noble[\\/]ciphers[\\/]esm[\\/]aes\.js)$/ }, (args) => ({
+      contents: patchPdfModule(readFileSync(args.path, "utf8"), args.path),
+      loader: "js",
+      resolveDir: dirname(args.path),
+    }));
+  },
+};
+
 for (const f of ["armwind.cjs.cache", "armwind.cjs.card.cache"]) rmSync(join(DIST, f), { force: true });
 const result = await esbuild.build({
   entryPoints: [join(ROOT, "src/cli/main.ts")],
@@ -74,7 +87,7 @@ const result = await esbuild.build({
   platform: "node",
   target: "node20",
   format: "cjs",
-  plugins: [lazyStringWidth, metaUrl, noBrotli],
+  plugins: [lazyStringWidth, lazyPdfTables, metaUrl, noBrotli],
   logLevel: "warning",
   legalComments: "none",
   minifyWhitespace: true,
