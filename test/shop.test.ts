@@ -171,3 +171,77 @@ describe("armwind new job | measured | shop", () => {
     expect(r.success, JSON.stringify(r.error?.issues)).toBe(true);
   });
 });
+
+describe("the meter's resolution: option, environment, measured file, shop profile, default (DESIGN.md order; src/bench/rules.ts)", () => {
+  it("the rule picks the first one given", async () => {
+    const { meterResolution, DEFAULT_METER_RESOLUTION_OHM } = await import("../src/bench/rules.js");
+    expect(meterResolution({ option: 1e-4, environment: 1e-3, measured: 0.01, profile: 0.05 })).toEqual({ ohm: 1e-4, source: "option" });
+    expect(meterResolution({ environment: 1e-3, measured: 0.01, profile: 0.05 })).toEqual({ ohm: 1e-3, source: "environment" });
+    expect(meterResolution({ measured: 0.01, profile: 0.05 })).toEqual({ ohm: 0.01, source: "measured file" });
+    expect(meterResolution({ measured: null, profile: 0.05 })).toEqual({ ohm: 0.05, source: "shop profile" });
+    expect(meterResolution({})).toEqual({ ohm: DEFAULT_METER_RESOLUTION_OHM, source: "default" });
+  });
+
+  /** A shop folder with a profile whose meter reads 0.01 Ω, and the blind demo's measured file without its own resolution. */
+  function bench(): { dir: string; measured: string } {
+    const dir = tmp();
+    shopIn(dir, "version: 1\nbench: b-1\nlogbook: book\nmeter_resolution: 0.01 ohm\n");
+    const measured = join(dir, "measured.yaml");
+    writeFileSync(measured, readFileSync(join(ROOT, "jobs/measured/blind-motor-0031.yaml"), "utf8").replace(/^meter_resolution:.*$/m, ""));
+    return { dir, measured };
+  }
+
+  it("log: the profile's meter when the measured file gives none; then the file's; the environment and --resolution over both", async () => {
+    const { dir, measured } = bench();
+    const log = async (env: Record<string, string>, extra: string[] = [], file = measured) => {
+      const io = fakeIo(dir, env);
+      const status = await main(["log", BLIND, "--measured", file, "--no-learn", "--again", "--json", ...extra], io);
+      expect([0, 4], io.stderr.join("")).toContain(status);
+      return JSON.parse(io.stdout.join("")).logged.comparison as { meter_resolution_ohm: number; notes: string[] };
+    };
+    const fromProfile = await log({});
+    expect(fromProfile.meter_resolution_ohm).toBe(0.01);
+    expect(fromProfile.notes.join(" ")).toMatch(/meter resolution 0\.01 Ω from the shop profile/);
+    expect(fromProfile.notes.join(" ")).not.toMatch(/not recorded/);
+    expect((await log({}, [], join(ROOT, "jobs/measured/blind-motor-0031.yaml"))).meter_resolution_ohm).toBe(0.001);
+    expect((await log({ ARMWIND_METER_RESOLUTION: "0.1 ohm" })).meter_resolution_ohm).toBeCloseTo(0.1, 12);
+    expect((await log({ ARMWIND_METER_RESOLUTION: "0.1 ohm" }, ["--resolution", "1 mohm"])).meter_resolution_ohm).toBeCloseTo(0.001, 12);
+    // a bad environment value is a one-line error naming the variable
+    const io = fakeIo(dir, { ARMWIND_METER_RESOLUTION: "fast" });
+    expect(await main(["log", BLIND, "--measured", measured, "--no-learn", "--again"], io)).toBe(1);
+    expect(io.stderr.join("")).toMatch(/ARMWIND_METER_RESOLUTION/);
+  });
+
+  it("diagnose: the profile's meter for --bars and for a measured file without one; the file's own over the profile", async () => {
+    const { dir, measured } = bench();
+    const diag = async (args: string[], env: Record<string, string> = {}) => {
+      const io = fakeIo(dir, env);
+      const status = await main(["diagnose", BLIND, "--no-learn", "--json", ...args], io);
+      expect([0, 4], io.stderr.join("")).toContain(status);
+      return JSON.parse(io.stdout.join("")).meter_resolution_ohm as number;
+    };
+    const bars = ["--bars", "1.30,1.31,1.30,1.29,1.30"];
+    expect(await diag(bars)).toBe(0.01);
+    expect(await diag(bars, { ARMWIND_METER_RESOLUTION: "0.002 ohm" })).toBeCloseTo(0.002, 12);
+    expect(await diag([...bars, "--resolution", "0.05 ohm"], { ARMWIND_METER_RESOLUTION: "0.002 ohm" })).toBeCloseTo(0.05, 12);
+    expect(await diag(["--measured", measured])).toBe(0.01);
+    expect(await diag(["--measured", join(ROOT, "jobs/measured/blind-motor-0031.yaml")])).toBe(0.001);
+  });
+
+  it("card: the bench sheet's windows are worked out for the profile's meter, and says so", async () => {
+    const { dir } = bench();
+    const sheet = async (env: Record<string, string> = {}, extra: string[] = []) => {
+      const io = fakeIo(dir, env);
+      expect(await main(["card", BLIND, "--no-learn", "-o", "out", "--json", ...extra], io), io.stderr.join("")).toBe(0);
+      const pdfjs = await import("pdfjs-dist/legacy/build/pdf.mjs");
+      const doc = await pdfjs.getDocument({ data: new Uint8Array(readFileSync(JSON.parse(io.stdout.join("")).card)), useSystemFonts: false }).promise;
+      let text = "";
+      for (let i = 1; i <= doc.numPages; i++) text += (await (await doc.getPage(i)).getTextContent()).items.map((t) => ("str" in t ? t.str : "")).join(" ");
+      await doc.destroy();
+      return text.replace(/\s+/g, " ");
+    };
+    expect(await sheet()).toContain("Windows worked out for a 0.01 Ω meter (shop profile)");
+    expect(await sheet({ ARMWIND_METER_RESOLUTION: "0.001 ohm" })).toContain("a 0.001 Ω meter (environment)");
+    expect(await sheet({ ARMWIND_METER_RESOLUTION: "0.001 ohm" }, ["--resolution", "0.1 ohm"])).toContain("a 0.1 Ω meter (option)");
+  });
+});

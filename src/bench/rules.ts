@@ -47,6 +47,41 @@ export const INSULATION_SOURCE = `${SOURCE_COMMON}: at least 1 MΩ to the shaft 
 
 /** The meter's resolution when neither the measured file nor the shop profile gives one: a handheld meter's lowest range, Ω (common practice). */
 export const DEFAULT_METER_RESOLUTION_OHM = 0.1;
+/** Where a meter resolution came from, in the order it is looked for. */
+export type ResolutionSource = "option" | "environment" | "measured file" | "shop profile" | "default";
+
+/** The bench meter's resolution, Ω, and where it came from. */
+export interface MeterResolution {
+  ohm: number;
+  source: ResolutionSource;
+}
+
+/** The environment variable that sets the meter's resolution for every command (a resistance: "0.01 ohm"). */
+export const METER_RESOLUTION_ENV = "ARMWIND_METER_RESOLUTION";
+
+/**
+ * The bench meter's resolution, Ω: the one place `log`, `diagnose` and the card take it from, in
+ * docs/contracts.md's order (the command-line option, the environment `ARMWIND_METER_RESOLUTION`,
+ * the measured file or record, the shop profile, the built-in default of 0.1 Ω, a handheld meter's
+ * lowest range: common practice). Values in Ω; a value that is not positive is passed over.
+ */
+export function meterResolution(given: { option?: number; environment?: number; measured?: number | null; profile?: number }): MeterResolution {
+  const order: [ResolutionSource, number | null | undefined][] = [
+    ["option", given.option],
+    ["environment", given.environment],
+    ["measured file", given.measured],
+    ["shop profile", given.profile],
+  ];
+  for (const [source, ohm] of order) if (ohm !== undefined && ohm !== null && ohm > 0) return { ohm, source };
+  return { ohm: DEFAULT_METER_RESOLUTION_OHM, source: "default" };
+}
+
+/** "a 0.01 Ω meter (shop profile)", "a 0.1 Ω meter (not given: a handheld meter's lowest range)". */
+export function meterText(r: MeterResolution): string {
+  const ohm = Number(r.ohm.toPrecision(4));
+  return r.source === "default" ? `a ${ohm} Ω meter (none given: a handheld meter's lowest range)` : `a ${ohm} Ω meter (${r.source})`;
+}
+
 /** Below this many counts of the meter a four-wire or millivolt-drop reading is advised (±5 % then spans fewer than two counts; common practice). */
 export const FOUR_WIRE_FACTOR = 40;
 export const NULL_LEADS = "Null the test leads first (touch them together and subtract, or use the meter's relative mode; common practice).";

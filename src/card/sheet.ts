@@ -8,6 +8,7 @@ import PDFDocument from "pdfkit";
 import type { CardLayout, Paper } from "./layout.js";
 import { cardFonts } from "./fonts.js";
 import { breakLongWords } from "./wrap.js";
+import type { MeterResolution } from "../bench/rules.js";
 const REG = "DejaVu";
 const BOLD = "DejaVu-Bold";
 /** Names under which the card registers its regular and bold fonts. */
@@ -69,8 +70,8 @@ interface PdfkitText {
 export interface CardContext {
   shop?: string;
   bench?: string;
-  /** The bench meter's resolution, Ω (measured file, else shop profile, else the layout's default). */
-  meterResolution?: number;
+  /** The bench meter's resolution and where it came from (src/bench/rules.ts `meterResolution`); absent: the rules' default. */
+  meter?: MeterResolution;
   /** Net mass on the shelf's spool of the plan's wire, kg, when the profile says. */
   spoolMass?: number;
 }

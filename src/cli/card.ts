@@ -10,6 +10,7 @@ import { writeAtomic } from "./write.js";
 import { loadShop } from "./shop.js";
 import { firstSet, spoolFor } from "../shop/merge.js";
 import { withJob, withLogbook } from "./options.js";
+import { resolveMeter, withResolution } from "./meter.js";
 import { curvesDrawing, hasCurves } from "../plot/curves.js";
 import { drawingSvg } from "../plot/drawing.js";
 import { COMMAND_TEXT } from "./commands.js";
@@ -50,7 +51,7 @@ export function cardCommand(yargs: Argv, io: Io, setStatus: (n: number) => void)
     COMMAND_TEXT.card.command,
     COMMAND_TEXT.card.describe,
     (y) =>
-      withLogbook(withJob(y))
+      withResolution(withLogbook(withJob(y)), false)
         .option("output", {
           alias: "o",
           type: "string",
@@ -68,7 +69,7 @@ export function cardCommand(yargs: Argv, io: Io, setStatus: (n: number) => void)
           const shop = loadShop(io)?.shop;
           const paper = cardPaper(argv.paper, io.env.ARMWIND_PAPER, shop?.paper);
           const spool = spoolFor(plan, shop);
-          const context = { shop: shop?.shop, bench: shop?.bench, meterResolution: shop?.meter_resolution, spoolMass: spool?.spool_mass };
+          const context = { shop: shop?.shop, bench: shop?.bench, meter: resolveMeter(io, argv.resolution), spoolMass: spool?.spool_mass };
           const pdf = await renderCard(plan, { paper, date: today(io), version: VERSION, context });
           const { file, dir, stem } = cardPaths(io.cwd, argv.output, plan.job.id);
           await writeAtomic(file, pdf);

@@ -24,7 +24,8 @@ import { predictWound, type WoundInput } from "../logbook/predict.js";
 import { recordSchema, type LogRecord } from "../logbook/record.js";
 import { diagnose, type Diagnosis } from "../winding/diagnose.js";
 import { diagnosePartial, SPREAD_FROM, type PartialDiagnosis } from "../winding/diagnose-partial.js";
-import { DEFAULT_METER_RESOLUTION_OHM, isOpenText, readingName, turnLengthCalibrated } from "../bench/rules.js";
+import { isOpenText, readingName, turnLengthCalibrated } from "../bench/rules.js";
+import { resolveMeter, withResolution } from "./meter.js";
 import { to20C } from "../wire/copper.js";
 import { ohm, sig, signedPct, table } from "./format.js";
 import type { Job } from "../job/schema.js";
@@ -43,7 +44,7 @@ export interface DiagnoseInput {
   expected: number[] | null;
   /** Turns per coil; null when not known (layout-only job). */
   turns: number | null;
-  /** Meter resolution, Ω (the measured file's or record's, --resolution, else 0.1 Ω). */
+  /** Meter resolution, Ω, as the bench rules resolve it: --resolution, $ARMWIND_METER_RESOLUTION, the measured file's or record's, the shop profile's, else 0.1 Ω. */
   resolution: number;
   /** The plan's turn length was measured or calibrated (level ±5 %, else ±15 %). */
   calibrated: boolean;
@@ -315,7 +316,6 @@ interface DiagnoseArgs {
 /** The readings and what to judge them against, from a record, a measured file or --bars (with the plan), or from a layout-only job (no plan). */
 function gatherInput(io: Io, argv: DiagnoseArgs, loaded: { job: Job | null; id: string; bars: number }): DiagnoseInput {
   const job = loaded.job;
-  const res = argv.resolution === undefined ? undefined : parseResolution(argv.resolution);
   if (argv.record !== undefined) {
     if (!job) throw inputError("record_needs_plan", "record", "a logbook record goes with the full job it was planned by, not a layout-only job");
     const rec = loadRecordFile(io, argv.record, job);
@@ -325,7 +325,7 @@ function gatherInput(io: Io, argv: DiagnoseArgs, loaded: { job: Job | null; id: 
       temperatureGiven: true,
       expected: rec.predicted.coil_ohm,
       turns: rec.winding.turns,
-      resolution: res ?? rec.measured.meter_resolution_ohm ?? DEFAULT_METER_RESOLUTION_OHM,
+      resolution: resolveMeter(io, argv.resolution, rec.measured.meter_resolution_ohm).ohm,
       calibrated: turnLengthCalibrated(rec.predicted.mean_turn_length_source),
       bareDiameter: rec.winding.wire.bare_diameter_mm * 1e-3,
       source: `logbook record ${argv.record}`,
@@ -364,7 +364,7 @@ function gatherInput(io: Io, argv: DiagnoseArgs, loaded: { job: Job | null; id: 
     readings,
     temperature,
     temperatureGiven: given,
-    resolution: res ?? meter ?? DEFAULT_METER_RESOLUTION_OHM,
+    resolution: resolveMeter(io, argv.resolution, meter).ohm,
     source: argv.measured !== undefined ? `measured file ${argv.measured}` : "--bars",
   };
   if (!job) return { ...base, expected: null, turns: null, calibrated: false, bareDiameter: null };
@@ -374,34 +374,22 @@ function gatherInput(io: Io, argv: DiagnoseArgs, loaded: { job: Job | null; id: 
   return { ...base, expected: p.coil_ohm, turns: p.turns, calibrated: turnLengthCalibrated(plan.wire.mlt_source), bareDiameter: p.wire.bare_diameter };
 }
 
-function parseResolution(text: string): number {
-  const r = parseQuantity(text, "resistance");
-  if (!r.ok || !(r.value > 0))
-    throw inputError(
-      "bad_quantity",
-      "resolution",
-      `--resolution ${text}: ${r.ok ? "must be greater than 0" : r.message} (the meter's last digit, e.g. 0.001 ohm)`,
-    );
-  return r.value;
-}
-
 export function diagnoseCommand(yargs: Argv, io: Io, setStatus: (n: number) => void) {
   return yargs.command(
     COMMAND_TEXT.diagnose.command,
     COMMAND_TEXT.diagnose.describe,
     (y) =>
-      withLogbook(
-        withJob(y, "job file (YAML), or a layout-only job (version, id, armature, winding)"),
-        "expect what the plan expects with the family's records (--no-learn: without)",
+      withResolution(
+        withLogbook(
+          withJob(y, "job file (YAML), or a layout-only job (version, id, armature, winding)"),
+          "expect what the plan expects with the family's records (--no-learn: without)",
+        ),
+        true,
       )
         .option("bars", { type: "string", describe: "readings r1,r2,…,rC in Ω (a unit may follow each: 1.05 ohm, 1050 mohm; OL or open for an open circuit)" })
         .option("temperature", { type: "string", describe: 'winding temperature when read with --bars, e.g. "21 C" or "70 F" (default 20 C)' })
         .option("measured", { type: "string", describe: "take the readings (and the winding laid) from a measured file" })
         .option("record", { type: "string", describe: "take the readings (and the winding laid) from a logbook record" })
-        .option("resolution", {
-          type: "string",
-          describe: `the meter's resolution, e.g. "0.001 ohm" (default: the file's, else ${DEFAULT_METER_RESOLUTION_OHM} ohm)`,
-        })
         .option("tolerance", { type: "number", describe: "tolerance on each coil as a fraction (default 0.05, the spread rule; common practice)" })
         .option("partial", {
           type: "boolean",

@@ -19,6 +19,7 @@ import { checkLabel } from "../bench/rules.js";
 import type { Job } from "../job/schema.js";
 import { join, relative } from "node:path";
 import { withJob, withLogbook } from "./options.js";
+import { resolveMeter, withResolution } from "./meter.js";
 import { COMMAND_TEXT } from "./commands.js";
 
 /** Load a measured file and check it against the job (id, bar count); problems located in the measured file. */
@@ -175,7 +176,13 @@ export function logCommand(yargs: Argv, io: Io, setStatus: (n: number) => void) 
     COMMAND_TEXT.log.command,
     COMMAND_TEXT.log.describe,
     (y) =>
-      withLogbook(withJob(y, "job file (YAML) the rewind was planned by"), "predict as the plan did, with the family's earlier records (--no-learn: without)")
+      withResolution(
+        withLogbook(
+          withJob(y, "job file (YAML) the rewind was planned by"),
+          "predict as the plan did, with the family's earlier records (--no-learn: without)",
+        ),
+        true,
+      )
         .option("measured", {
           type: "string",
           demandOption: true,
@@ -194,7 +201,7 @@ export function logCommand(yargs: Argv, io: Io, setStatus: (n: number) => void) 
           const options = argv.learn ? logbookOptionsFor(io, job, argv.logbook, { before: m.date }) : {};
           const plan = planJob(job, options);
           const prediction = predictWound(job, plan, m.wound, options);
-          const record = buildRecord(job, plan, prediction, m, new Date().toISOString());
+          const record = buildRecord(job, plan, prediction, m, new Date().toISOString(), resolveMeter(io, argv.resolution, m.meter_resolution));
           const hold = Number(io.env.ARMWIND_LOG_HOLD_MS ?? 0);
           if (!argv.again) refuseIfLogged(dir, record);
           const path = writeRecordFile(dir, job.id, m.date, benchName(io), recordYaml(record), { holdMs: Number.isFinite(hold) ? hold : 0 });

@@ -6,7 +6,7 @@ import type { Job } from "../job/schema.js";
 import { brushDrop as brushDropFor, type BrushMaterial } from "../motor/brush.js";
 import { calibrate, type CalibrationInputs } from "../motor/calibrate.js";
 import { activeConductors, fluxFromGap, pitchFactor } from "../motor/emf.js";
-import { copperFactor } from "../wire/copper.js";
+import { copperFactor, to20C } from "../wire/copper.js";
 import type { Warning } from "../errors.js";
 import type { ArmatureContext } from "./context.js";
 import type { Calibration } from "./types.js";
@@ -22,6 +22,25 @@ export interface LogbookCalibration {
   ke?: number;
   loss?: { tc: number; b: number };
   records: number;
+}
+
+/**
+ * A shunt field's resistance at 20 °C (Ω): `field_winding.resistance` corrected to 20 °C (IEC 60028),
+ * else the first no-load test that gives its `field_current`, R = V/I_f at the test's temperature;
+ * null for other fields or when neither is given. The field sits across the supply, so it takes
+ * I_f = V/R_f whatever the armature does (the constant-field model, docs "Steady state").
+ */
+export function shuntFieldOhm(job: Job): number | null {
+  if (job.armature.field !== "shunt") return null;
+  const fw = job.field_winding;
+  if (fw) return to20C(fw.resistance.value, fw.resistance.at);
+  const t = (job.original.tests ?? []).find((x) => x.kind === "no_load" && x.field_current !== undefined && x.field_current > 0);
+  return t ? to20C(t.supply / t.field_current!, t.temperature ?? 20) : null;
+}
+
+/** The shunt field's current in a no-load test that does not give it (A): the supply over the field's resistance at the test's temperature. */
+function shuntFieldCurrent(ohm20: number | null, t: { supply: number; temperature?: number }): number | undefined {
+  return ohm20 === null ? undefined : t.supply / (ohm20 * copperFactor(t.temperature ?? 20));
 }
 
 export function calibrateOriginal(ctx: ArmatureContext, logbook?: LogbookCalibration): { calibration: Calibration; warnings: Warning[] } {
@@ -44,12 +63,13 @@ export function calibrateOriginal(ctx: ArmatureContext, logbook?: LogbookCalibra
   // running readings say nothing about a constant-field Ke, and readings at two currents disagree on it
   const seriesModel = job.armature.field === "series";
   const noLoadTests = seriesModel ? [] : (o.tests ?? []).filter((t) => t.kind === "no_load");
+  const shuntOhm = shuntFieldOhm(job);
   if (noLoadTests.length > 0) {
     inputs.noLoad = noLoadTests.map((t) => ({
       supply: t.supply,
       current: t.no_load_current!,
       speed: t.no_load_speed!,
-      fieldCurrent: t.field_current,
+      fieldCurrent: t.field_current ?? shuntFieldCurrent(shuntOhm, t),
       terminalOhm: r20 * copperFactor(t.temperature ?? 20),
     }));
   }
@@ -110,6 +130,7 @@ export function calibrateOriginal(ctx: ArmatureContext, logbook?: LogbookCalibra
       brush_drop: bd.volts,
       brush_drop_basis: bd.basis,
       series,
+      shunt_field_ohm: shuntOhm,
     },
     warnings,
   };

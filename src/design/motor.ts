@@ -70,6 +70,15 @@ function lossesUnknown(r: MotorReport): MotorReport {
 }
 
 /**
+ * A shunt field's current at supply V (A), its winding at R(T)/R20 = `factor`: V/R_f, the field across
+ * the supply (docs "Steady state"); 0 for other fields. It adds to the no-load current the meter at
+ * the terminals reads; the armature's figures (stall, duty, efficiency) leave it out.
+ */
+function shuntCurrent(cal: Calibration, V: number, factor: number): number {
+  return cal.shunt_field_ohm === null ? 0 : V / (cal.shunt_field_ohm * factor);
+}
+
+/**
  * Constant field: V = Ke·ω + I·R + V_b, T = Kt·I − T_f(ω) (src/motor/model.ts, the linear DC motor
  * model), for the calibration `cal`.
  */
@@ -82,7 +91,7 @@ export function constantField(cal: Calibration): MotorPhysics {
     noLoad(ke, _turns, r20, factor, V) {
       if (ke === null) return null;
       const nl = noLoad(modelOf(ke, r20 * factor, cal, "constant"), V);
-      return cal.loss_known ? nl : { speed: nl.speed, current: null };
+      return { speed: nl.speed, current: cal.loss_known ? nl.current + shuntCurrent(cal, V, factor) : null };
     },
     stallCurrent: (ke, _turns, r20, factor, V) => (ke === null ? null : stallCurrent(r20 * factor, cal.brush_drop, V)),
     atTorque: (ke, _turns, r20, factor, V, T) => (ke === null ? null : pointAtTorque(modelOf(ke, r20 * factor, cal, "constant"), V, T)),
@@ -95,7 +104,7 @@ export function constantField(cal: Calibration): MotorPhysics {
         ...summarize(hot, V),
         noLoadSpeed: nl.speed,
         noLoadPerVolt: V > 0 ? nl.speed / V : null,
-        noLoadCurrent: nl.current,
+        noLoadCurrent: nl.current + shuntCurrent(cal, V, 1),
         stallCurrentCold: stallCurrent(r20, cal.brush_drop, V),
         model: hot,
         curve: curve(hot, V, 41),

@@ -15,7 +15,7 @@ import { sweep, type SweepResult } from "./sweep.js";
 import { ELV_AC, ELV_DC, seriesPlanOf, type SeriesPlan } from "./series.js";
 import { inputError } from "../errors.js";
 import { toleranceText } from "../format/goal.js";
-import type { Candidate, CoilPlan, GoalKind, GoalReport, Plan, RejectCode, ResistancePlan, Sensitivity, WirePlan } from "./types.js";
+import type { Calibration, Candidate, CoilPlan, GoalKind, GoalReport, Plan, RejectCode, ResistancePlan, Sensitivity, WirePlan } from "./types.js";
 
 export { ELV_AC, ELV_DC };
 
@@ -104,16 +104,20 @@ function motorWarnings(job: Job, supply: number, chosen: FullEvaluation, origina
     });
   }
   for (const w of chosen.motor.warnings) if (!warnings.some((x) => x.code === w.code)) warnings.push(w);
-  if (!job.target.duty || series) return;
+  if (!job.target.duty) return;
   for (const [which, e] of [
     ["new", chosen],
     ["original", original],
   ] as const) {
-    if (e.duty === null && e.motor.model) {
+    // a calibrated motor (constant field, or a series field with k) that cannot carry the load
+    if (e.duty === null && (e.motor.model || (e.motor.series?.k ?? null) !== null)) {
+      const beyond = series
+        ? "beyond its locked-rotor torque"
+        : `beyond its stall torque${e.motor.stallTorque !== null ? ` (${(e.motor.stallTorque * 1e3).toPrecision(3)} mN·m)` : ""}`;
       warnings.push({
         code: "duty_beyond_stall",
         path: "target.duty.torque",
-        message: `the ${which} winding cannot carry the ${(job.target.duty.torque * 1e3).toPrecision(3)} mN·m load at ${supply} V: it is beyond its stall torque${e.motor.stallTorque !== null ? ` (${(e.motor.stallTorque * 1e3).toPrecision(3)} mN·m)` : ""}`,
+        message: `the ${which} winding cannot carry the ${(job.target.duty.torque * 1e3).toPrecision(3)} mN·m load at ${supply} V: it is ${beyond}`,
       });
     }
   }
@@ -270,7 +274,7 @@ export function planJob(job: Job, options: PlanOptions = {}): Plan {
   motorWarnings(job, supply, chosen, original, cal.series !== null, warnings);
   originalFillWarnings(ctx, ev.goal, warnings);
   warnings.push(...limitWarnings(ev, chosen));
-  warnings.push(...oneTestWarnings(job, chosen, supply));
+  warnings.push(...oneTestWarnings(job, chosen, supply), ...shuntWarnings(job, cal, supply));
   const coils: CoilPlan[] = ctx.layout.coils.map((c, i) => ({ ...c, turns: chosen.turns, mlt: chosen.coil_mlt[i], ohm: chosen.coil_ohms[i] }));
   return {
     job,
@@ -388,6 +392,25 @@ function restoreGeometryWarnings(ev: Evaluator, chosen: Candidate): Warning[] {
     });
   }
   return out;
+}
+
+/**
+ * A shunt motor: what its field takes and where the figures include it (the field sits across the
+ * supply: I_f = V/R_f, docs "Steady state" and "Calibration of Ke", less a shunt field's current).
+ */
+function shuntWarnings(job: Job, cal: Calibration, supply: number): Warning[] {
+  if (job.armature.field !== "shunt") return [];
+  const r = cal.shunt_field_ohm;
+  return [
+    {
+      code: "shunt_field",
+      path: r === null ? "field_winding" : "armature.field",
+      message:
+        r === null
+          ? "shunt field of unknown resistance: Ke is fitted on the whole no-load current and the no-load current leaves the field out; give field_winding.resistance or each test's field_current"
+          : `shunt field ${r.toPrecision(4)} Ω at 20 °C takes ${(supply / r).toPrecision(3)} A at ${supply} V: taken off each no-load test before Ke is fitted and added to the predicted no-load current (what the meter at the terminals reads); stall and duty currents and the efficiencies are the armature's alone`,
+    },
+  ];
 }
 
 /** How far the new no-load speed may lie from the only no-load test before the held-constant loss torque is called rough: ×0.7 … ×1.4 (armwind's own choice, common practice, no published source). */

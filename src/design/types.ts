@@ -137,6 +137,8 @@ export interface Calibration {
   brush_drop_basis: string;
   /** A series motor whose field the job describes: the series model calibrated on the original (design/series.ts); else null. */
   series: SeriesSetup | null;
+  /** A shunt motor: its field's resistance at 20 °C (Ω), from field_winding or a test's field current; else null (design/calibration.ts). */
+  shunt_field_ohm: number | null;
 }
 
 /** A point of the motor's curve; its efficiency null when the losses are unknown. */

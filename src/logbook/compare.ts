@@ -22,10 +22,12 @@ import {
   fourWireAdvice,
   judgeLevel,
   judgeSpread,
+  meterResolution,
   needsFourWire,
   readingName,
   spreadRuleText,
   type Level,
+  type MeterResolution,
   type Spread,
   type Tolerance,
 } from "../bench/rules.js";
@@ -119,12 +121,19 @@ function verdictOf(dev: number, tol: number): CheckVerdict {
  * set is judged by the bench rules (src/bench/rules.ts: spread against its median, level against
  * the plan); no-load and stall figures are predicted at the measured supply with the winding at the
  * reading temperature. `calibrated`: the plan's turn length was measured or calibrated (level ±5 %),
- * else it comes from the end-turn model (±15 %).
+ * else it comes from the end-turn model (±15 %). `meter`: the meter's resolution as the bench rules
+ * resolve it (src/bench/rules.ts `meterResolution`: option, environment, this file, shop profile,
+ * default); without it, the file's, else the default.
  */
-export function compareReadings(p: Prediction, m: Measured, calibrated = false): { comparison: Comparison; derived: Derived } {
+export function compareReadings(
+  p: Prediction,
+  m: Measured,
+  calibrated = false,
+  meter: MeterResolution = meterResolution({ measured: m.meter_resolution }),
+): { comparison: Comparison; derived: Derived } {
   const T = m.temperature;
   const k = copperFactor(T);
-  const res = m.meter_resolution ?? DEFAULT_METER_RESOLUTION_OHM;
+  const res = meter.ohm;
   const notes: string[] = [];
   if (T !== 20) notes.push(`resistances read at ${T} °C are divided by ${k.toFixed(4)} to give 20 °C values (IEC 60028, 0.00393/K)`);
   const m20 = m.bar_to_bar.map((r) => (Number.isFinite(r) ? to20C(r, T) : r));
@@ -132,7 +141,7 @@ export function compareReadings(p: Prediction, m: Measured, calibrated = false):
   const level = judgeLevel(m20, p.bar_to_bar, calibrated, p.wire.bare_diameter, res);
   const rows = readingRows(p, m, m20, spread);
   const checks: CheckRow[] = [...barChecks(p, m, m20, spread), spreadCheck(spread), levelCheck(level, calibrated)];
-  notes.push(...resolutionNotes(p, m, res));
+  notes.push(...resolutionNotes(p, m, meter));
   checks.push(terminalCheck(p, m));
   const derived: Derived = {
     mean_turn_length_mm: Number.isFinite(level.median_ohm) ? p.mlt * (level.median_ohm / level.expected_median_ohm) * 1e3 : p.mlt * 1e3,
@@ -222,10 +231,15 @@ function levelCheck(level: Level, calibrated: boolean): CheckRow {
 }
 
 /** Four-wire advice below FOUR_WIRE_FACTOR counts of the meter, and always "null the test leads first" (common practice). */
-function resolutionNotes(p: Prediction, m: Measured, res: number): string[] {
+function resolutionNotes(p: Prediction, m: Measured, meter: MeterResolution): string[] {
   const out: string[] = [];
-  if (m.meter_resolution === undefined)
+  const res = meter.ohm;
+  if (meter.source === "default")
     out.push(`meter resolution not recorded: taken as ${DEFAULT_METER_RESOLUTION_OHM} Ω, a handheld meter's lowest range (add meter_resolution)`);
+  else if (meter.source !== "measured file")
+    out.push(
+      `meter resolution ${Number(res.toPrecision(4))} Ω from the ${meter.source}${m.meter_resolution !== undefined ? ` (the measured file says ${Number(m.meter_resolution.toPrecision(4))} Ω)` : ""}`,
+    );
   const advice = fourWireAdvice(Math.min(...p.bar_to_bar), res);
   if (advice) out.push(advice);
   if (m.terminal_resistance !== undefined && needsFourWire(p.terminal.single, res)) {

@@ -12,7 +12,7 @@ import { toRpm } from "../format/units.js";
 import { kvFromKe } from "../motor/emf.js";
 import { jobId } from "../job/schema.js";
 import { COUNTS, ID_MAX_LENGTH, RECORD_RANGES } from "../job/ranges.js";
-import { turnLengthCalibrated } from "../bench/rules.js";
+import { turnLengthCalibrated, type MeterResolution } from "../bench/rules.js";
 import { compareReadings, type Comparison, type Derived } from "./compare.js";
 import type { Measured } from "./measured.js";
 import { predictNoLoad, predictStall, type Prediction } from "./predict.js";
@@ -94,9 +94,9 @@ export interface LogRecord {
 
 const nn = (x: number | null | undefined): number | null => (x === null || x === undefined || !Number.isFinite(x) ? null : x);
 
-/** Build the record of a finished rewind: pure (the time of logging is given). */
-export function buildRecord(job: Job, plan: Plan, prediction: Prediction, m: Measured, loggedAt: string): LogRecord {
-  const { comparison, derived } = compareReadings(prediction, m, turnLengthCalibrated(plan.wire.mlt_source));
+/** Build the record of a finished rewind: pure (the time of logging is given; the meter's resolution as the bench rules resolve it, else the file's). */
+export function buildRecord(job: Job, plan: Plan, prediction: Prediction, m: Measured, loggedAt: string, meter?: MeterResolution): LogRecord {
+  const { comparison, derived } = compareReadings(prediction, m, turnLengthCalibrated(plan.wire.mlt_source), meter);
   const p = prediction;
   const supply = plan.supply;
   const nl = predictNoLoad(p, supply, 20);

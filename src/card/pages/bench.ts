@@ -8,7 +8,6 @@ import type { Sheet, TextBlock } from "../sheet.js";
 import { ohm, rpm, sig } from "../text.js";
 import { seriesBenchChecks } from "./series.js";
 import {
-  DEFAULT_METER_RESOLUTION_OHM,
   NULL_LEADS,
   SPREAD,
   fourWireAdvice,
@@ -17,6 +16,8 @@ import {
   turnLengthCalibrated,
   levelWindow,
   median,
+  meterResolution,
+  meterText,
   needsFourWire as needsFourWireRule,
   spreadRuleText,
 } from "../../bench/rules.js";
@@ -45,12 +46,13 @@ export function benchPage(s: Sheet, plan: Plan): void {
   s.subheading("1. Bar to bar, brushes lifted", `expected at 20 °C; r_i is bar i to bar i+1, r${C} bar ${C} to bar 1`);
   // the rules `log` and `diagnose` apply, in their words (src/bench/rules.ts)
   const tol = SPREAD.fraction;
-  const res = s.context.meterResolution ?? DEFAULT_METER_RESOLUTION_OHM;
+  const meter = s.context.meter ?? meterResolution({});
+  const res = meter.ohm;
   const calibrated = turnLengthCalibrated(plan.wire.mlt_source);
   const expectedMedian = median(r.bar_to_bar);
   const level = levelWindow(calibrated, plan.design.wire.bare_diameter, res, expectedMedian);
   s.para(
-    `${spreadRuleText()} ${levelRuleText(level, calibrated)} ` +
+    `${spreadRuleText()} ${levelRuleText(level, calibrated)} Windows worked out for ${meterText(meter)}. ` +
       `Correct a reading taken at t °C to 20 °C by dividing it by 1 + 0.00393 × (t − 20) (IEC 60028 copper).`,
     { size: T.body },
   );
