@@ -86,7 +86,10 @@ describe("applyEdits on lists and one-line maps (the form's list rows and varian
     const a = applyEdits(blind, [{ path: "original.tests[0]", text: "" }]);
     expect(a).not.toContain("tests:");
     expect(loadJobText(a).original.tests).toBeUndefined();
-    const b = applyEdits(blind, [0, 1, 2, 3, 4].map(() => ({ path: "wire_stock[0]", text: "" })));
+    const b = applyEdits(
+      blind,
+      [0, 1, 2, 3, 4].map(() => ({ path: "wire_stock[0]", text: "" })),
+    );
     expect(b).not.toContain("wire_stock");
     expect(loadJobText(b).wire_stock).toBeUndefined();
     expect(applyEdits("a: 1\nb: [x]\n", [{ path: "b[0]", text: "" }])).toBe("a: 1\n");
