@@ -8,6 +8,7 @@ import { FONT_FILES, SHAPING_TABLES, cardFonts, woffToSfnt } from "../src/card/f
 import { ticksFromZero as niceTicks } from "../src/plot/ticks.js";
 import { needsFourWire } from "../src/card/pages/bench.js";
 import { Sheet } from "../src/card/sheet.js";
+import { readBoxes, readRules, ruleProblems } from "./helpers/pdf-layout.js";
 
 const L = cardLayout();
 
@@ -131,5 +132,56 @@ describe("text laid out once, drawn as laid out (issue 15 item 2)", () => {
     };
     const [a, b] = await Promise.all([draw(true), draw(false)]);
     expect(a.equals(b)).toBe(true);
+  });
+});
+
+describe("the layout check reads rules and boxes from the PDF, and fails on a broken row", () => {
+  const INFO = { CreationDate: new Date(0), ModDate: new Date(0) };
+  /** Problems found in a one-page sheet drawn by `draw`. */
+  const check = async (draw: (s: Sheet) => void) => {
+    const s = new Sheet(L, "a4", INFO);
+    s.newPage();
+    draw(s);
+    const pdf = await s.finish();
+    const [page] = await readBoxes(pdf);
+    const [drawn] = await readRules(pdf);
+    return { problems: ruleProblems(page.items, drawn, "page 1"), drawn };
+  };
+  it("a table whose rows are measured is clean, and its rules and header band are read back where they were drawn", async () => {
+    const { problems, drawn } = await check((s) => {
+      s.y = 100;
+      s.table(
+        [
+          { head: "coil", width: 60 },
+          { head: "slots", width: 120 },
+        ],
+        [
+          ["17", "slot 1 top pos 1 → slot 6 / bottom pos 1, a route long enough to wrap onto three lines"],
+          ["18", "slot 2"],
+        ],
+      );
+    });
+    expect(problems).toEqual([]);
+    expect(drawn.boxes.some((b) => Math.abs(b.x - L.margin.left) < 0.01 && Math.abs(b.top - 100) < 0.01 && Math.abs(b.right - b.x - 180) < 0.01)).toBe(true);
+    expect(drawn.rules.filter((r) => Math.abs(r.x0 - L.margin.left) < 0.01 && Math.abs(r.x1 - r.x0 - 180) < 0.01)).toHaveLength(2);
+  });
+  it("a row whose text runs below its rule fails, naming the text", async () => {
+    const { problems } = await check((s) => {
+      s.at("slot 1 top pos 1 → slot 6 / bottom pos 1", s.left, 100, { size: 12, width: 120 }); // two lines, to about y 128
+      s.y = 118; // the row's rule drawn as if the text took one line
+      s.rule();
+    });
+    expect(problems.join("\n")).toContain('"slot 6 / bottom pos" is crossed by a rule at y 118');
+  });
+  it("a text that leaves the box it starts in fails", async () => {
+    const { problems } = await check((s) => {
+      s.y = 100;
+      // the body says it used 10 pt; its text takes three lines
+      s.framed((x, y, w) => {
+        s.at("a note long enough to wrap onto three lines inside a narrow framed box of the card", x, y, { width: w / 4 });
+        return 10;
+      });
+    });
+    expect(problems.some((p) => /leaves its box/.test(p))).toBe(true);
   });
 });
