@@ -3,7 +3,7 @@ import { describe, expect, it } from "vitest";
 import fc from "fast-check";
 import { readFileSync } from "node:fs";
 import { createRequire } from "node:module";
-import { cardLayout, layoutProblems, tallyBoxes, tallyGroups } from "../src/card/layout.js";
+import { cardLayout, layoutProblems, pageBreaks, tallyBoxes, tallyGroups } from "../src/card/layout.js";
 import { FONT_FILES, SHAPING_TABLES, cardFonts, woffToSfnt } from "../src/card/fonts.js";
 import { ticksFromZero as niceTicks } from "../src/plot/ticks.js";
 import { needsFourWire } from "../src/card/pages/bench.js";
@@ -183,5 +183,32 @@ describe("the layout check reads rules and boxes from the PDF, and fails on a br
       });
     });
     expect(problems.some((p) => /leaves its box/.test(p))).toBe(true);
+  });
+});
+
+describe("pageBreaks: blocks kept whole, no block alone on a page when a break can move (issue 11)", () => {
+  it("fills the page, then breaks; a last block alone takes one from the page before; a first run of one moves on", () => {
+    expect(pageBreaks([100, 100, 100], 1000, 700)).toEqual([]);
+    expect(pageBreaks([100, 100, 100, 100], 350, 700)).toEqual([2]); // greedy 3 + 1 → 2 + 2
+    expect(pageBreaks([100, 100, 100, 100, 100], 350, 700)).toEqual([3]);
+    expect(pageBreaks([100, 100, 100], 150, 700)).toEqual([0]); // one would stand alone: all go on
+    expect(pageBreaks([100, 100], 50, 700)).toEqual([0]);
+    expect(pageBreaks([400, 400, 400], 800, 800)).toEqual([2]); // the page before would keep one: the last stays alone
+  });
+  it("for any heights: breaks rise, and every page's blocks fit it unless one block alone is taller than a page", () => {
+    fc.assert(
+      fc.property(fc.array(fc.integer({ min: 5, max: 400 }), { minLength: 1, maxLength: 30 }), fc.integer({ min: 0, max: 700 }), (hs, room) => {
+        const full = 700;
+        const br = pageBreaks(hs, room, full);
+        br.forEach((b, i) => i > 0 && expect(b).toBeGreaterThan(br[i - 1]));
+        const starts = [0, ...br.filter((b) => b > 0)];
+        const ends = [...br.filter((b) => b > 0), hs.length];
+        starts.forEach((st, i) => {
+          const sum = hs.slice(st, ends[i]).reduce((a, b) => a + b, 0);
+          const cap = i === 0 && br[0] !== 0 ? room : full;
+          if (ends[i] - st > 1) expect(sum).toBeLessThanOrEqual(cap);
+        });
+      }),
+    );
   });
 });
