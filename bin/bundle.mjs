@@ -11,15 +11,23 @@ import vm from "node:vm";
 
 export const BUNDLE = join(dirname(fileURLToPath(import.meta.url)), "..", "dist", "armwind.cjs");
 export const CACHE = `${BUNDLE}.cache`;
+/** The card's own cache (pdfkit, fontkit and the pages compiled too): read only for a command line that names `card`. */
+export const CARD_CACHE = `${BUNDLE}.card.cache`;
 
-/** Compile the bundle (with the cache when there is one) and return its exports (`main`). */
+/** The cache for a command line: the card's when it names `card`, else the main one. */
+export const cacheFor = (args) => (args.includes("card") ? CARD_CACHE : CACHE);
+
+/**
+ * Compile the bundle (with the cache when there is one: `options.cache`, a file, else the one for
+ * this process's command line; `false` for none) and return its exports (`main`).
+ */
 export function loadBundle(options = {}) {
   // the entry's "#!" line is only valid at the very start of a file
   const source = readFileSync(BUNDLE, "utf8").replace(/^#!/, "//");
   let cachedData;
   if (options.cache !== false) {
     try {
-      cachedData = readFileSync(CACHE);
+      cachedData = readFileSync(options.cache ?? cacheFor(process.argv.slice(2)));
     } catch {
       cachedData = undefined;
     }

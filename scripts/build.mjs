@@ -7,14 +7,17 @@
  *     `await import()` (each command, the card, pdfkit) are compiled in but run only when asked;
  *     fontkit's brotli decoder (WOFF2 only; the card embeds TrueType unpacked from WOFF 1.0) is
  *     replaced by a stub that refuses WOFF2;
- *  3. a V8 code cache for the bundle, dist/armwind.cjs.cache, made by running a plan and a card in
- *     this process (bin/armwind.mjs hands it to vm.Script; Node 20 has no module compile cache).
+ *  3. V8 code caches for the bundle, made by running the commands in a process each
+ *     (scripts/code-cache.mjs): dist/armwind.cjs.cache (help, plan, history) and
+ *     dist/armwind.cjs.card.cache (a card); bin/armwind.mjs hands the one for its command line to
+ *     vm.Script (Node 20 has no module compile cache).
  * ARMWIND_NO_CODE_CACHE=1 skips step 3.
  */
 import { execFileSync } from "node:child_process";
 import { readFileSync, rmSync } from "node:fs";
 import { dirname, join, relative, resolve } from "node:path";
 import { fileURLToPath } from "node:url";
+import { patchPdfModule } from "./pdf-patch.mjs";
 import { patchStringWidth } from "./string-width-patch.mjs";
 
 const ROOT = resolve(dirname(fileURLToPath(import.meta.url)), "..");
@@ -64,7 +67,19 @@ const lazyStringWidth = {
   },
 };
 
-rmSync(join(DIST, "armwind.cjs.cache"), { force: true });
+/** fontkit's shaping tables and the AES tables, made on first use (scripts/pdf-patch.mjs). */
+const lazyPdfTables = {
+  name: "lazy-pdf-tables",
+  setup(build) {
+    build.onLoad({ filter: /[\\/](fontkit[\\/]dist[\\/]module\.mjs|@noble[\\/]ciphers[\\/]esm[\\/]aes\.js)$/ }, (args) => ({
+      contents: patchPdfModule(readFileSync(args.path, "utf8"), args.path),
+      loader: "js",
+      resolveDir: dirname(args.path),
+    }));
+  },
+};
+
+for (const f of ["armwind.cjs.cache", "armwind.cjs.card.cache"]) rmSync(join(DIST, f), { force: true });
 const result = await esbuild.build({
   entryPoints: [join(ROOT, "src/cli/main.ts")],
   outfile: join(DIST, "armwind.cjs"),
@@ -72,7 +87,7 @@ const result = await esbuild.build({
   platform: "node",
   target: "node20",
   format: "cjs",
-  plugins: [lazyStringWidth, metaUrl, noBrotli],
+  plugins: [lazyStringWidth, lazyPdfTables, metaUrl, noBrotli],
   logLevel: "warning",
   legalComments: "none",
   minifyWhitespace: true,
@@ -89,6 +104,6 @@ const result = await esbuild.build({
 const bytes = result.metafile.outputs[relative(ROOT, join(DIST, "armwind.cjs"))]?.bytes;
 
 if (process.env.ARMWIND_NO_CODE_CACHE !== "1") {
-  execFileSync(process.execPath, [join(ROOT, "scripts/code-cache.mjs")], { stdio: "inherit", cwd: ROOT });
+  for (const which of ["main", "card"]) execFileSync(process.execPath, [join(ROOT, "scripts/code-cache.mjs"), which], { stdio: "inherit", cwd: ROOT });
 }
 console.log(`build: dist/ (tsc) and dist/armwind.cjs (${bytes ? (bytes / 1024).toFixed(0) + " KiB" : "bundle"})`);

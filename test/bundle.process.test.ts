@@ -55,4 +55,12 @@ describe("what the bundle leaves out", () => {
     expect(bundle).not.toMatch(/BrotliDecompressBuffer|BrotliBitReader/);
     expect(existsSync(join(ROOT, "dist/armwind.cjs.cache"))).toBe(true);
   });
+
+  it("has two code caches, each accepted by this Node: the card's, and the main one for every other command", async () => {
+    // @ts-expect-error: the loader is plain JavaScript without types
+    const { CACHE, CARD_CACHE, cacheFor, loadBundle } = await import("../bin/bundle.mjs");
+    expect(cacheFor(["card", "job.yaml"])).toBe(CARD_CACHE);
+    expect(cacheFor(["plan", "job.yaml"])).toBe(CACHE);
+    for (const cache of [CACHE, CARD_CACHE]) expect(loadBundle({ cache }).cacheRejected, cache).toBe(false);
+  });
 });

@@ -70,6 +70,18 @@ describe("fonts", () => {
       expect(font.layout("Ω 1.57").glyphs.length).toBe(6);
     }
   });
+  it("the card's fonts name no glyphs ('post' 3.0) and keep the 'post' header the card reads (OpenType spec, 'post')", () => {
+    const fontkit = createRequire(import.meta.url)("fontkit");
+    for (const file of Object.values(FONT_FILES)) {
+      const full = fontkit.create(woffToSfnt(readFileSync(file), SHAPING_TABLES));
+      const card = fontkit.create(woffToSfnt(readFileSync(file), SHAPING_TABLES, { glyphNames: false }));
+      expect(full.post.version).toBe(2);
+      expect(card.post.version).toBe(3);
+      for (const k of ["italicAngle", "underlinePosition", "underlineThickness", "isFixedPitch"]) expect(card.post[k], k).toEqual(full.post[k]);
+      expect(card.italicAngle).toBe(full.italicAngle);
+      expect(card.postscriptName).toBe(full.postscriptName);
+    }
+  });
 });
 
 describe("small rules", () => {

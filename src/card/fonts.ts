@@ -17,8 +17,11 @@ export const FONT_FILES = {
   bold: require.resolve("@fontsource/dejavu-sans/files/dejavu-sans-latin-700-normal.woff"),
 };
 
-/** Unpack a WOFF 1.0 file into the sfnt (TrueType/OpenType) it wraps; anything else is returned unchanged. */
-export function woffToSfnt(woff: Buffer, drop: readonly string[] = []): Buffer {
+/**
+ * Unpack a WOFF 1.0 file into the sfnt (TrueType/OpenType) it wraps, less the tables in `drop`
+ * and, with `glyphNames: false`, the glyph names of its 'post' table; anything else is returned unchanged.
+ */
+export function woffToSfnt(woff: Buffer, drop: readonly string[] = [], opts: { glyphNames?: boolean } = {}): Buffer {
   if (woff.length < 44 || woff.toString("latin1", 0, 4) !== "wOFF") return woff;
   const flavor = woff.readUInt32BE(4);
   const stored = woff.readUInt16BE(12);
@@ -33,7 +36,11 @@ export function woffToSfnt(woff: Buffer, drop: readonly string[] = []): Buffer {
     const raw = woff.subarray(offset, offset + compLength);
     const data = compLength < origLength ? inflateSync(raw) : Buffer.from(raw);
     if (data.length !== origLength) throw new Error(`internal error: WOFF table ${tag} unpacks to ${data.length} bytes, not ${origLength}`);
-    if (!drop.includes(tag)) tables.push({ tag, checksum, data });
+    if (drop.includes(tag)) continue;
+    if (tag === "post" && opts.glyphNames === false && data.length > POST_HEADER && data.readUInt32BE(0) === 0x00020000) {
+      const post = postWithoutNames(data);
+      tables.push({ tag, checksum: tableChecksum(post), data: post });
+    } else tables.push({ tag, checksum, data });
   }
   const numTables = tables.length;
   tables.sort((a, b) => (a.tag < b.tag ? -1 : a.tag > b.tag ? 1 : 0));
@@ -65,6 +72,31 @@ export function woffToSfnt(woff: Buffer, drop: readonly string[] = []): Buffer {
   return out;
 }
 
+/** The 'post' table's header: version, italic angle, underline position and thickness, fixed pitch, four memory hints (OpenType spec, 'post'). */
+const POST_HEADER = 32;
+
+/**
+ * A 'post' table of version 2.0 cut to its header as version 3.0, which names no glyphs. The card
+ * reads only the header (italic angle, fixed pitch); the names (every glyph's, read whole by the
+ * font engine on first use of the table) cost a tenth of a card, and no table of the embedded
+ * subset is made from them.
+ */
+function postWithoutNames(post: Buffer): Buffer {
+  const out = Buffer.from(post.subarray(0, POST_HEADER));
+  out.writeUInt32BE(0x00030000, 0);
+  return out;
+}
+
+/** A table's checksum: the sum of its big-endian 32-bit words, zero-padded, modulo 2^32 (OpenType spec, "Calculating checksums"). */
+function tableChecksum(data: Buffer): number {
+  let sum = 0;
+  for (let i = 0; i < data.length; i += 4) {
+    const word = (data[i] << 24) | ((data[i + 1] ?? 0) << 16) | ((data[i + 2] ?? 0) << 8) | (data[i + 3] ?? 0);
+    sum = (sum + (word >>> 0)) >>> 0;
+  }
+  return sum;
+}
+
 /**
  * OpenType layout tables the card does without: glyph substitution and positioning (ligatures,
  * mark placement, kerning). The card prints Latin text, numbers and symbols that need none of
@@ -77,6 +109,9 @@ let fonts: { regular: Buffer; bold: Buffer } | null = null;
 /** The two fonts as sfnt buffers, unpacked once per process. */
 export function cardFonts(): { regular: Buffer; bold: Buffer } {
   if (!fonts)
-    fonts = { regular: woffToSfnt(readFileSync(FONT_FILES.regular), SHAPING_TABLES), bold: woffToSfnt(readFileSync(FONT_FILES.bold), SHAPING_TABLES) };
+    fonts = {
+      regular: woffToSfnt(readFileSync(FONT_FILES.regular), SHAPING_TABLES, { glyphNames: false }),
+      bold: woffToSfnt(readFileSync(FONT_FILES.bold), SHAPING_TABLES, { glyphNames: false }),
+    };
   return fonts;
 }

@@ -23,6 +23,7 @@ import { closeSync, constants, copyFileSync, fsyncSync, linkSync, openSync, read
 import { join } from "node:path";
 import { parse } from "yaml";
 import { ArmwindError } from "../errors.js";
+import { PARSE_ONCE } from "../job/load.js";
 import { isTempName, makeFolders, readUserFile, RECORD_FILE_LIMIT, removeLeftovers, tempName } from "../files.js";
 import { recordIssue, recordSchema, type ReadRecord } from "./record.js";
 
@@ -266,7 +267,7 @@ export function readRecordFile(dir: string, name: string): { record: ReadRecord 
   } catch (e) {
     return damaged(e instanceof Error ? `not valid YAML: ${e.message.split("\n")[0]}` : "not valid YAML");
   }
-  const r = recordSchema.safeParse(raw);
+  const r = recordSchema.safeParse(raw, PARSE_ONCE);
   if (!r.success) return damaged(raw === null || typeof raw !== "object" ? "empty or not a mapping" : recordIssue(r.error.issues[0]));
   const record = r.data as ReadRecord;
   if (!name.startsWith(`${record.job.id}-${record.date}-`)) {
