@@ -168,3 +168,20 @@ describe("the terminal plan text has a series block: original against new, '—'
     expect(r.stdout).not.toMatch(/stall current/);
   });
 });
+
+describe("unknown is null: a series motor calibrated on its nameplate alone has no known losses", () => {
+  it("its rated point and curve carry no efficiency (null in the plan, '—' on the terminal), the speeds and currents stay", async () => {
+    const text = drillText.replace(/  tests:\n(    - .*\n)+/, "");
+    const plan = planJob(loadJobText(text));
+    const sp = plan.series!;
+    expect(sp.original.rated!.current).toBeGreaterThan(2);
+    expect(sp.original.rated!.efficiency).toBeNull();
+    expect(sp.rewound.curve.every((p) => p.efficiency === null)).toBe(true);
+    expect(sp.noLoad?.efficiency ?? null).toBeNull();
+    const r = await runMain(["plan", "-"], { input: text });
+    expect(r.stdout).toMatch(/ {3}efficiency +— +—/);
+    const j = JSON.parse((await runMain(["plan", "-", "--json"], { input: text })).stdout);
+    expect(j.motor.series.rated.efficiency).toBeNull();
+    expect(j.motor.series.rated.current_a).toBeGreaterThan(2);
+  });
+});

@@ -5,7 +5,7 @@
 import type { Candidate, MotorReport, Plan } from "../design/types.js";
 import type { GoalKind } from "../design/types.js";
 import { supplyOf } from "../design/plan.js";
-import type { SeriesPoint } from "../motor/series.js";
+import type { SeriesFigure } from "../design/series.js";
 import { goalSummary } from "../format/goal.js";
 import { GOAL_UNIT, convert, goalValue, toAPerMm2, toGrams, toMm, toMm2, toRpm } from "../format/units.js";
 import { kvFromKe } from "../motor/emf.js";
@@ -28,7 +28,7 @@ export function wireJson(w: Candidate["wire"]) {
   };
 }
 
-function seriesPointJson(p: SeriesPoint | null) {
+function seriesPointJson(p: SeriesFigure | null) {
   return {
     current_a: p ? p.current : null,
     speed_rpm: p ? toRpm(p.speed) : null,

@@ -39,6 +39,9 @@ import { unknownReport, type MotorPhysics, type ReportSide } from "./motor.js";
 export const ELV_AC = 50;
 export const ELV_DC = 120;
 
+/** A series operating point as the plan gives it: its efficiency null when no reading gives the losses (docs "Unknown is null"). */
+export type SeriesFigure = Omit<SeriesPoint, "efficiency"> & { efficiency: number | null };
+
 /** The series model's figures of one winding (a full evaluation's `motor.series`). */
 export interface SeriesSide {
   /** k of this winding, V·s/(A·rad); null when nothing running calibrates it. */
@@ -46,15 +49,15 @@ export interface SeriesSide {
   /** The supply these figures are at (a conversion's original: its own). */
   supply: Supply;
   /** At the rated torque on `supply`, hot. */
-  rated: SeriesPoint | null;
+  rated: SeriesFigure | null;
   /** Light load (0.1 × rated torque) to rated, hot. */
-  curve: SeriesPoint[];
+  curve: SeriesFigure[];
   /** Locked rotor at the check voltage, winding cold, A. */
   lockedRotorCurrent: number | null;
   /** Field resistance at 20 °C, Ω (× the field's turns ratio² when it is rewound in the same copper). */
   fieldOhm: number;
   /** No-load point, cold: universal motors only (briefly, in their housing); null otherwise. */
-  noLoad: SeriesPoint | null;
+  noLoad: SeriesFigure | null;
 }
 
 /** The locked-rotor check: r.m.s. volts (or DC), frequency Hz (0: DC) and why this voltage. */
@@ -75,7 +78,7 @@ export interface SeriesPlan {
   ratedSource: "nameplate" | "load_test" | "duty" | null;
   lockedRotor: LockedRotorCheck | null;
   /** No-load run of the new winding: only for universal motors (briefly, in their housing); null otherwise. */
-  noLoad: SeriesPoint | null;
+  noLoad: SeriesFigure | null;
   convert: SeriesConversion | null;
   /** How the model was calibrated: sentences. */
   basis: string[];
@@ -345,9 +348,10 @@ export function seriesPhysics(job: Job, setup: SeriesSetup, originalTurns: numbe
     const field = fieldRatio(turns);
     return rescaleSeries(base, { armature: turns / originalTurns, field }, r20 * factor, setup.rf20 * field * field * factor);
   };
+  const lossKnown = setup.cal?.lossKnown ?? false;
   return {
     field: "series",
-    lossKnown: setup.cal?.lossKnown ?? false,
+    lossKnown,
     series: figures,
     canPredict: () => calibrated,
     noLoad: () => null,
@@ -359,14 +363,16 @@ export function seriesPhysics(job: Job, setup: SeriesSetup, originalTurns: numbe
       const cold = motorOf(turns, r20, 1);
       const r = calibrated ? ratedOf(hot, supply, setup.ratedTorque) : { rated: null, curve: [], warning: null };
       const field = fieldRatio(turns);
+      // with no reading that gives the losses the loss torque is taken as zero: efficiencies are unknown, not 100 % of it
+      const known = <P extends SeriesPoint | null>(p: P): SeriesFigure | null => (p === null ? null : lossKnown ? p : { ...p, efficiency: null });
       const series: SeriesSide = {
         k: calibrated ? hot.mag.k : null,
         supply,
-        rated: r.rated,
-        curve: r.curve,
+        rated: known(r.rated),
+        curve: r.curve.map((p) => known(p)!),
         lockedRotorCurrent: figures.check ? lockedRotorCurrent(cold, figures.check.supply) : null,
         fieldOhm: setup.rf20 * field * field,
-        noLoad: calibrated && supply.frequency > 0 ? pointAtTorqueSeries(cold, supply, 0) : null,
+        noLoad: calibrated && supply.frequency > 0 ? known(pointAtTorqueSeries(cold, supply, 0)) : null,
       };
       const which = side === "original" ? "original" : "new";
       const warnings = r.warning ? [{ code: "duty_beyond_stall", path: "original.nameplate", message: `the ${which} winding ${r.warning}` }] : [];

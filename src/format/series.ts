@@ -5,7 +5,7 @@
  * Never a stall figure at the supply: the locked rotor is checked only at the reduced voltage.
  */
 import type { Plan } from "../design/types.js";
-import type { SeriesPoint } from "../motor/series.js";
+import type { SeriesFigure } from "../design/series.js";
 import { pct, rpm, sig } from "./number.js";
 
 type SeriesPlan = NonNullable<Plan["series"]>;
@@ -20,7 +20,7 @@ export function supplyText(s: { volts: number; frequency: number }): string {
 export function seriesMotorRows(sp: SeriesPlan, torque: (nm: number | null) => string, torqueUnit: string): string[][] {
   const o = sp.original;
   const n = sp.rewound;
-  const at = (p: SeriesPoint | null, f: (p: SeriesPoint) => string) => (p ? f(p) : "—");
+  const at = (p: SeriesFigure | null, f: (p: SeriesFigure) => string) => (p ? f(p) : "—");
   const rated = sp.ratedTorque === null ? "rated load (not known)" : `at rated load ${torque(sp.ratedTorque)} ${torqueUnit}`;
   const rows: string[][] = [
     ["k (series field), mV·s/(A·rad)", o.k === null ? "—" : sig(o.k * 1e3), n.k === null ? "—" : sig(n.k * 1e3)],

@@ -52,7 +52,8 @@ export interface CurvesOptions {
 
 /** Whether the efficiency curve can be drawn: the losses are known (docs "Unknown is null": a curve that needs unknown data is not drawn). */
 export function hasEfficiency(plan: Plan): boolean {
-  return plan.job.armature.field === "series" || plan.calibration.loss_known; // a series motor's curves are the series model's (design/series.ts)
+  // a series motor's curves are the series model's (design/series.ts): its losses come from its own readings
+  return plan.job.armature.field === "series" ? (plan.calibration.series?.cal?.lossKnown ?? false) : plan.calibration.loss_known;
 }
 
 /** Four charts in a 2 × 2 grid filling width × height (points); the efficiency chart left out when the losses are unknown. */
