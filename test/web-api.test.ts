@@ -326,3 +326,12 @@ describe("logging and new jobs", () => {
     expect(JSON.parse(again.body).errors[0].code).toBe("file_exists");
   });
 });
+
+describe("armwind serve's own problems", () => {
+  it("a port already in use is one line naming it and what to do, exit 1, not an internal error", async () => {
+    const cli = await runMain(["serve", "--port", new URL(local.url).port]);
+    expect(cli.status).toBe(1);
+    expect(cli.stderr).toMatch(/the port is in use .* --port 0 for any free one \[port_in_use\]/);
+    expect(cli.stderr).not.toContain("internal error");
+  });
+});

@@ -154,6 +154,29 @@ describe.skipIf(!have && !process.env.CI)("the workbench in Chromium", () => {
     await p.context().close();
   });
 
+  it("readings typed at the bench are logged as log does; the same readings again only when asked", async () => {
+    const p = await page();
+    await p.goto(`${local.url}bench/jobs/blind-motor-0031.yaml`);
+    await p.waitForSelector("[data-reading]");
+    await p.fill('input[name="temperature"]', "21 C");
+    await p.fill('input[name="meter_resolution"]', "0.001 ohm");
+    for (const [i, v] of ["1.362", "1.355", "1.366", "1.353", "1.360"].entries()) await p.fill(`[data-reading="${i}"]`, v);
+    await p.fill('input[name="terminal_resistance"]', "2.05 ohm");
+    await p.click("#log");
+    await p.waitForSelector("#log-status.ok");
+    const first = /logged as (\S+?):/.exec((await p.textContent("#log-status"))!)![1];
+    expect(existsSync(join(shop, first))).toBe(true);
+    await p.click("#log");
+    await p.waitForSelector("#log-again");
+    expect(await p.textContent("#log-status")).toContain("already holds these readings");
+    await p.click("#log-again");
+    await p.waitForSelector("#log-status.ok");
+    const second = /logged as (\S+?):/.exec((await p.textContent("#log-status"))!)![1];
+    expect(second).not.toBe(first);
+    expect(existsSync(join(shop, second))).toBe(true);
+    await p.context().close();
+  });
+
   it("the card is shown in the page, with print, paper and download", async () => {
     const p = await page();
     await p.goto(local.url);

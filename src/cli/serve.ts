@@ -47,7 +47,21 @@ export function serveCommand(yargs: Argv, io: Io, setStatus: (n: number) => void
           if (!Number.isInteger(argv.port) || argv.port < 0 || argv.port > 65535)
             throw inputError("out_of_range", "port", `--port ${argv.port}: give a port from 0 to 65535`);
           const { serve } = await import("../web/server.js");
-          const s = await serve({ dir, port: argv.port, host: argv.host, allowHost: argv["allow-host"].map(String) });
+          const s = await serve({ dir, port: argv.port, host: argv.host, allowHost: argv["allow-host"].map(String) }).catch((e: NodeJS.ErrnoException) => {
+            if (e?.code === "EADDRINUSE")
+              throw inputError(
+                "port_in_use",
+                "port",
+                `--port ${argv.port}: the port is in use (another armwind serve?); give another with --port N, or --port 0 for any free one`,
+              );
+            if (e?.code === "EADDRNOTAVAIL")
+              throw inputError(
+                "host_unavailable",
+                "host",
+                `--host ${argv.host}: not an address of this machine; give one of its own, or 0.0.0.0 for all of them`,
+              );
+            throw e;
+          });
           io.out(`listening on ${s.url}`);
           if (s.token) {
             const { linkHost } = await import("../web/guard.js");

@@ -231,7 +231,10 @@ async function fileEndpoint(what: string, r: Req, ctx: Context, f: { rel: string
     case "POST diagnose":
       return diagnoseReadings(r, ctx, f);
     case "POST log":
-      return cliResponse(await runCli(ctx.dir, ["log", f.rel, "--measured=-", "--json"], r.body.toString("utf8")));
+      // ?again=1: the user chose to log the same readings a second time (`log --again`)
+      return cliResponse(
+        await runCli(ctx.dir, ["log", f.rel, "--measured=-", "--json", ...(r.query.get("again") === "1" ? ["--again"] : [])], r.body.toString("utf8")),
+      );
     case "GET card":
       return card(r, ctx, f);
     default:

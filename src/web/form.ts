@@ -167,7 +167,7 @@ function listItem(items: Json, path: Path, ctx: Ctx, isNew: boolean): string {
 }
 
 /** A list: a row per item, an add button, and the item's template for the page's script. */
-function list(node: Json, path: Path, ctx: Ctx, required: boolean): string {
+function list(node: Json, path: Path, ctx: Ctx, required: boolean, id = ""): string {
   const p = pathText(path);
   const items = node.items as Json;
   const held = ctx.doc?.getIn(path, true) as Node | undefined;
@@ -177,7 +177,7 @@ function list(node: Json, path: Path, ctx: Ctx, required: boolean): string {
   const help = helpOf(node);
   const max = typeof node.maxItems === "number" ? ` data-max="${node.maxItems}"` : "";
   return (
-    `<fieldset class="list" data-list="${esc(p)}" data-path="${esc(p)}"${max}><legend>${esc(label(path[path.length - 1]))}${required ? "" : ' <span class="opt">optional</span>'}</legend>` +
+    `<fieldset class="list" data-list="${esc(p)}" data-path="${esc(p)}"${id ? ` id="${esc(id)}"` : ""}${max}><legend>${esc(label(path[path.length - 1]))}${required ? "" : ' <span class="opt">optional</span>'}</legend>` +
     (help ? `<small class="help">${esc(help)}</small>` : "") +
     `<div class="list-items">${rows}</div>` +
     `<template>${template}</template>` +
@@ -199,9 +199,9 @@ function section(node: Json, path: Path, ctx: Ctx): string {
       const help = helpOf(v) ? `<small class="help">${esc(helpOf(v))}</small>` : "";
       const goal = goalOf(v);
       parts.push(
-        `<fieldset data-path="${esc(pathText(sub))}"${goal ? ` data-goal="${goal}"` : ""}><legend>${esc(label(k))}</legend>${help}${section(v, sub, ctx)}${problemOut(pathText(sub))}</fieldset>`,
+        `<fieldset data-path="${esc(pathText(sub))}"${path.length ? "" : ` id="sec-${esc(k)}"`}${goal ? ` data-goal="${goal}"` : ""}><legend>${esc(label(k))}</legend>${help}${section(v, sub, ctx)}${problemOut(pathText(sub))}</fieldset>`,
       );
-    } else if (isList(v)) parts.push(list(v, sub, ctx, req));
+    } else if (isList(v)) parts.push(list(v, sub, ctx, req, path.length ? "" : `sec-${k}`));
     else if (isUnionWithMap(v)) parts.push(union(v, sub, ctx, req));
     else parts.push(leaf(v, sub, ctx, req));
   }
@@ -211,4 +211,13 @@ function section(node: Json, path: Path, ctx: Ctx): string {
 /** The whole form's fields for a job document. */
 export function jobForm(schema: Json, doc: Document): string {
   return section(schema, [], { doc });
+}
+
+/** Links to the form's sections (each top-level map or list), for the bar above the form. */
+export function sectionLinks(schema: Json): string {
+  const props = schema.properties as Record<string, Json>;
+  return Object.entries(props)
+    .filter(([, v]) => (isObject(v.properties) && !Array.isArray(v.anyOf)) || isList(v))
+    .map(([k]) => `<a href="#sec-${esc(k)}">${esc(label(k))}</a>`)
+    .join("");
 }

@@ -11,7 +11,7 @@ import { ArmwindError } from "../errors.js";
 import { readUserFile } from "../files.js";
 import { VERSION } from "../cli/version.js";
 import { insideDir, isRefusal } from "./guard.js";
-import { jobForm } from "./form.js";
+import { jobForm, sectionLinks } from "./form.js";
 import { esc } from "./html.js";
 import { listJobs } from "./jobs.js";
 import { versionOf } from "./api.js";
@@ -93,7 +93,7 @@ function jobPage(ctx: Context, rel: string): Res {
   const main = `<div class="head"><h1 id="title">${esc(String(doc.get("id") ?? f.rel))}</h1><span class="sub file">${esc(f.rel)}</span>
 <nav class="tools"><a href="/card/${u}" id="card-link">card (PDF)</a><a href="/bench/${u}">readings at the bench</a><a href="/history${doc.getIn(["armature", "family"]) ? `?family=${encodeURIComponent(String(doc.getIn(["armature", "family"])))}` : ""}">logbook</a></nav></div>
 <div class="split"><section class="form-col"><form id="job-form" autocomplete="off">
-<div class="save-row"><button type="submit" id="save">Save</button><span id="save-status" role="status"></span></div>
+<div class="save-row"><button type="submit" id="save">Save</button><span id="save-status" role="status"></span><nav class="sections" aria-label="sections of the job">${sectionLinks(jobJsonSchema())}</nav></div>
 <output class="problem" data-for=""></output>
 ${form}</form></section>
 <section class="plan-col"><div id="plan" aria-live="polite"><p class="sub">planning…</p></div></section></div>`;
@@ -124,7 +124,7 @@ function benchPage(ctx: Context, rel: string): Res {
 <div class="row"><label>terminal resistance <input name="terminal_resistance" placeholder="1.57 ohm"></label></div>
 <div class="row"><label>no-load supply <input name="nl_supply" placeholder="12 V"></label><label>current <input name="nl_current" placeholder="0.17 A"></label><label>speed <input name="nl_speed" placeholder="9650 rpm"></label></div>
 <div class="row"><label>notes <input name="notes"></label></div></fieldset>
-<div class="save-row"><button type="submit" id="log">Log this rewind</button><span id="log-status" role="status"></span></div>
+<div class="save-row"><button type="submit" id="log">Log this rewind</button><span id="log-status" role="status"></span></div><div id="log-result"></div>
 </form></section>
 <section class="diagram-col"><div id="verdict" aria-live="polite"></div><div id="diagram"></div></section></div>`;
   return html(200, layout(`Readings ${id}`, main, "bench", { file: f.rel, id }));

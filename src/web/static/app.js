@@ -659,7 +659,14 @@ function drawDiagram(suspectCoils) {
   $("#diagram").replaceChildren(svg);
 }
 
-async function logRecord() {
+/** One failed check of `log`, in words: what was measured against what was predicted, and the band. */
+function failureLine(f) {
+  if (f.message) return f.message;
+  const unit = f.unit === "ohm" ? "Ω" : (f.unit ?? "");
+  return `${f.check.replace(/_/g, " ")}: measured ${fmt(f.measured_20c_value ?? f.measured_value, 4)} ${unit} against ${fmt(f.predicted_value, 4)} ${unit} predicted (${signed(f.deviation_fraction)}, band ±${fmt(f.tolerance_fraction * 100, 2)} %): ${f.verdict}`;
+}
+
+async function logRecord(again = false) {
   const form = $("#bench-form");
   const v = (n) => form.elements[n].value.trim();
   const measured = { version: 1, job: data.id, date: v("date"), temperature: v("temperature") || "20 C", bar_to_bar: readings() };
@@ -667,19 +674,36 @@ async function logRecord() {
   if (v("terminal_resistance")) measured.terminal_resistance = v("terminal_resistance");
   if (v("nl_supply") || v("nl_current") || v("nl_speed")) measured.no_load = { supply: v("nl_supply"), current: v("nl_current"), speed: v("nl_speed") };
   if (v("notes")) measured.notes = v("notes");
-  const { status, json } = await api("POST", `/api/log/${enc(data.file)}`, measured);
+  const { status, json } = await api("POST", `/api/log/${enc(data.file)}${again ? "?again=1" : ""}`, measured);
   const s = $("#log-status");
+  const out = $("#log-result");
+  out.replaceChildren();
   if (status === 200) {
     s.className = json.ok ? "ok" : "warn";
-    s.textContent = `logged as ${json.file}${json.ok ? "" : ": a check failed (the record is kept)"}`;
-  } else {
-    s.className = "bad";
-    s.textContent = "not logged";
-    showProblems(
-      form,
-      (json.errors || []).map((e) => ({ ...e, path: "" })),
-    );
+    s.textContent = `logged as ${json.file}${json.ok ? ": every check passed" : ": a check failed (the record is kept)"}`;
+    if (json.failures?.length)
+      out.append(
+        h(
+          "ul",
+          { class: "failures" },
+          json.failures.map((f) => h("li", { class: "bad" }, failureLine(f))),
+        ),
+      );
+    out.append(h("p", {}, h("a", { href: "/history" }, "the logbook")));
+    return;
   }
+  s.className = "bad";
+  const errors = json.errors || [];
+  if (errors.some((e) => e.code === "already_logged")) {
+    s.textContent = "not logged: the logbook already holds these readings of this job, for this date";
+    out.append(h("button", { type: "button", id: "log-again", class: "add", onclick: () => logRecord(true) }, "Log them again anyway"));
+    return;
+  }
+  s.textContent = "not logged";
+  showProblems(
+    form,
+    errors.map((e) => ({ ...e, path: "" })),
+  );
 }
 
 // ---------------------------------------------------------------- the logbook
@@ -709,33 +733,37 @@ async function showHistory() {
   $("#history").replaceChildren(
     recs.length
       ? h(
-          "table",
-          { class: "records" },
+          "div",
+          { class: "scroll" },
           h(
-            "thead",
-            {},
+            "table",
+            { class: "records" },
             h(
-              "tr",
+              "thead",
               {},
-              head.map((x) => h("th", {}, x)),
-            ),
-          ),
-          h(
-            "tbody",
-            {},
-            recs.map((r) =>
               h(
                 "tr",
                 {},
-                h("td", {}, r.date),
-                h("td", {}, r.job_id),
-                h("td", {}, r.family ?? "—"),
-                h("td", {}, windingLine(r.turns_per_coil, r.wire, r.strands_in_hand)),
-                h("td", {}, fmt(r.terminal_predicted_ohm, 4)),
-                h("td", {}, fmt(r.terminal_measured_ohm, 4)),
-                h("td", {}, fmt(r.no_load_speed_predicted_rpm)),
-                h("td", {}, fmt(r.no_load_speed_measured_rpm)),
-                h("td", { class: r.checks_ok ? "ok" : "bad" }, r.checks_ok ? "passed" : `failed: ${r.checks_failed.join(", ")}`),
+                head.map((x) => h("th", {}, x)),
+              ),
+            ),
+            h(
+              "tbody",
+              {},
+              recs.map((r) =>
+                h(
+                  "tr",
+                  {},
+                  h("td", {}, r.date),
+                  h("td", {}, r.job_id),
+                  h("td", {}, r.family ?? "—"),
+                  h("td", {}, windingLine(r.turns_per_coil, r.wire, r.strands_in_hand)),
+                  h("td", {}, fmt(r.terminal_predicted_ohm, 4)),
+                  h("td", {}, fmt(r.terminal_measured_ohm, 4)),
+                  h("td", {}, fmt(r.no_load_speed_predicted_rpm)),
+                  h("td", {}, fmt(r.no_load_speed_measured_rpm)),
+                  h("td", { class: r.checks_ok ? "ok" : "bad" }, r.checks_ok ? "passed" : `failed: ${r.checks_failed.join(", ")}`),
+                ),
               ),
             ),
           ),
