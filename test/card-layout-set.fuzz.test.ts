@@ -3,7 +3,9 @@
  * 4 coils per slot; 3 to 200 turns; A4 and Letter; a 300-character title and notes. Read back
  * with pdfjs-dist, from the text's positions: no text leaves the printable area, no two texts
  * overlap (a line run into the next row), no coil row is split across pages (each steps page
- * holds as many coil numbers as tally ends), and no page but the last is nearly empty.
+ * holds as many coil numbers as tally ends), and no page but the last is nearly empty. From the
+ * page's drawing operators as well: no text crosses a row rule and no text leaves the box it starts
+ * in (framed boxes, header bands; test/helpers/pdf-layout.ts `ruleProblems`).
  * Sized to run well within a third of its timeout on a busy 2-core machine (about 20 cards).
  */
 import { describe, expect, it } from "vitest";
@@ -17,13 +19,13 @@ import { renderCard } from "../src/card/render.js";
 import { cardLayout } from "../src/card/layout.js";
 import { ROOT } from "./helpers/cli.js";
 import { layoutCases } from "./helpers/layout-set.js";
-import { overlaps, readBoxes, type PageBoxes } from "./helpers/pdf-layout.js";
+import { overlaps, readBoxes, readRules, ruleProblems, type PageBoxes, type PageRules } from "./helpers/pdf-layout.js";
 
 const L = cardLayout();
 /** A page whose text reaches less than this share of the content height is "nearly empty". */
 const NEARLY_EMPTY = 0.25;
 
-function problems(pages: PageBoxes[], plan: Plan): string[] {
+function problems(pages: PageBoxes[], plan: Plan, drawn: PageRules[]): string[] {
   const out: string[] = [];
   const turns = String(plan.design.turns);
   const coilsSeen: number[] = [];
@@ -41,6 +43,7 @@ function problems(pages: PageBoxes[], plan: Plan): string[] {
         out.push(`${n}: "${t.str}" leaves the printable area at (${t.x.toFixed(0)}, ${t.top.toFixed(0)})–(${t.right.toFixed(0)}, ${t.bottom.toFixed(0)})`);
     }
     for (const [a, b] of overlaps(p.items)) out.push(`${n}: "${a.str}" overlaps "${b.str}"`);
+    out.push(...ruleProblems(p.items, drawn[i], n));
     const body = p.items.filter((t) => t.top < footerTop);
     const used = (Math.max(L.margin.top, ...body.map((t) => t.bottom)) - L.margin.top) / (p.height - L.margin.top - L.margin.bottom);
     if (i < pages.length - 1 && used < NEARLY_EMPTY) out.push(`${n}: nearly empty (${(used * 100).toFixed(0)} % of the page)`);
@@ -70,7 +73,7 @@ describe("the card's layout does not break", () => {
       const plan = planJob(jobSchema.parse(c.raw));
       const pdf = await renderCard(plan, { paper: c.paper, date: "2026-12-01", version: "test" });
       const pages = await readBoxes(pdf);
-      expect(problems(pages, plan)).toEqual([]);
+      expect(problems(pages, plan, await readRules(pdf))).toEqual([]);
     });
   }
 });

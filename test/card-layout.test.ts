@@ -3,11 +3,12 @@ import { describe, expect, it } from "vitest";
 import fc from "fast-check";
 import { readFileSync } from "node:fs";
 import { createRequire } from "node:module";
-import { cardLayout, layoutProblems, tallyBoxes, tallyGroups } from "../src/card/layout.js";
+import { cardLayout, layoutProblems, pageBreaks, tallyBoxes, tallyGroups } from "../src/card/layout.js";
 import { FONT_FILES, SHAPING_TABLES, cardFonts, woffToSfnt } from "../src/card/fonts.js";
 import { ticksFromZero as niceTicks } from "../src/plot/ticks.js";
 import { needsFourWire } from "../src/card/pages/bench.js";
 import { Sheet } from "../src/card/sheet.js";
+import { readBoxes, readRules, ruleProblems } from "./helpers/pdf-layout.js";
 
 const L = cardLayout();
 
@@ -143,5 +144,83 @@ describe("text laid out once, drawn as laid out (issue 15 item 2)", () => {
     };
     const [a, b] = await Promise.all([draw(true), draw(false)]);
     expect(a.equals(b)).toBe(true);
+  });
+});
+
+describe("the layout check reads rules and boxes from the PDF, and fails on a broken row", () => {
+  const INFO = { CreationDate: new Date(0), ModDate: new Date(0) };
+  /** Problems found in a one-page sheet drawn by `draw`. */
+  const check = async (draw: (s: Sheet) => void) => {
+    const s = new Sheet(L, "a4", INFO);
+    s.newPage();
+    draw(s);
+    const pdf = await s.finish();
+    const [page] = await readBoxes(pdf);
+    const [drawn] = await readRules(pdf);
+    return { problems: ruleProblems(page.items, drawn, "page 1"), drawn };
+  };
+  it("a table whose rows are measured is clean, and its rules and header band are read back where they were drawn", async () => {
+    const { problems, drawn } = await check((s) => {
+      s.y = 100;
+      s.table(
+        [
+          { head: "coil", width: 60 },
+          { head: "slots", width: 120 },
+        ],
+        [
+          ["17", "slot 1 top pos 1 → slot 6 / bottom pos 1, a route long enough to wrap onto three lines"],
+          ["18", "slot 2"],
+        ],
+      );
+    });
+    expect(problems).toEqual([]);
+    expect(drawn.boxes.some((b) => Math.abs(b.x - L.margin.left) < 0.01 && Math.abs(b.top - 100) < 0.01 && Math.abs(b.right - b.x - 180) < 0.01)).toBe(true);
+    expect(drawn.rules.filter((r) => Math.abs(r.x0 - L.margin.left) < 0.01 && Math.abs(r.x1 - r.x0 - 180) < 0.01)).toHaveLength(2);
+  });
+  it("a row whose text runs below its rule fails, naming the text", async () => {
+    const { problems } = await check((s) => {
+      s.at("slot 1 top pos 1 → slot 6 / bottom pos 1", s.left, 100, { size: 12, width: 120 }); // two lines, to about y 128
+      s.y = 118; // the row's rule drawn as if the text took one line
+      s.rule();
+    });
+    expect(problems.join("\n")).toContain('"slot 6 / bottom pos" is crossed by a rule at y 118');
+  });
+  it("a text that leaves the box it starts in fails", async () => {
+    const { problems } = await check((s) => {
+      s.y = 100;
+      // the body says it used 10 pt; its text takes three lines
+      s.framed((x, y, w) => {
+        s.at("a note long enough to wrap onto three lines inside a narrow framed box of the card", x, y, { width: w / 4 });
+        return 10;
+      });
+    });
+    expect(problems.some((p) => /leaves its box/.test(p))).toBe(true);
+  });
+});
+
+describe("pageBreaks: blocks kept whole, no block alone on a page when a break can move (issue 11)", () => {
+  it("fills the page, then breaks; a last block alone takes one from the page before; a first run of one moves on", () => {
+    expect(pageBreaks([100, 100, 100], 1000, 700)).toEqual([]);
+    expect(pageBreaks([100, 100, 100, 100], 350, 700)).toEqual([2]); // greedy 3 + 1 → 2 + 2
+    expect(pageBreaks([100, 100, 100, 100, 100], 350, 700)).toEqual([3]);
+    expect(pageBreaks([100, 100, 100], 150, 700)).toEqual([0]); // one would stand alone: all go on
+    expect(pageBreaks([100, 100], 50, 700)).toEqual([0]);
+    expect(pageBreaks([400, 400, 400], 800, 800)).toEqual([2]); // the page before would keep one: the last stays alone
+  });
+  it("for any heights: breaks rise, and every page's blocks fit it unless one block alone is taller than a page", () => {
+    fc.assert(
+      fc.property(fc.array(fc.integer({ min: 5, max: 400 }), { minLength: 1, maxLength: 30 }), fc.integer({ min: 0, max: 700 }), (hs, room) => {
+        const full = 700;
+        const br = pageBreaks(hs, room, full);
+        br.forEach((b, i) => i > 0 && expect(b).toBeGreaterThan(br[i - 1]));
+        const starts = [0, ...br.filter((b) => b > 0)];
+        const ends = [...br.filter((b) => b > 0), hs.length];
+        starts.forEach((st, i) => {
+          const sum = hs.slice(st, ends[i]).reduce((a, b) => a + b, 0);
+          const cap = i === 0 && br[0] !== 0 ? room : full;
+          if (ends[i] - st > 1) expect(sum).toBeLessThanOrEqual(cap);
+        });
+      }),
+    );
   });
 });

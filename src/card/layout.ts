@@ -92,3 +92,38 @@ export function tallyGroups<T>(boxes: T[], groupSize: number): T[][] {
   for (let i = 0; i < boxes.length; i += groupSize) out.push(boxes.slice(i, i + groupSize));
   return out;
 }
+
+/**
+ * Where a list of blocks that must each stay whole breaks across pages: the indices of the blocks
+ * that start a new page (0: the list starts on a new page). `room` is what the current page has
+ * left, `full` what a new page holds below its "continued" heading (pt). Greedy, then widow and
+ * orphan control: no page holds fewer than `minRun` of the blocks when moving a break avoids it
+ * (a first run too short moves to the next page; a last run too short takes blocks from the page
+ * before, as long as they fit and leave that page `minRun`).
+ */
+export function pageBreaks(heights: readonly number[], room: number, full: number, minRun = 2): number[] {
+  const breaks: number[] = [];
+  let left = room;
+  heights.forEach((h, i) => {
+    if (h > left && !(breaks.length && breaks[breaks.length - 1] === i)) {
+      breaks.push(i);
+      left = full;
+    }
+    left -= h;
+  });
+  const n = heights.length;
+  // orphan: a first run of fewer than minRun blocks goes to the next page with the rest
+  if (breaks.length && breaks[0] > 0 && breaks[0] < Math.min(minRun, n)) {
+    return pageBreaks(heights, -1, full, minRun);
+  }
+  // widow: a last run too short takes blocks from the run before it
+  const last = breaks.length ? breaks[breaks.length - 1] : 0;
+  const prev = breaks.length > 1 ? breaks[breaks.length - 2] : 0;
+  if (breaks.length && last > 0 && n - last < minRun) {
+    let b = last;
+    const sum = (from: number) => heights.slice(from).reduce((a, x) => a + x, 0);
+    while (n - b < minRun && b - 1 - prev >= minRun && sum(b - 1) <= full) b--;
+    breaks[breaks.length - 1] = b;
+  }
+  return breaks;
+}

@@ -164,6 +164,11 @@ export class Sheet {
     return this.bottom - this.y;
   }
 
+  /** Room on a new page below a section's "continued" heading, pt (what `need` opens). */
+  fullRoom(): number {
+    return this.bottom - this.top - this.L.type.heading * 1.7;
+  }
+
   /** Set the font and size of a style, and its colour unless `colour` is false (laying out needs no colour). */
   font(style: TextStyle = {}, colour = true): PDFDocument {
     const d = this.doc;

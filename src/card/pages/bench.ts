@@ -1,10 +1,13 @@
 /**
- * Page 4, bench checks: the expected bar-to-bar reading of every pair with its tolerance and a
- * blank for the reading, terminal resistance, ground, growler, polarity, no-load and brief stall
- * checks, and the sign-off blanks.
+ * The bench sheet: the expected bar-to-bar reading of every pair with its window and a blank for
+ * the reading, then the checks before varnish (terminal resistance, ground, growler, polarity) and
+ * the run after varnish (bar to bar again, no-load, brief stall; a series motor's own), each group
+ * with its sign-off. The rules and windows are the ones `log` and `diagnose` apply
+ * (src/bench/rules.ts).
  */
 import type { Plan } from "../../design/types.js";
 import type { Sheet, TextBlock } from "../sheet.js";
+import { pageBreaks } from "../layout.js";
 import { ohm, rpm, sig } from "../text.js";
 import { seriesBenchChecks } from "./series.js";
 import {
@@ -31,18 +34,37 @@ export function needsFourWire(expectedOhm: number, resolutionOhm: number): boole
 }
 
 export function benchPage(s: Sheet, plan: Plan): void {
-  const T = s.L.type;
-  const B = s.L.bench;
-  const r = plan.resistance;
-  const C = plan.layout.bars;
   s.startSection("Bench checks", { share: 0.45 });
+  headerBlanks(s);
+  barToBar(s, plan);
+  checkGroup(s, "2. Before varnish", beforeVarnish(plan), "all pass: varnish");
+  checkGroup(s, "3. After varnish, cure, skim and balance: the run", theRun(plan), "result");
+}
+
+/** Date, winder and winding temperature, to fill in first. */
+function headerBlanks(s: Sheet): void {
   s.need(60);
   const y0 = s.y;
   s.blank(s.left, y0, 150, "date");
   s.blank(s.left + 165, y0, 190, "winder");
   s.blank(s.left + 370, y0, s.width - 370, "winding temperature", "°C");
   s.y += s.L.blank.height + 10;
+}
 
+/** The level window (fraction) and its reading as "low–high" Ω for an expected reading, as the bench rules give them for this plan and meter. */
+interface Windows {
+  level: number;
+  text: (expectedOhm: number) => string;
+}
+
+/**
+ * Section 1, bar to bar: the rules in the words `log` and `diagnose` use, the four-wire advice for
+ * this meter (or "null the leads"), the table of readings, and the median line.
+ */
+function barToBar(s: Sheet, plan: Plan): void {
+  const T = s.L.type;
+  const r = plan.resistance;
+  const C = plan.layout.bars;
   s.subheading("1. Bar to bar, brushes lifted", `expected at 20 °C; r_i is bar i to bar i+1, r${C} bar ${C} to bar 1`);
   // the rules `log` and `diagnose` apply, in their words (src/bench/rules.ts)
   const tol = SPREAD.fraction;
@@ -51,43 +73,77 @@ export function benchPage(s: Sheet, plan: Plan): void {
   const calibrated = turnLengthCalibrated(plan.wire.mlt_source);
   const expectedMedian = median(r.bar_to_bar);
   const level = levelWindow(calibrated, plan.design.wire.bare_diameter, res, expectedMedian);
+  const windows: Windows = {
+    level,
+    text: (v) => {
+      const b = levelBounds(v, level);
+      return `${ohm(b.low)}–${ohm(b.high)}`;
+    },
+  };
   s.para(
     `${spreadRuleText()} ${levelRuleText(level, calibrated)} Windows worked out for ${meterText(meter)}. ` +
       `Correct a reading taken at t °C to 20 °C by dividing it by 1 + 0.00393 × (t − 20) (IEC 60028 copper).`,
     { size: T.body },
   );
-  const minExpected = Math.min(...r.bar_to_bar);
-  const advice = fourWireAdvice(minExpected, res);
-  s.framed(
-    (x, y, w) => {
-      const text = advice ? `${advice} ${NULL_LEADS}` : NULL_LEADS;
-      return s.at(text, x, y, { size: T.body, bold: true, width: w });
-    },
-    { heavy: advice !== null, estimate: advice ? 40 : 14 },
+  const advice = fourWireAdvice(Math.min(...r.bar_to_bar), res);
+  s.framed((x, y, w) => s.at(advice ? `${advice} ${NULL_LEADS}` : NULL_LEADS, x, y, { size: T.body, bold: true, width: w }), {
+    heavy: advice !== null,
+    estimate: advice ? 40 : 14,
+  });
+  readingsTable(s, plan, windows);
+  s.para(
+    `Median of the expected readings: ${ohm(expectedMedian)} Ω; your median within ${windows.text(expectedMedian)} Ω. Median of your readings: ________ Ω; each reading within ±${plain(tol * 100)} % of it (your median × ${plain(1 - tol)} to × ${plain(1 + tol)}), widened by one count of the meter.`,
+    { size: T.body },
   );
-  // two sets of columns side by side when the widest window fits its column, else one
-  const windowText = (v: number) => {
-    const b = levelBounds(v, level);
-    return `${ohm(b.low)}–${ohm(b.high)}`;
-  };
-  const widest = Math.max(...r.bar_to_bar.map((v) => s.widthOf(windowText(v), { size: T.table + 1, bold: true })));
+}
+
+/**
+ * The readings table r1 … rC: pair, bars, expected, window (in the same size as the expected
+ * value: it is the number the winder compares with) and a line to write on. Two sets of columns
+ * side by side when the widest window fits its column, else one; it breaks across pages,
+ * repeating its header.
+ */
+function readingsTable(s: Sheet, plan: Plan, windows: Windows): void {
+  const T = s.L.type;
+  const B = s.L.bench;
+  const C = plan.layout.bars;
+  const widest = Math.max(...plan.resistance.bar_to_bar.map((v) => s.widthOf(windows.text(v), { size: T.table + 1, bold: true })));
   const fits = (n: number) => ((s.width - (n - 1) * 12) / n) * 0.29 - 4 >= widest;
   const sets = Math.max(1, B.column_sets) > 1 && fits(Math.max(1, B.column_sets)) ? Math.max(1, B.column_sets) : 1;
   const setW = (s.width - (sets - 1) * 12) / sets;
   const cols = [0.11, 0.15, 0.21, 0.29, 0.24].map((f) => f * setW);
-  const rows = r.bar_to_bar.map((v, i) => ({ i: i + 1, bars: `${i + 1}–${i + 2 > C ? 1 : i + 2}`, v }));
+  const rows = plan.resistance.bar_to_bar.map((v, i) => ({ i: i + 1, bars: `${i + 1}–${i + 2 > C ? 1 : i + 2}`, v }));
   const rh = B.row_height;
   const header = (y: number) => {
     for (let k = 0; k < sets; k++) {
       const x = s.left + k * (setW + 12);
       s.doc.save().rect(x, y, setW, 15).fill("#e6e6e6").restore();
-      const heads = ["pair", "bars", "expected Ω", "window Ω", "reading Ω"];
       let cx = x + 3;
-      heads.forEach((h, j) => {
+      ["pair", "bars", "expected Ω", "window Ω", "reading Ω"].forEach((h, j) => {
         s.at(h, cx, y + 3.5, { size: T.small, bold: true });
         cx += cols[j];
       });
     }
+  };
+  const row = (x: number, y: number, r: (typeof rows)[number]) => {
+    const texts: [string, number, boolean, number][] = [
+      [`r${r.i}`, T.table, true, 5],
+      [r.bars, T.table, false, 5],
+      [ohm(r.v), T.table + 1, true, 4],
+      [windows.text(r.v), T.table + 1, true, 4],
+    ];
+    let cx = x + 3;
+    texts.forEach(([text, size, bold, dy], j) => {
+      s.at(text, cx, y + dy, { size, bold });
+      cx += cols[j];
+    });
+    s.doc
+      .save()
+      .lineWidth(0.6)
+      .moveTo(cx, y + rh - 2)
+      .lineTo(x + setW - 4, y + rh - 2)
+      .stroke()
+      .restore();
   };
   let idx = 0;
   while (idx < rows.length) {
@@ -95,111 +151,113 @@ export function benchPage(s: Sheet, plan: Plan): void {
     const perCol = Math.max(1, Math.min(Math.floor((s.bottom - s.y - 15) / rh), Math.ceil((rows.length - idx) / sets)));
     header(s.y);
     const yStart = s.y + 16;
-    for (let k = 0; k < sets && idx < rows.length; k++) {
-      const x = s.left + k * (setW + 12);
-      for (let j = 0; j < perCol && idx < rows.length; j++, idx++) {
-        const row = rows[idx];
-        const y = yStart + j * rh;
-        let cx = x + 3;
-        s.at(`r${row.i}`, cx, y + 5, { size: T.table, bold: true });
-        cx += cols[0];
-        s.at(row.bars, cx, y + 5, { size: T.table });
-        cx += cols[1];
-        // the window in the same size as the expected value: it is the number the winder compares with
-        s.at(ohm(row.v), cx, y + 4, { size: T.table + 1, bold: true });
-        cx += cols[2];
-        s.at(windowText(row.v), cx, y + 4, { size: T.table + 1, bold: true });
-        cx += cols[3];
-        s.doc
-          .save()
-          .lineWidth(0.6)
-          .moveTo(cx, y + rh - 2)
-          .lineTo(x + setW - 4, y + rh - 2)
-          .stroke()
-          .restore();
-      }
-    }
+    for (let k = 0; k < sets && idx < rows.length; k++)
+      for (let j = 0; j < perCol && idx < rows.length; j++, idx++) row(s.left + k * (setW + 12), yStart + j * rh, rows[idx]);
     s.y = yStart + perCol * rh + 6;
   }
-  s.para(
-    `Median of the expected readings: ${ohm(expectedMedian)} Ω; your median within ${windowText(expectedMedian)} Ω. Median of your readings: ________ Ω; each reading within ±${plain(tol * 100)} % of it (your median × ${plain(1 - tol)} to × ${plain(1 + tol)}), widened by one count of the meter.`,
-    { size: T.body },
-  );
+}
 
-  // each group of checks is measured whole and kept together with its heading and its sign-off
-  type Check = [title: string, body: string, blanks: [string, string, number][]];
-  type Laid = [title: string, body: TextBlock, blanks: [string, string, number][]];
-  const checkHeight = ([, body, blanks]: Laid) => T.subheading * 1.5 + body.height + 4 + (blanks.length ? s.L.blank.height + 10 : 4);
-  const check = ([title, body, blanks]: Laid) => {
-    s.need(checkHeight([title, body, blanks]));
-    s.tickBox(s.left, s.y + 1, s.L.tick_box, true);
-    s.at(title, s.left + 24, s.y + 2, { size: T.subheading, bold: true });
-    s.y += T.subheading * 1.5;
-    s.draw(body, s.left + 24, s.y);
-    s.y += body.height + 4;
-    let x = s.left + 24;
-    for (const [label, unit, w] of blanks) {
-      s.blank(x, s.y, w, label, unit);
-      x += w + 14;
-    }
-    if (blanks.length) s.y += s.L.blank.height + 10;
-    else s.y += 4;
-  };
-  const signOff = (what: string) => {
-    s.y += 6;
-    const ys = s.y;
-    s.blank(s.left, ys, 200, what, "");
-    s.blank(s.left + 215, ys, 150, "checked by", "");
-    s.blank(s.left + 380, ys, s.width - 380, "date", "");
-    s.y += s.L.blank.height + 8;
-  };
-  const group = (heading: string, written: Check[], sign: string) => {
-    const checks = written.map(([title, body, blanks]): Laid => [title, s.layout(body, { size: T.body, width: s.width - 24 }), blanks]);
-    const whole = T.subheading * 1.65 + 40 + checks.reduce((a, c) => a + checkHeight(c), 0) + s.L.blank.height + 14;
-    // the whole group on one page when a page can hold it; else at least the heading with its first check
-    s.need(whole <= s.bottom - s.top - 40 ? whole : T.subheading * 1.65 + 40 + checkHeight(checks[0]));
-    s.subheading(heading);
-    checks.forEach((c, i) => {
-      // the last check stays with the sign-off
-      if (i === checks.length - 1) s.need(checkHeight(c) + s.L.blank.height + 14);
-      check(c);
-    });
-    signOff(sign);
-  };
+/** A check: its title, what to do, and the blanks to fill in (label, unit, width in pt). */
+type Check = [title: string, body: string, blanks: [string, string, number][]];
+/** A check with its body laid out once. */
+type Laid = [title: string, body: TextBlock, blanks: [string, string, number][]];
 
-  group(
-    "2. Before varnish",
+/** Height a laid-out check takes, pt: title, body, and a row of blanks when it has any. */
+function checkHeight(s: Sheet, [, body, blanks]: Laid): number {
+  return s.L.type.subheading * 1.5 + body.height + 4 + (blanks.length ? s.L.blank.height + 10 : 4);
+}
+
+/** Draw one check at the running y: a tick box, its title, its body and its blanks. */
+function drawCheck(s: Sheet, [title, body, blanks]: Laid): void {
+  const T = s.L.type;
+  s.tickBox(s.left, s.y + 1, s.L.tick_box, true);
+  s.at(title, s.left + 24, s.y + 2, { size: T.subheading, bold: true });
+  s.y += T.subheading * 1.5;
+  s.draw(body, s.left + 24, s.y);
+  s.y += body.height + 4;
+  let x = s.left + 24;
+  for (const [label, unit, w] of blanks) {
+    s.blank(x, s.y, w, label, unit);
+    x += w + 14;
+  }
+  s.y += blanks.length ? s.L.blank.height + 10 : 4;
+}
+
+/** Height of a group's sign-off line, pt. */
+const signOffHeight = (s: Sheet) => s.L.blank.height + 14;
+
+/** The sign-off under a group: what passed, checked by, date. */
+function signOff(s: Sheet, what: string): void {
+  s.y += 6;
+  const ys = s.y;
+  s.blank(s.left, ys, 200, what, "");
+  s.blank(s.left + 215, ys, 150, "checked by", "");
+  s.blank(s.left + 380, ys, s.width - 380, "date", "");
+  s.y += s.L.blank.height + 8;
+}
+
+/**
+ * A group of checks under its subheading, closed by its sign-off. It starts below what comes
+ * before when the subheading and its first two checks fit there; it breaks only between checks,
+ * never leaving one check alone on a page, and its last check stays with the sign-off (layout.ts
+ * `pageBreaks`).
+ */
+function checkGroup(s: Sheet, heading: string, written: Check[], sign: string): void {
+  const T = s.L.type;
+  const checks = written.map(([title, body, blanks]): Laid => [title, s.layout(body, { size: T.body, width: s.width - 24 }), blanks]);
+  // the sign-off travels with the last check
+  const heights = checks.map((c, i) => checkHeight(s, c) + (i === checks.length - 1 ? signOffHeight(s) : 0));
+  const subheading = T.subheading * 1.65 + 40; // what `subheading` asks room for besides its check
+  s.need(subheading + heights.slice(0, 2).reduce((a, b) => a + b, 0));
+  s.subheading(heading);
+  const breaks = new Set(pageBreaks(heights, s.room(), s.fullRoom()));
+  checks.forEach((c, i) => {
+    if (breaks.has(i)) s.need(s.bottom);
+    drawCheck(s, c);
+  });
+  signOff(s, sign);
+}
+
+/** The checks before varnish: terminal resistance, ground, growler, polarity. */
+function beforeVarnish(plan: Plan): Check[] {
+  const r = plan.resistance;
+  const C = plan.layout.bars;
+  return [
     [
+      "Terminal resistance",
+      `Across the brushes (or bars ${1} and ${1 + Math.floor(C / 2)}): expected ${ohm(r.terminal_ohm)} Ω at 20 °C, ${r.terminal_min_ohm === null ? `up to ${ohm(r.terminal_max_ohm)} Ω as the rotor turns (no least reading: at some position a + and a − brush touch the same bar and short the supply; read with each brush on one bar)` : `between ${ohm(r.terminal_min_ohm)} and ${ohm(r.terminal_max_ohm)} Ω as the rotor turns`}; ${ohm(r.terminal_hot_ohm)} Ω at ${sig(r.hot_temperature)} °C.`,
       [
-        "Terminal resistance",
-        `Across the brushes (or bars ${1} and ${1 + Math.floor(C / 2)}): expected ${ohm(r.terminal_ohm)} Ω at 20 °C, ${r.terminal_min_ohm === null ? `up to ${ohm(r.terminal_max_ohm)} Ω as the rotor turns (no least reading: at some position a + and a − brush touch the same bar and short the supply; read with each brush on one bar)` : `between ${ohm(r.terminal_min_ohm)} and ${ohm(r.terminal_max_ohm)} Ω as the rotor turns`}; ${ohm(r.terminal_hot_ohm)} Ω at ${sig(r.hot_temperature)} °C.`,
-        [
-          ["reading", "Ω", 150],
-          ["at", "°C", 90],
-        ],
-      ],
-      [
-        "Ground (insulation) check",
-        `Every bar to the shaft and to the core: no continuity. Test with an insulation tester at the voltage the standard your shop follows sets (e.g. IEC 60034-1); this card does not set a test voltage. Trained people only (see Cautions).`,
-        [
-          ["test voltage", "V", 130],
-          ["insulation", "MΩ", 140],
-          ["pass / fail", "", 110],
-        ],
-      ],
-      [
-        "Growler (shorted turns)",
-        `Turn the armature in the growler with a hacksaw blade held over each slot: the blade buzzes over a coil with shorted turns (common practice).`,
-        [["result", "", 260]],
-      ],
-      [
-        "Polarity (reversed coil, wrong lead throw)",
-        `A reversed coil or a wrong lead throw still reads normal bar to bar. Feed a low DC current between two bars (or use the growler) and run a compass along the slots: the needle must reverse evenly, pole by pole, with no coil out of step (common practice).`,
-        [["result", "", 260]],
+        ["reading", "Ω", 150],
+        ["at", "°C", 90],
       ],
     ],
-    "all pass: varnish",
-  );
+    [
+      "Ground (insulation) check",
+      `Every bar to the shaft and to the core: no continuity. Test with an insulation tester at the voltage the standard your shop follows sets (e.g. IEC 60034-1); this card does not set a test voltage. Trained people only (see Cautions).`,
+      [
+        ["test voltage", "V", 130],
+        ["insulation", "MΩ", 140],
+        ["pass / fail", "", 110],
+      ],
+    ],
+    [
+      "Growler (shorted turns)",
+      `Turn the armature in the growler with a hacksaw blade held over each slot: the blade buzzes over a coil with shorted turns (common practice).`,
+      [["result", "", 260]],
+    ],
+    [
+      "Polarity (reversed coil, wrong lead throw)",
+      `A reversed coil or a wrong lead throw still reads normal bar to bar. Feed a low DC current between two bars (or use the growler) and run a compass along the slots: the needle must reverse evenly, pole by pole, with no coil out of step (common practice).`,
+      [["result", "", 260]],
+    ],
+  ];
+}
+
+/** The run after varnish: bar to bar again, then the no-load runs and a brief stall (a series motor: its own checks, card/pages/series.ts). */
+function theRun(plan: Plan): Check[] {
+  const r = plan.resistance;
+  const C = plan.layout.bars;
+  const tol = SPREAD.fraction;
   const m = plan.motor;
   const run: Check[] = [
     [
@@ -246,5 +304,5 @@ export function benchPage(s: Sheet, plan: Plan): void {
       ],
     ]);
   }
-  group("3. After varnish, cure, skim and balance: the run", run, "result");
+  return run;
 }

@@ -7,6 +7,7 @@
 import type { Plan } from "../../design/types.js";
 import type { Sheet } from "../sheet.js";
 import { sig } from "../text.js";
+import { pageBreaks } from "../layout.js";
 import { spoolMassNeeded } from "../../shop/merge.js";
 
 const g = (kg: number) => `${sig(kg * 1e3)} g`;
@@ -60,14 +61,20 @@ export function orderSteps(plan: Plan, spoolMass?: number): [string, string][] {
   ];
 }
 
+/**
+ * The order of work as a checklist: a tick box, the step's title and what to do. It starts below
+ * what comes before it when the heading and its first two steps fit there, and breaks between
+ * steps, never leaving one step alone on a page (layout.ts `pageBreaks`).
+ */
 export function orderPage(s: Sheet, plan: Plan): void {
   const T = s.L.type;
   const steps = orderSteps(plan, s.context.spoolMass);
   const bodies = steps.map(([, body]) => s.layout(body, { size: T.body, width: s.width - 28 }));
   const heights = bodies.map((b) => T.subheading * 1.45 + b.height + 8);
-  s.startSection("Order of work", { needed: heights.reduce((a, b) => a + b, 0) + 10 });
+  s.startSection("Order of work", { needed: heights[0] + heights[1] });
+  const breaks = new Set(pageBreaks(heights, s.room(), s.fullRoom()));
   steps.forEach(([title], i) => {
-    s.need(heights[i]);
+    if (breaks.has(i)) s.need(s.bottom);
     s.tickBox(s.left, s.y + 1, s.L.tick_box, true);
     s.at(`${i + 1}. ${title}`, s.left + 28, s.y + 2, { size: T.subheading, bold: true, width: s.width - 28 });
     s.y += T.subheading * 1.45;
