@@ -16,6 +16,11 @@ import { calibrateOriginal } from "../src/design/calibration.js";
 import { evaluateWinding, makeEvaluator } from "../src/design/evaluate.js";
 import { planJob } from "../src/design/plan.js";
 import { sig } from "../src/format/number.js";
+import { loadYaml } from "../src/job/load.js";
+import { compareReadings } from "../src/logbook/compare.js";
+import { measuredSchema } from "../src/logbook/measured.js";
+import { buildRecord } from "../src/logbook/record.js";
+import { predictWound } from "../src/logbook/predict.js";
 import { ROOT, loadJobText, runMain } from "./helpers/cli.js";
 
 const drillText = readFileSync(join(ROOT, "jobs/drill-lap-0112.yaml"), "utf8");
@@ -183,5 +188,25 @@ describe("unknown is null: a series motor calibrated on its nameplate alone has 
     const j = JSON.parse((await runMain(["plan", "-", "--json"], { input: text })).stdout);
     expect(j.motor.series.rated.efficiency).toBeNull();
     expect(j.motor.series.rated.current_a).toBeGreaterThan(2);
+  });
+});
+
+describe("log judges a series motor's locked-rotor reading against the card's figure, not (V − V_b)/R_a", () => {
+  const job = loadJobText(drillText);
+  const plan = planJob(job);
+  const p = predictWound(job, plan, undefined);
+  const readings = readFileSync(join(ROOT, "jobs/measured/drill-lap-0112.yaml"), "utf8");
+  const measured = (extra: string) => loadYaml(`${readings}${extra}`, "m.yaml", measuredSchema).value;
+  it("at the check voltage and 20 °C the expected current is the card's (the series model through armature and field with their reactance)", () => {
+    const m = measured("stall: { supply: 40 V, current: 0.98 A }\n");
+    const cold = compareReadings(p, { ...m, temperature: 20 }, true).comparison.checks.find((c) => c.check === "stall.current")!;
+    expect(cold.predicted_value).toBeCloseTo(plan.series!.rewound.lockedRotorCurrent!, 12);
+    expect(cold.verdict).toBe("ok");
+    // the armature alone would have said (40 − 2)/7.45 ≈ 5.1 A
+    expect(cold.predicted_value!).toBeLessThan(1.2);
+  });
+  it("the logbook record holds no stall figure at the mains supply", () => {
+    const rec = buildRecord(job, plan, p, measured(""), "2026-12-02T00:00:00.000Z");
+    expect(rec.predicted.stall_current_a).toBeNull();
   });
 });

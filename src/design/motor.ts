@@ -41,6 +41,12 @@ export interface MotorPhysics {
   noLoad(ke: number | null, turns: number, r20: number, factor: number, V: number): { speed: number; current: number | null } | null;
   /** Stall current (A) at supply V, winding at R(T)/R20 = `factor`; null when the model cannot say (never for a series motor at its supply). */
   stallCurrent(ke: number | null, turns: number, r20: number, factor: number, V: number): number | null;
+  /**
+   * The current (A) with the rotor held at supply V (a bench's locked-rotor or brief stall check at a
+   * reduced voltage), winding at R(T)/R20 = `factor`; null when the model cannot say. Needs no Ke:
+   * with the rotor still there is no back-EMF.
+   */
+  lockedRotor(turns: number, r20: number, factor: number, V: number): number | null;
   /** The steady point at load torque T (N·m), winding at R(T)/R20 = `factor`; null beyond stall or when the model cannot say. */
   atTorque(ke: number | null, turns: number, r20: number, factor: number, V: number, T: number): OperatingPoint | null;
   /** Every figure of the report for a winding, hot where the figure is hot (`hotFactor`). */
@@ -94,6 +100,7 @@ export function constantField(cal: Calibration): MotorPhysics {
       return { speed: nl.speed, current: cal.loss_known ? nl.current + shuntCurrent(cal, V, factor) : null };
     },
     stallCurrent: (ke, _turns, r20, factor, V) => (ke === null ? null : stallCurrent(r20 * factor, cal.brush_drop, V)),
+    lockedRotor: (_turns, r20, factor, V) => stallCurrent(r20 * factor, cal.brush_drop, V),
     atTorque: (ke, _turns, r20, factor, V, T) => (ke === null ? null : pointAtTorque(modelOf(ke, r20 * factor, cal, "constant"), V, T)),
     report(ke, _turns, r20, hotFactor, V) {
       const rHot = r20 * hotFactor;
@@ -127,6 +134,7 @@ export const SERIES_ARMATURE_ONLY: MotorPhysics = {
   canPredict: () => false,
   noLoad: () => null,
   stallCurrent: () => null,
+  lockedRotor: () => null,
   atTorque: () => null,
   report: (ke, _turns, r20, hotFactor) => unknownReport(ke, r20 * hotFactor),
 };

@@ -349,6 +349,7 @@ export function seriesPhysics(job: Job, setup: SeriesSetup, originalTurns: numbe
     return rescaleSeries(base, { armature: turns / originalTurns, field }, r20 * factor, setup.rf20 * field * field * factor);
   };
   const lossKnown = setup.cal?.lossKnown ?? false;
+  const checkFrequency = figures.check?.supply.frequency ?? frequency;
   return {
     field: "series",
     lossKnown,
@@ -356,6 +357,9 @@ export function seriesPhysics(job: Job, setup: SeriesSetup, originalTurns: numbe
     canPredict: () => calibrated,
     noLoad: () => null,
     stallCurrent: () => null,
+    // at the check's frequency (a bench's variable transformer, or DC); on AC only when the inductance is known
+    lockedRotor: (turns, r20, factor, V) =>
+      checkFrequency > 0 && !setup.inductanceKnown ? null : lockedRotorCurrent(motorOf(turns, r20, factor), { volts: V, frequency: checkFrequency }),
     atTorque: (_ke, turns, r20, factor, V, T) => (calibrated ? pointAtTorqueSeries(motorOf(turns, r20, factor), { volts: V, frequency }, T) : null),
     report(ke, turns, r20, hotFactor, V, side: ReportSide) {
       const supply = side === "original" ? setup.originalSupply : { volts: V, frequency };

@@ -344,6 +344,7 @@ function stallCheck(p: Prediction, m: Measured): CheckRow {
   const st = STALL_CURRENT;
   if (!m.stall) return notChecked("stall.current", "A", null, st, "not run");
   const pred = predictStall(p, m.stall.supply, m.temperature);
+  if (pred === null) return notChecked("stall.current", "A", null, st, "no expected figure: the series field is not described (field_winding)");
   const dev = m.stall.current / pred - 1;
   return {
     check: "stall.current",

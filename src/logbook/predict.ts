@@ -13,7 +13,6 @@ import type { PlanOptions } from "../design/plan.js";
 import { buildContext, type ArmatureContext } from "../design/context.js";
 import { evaluateWinding, type FullEvaluation } from "../design/evaluate.js";
 import { motorPhysicsFor } from "../design/motor.js";
-import { stallCurrent } from "../motor/model.js";
 import { resolveWire } from "../wire/catalogue.js";
 import type { Wire, WireSpec } from "../wire/types.js";
 import { copperFactor } from "../wire/copper.js";
@@ -109,7 +108,12 @@ export function predictNoLoad(p: Prediction, V: number, tC: number): { speed: nu
   return motorPhysicsFor(p.job, p.calibration, p.original_turns).noLoad(p.ke, p.turns, p.terminal.single, copperFactor(tC), V);
 }
 
-/** Predicted brief stall current (A) at supply V (V), winding at tC °C: (V − V_brush)/R (src/motor/model.ts `stallCurrent`). */
-export function predictStall(p: Prediction, V: number, tC: number): number {
-  return stallCurrent(p.terminal.single * copperFactor(tC), p.brush_drop, V);
+/**
+ * Predicted current with the rotor held (A) at supply V (V), winding at tC °C, from the job's motor
+ * model (src/design/motor.ts `lockedRotor`): (V − V_brush)/R for a constant field; a series motor's
+ * through armature and field (and on AC their reactance) at the card's check frequency; null when the
+ * model cannot say (a series field the job does not describe).
+ */
+export function predictStall(p: Prediction, V: number, tC: number): number | null {
+  return motorPhysicsFor(p.job, p.calibration, p.original_turns).lockedRotor(p.turns, p.terminal.single, copperFactor(tC), V);
 }

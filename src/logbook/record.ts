@@ -156,7 +156,8 @@ export function buildRecord(job: Job, plan: Plan, prediction: Prediction, m: Mea
       kv_rpm_per_v: p.ke === null ? null : kvFromKe(p.ke),
       no_load_speed_rpm: nl ? toRpm(nl.speed) : null,
       no_load_current_a: nl ? nl.current : null,
-      stall_current_a: p.ke === null && !p.series ? null : predictStall(p, supply, hot),
+      // never a stall figure at a series motor's supply (docs "Series and universal motors")
+      stall_current_a: p.ke === null || p.series ? null : predictStall(p, supply, hot),
       brush_drop_v: p.brush_drop,
       loss_torque_n_m: p.loss.tc,
       loss_viscous_n_m_s_per_rad: p.loss.b,
