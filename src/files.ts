@@ -15,8 +15,11 @@
 import { closeSync, constants, existsSync, fstatSync, mkdirSync, openSync, readdirSync, readSync, statSync, unlinkSync, type Stats } from "node:fs";
 import { hostname } from "node:os";
 import { dirname, join, resolve } from "node:path";
-import { randomBytes } from "node:crypto";
+import { createRequire } from "node:module";
 import { ArmwindError } from "./errors.js";
+
+/** node:crypto, loaded when a file is first written (loading it is about 10 ms, which reading commands need not spend). */
+const crypto = () => createRequire(import.meta.url)("node:crypto") as typeof import("node:crypto");
 
 /** Job, measured and shop-profile files, and standard input: 1 MiB (the largest real job, a 400-bar armature with a long wire shelf, is under 20 KiB). */
 export const TEXT_FILE_LIMIT = 1024 * 1024;
@@ -162,7 +165,7 @@ export function tempHost(): string {
 
 /** A temporary name for `base` in `dir`: hidden, with this host and process, never a record's or card's name. */
 export function tempName(dir: string, base: string): string {
-  return join(dir, `.${base}.${tempHost()}.${process.pid}.${randomBytes(6).toString("hex")}.tmp`);
+  return join(dir, `.${base}.${tempHost()}.${process.pid}.${crypto().randomBytes(6).toString("hex")}.tmp`);
 }
 
 const TEMP = /^\.(.+)\.([A-Za-z0-9-]+)\.(\d+)\.[0-9a-f]{12}\.tmp$/;
