@@ -1,0 +1,2 @@
+import { benchStartup } from "./startup.js";
+benchStartup(9);
