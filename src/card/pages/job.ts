@@ -1,4 +1,4 @@
-/** Page 1, the job: who and what, THE WINDING in large type, the cut list, what it will read and do, the lead throw, warnings. */
+/** Page 1 of the card, the job (src/card/render.ts draws the sections in the layout file's order). */
 import { KV_DEFINITIONS, kvRows } from "../../format/kv.js";
 import type { MotorReport, Plan } from "../../design/types.js";
 import type { Sheet } from "../sheet.js";
@@ -6,11 +6,28 @@ import { calibrationText, fieldText, goalName, goalSummary, mltSourceText, mm, o
 import { seriesMotorRows, supplyText } from "./series.js";
 import { spoolMassNeeded } from "../../shop/merge.js";
 
+/**
+ * Page 1, the job: who and what, THE WINDING in large type, the lead throw to copy, the armature,
+ * the cut list (or the spool for a continuous winding), what it will read and do, warnings and notes.
+ */
 export function jobPage(s: Sheet, plan: Plan): void {
+  jobHeader(s, plan);
+  if (!plan.feasible) infeasibleBox(s, plan);
+  windingBox(s, plan);
+  const sp = plan.layout.spec;
+  if (sp.style !== "tooth" || sp.lead_throw !== 0) leadThrowBox(s, plan);
+  armatureAndWinding(s, plan);
+  cutList(s, plan);
+  expectedResults(s, plan);
+  motorTable(s, plan);
+  motorBasis(s, plan);
+  warningsAndNotes(s, plan);
+}
+
+/** The card's header (with the shop and bench from the profile), the job id, title, customer and notes. */
+function jobHeader(s: Sheet, plan: Plan): void {
   const j = plan.job;
   const T = s.L.type;
-  const d = plan.design;
-  const sp = plan.layout.spec;
   s.newPage();
   const where = [s.context.shop, s.context.bench ? `bench ${s.context.bench}` : undefined].filter(Boolean).join("  ·  ");
   s.at(`ARMATURE REWIND — JOB CARD${where ? `  ·  ${where}` : ""}`, s.left, s.y, { size: T.small, bold: true, grey: 0.35, width: s.width });
@@ -20,21 +37,27 @@ export function jobPage(s: Sheet, plan: Plan): void {
   if (j.customer) s.para(`Customer: ${j.customer}`, { size: T.body, after: 2 });
   if (j.notes) s.para(`Notes: ${j.notes}`, { size: T.body, grey: 0.3, after: 2 });
   s.y += 4;
+}
 
-  if (!plan.feasible) {
-    s.framed(
-      (x, y, w) => {
-        const h1 = s.at("CLOSEST WINDING — DOES NOT MEET THE GOAL", x, y, { size: 15, bold: true, width: w });
-        const why = plan.binding ?? "no candidate within the limits reaches the goal";
-        const text = `${why.charAt(0).toUpperCase()}${why.slice(1)}. Goal ${goalName(plan)}: ${goalSummary(plan.goal)}. Decide with the customer before winding.`;
-        const h2 = s.at(text, x, y + h1 + 3, { size: T.body, width: w });
-        return h1 + 3 + h2;
-      },
-      { heavy: true, estimate: 60 },
-    );
-  }
+/** A heavy box saying the winding shown is the closest, not one that meets the goal, and why. */
+function infeasibleBox(s: Sheet, plan: Plan): void {
+  const T = s.L.type;
+  s.framed(
+    (x, y, w) => {
+      const h1 = s.at("CLOSEST WINDING — DOES NOT MEET THE GOAL", x, y, { size: 15, bold: true, width: w });
+      const why = plan.binding ?? "no candidate within the limits reaches the goal";
+      const text = `${why.charAt(0).toUpperCase()}${why.slice(1)}. Goal ${goalName(plan)}: ${goalSummary(plan.goal)}. Decide with the customer before winding.`;
+      const h2 = s.at(text, x, y + h1 + 3, { size: T.body, width: w });
+      return h1 + 3 + h2;
+    },
+    { heavy: true, estimate: 60 },
+  );
+}
 
-  // THE WINDING
+/** THE WINDING: turns, wire and strands in large type, with the wire's sizes, the fill and build, and the goal. */
+function windingBox(s: Sheet, plan: Plan): void {
+  const T = s.L.type;
+  const d = plan.design;
   s.framed(
     (x, y, w) => {
       s.at(plan.feasible ? "WIND" : "CLOSEST WINDING", x, y, { size: T.label, bold: true });
@@ -63,24 +86,30 @@ export function jobPage(s: Sheet, plan: Plan): void {
     },
     { heavy: true, pad: 10, estimate: 150 },
   );
+}
 
-  // lead throw: the one thing to copy from the old winding
-  if (sp.style !== "tooth" || sp.lead_throw !== 0) {
-    s.framed(
-      (x, y, w) => {
-        const head = `COPY FROM THE OLD WINDING — LEAD THROW ${String(sp.lead_throw).replace("-", "−")} BAR${Math.abs(sp.lead_throw) === 1 ? "" : "S"}`;
-        const hh = s.at(head, x, y, { size: T.subheading + 1, bold: true, width: w });
-        const text =
-          `Bar 1 sits ${String(sp.lead_throw).replace("-", "−")} bar${Math.abs(sp.lead_throw) === 1 ? "" : "s"} clockwise (seen from the commutator end; negative = anticlockwise) from the bar on coil 1's centre line, midway between its slots ${plan.coils[0].go_slot} and ${plan.coils[0].return_slot}. ` +
-          `It sets the brush neutral: copy it from the old armature (slots and bars marked before stripping), never guess it. A wrong lead throw reads normal bar to bar but sparks and runs poorly.`;
-        const h = s.at(text, x, y + hh + 3, { size: T.body, width: w });
-        return hh + 3 + h;
-      },
-      { heavy: false, estimate: 60 },
-    );
-  }
+/** The lead throw, the one thing to copy from the old winding, in a box of its own. */
+function leadThrowBox(s: Sheet, plan: Plan): void {
+  const T = s.L.type;
+  const sp = plan.layout.spec;
+  s.framed(
+    (x, y, w) => {
+      const head = `COPY FROM THE OLD WINDING — LEAD THROW ${String(sp.lead_throw).replace("-", "−")} BAR${Math.abs(sp.lead_throw) === 1 ? "" : "S"}`;
+      const hh = s.at(head, x, y, { size: T.subheading + 1, bold: true, width: w });
+      const text =
+        `Bar 1 sits ${String(sp.lead_throw).replace("-", "−")} bar${Math.abs(sp.lead_throw) === 1 ? "" : "s"} clockwise (seen from the commutator end; negative = anticlockwise) from the bar on coil 1's centre line, midway between its slots ${plan.coils[0].go_slot} and ${plan.coils[0].return_slot}. ` +
+        `It sets the brush neutral: copy it from the old armature (slots and bars marked before stripping), never guess it. A wrong lead throw reads normal bar to bar but sparks and runs poorly.`;
+      const h = s.at(text, x, y + hh + 3, { size: T.body, width: w });
+      return hh + 3 + h;
+    },
+    { heavy: false, estimate: 60 },
+  );
+}
 
-  // armature and winding
+/** The armature and the winding side by side as key–value pairs. */
+function armatureAndWinding(s: Sheet, plan: Plan): void {
+  const j = plan.job;
+  const sp = plan.layout.spec;
   s.subheading("Armature and winding");
   const slotArea = `${sig(plan.slot.gross_area * 1e6)} mm² gross, ${sig(plan.slot.free_area * 1e6)} mm² free after the liner`;
   const arm: [string, string][] = [
@@ -111,10 +140,11 @@ export function jobPage(s: Sheet, plan: Plan): void {
   const h1 = s.pairs(arm, s.left, s.y, s.width / 2 - 8, { keyWidth: 92 });
   const h2 = s.pairs(win, s.left + s.width / 2 + 8, s.y, s.width / 2 - 8, { keyWidth: 92 });
   s.y += Math.max(h1, h2) + 6;
+}
 
-  cutList(s, plan);
-
-  // expected results
+/** What the winding will read on the bench (coil, bar to bar, terminal cold and hot), with the notes on where those figures hold. */
+function expectedResults(s: Sheet, plan: Plan): void {
+  const T = s.L.type;
   s.subheading("Expected results");
   const r = plan.resistance;
   const res: [string, string][] = [
@@ -126,7 +156,11 @@ export function jobPage(s: Sheet, plan: Plan): void {
   s.need(60);
   s.y += s.pairs(res, s.left, s.y, s.width, { keyWidth: 100 }) + 6;
   for (const v of r.validity) s.para(`Note: ${v}`, { size: T.small });
-  motorTable(s, plan);
+}
+
+/** Where the motor figures come from: the calibration and its uncertainty, or a series motor's basis; the brush drop. */
+function motorBasis(s: Sheet, plan: Plan): void {
+  const T = s.L.type;
   const c = plan.calibration;
   if (plan.series) {
     const sp = plan.series;
@@ -140,8 +174,11 @@ export function jobPage(s: Sheet, plan: Plan): void {
         `${c.uncertainty !== null ? `, uncertainty about ±${sig(c.uncertainty * 100, 2)} % in Ke` : ", uncertainty not known"}. ${c.basis}. Brush drop: ${c.brush_drop_basis}.`,
       { size: T.small, grey: 0.25 },
     );
+}
 
-  // warnings and notes
+/** The plan's warnings, the notes on this winding, and what the logbook corrected. */
+function warningsAndNotes(s: Sheet, plan: Plan): void {
+  const T = s.L.type;
   if (plan.warnings.length) {
     s.subheading(`Warnings (${plan.warnings.length})`);
     for (const wn of plan.warnings) s.para(`▲ ${wn.path ? wn.path + ": " : ""}${wn.message} [${wn.code}]`, { size: T.body, after: 3 });
@@ -158,6 +195,11 @@ export function jobPage(s: Sheet, plan: Plan): void {
   }
 }
 
+/**
+ * The motor, original against new: winding, terminal resistance, Kv in both senses (or a series
+ * motor's rated-load and locked-rotor figures), no-load, stall, efficiency, output, and the duty
+ * point when the job gives one; kept whole on one page.
+ */
 function motorTable(s: Sheet, plan: Plan): void {
   const o = plan.original_motor;
   const m = plan.motor;
