@@ -1,2 +1,0 @@
-import { benchStartup } from "./startup.js";
-benchStartup(9);
