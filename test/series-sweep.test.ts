@@ -205,6 +205,15 @@ describe("log judges a series motor's locked-rotor reading against the card's fi
     // the armature alone would have said (40 − 2)/7.45 ≈ 5.1 A
     expect(cold.predicted_value!).toBeLessThan(1.2);
   });
+  it("a universal motor's brief no-load run is judged against the card's figure", () => {
+    const nl = plan.series!.noLoad!;
+    const m = measured(`no_load: { supply: 230 V, current: ${nl.current} A, speed: ${(nl.speed * 60) / (2 * Math.PI)} rpm }\n`);
+    const checks = compareReadings(p, { ...m, temperature: 20 }, true).comparison.checks;
+    const speed = checks.find((c) => c.check === "no_load.speed")!;
+    expect(speed.predicted_value).toBeCloseTo((nl.speed * 60) / (2 * Math.PI), 6);
+    expect(speed.verdict).toBe("ok");
+    expect(checks.find((c) => c.check === "no_load.current")!.predicted_value).toBeCloseTo(nl.current, 9);
+  });
   it("the logbook record holds no stall figure at the mains supply", () => {
     const rec = buildRecord(job, plan, p, measured(""), "2026-12-02T00:00:00.000Z");
     expect(rec.predicted.stall_current_a).toBeNull();

@@ -82,6 +82,19 @@ describe("applyEdits on lists and one-line maps (the form's list rows and varian
     expect(shelf).toBe(blind.replace("  - 32 AWG heavy\n", "").replace("  - 33 AWG heavy\n", "  - 33 AWG heavy\n  - 0.18 mm grade 2\n"));
   });
 
+  it("the last row removed takes its key with it: no list is the same as no rows (the whole catalogue, no tests)", () => {
+    const a = applyEdits(blind, [{ path: "original.tests[0]", text: "" }]);
+    expect(a).not.toContain("tests:");
+    expect(loadJobText(a).original.tests).toBeUndefined();
+    const b = applyEdits(
+      blind,
+      [0, 1, 2, 3, 4].map(() => ({ path: "wire_stock[0]", text: "" })),
+    );
+    expect(b).not.toContain("wire_stock");
+    expect(loadJobText(b).wire_stock).toBeUndefined();
+    expect(applyEdits("a: 1\nb: [x]\n", [{ path: "b[0]", text: "" }])).toBe("a: 1\n");
+  });
+
   it("refuses a row beyond the list's end (the form numbers rows from 0 without gaps)", () => {
     expect(() => applyEdits(blind, [{ path: "original.tests[3]", text: "{ supply: 6 V }" }])).toThrow(/a new one goes at \[1\]/);
   });

@@ -333,8 +333,9 @@ function jobFigures(job: Job, setup: SeriesSetup): SeriesJobFigures {
  * field's, L_a × its square, R_a the winding's own terminal resistance; the field stays, or is
  * rewound to `rewound_turns_per_pole`, or for `goal: convert` follows the armature's ratio in the
  * same copper (R_f × ratio²). Resistances at R(T)/R20 = `factor` (IEC 60028), both armature and
- * field. No stall figure at the supply and no constant-field no-load point: a series motor's
- * running figures are at a load torque. Sources: src/motor/series.ts.
+ * field. No stall figure at the supply; a no-load point only for a universal motor (AC), run
+ * briefly in its housing with its own fan; a series DC motor's running figures are at a load
+ * torque only. Sources: src/motor/series.ts.
  */
 export function seriesPhysics(job: Job, setup: SeriesSetup, originalTurns: number): MotorPhysics {
   const convert = job.target.goal === "convert";
@@ -355,7 +356,12 @@ export function seriesPhysics(job: Job, setup: SeriesSetup, originalTurns: numbe
     lossKnown,
     series: figures,
     canPredict: () => calibrated,
-    noLoad: () => null,
+    // a universal motor's brief no-load run in its housing (the card's figure, log's check); never a series DC motor's
+    noLoad(_ke, turns, r20, factor, V) {
+      if (!calibrated || frequency === 0) return null;
+      const p = pointAtTorqueSeries(motorOf(turns, r20, factor), { volts: V, frequency }, 0);
+      return p === null ? null : { speed: p.speed, current: lossKnown ? p.current : null };
+    },
     stallCurrent: () => null,
     // at the check's frequency (a bench's variable transformer, or DC); on AC only when the inductance is known
     lockedRotor: (turns, r20, factor, V) =>

@@ -294,7 +294,9 @@ function noLoadChecks(p: Prediction, m: Measured, derived: Derived, notes: strin
   }
   const out: CheckRow[] = [];
   const pr = predictNoLoad(p, m.no_load.supply, T);
-  const why = p.series ? "a series or universal motor has no safe no-load speed to predict" : "nothing calibrates Ke";
+  const why = p.series
+    ? "a series DC motor has no safe no-load speed to predict (a universal motor's needs its field data and running tests)"
+    : "nothing calibrates Ke";
   if (pr) {
     const ds = m.no_load.speed / pr.speed - 1;
     out.push({

@@ -102,10 +102,15 @@ export function predictWound(job: Job, plan: Plan, wound: WoundInput | undefined
   };
 }
 
-/** Predicted no-load speed (rad/s) and current (A) at supply V (V), winding at tC °C (the job's motor model); null without Ke or for a series field. */
+/**
+ * Predicted no-load speed (rad/s) and current (A) at supply V (V), winding at tC °C (the job's motor
+ * model); null when it cannot predict one: no Ke, a series DC motor (never run unloaded), a series
+ * field the job does not describe. A universal motor's is its brief run in its housing (the card's).
+ */
 export function predictNoLoad(p: Prediction, V: number, tC: number): { speed: number; current: number | null } | null {
-  if (p.ke === null) return null;
-  return motorPhysicsFor(p.job, p.calibration, p.original_turns).noLoad(p.ke, p.turns, p.terminal.single, copperFactor(tC), V);
+  const physics = motorPhysicsFor(p.job, p.calibration, p.original_turns);
+  if (!physics.canPredict(p.ke)) return null;
+  return physics.noLoad(p.ke, p.turns, p.terminal.single, copperFactor(tC), V);
 }
 
 /**

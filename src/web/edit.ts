@@ -134,7 +134,9 @@ function appendItem(text: string, seq: YAMLSeq, value: string): string {
 function remove(text: string, doc: Document, path: (string | number)[]): string {
   const parent = (path.length > 1 ? doc.getIn(path.slice(0, -1), true) : doc.contents) as Node | null;
   const key = path[path.length - 1];
-  if (isSeq(parent) && typeof key === "number") return removeItem(text, parent, key);
+  // the last row of a list goes with its key: a list left empty would read as null (or break minItems); no key is "none"
+  if (isSeq(parent) && typeof key === "number")
+    return parent.items.length === 1 && key === 0 && path.length > 1 ? remove(text, doc, path.slice(0, -1)) : removeItem(text, parent, key);
   if (!isMap(parent)) return text;
   const pair = pairOf(parent, key);
   if (!pair || !isScalar(pair.key) || !pair.key.range) return text;

@@ -139,7 +139,8 @@ function showVariant(u, k, carry) {
   const from = variants.find((v) => !v.hidden);
   const to = variants[k];
   if (carry && from && from !== to && !$$("[data-field]", to).some((e) => e.value.trim() !== "")) {
-    const src = $$("[data-field]", from).find((e) => e.value.trim() !== "");
+    // only a plain quantity carries over ("230 V", "0.03"): a wire's name is not a measured diameter
+    const src = $$("[data-field]", from).find((e) => /^\s*[+-]?(\d+\.?\d*|\.\d+)\s*[^\s\d]*\s*$/.test(e.value));
     const inputs = $$("input[data-field]", to);
     // a bare value goes into the map's required fields (the value, the bare diameter), or into each when none is required (below and above)
     const required = inputs.filter((e) => !e.closest(".field")?.querySelector("label .opt"));
