@@ -137,6 +137,20 @@ describe("text laid out once, drawn as laid out (issue 15 item 2)", () => {
       expect(b.height).toBeCloseTo(s.doc.heightOfString(cut, { width, lineGap: 1 }), 6);
     }
   });
+  it("a command on the card never breaks between -- and its option, nor inside a <placeholder> (word joiners)", async () => {
+    const { command } = await import("../src/card/text.js");
+    const s = new Sheet(L, "a4", INFO);
+    s.newPage();
+    const text = `Record it with ${command("armwind log <job file> --measured <that file>")} now.`;
+    for (let width = 60; width <= 420; width += 3) {
+      const lines = s.layout(text, { size: 9.5, width }).lines.map((l) => l.text.replace(/\u2060/g, "").trim());
+      for (const l of lines) {
+        expect(l, `width ${width}`).not.toMatch(/--$/);
+        expect((l.match(/</g) ?? []).length, `width ${width}: ${l}`).toBe((l.match(/>/g) ?? []).length);
+      }
+      expect(lines.join(" ")).toContain("--measured <that file>");
+    }
+  });
   it("drawing a laid-out block writes the same page as pdfkit's text() (the two private steps it calls are pdfkit 0.20's)", async () => {
     const draw = async (once: boolean) => {
       const s = new Sheet(L, "a4", INFO);
