@@ -1,10 +1,11 @@
 /** The card's pure helpers: tally grouping from the layout file, the WOFF unpacker, brush angles, axis ticks. */
 import { describe, expect, it } from "vitest";
 import fc from "fast-check";
-import { readFileSync } from "node:fs";
+import { existsSync, readdirSync, readFileSync } from "node:fs";
+import { join } from "node:path";
 import { createRequire } from "node:module";
 import { cardLayout, layoutProblems, pageBreaks, tallyBoxes, tallyGroups } from "../src/card/layout.js";
-import { FONT_FILES, SHAPING_TABLES, cardFonts, woffToSfnt } from "../src/card/fonts.js";
+import { FONT_FILES, SHAPING_TABLES, UNPACKED_DIR, cardFonts, unpackFont, woffToSfnt } from "../src/card/fonts.js";
 import { ticksFromZero as niceTicks } from "../src/plot/ticks.js";
 import { needsFourWire } from "../src/card/pages/bench.js";
 import { Sheet } from "../src/card/sheet.js";
@@ -70,6 +71,16 @@ describe("fonts", () => {
       expect(font.layout("Ω 1.57").glyphs.length).toBe(6);
     }
   });
+  it("the fonts the build unpacked, when there are any, are what unpacking gives now (else rebuild: npm run build)", () => {
+    const fresh = { regular: unpackFont("regular"), bold: unpackFont("bold") };
+    const got = cardFonts();
+    expect(got.regular.equals(fresh.regular)).toBe(true);
+    expect(got.bold.equals(fresh.bold)).toBe(true);
+    for (const f of existsSync(UNPACKED_DIR) ? readdirSync(UNPACKED_DIR) : []) {
+      const weight = f.split("-")[0] as "regular" | "bold";
+      expect(readFileSync(join(UNPACKED_DIR, f)).equals(fresh[weight]), f).toBe(true);
+    }
+  });
   it("the card's fonts name no glyphs ('post' 3.0) and keep the 'post' header the card reads (OpenType spec, 'post')", () => {
     const fontkit = createRequire(import.meta.url)("fontkit");
     for (const file of Object.values(FONT_FILES)) {
@@ -124,6 +135,20 @@ describe("text laid out once, drawn as laid out (issue 15 item 2)", () => {
       // the same text as pdfkit measures it (cut the same way first)
       const cut = b.lines.map((l) => l.text).join("");
       expect(b.height).toBeCloseTo(s.doc.heightOfString(cut, { width, lineGap: 1 }), 6);
+    }
+  });
+  it("a command on the card never breaks between -- and its option, nor inside a <placeholder> (word joiners)", async () => {
+    const { command } = await import("../src/card/text.js");
+    const s = new Sheet(L, "a4", INFO);
+    s.newPage();
+    const text = `Record it with ${command("armwind log <job file> --measured <that file>")} now.`;
+    for (let width = 60; width <= 420; width += 3) {
+      const lines = s.layout(text, { size: 9.5, width }).lines.map((l) => l.text.replace(/\u2060/g, "").trim());
+      for (const l of lines) {
+        expect(l, `width ${width}`).not.toMatch(/--$/);
+        expect((l.match(/</g) ?? []).length, `width ${width}: ${l}`).toBe((l.match(/>/g) ?? []).length);
+      }
+      expect(lines.join(" ")).toContain("--measured <that file>");
     }
   });
   it("drawing a laid-out block writes the same page as pdfkit's text() (the two private steps it calls are pdfkit 0.20's)", async () => {

@@ -67,6 +67,15 @@ export const calibrationText: Record<string, string> = {
   none: "nothing: speed and torque figures unknown",
 };
 
+/**
+ * A command as printed on the card: a word joiner (U+2060, zero width) after each option's dashes
+ * and inside each `<placeholder>`, so a line never breaks between "--" and the option's name, nor
+ * inside a placeholder (Unicode UAX #14: no break before or after WJ). It prints as the plain command.
+ */
+export function command(text: string): string {
+  return text.replace(/--(?=\w)/g, "--\u2060").replace(/<([^<>]*)>/g, (_, inner: string) => `<${inner.replace(/ /g, "\u2060 \u2060")}>`);
+}
+
 /** A dead coil's instruction, as the trade does it. */
 export const DEAD_COIL = "dead coil: wind, cut and insulate both ends, hook to nothing";
 

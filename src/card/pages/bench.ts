@@ -111,7 +111,7 @@ function readingsTable(s: Sheet, plan: Plan, windows: Windows): void {
   const fits = (n: number) => ((s.width - (n - 1) * 12) / n) * 0.29 - 4 >= widest;
   const sets = Math.max(1, B.column_sets) > 1 && fits(Math.max(1, B.column_sets)) ? Math.max(1, B.column_sets) : 1;
   const setW = (s.width - (sets - 1) * 12) / sets;
-  const cols = [0.11, 0.15, 0.21, 0.29, 0.24].map((f) => f * setW);
+  const cols = [0.09, 0.15, 0.23, 0.29, 0.24].map((f) => f * setW);
   const rows = plan.resistance.bar_to_bar.map((v, i) => ({ i: i + 1, bars: `${i + 1}–${i + 2 > C ? 1 : i + 2}`, v }));
   const rh = B.row_height;
   const header = (y: number) => {

@@ -569,7 +569,7 @@ function developedCaption(s: Sheet, plan: Plan): void {
   s.para(
     `Unrolled, seen from outside with the commutator at the bottom (this whole page); slots and bars numbered left to right, which is clockwise seen from the commutator end. Across the top, the ${plan.job.armature.field === "permanent_magnet" ? "magnets" : "field poles"} (N grey, S white; which is which depends on the supply's polarity); grey blocks B under the bars are the brushes at their width. ` +
       `Each coil runs from its start bar up to its go slot (top layer), over the back end to its return slot (bottom layer) and down to its finish bar; ${shown}; coil 1 is the heavy line. ` +
-      `${lay.spec.style === "wave" ? `Wave: each coil's finish goes ${sig(lay.commutator_pitch)} bars on from its start. ` : ""}` +
+      `${lay.spec.style === "wave" ? `Wave: each coil's finish goes ${num(lay.commutator_pitch)} bars on from its start. ` : ""}` +
       `The rotor is drawn where coil 1 commutates: brush B1 bridges bars 1 and 2 (a brush always bridges two adjacent bars)${lay.spec.brushes.count > 1 ? ", the others one pole pitch apart" : ""}. Bar 1 is shaded.`,
     { size: s.L.type.body },
   );

@@ -127,9 +127,10 @@ function armatureAndWinding(s: Sheet, plan: Plan): void {
   ];
   if (sp.style !== "tooth") {
     win.push(["coils per slot u", String(sp.coils_per_slot)]);
+    win.push(["progression", sp.progression]);
     win.push([
-      "progression",
-      `${sp.progression}, commutator pitch ${Number.isInteger(plan.layout.commutator_pitch) ? plan.layout.commutator_pitch : sig(plan.layout.commutator_pitch)}`,
+      "commutator pitch",
+      `${Number.isInteger(plan.layout.commutator_pitch) ? plan.layout.commutator_pitch : sig(plan.layout.commutator_pitch)} bar${plan.layout.commutator_pitch === 1 ? "" : "s"}`,
     ]);
     if (sp.dead_coil) win.push(["dead coil", "yes (one coil wound, not connected)"]);
   } else win.push(["direction", `${sp.direction === "cw" ? "clockwise" : "anticlockwise"} round each tooth`]);

@@ -6,7 +6,7 @@
  */
 import type { Plan } from "../../design/types.js";
 import type { Sheet } from "../sheet.js";
-import { sig } from "../text.js";
+import { command, sig } from "../text.js";
 import { pageBreaks } from "../layout.js";
 import { spoolMassNeeded } from "../../shop/merge.js";
 
@@ -56,7 +56,7 @@ export function orderSteps(plan: Plan, spoolMass?: number): [string, string][] {
     ],
     [
       "Record it",
-      `armwind new measured <job file> writes the readings file to fill in; armwind log <job file> --measured <that file> keeps it in the logbook.`,
+      `${command("armwind new measured <job file>")} writes the readings file to fill in; ${command("armwind log <job file> --measured <that file>")} keeps it in the logbook.`,
     ],
   ];
 }

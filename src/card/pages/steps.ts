@@ -95,12 +95,33 @@ export function stepsPage(s: Sheet, plan: Plan): void {
       : "";
   s.para(`${intro}${continuous} ${viewingConvention(plan.layout)}`, { size: T.body });
   s.para(
-    `${plan.design.turns} turns per coil of ${plan.design.wire.label}${plan.design.strands > 1 ? `, ${plan.design.strands} strands in hand (count a turn of all strands as one)` : ""}.`,
+    `${plan.coils.length} coils of ${plan.design.turns} turns of ${plan.design.wire.label}${plan.design.strands > 1 ? `, ${plan.design.strands} strands in hand (count a turn of all strands as one)` : ""}. When all are wound, every bar holds two leads${plan.coils.some(isDead) ? " (the dead coil's ends go to none)" : ""}: check them against the bench sheet before soldering.`,
     { size: T.body + 1, bold: true },
   );
 
+  coilTable(s, plan);
+}
+
+/** The x of each column of the coil table, pt. */
+interface Columns {
+  tick: number;
+  coil: number;
+  start: number;
+  slots: number;
+  finish: number;
+  tally: number;
+}
+
+/**
+ * The coil table: one row per coil in winding order (tick box, coil, start bar, route, finish bar,
+ * tally), each row laid out whole before it is placed and never split across pages; the header
+ * repeats on each page; widow control breaks early so the last page holds a useful share of rows.
+ * What to do when all are wound is said above the table, so no line trails after it onto a page
+ * of its own.
+ */
+function coilTable(s: Sheet, plan: Plan): void {
   const cw = s.L.steps.columns;
-  const x = {
+  const x: Columns = {
     tick: s.left,
     coil: s.left + cw.tick,
     start: s.left + cw.tick + cw.coil,
@@ -108,64 +129,64 @@ export function stepsPage(s: Sheet, plan: Plan): void {
     finish: s.left + cw.tick + cw.coil + cw.start + cw.slots,
     tally: s.left + cw.tick + cw.coil + cw.start + cw.slots + cw.finish,
   };
-  const tl = s.L.tally;
-  const tally = tallyGeometry(plan.design.turns, tl, s.right - x.tally);
-  const header = () => {
-    const y = s.y;
-    s.doc.save().rect(s.left, y, s.width, 16).fill("#e6e6e6").restore();
-    const o = { size: T.small, bold: true };
-    s.at("done", x.tick + 1, y + 4, o);
-    s.at("coil", x.coil, y + 4, o);
-    s.at("start", x.start, y + 4, o);
-    s.at(sp.style === "tooth" ? "tooth, slots, sense" : "go slot → return slot", x.slots, y + 4, o);
-    s.at("finish", x.finish, y + 4, o);
-    s.at(tally.step === 1 ? "tally: 1 box = 1 turn" : `tally: 1 box = ${tally.step} turns, groups of ${tally.step * tl.group_size}`, x.tally, y + 4, o);
-    s.y += 18;
-  };
-  // a coil row is measured whole before it is placed, and never split across pages
+  const tally = tallyGeometry(plan.design.turns, s.L.tally, s.right - x.tally);
   const rows = plan.coils.map((c) => coilRow(s, plan, c, cw.slots - 4, x.tally - x.start - 6));
   const heights = rows.map((t) => Math.max(s.L.steps.row_min_height, tally.height + 6, t.height + 8));
   // the rows that would end the table on a page of their own must fill a useful share of it:
-  // break early (widow control) so the last page holds at least minTail of rows and the closing line
-  const closing = 40;
+  // break early (widow control) so the last page holds at least minTail of rows
   const minTail = 0.3 * (s.bottom - s.top);
-  const tailFrom = heights.map((_, i) => heights.slice(i).reduce((a, b) => a + b, 0) + closing);
+  const tailFrom = heights.map((_, i) => heights.slice(i).reduce((a, b) => a + b, 0));
   let onPage = 0;
-  header();
+  coilHeader(s, plan, x, tally.step);
   plan.coils.forEach((c, ci) => {
-    const text = rows[ci];
-    const rowH = heights[ci];
     let fitsHere = s.y;
     let last = ci - 1;
     while (last + 1 < heights.length && fitsHere + heights[last + 1] <= s.bottom) fitsHere += heights[++last];
     const breaksLater = last < heights.length - 1;
     const widow = breaksLater && onPage > 0 && tailFrom[last + 1] < minTail && tailFrom[ci] >= minTail && tailFrom[ci + 1] < minTail;
-    if (s.y + rowH > s.bottom || widow) {
+    if (s.y + heights[ci] > s.bottom || widow) {
       s.need(s.bottom);
-      header();
+      coilHeader(s, plan, x, tally.step);
       onPage = 0;
     }
     onPage++;
-    const y = s.y;
-    const mid = y + rowH / 2;
-    s.tickBox(x.tick + 2, mid - s.L.tick_box / 2, s.L.tick_box, true);
-    s.at(String(c.index), x.coil, mid - T.step * 0.6, { size: T.step + 2, bold: true });
-    const ty = y + (rowH - text.height) / 2;
-    if (text.dead) {
-      s.draw(text.main, x.start, ty);
-    } else {
-      s.at(String(c.start_bar), x.start + 4, mid - T.step * 0.6, { size: T.step + 2, bold: true });
-      s.draw(text.main, x.slots, ty);
-      if (text.detail) s.draw(text.detail, x.slots, ty + text.main.height + 1);
-      s.at(String(c.end_bar), x.finish + 4, mid - T.step * 0.6, { size: T.step + 2, bold: true });
-    }
-    drawTally(s, tally, x.tally, y + (rowH - tally.height) / 2);
-    s.y = y + rowH;
-    s.doc.save().lineWidth(s.L.line_width.thin).strokeColor("#8c8c8c").moveTo(s.left, s.y).lineTo(s.right, s.y).stroke().restore();
+    drawCoilRow(s, c, rows[ci], heights[ci], x, tally);
   });
   s.y += 8;
-  s.para(
-    `${plan.coils.length} coils. When all are wound: every bar holds two leads${plan.coils.some(isDead) ? " (the dead coil none)" : ""}; check the leads against the bench sheet before soldering.`,
-    { size: T.body },
-  );
+}
+
+/** The coil table's header band. */
+function coilHeader(s: Sheet, plan: Plan, x: Columns, step: number): void {
+  const T = s.L.type;
+  const y = s.y;
+  s.doc.save().rect(s.left, y, s.width, 16).fill("#e6e6e6").restore();
+  const o = { size: T.small, bold: true };
+  s.at("done", x.tick + 1, y + 4, o);
+  s.at("coil", x.coil, y + 4, o);
+  s.at("start", x.start, y + 4, o);
+  s.at(plan.layout.spec.style === "tooth" ? "tooth, slots, sense" : "go slot → return slot", x.slots, y + 4, o);
+  s.at("finish", x.finish, y + 4, o);
+  s.at(step === 1 ? "tally: 1 box = 1 turn" : `tally: 1 box = ${step} turns, groups of ${step * s.L.tally.group_size}`, x.tally, y + 4, o);
+  s.y += 18;
+}
+
+/** One coil's row, `rowH` pt high at the running y, closed by a thin rule. */
+function drawCoilRow(s: Sheet, c: CoilPlan, text: RowText, rowH: number, x: Columns, tally: TallyGeometry): void {
+  const T = s.L.type;
+  const y = s.y;
+  const mid = y + rowH / 2;
+  s.tickBox(x.tick + 2, mid - s.L.tick_box / 2, s.L.tick_box, true);
+  s.at(String(c.index), x.coil, mid - T.step * 0.6, { size: T.step + 2, bold: true });
+  const ty = y + (rowH - text.height) / 2;
+  if (text.dead) {
+    s.draw(text.main, x.start, ty);
+  } else {
+    s.at(String(c.start_bar), x.start + 4, mid - T.step * 0.6, { size: T.step + 2, bold: true });
+    s.draw(text.main, x.slots, ty);
+    if (text.detail) s.draw(text.detail, x.slots, ty + text.main.height + 1);
+    s.at(String(c.end_bar), x.finish + 4, mid - T.step * 0.6, { size: T.step + 2, bold: true });
+  }
+  drawTally(s, tally, x.tally, y + (rowH - tally.height) / 2);
+  s.y = y + rowH;
+  s.doc.save().lineWidth(s.L.line_width.thin).strokeColor("#8c8c8c").moveTo(s.left, s.y).lineTo(s.right, s.y).stroke().restore();
 }
