@@ -1,7 +1,8 @@
 #!/usr/bin/env node
 /**
  * The build (`npm run build`, and `npm install` through `prepare`):
- *  1. `tsc -p tsconfig.build.json` → dist/ (module per file; kept for tools that import the compiled modules);
+ *  1. `tsc -p tsconfig.build.json` → dist/ (module per file; kept for tools that import the compiled modules),
+ *     and the card's two fonts unpacked from WOFF into dist/card-fonts/ (src/card/fonts.ts);
  *  2. esbuild bundles the CLI into one script, dist/armwind.cjs, which bin/armwind.mjs runs:
  *     every dependency inside except what must stay on disk (see `external`); modules loaded with
  *     `await import()` (each command, the card, pdfkit) are compiled in but run only when asked;
@@ -16,7 +17,7 @@
 import { execFileSync } from "node:child_process";
 import { readFileSync, rmSync } from "node:fs";
 import { dirname, join, relative, resolve } from "node:path";
-import { fileURLToPath } from "node:url";
+import { fileURLToPath, pathToFileURL } from "node:url";
 import { patchPdfModule } from "./pdf-patch.mjs";
 import { patchStringWidth } from "./string-width-patch.mjs";
 
@@ -24,6 +25,9 @@ const ROOT = resolve(dirname(fileURLToPath(import.meta.url)), "..");
 const DIST = join(ROOT, "dist");
 
 execFileSync(process.execPath, [join(ROOT, "node_modules/typescript/bin/tsc"), "-p", join(ROOT, "tsconfig.build.json")], { stdio: "inherit", cwd: ROOT });
+
+// the card's fonts unpacked once here, not at every card (src/card/fonts.ts reads them when they match their WOFF files)
+await (await import(pathToFileURL(join(DIST, "card/fonts.js")).href)).writeUnpackedFonts();
 
 const esbuild = await import("esbuild");
 

@@ -105,6 +105,7 @@ export function readUserFile(file: string, opts: ReadOptions = {}): string {
       limit,
       () => tooLarge(file, limit, path),
       (code) => readProblem(file, "file_unreadable", whyUnreadable(code), path),
+      st.size,
     );
   } finally {
     closeSync(fd);
@@ -126,14 +127,19 @@ function sleepSync(ms: number): void {
 }
 
 /** Read until end of file, refusing more than `limit` bytes; a non-blocking pipe is waited on politely. */
-function readFd(fd: number, limit: number, over: () => Error, failed: (code?: string) => Error): string {
-  const chunks: Buffer[] = [];
+function readFd(fd: number, limit: number, over: () => Error, failed: (code?: string) => Error, sizeHint = 0): string {
+  // read straight into one buffer sized by the hint (a regular file's size: one read), grown by doubling up to limit + 1
+  let buf = Buffer.allocUnsafe(Math.min(Math.max(sizeHint + 1, 64 * 1024), limit + 1));
   let total = 0;
-  const buf = Buffer.alloc(64 * 1024);
   for (;;) {
+    if (total === buf.length) {
+      const bigger = Buffer.allocUnsafe(Math.min(buf.length * 2, limit + 1));
+      buf.copy(bigger, 0, 0, total);
+      buf = bigger;
+    }
     let n: number;
     try {
-      n = readSync(fd, buf, 0, buf.length, null);
+      n = readSync(fd, buf, total, buf.length - total, null);
     } catch (e) {
       const code = (e as NodeJS.ErrnoException).code;
       if (code === "EAGAIN") {
@@ -146,9 +152,8 @@ function readFd(fd: number, limit: number, over: () => Error, failed: (code?: st
     if (n === 0) break;
     total += n;
     if (total > limit) throw over();
-    chunks.push(Buffer.from(buf.subarray(0, n)));
   }
-  return Buffer.concat(chunks, total).toString("utf8");
+  return buf.toString("utf8", 0, total);
 }
 
 // ---------------------------------------------------------------------------------------------

@@ -1,10 +1,11 @@
 /** The card's pure helpers: tally grouping from the layout file, the WOFF unpacker, brush angles, axis ticks. */
 import { describe, expect, it } from "vitest";
 import fc from "fast-check";
-import { readFileSync } from "node:fs";
+import { existsSync, readdirSync, readFileSync } from "node:fs";
+import { join } from "node:path";
 import { createRequire } from "node:module";
 import { cardLayout, layoutProblems, pageBreaks, tallyBoxes, tallyGroups } from "../src/card/layout.js";
-import { FONT_FILES, SHAPING_TABLES, cardFonts, woffToSfnt } from "../src/card/fonts.js";
+import { FONT_FILES, SHAPING_TABLES, UNPACKED_DIR, cardFonts, unpackFont, woffToSfnt } from "../src/card/fonts.js";
 import { ticksFromZero as niceTicks } from "../src/plot/ticks.js";
 import { needsFourWire } from "../src/card/pages/bench.js";
 import { Sheet } from "../src/card/sheet.js";
@@ -68,6 +69,16 @@ describe("fonts", () => {
       for (const t of SHAPING_TABLES) expect(font.directory.tables[t], t).toBeUndefined();
       for (const ch of "Ω°±²×−→") expect(font.hasGlyphForCodePoint(ch.codePointAt(0)!)).toBe(true);
       expect(font.layout("Ω 1.57").glyphs.length).toBe(6);
+    }
+  });
+  it("the fonts the build unpacked, when there are any, are what unpacking gives now (else rebuild: npm run build)", () => {
+    const fresh = { regular: unpackFont("regular"), bold: unpackFont("bold") };
+    const got = cardFonts();
+    expect(got.regular.equals(fresh.regular)).toBe(true);
+    expect(got.bold.equals(fresh.bold)).toBe(true);
+    for (const f of existsSync(UNPACKED_DIR) ? readdirSync(UNPACKED_DIR) : []) {
+      const weight = f.split("-")[0] as "regular" | "bold";
+      expect(readFileSync(join(UNPACKED_DIR, f)).equals(fresh[weight]), f).toBe(true);
     }
   });
   it("the card's fonts name no glyphs ('post' 3.0) and keep the 'post' header the card reads (OpenType spec, 'post')", () => {

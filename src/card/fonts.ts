@@ -6,7 +6,9 @@
  * sections 3–5 (header, table directory, zlib-compressed tables).
  */
 import { createRequire } from "node:module";
-import { readFileSync } from "node:fs";
+import { mkdirSync, readFileSync, rmSync, statSync, writeFileSync } from "node:fs";
+import { join } from "node:path";
+import { fileURLToPath } from "node:url";
 import { inflateSync } from "node:zlib";
 
 const require = createRequire(import.meta.url);
@@ -106,12 +108,46 @@ export const SHAPING_TABLES = ["GSUB", "GPOS", "GDEF", "kern"];
 
 let fonts: { regular: Buffer; bold: Buffer } | null = null;
 
-/** The two fonts as sfnt buffers, unpacked once per process. */
+type Weight = keyof typeof FONT_FILES;
+
+/** The card's font of `weight` unpacked from its WOFF file: what `cardFonts` gives. */
+export const unpackFont = (weight: Weight): Buffer => woffToSfnt(readFileSync(FONT_FILES[weight]), SHAPING_TABLES, { glyphNames: false });
+
+/** Where the build keeps the unpacked fonts (scripts/build.mjs), beside the bundle. */
+export const UNPACKED_DIR = fileURLToPath(new URL("../../dist/card-fonts/", import.meta.url));
+
+/** The unpacked font's file for the WOFF file as it is now: named by the WOFF's size and modification time, so a changed WOFF is never matched. */
+function unpackedFile(weight: Weight): string {
+  const st = statSync(FONT_FILES[weight]);
+  return join(UNPACKED_DIR, `${weight}-${st.size}-${Math.round(st.mtimeMs)}.ttf`);
+}
+
+/** Write both unpacked fonts for the build (the folder emptied first); returns the files. */
+export function writeUnpackedFonts(): string[] {
+  rmSync(UNPACKED_DIR, { recursive: true, force: true });
+  mkdirSync(UNPACKED_DIR, { recursive: true });
+  return (Object.keys(FONT_FILES) as Weight[]).map((w) => {
+    const file = unpackedFile(w);
+    writeFileSync(file, unpackFont(w));
+    return file;
+  });
+}
+
+/**
+ * The two fonts as sfnt buffers, once per process: read as the build unpacked them when it did so
+ * from the same WOFF files (unpacking both is about 15 ms of every card), else unpacked here.
+ * test/card-layout.test.ts checks that the build's files are what unpacking gives.
+ */
 export function cardFonts(): { regular: Buffer; bold: Buffer } {
-  if (!fonts)
-    fonts = {
-      regular: woffToSfnt(readFileSync(FONT_FILES.regular), SHAPING_TABLES, { glyphNames: false }),
-      bold: woffToSfnt(readFileSync(FONT_FILES.bold), SHAPING_TABLES, { glyphNames: false }),
+  if (!fonts) {
+    const load = (w: Weight) => {
+      try {
+        return readFileSync(unpackedFile(w));
+      } catch {
+        return unpackFont(w); // not built, or built from another WOFF
+      }
     };
+    fonts = { regular: load("regular"), bold: load("bold") };
+  }
   return fonts;
 }

@@ -86,9 +86,10 @@ export function historyOfFolder(dir: string, cache: string): FolderHistory {
   const rows: HistoryRow[] = [];
   const warnings: LogbookWarning[] = [];
   let changed = false;
+  const prefix = join(dir, "/"); // the folder with its separator: each file's path by concatenation
   for (const name of names) {
     if (!mayBeRecord(name)) continue;
-    const entry = entryOf(dir, name, known);
+    const entry = entryOf(dir, prefix + name, name, known);
     if (entry.stamp) {
       entries[name] = entry;
       changed ||= entry !== known.get(name);
@@ -102,12 +103,12 @@ export function historyOfFolder(dir: string, cache: string): FolderHistory {
 }
 
 /** One file's entry: the summary's when its stamp still holds, else read anew (stamp "" for what is never kept: not a regular file). */
-function entryOf(dir: string, name: string, known: Map<string, Entry>): Entry {
+function entryOf(dir: string, path: string, name: string, known: Map<string, Entry>): Entry {
   let st: Stats | undefined;
   try {
-    st = statSync(join(dir, name));
+    st = statSync(path, { throwIfNoEntry: false });
   } catch {
-    st = undefined; // gone or unreadable since the listing: the read says which
+    st = undefined; // unreadable since the listing: the read says which
   }
   if (!st?.isFile()) return readEntry(dir, name, "");
   const stamp = stampOf(st);
