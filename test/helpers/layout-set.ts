@@ -1,7 +1,7 @@
 /**
  * The generated set of jobs the card's layout must survive (issue 11): lap, wave and tooth
- * windings with 1 to 4 coils per slot, 3 to 200 turns, a 300-character title and notes, on A4 and
- * Letter. Each is a demo job with its winding replaced (invented values, for layout tests only).
+ * windings with 1 to 4 coils per slot, 3 to 200 turns, a continuous winding, a 300-character title
+ * and notes, on A4 and Letter. Each is a demo job with its winding replaced (invented values, for layout tests only).
  */
 import { readFileSync } from "node:fs";
 import { join } from "node:path";
@@ -55,6 +55,8 @@ export function layoutCases(): LayoutCase[] {
   const tooth = demo("blind-motor-0031.yaml");
   const cases: LayoutCase[] = [
     { name: "lap-u2-40t", paper: "a4", raw: withWinding(lap, "t-lap-u2", { coils_per_slot: 2 }, 40) },
+    // wound off the spool: page 1 gives the spool length and mass instead of a cut
+    { name: "lap-u2-continuous", paper: "letter", raw: withWinding(lap, "t-lap-cont", { coils_per_slot: 2, continuous: true }, 18) },
     { name: "lap-u3-7t", paper: "letter", raw: withWinding(lap, "t-lap-u3", { coils_per_slot: 3 }, 7, { bars: 36 }) },
     { name: "lap-u4-3t", paper: "a4", raw: withWinding(lap, "t-lap-u4", { coils_per_slot: 4 }, 3, { bars: 48 }) },
     { name: "wave-u2-9t", paper: "letter", raw: withWinding(wave, "t-wave-u2", { coils_per_slot: 2, dead_coil: true }, 9, { bars: 41 }) },
