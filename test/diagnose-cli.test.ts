@@ -124,6 +124,16 @@ describe("diagnose: inputs and the contract", () => {
     expect(r.out.notes.join(" ")).toMatch(/polarity check/);
   });
 
+  it("readings below forty counts of the meter get the four-wire advice and 'null the leads', as the card and log give them (bench rules)", async () => {
+    const bars = "--bars=1.33,1.33,1.23,1.33,1.33";
+    const handheld = await diagnoseJson([BLIND, bars, "--no-learn"]);
+    expect(handheld.out.notes.join(" ")).toMatch(/below 40 counts of a 0\.1 Ω meter.*four-wire.*Null the test leads first/);
+    const bench = await diagnoseJson([BLIND, bars, "--resolution=0.001 ohm", "--no-learn"]);
+    expect(bench.out.notes.join(" ")).not.toMatch(/four-wire|Null the test leads/);
+    const partial = await diagnoseJson([BLIND, "--bars=1.33,,,,", "--partial", "--no-learn"]);
+    expect(partial.out.notes.join(" ")).toMatch(/four-wire/);
+  });
+
   it("a logbook record gives the readings and the winding laid", async () => {
     const r = await diagnoseJson([BLIND, "--record", join(ROOT, "jobs/logbook/blind-motor-0031-2026-12-01-1.yaml")]);
     expect(r.status).toBe(0);

@@ -24,7 +24,7 @@ import { predictWound, type WoundInput } from "../logbook/predict.js";
 import { recordSchema, type LogRecord } from "../logbook/record.js";
 import { diagnose, type Diagnosis } from "../winding/diagnose.js";
 import { diagnosePartial, SPREAD_FROM, type PartialDiagnosis } from "../winding/diagnose-partial.js";
-import { isOpenText, readingName, turnLengthCalibrated } from "../bench/rules.js";
+import { fourWireAdvice, isOpenText, NULL_LEADS, readingName, turnLengthCalibrated } from "../bench/rules.js";
 import { resolveMeter, withResolution } from "./meter.js";
 import { to20C } from "../wire/copper.js";
 import { ohm, sig, signedPct, table } from "./format.js";
@@ -374,6 +374,13 @@ function gatherInput(io: Io, argv: DiagnoseArgs, loaded: { job: Job | null; id: 
   return { ...base, expected: p.coil_ohm, turns: p.turns, calibrated: turnLengthCalibrated(plan.wire.mlt_source), bareDiameter: p.wire.bare_diameter };
 }
 
+/** The bench rules' four-wire advice when the plan's readings (Ω) are below forty counts of the meter (Ω), as the card and `log` give it; none without a plan. */
+function meterNotes(readings: { expected_ohm: number | null }[], resolutionOhm: number): string[] {
+  const expected = readings.map((r) => r.expected_ohm).filter((x): x is number => x !== null);
+  const advice = expected.length ? fourWireAdvice(Math.min(...expected), resolutionOhm) : null;
+  return advice ? [advice, NULL_LEADS] : [];
+}
+
 export function diagnoseCommand(yargs: Argv, io: Io, setStatus: (n: number) => void) {
   return yargs.command(
     COMMAND_TEXT.diagnose.command,
@@ -428,6 +435,7 @@ export function diagnoseCommand(yargs: Argv, io: Io, setStatus: (n: number) => v
               input.turns,
               { resolutionOhm: input.resolution, calibrated: input.calibrated, bareDiameterM: input.bareDiameter ?? undefined },
             );
+            d.notes.push(...meterNotes(d.readings, input.resolution));
             io.out(argv.json ? JSON.stringify(partialJson(loaded, input, d), null, 2) : partialText(loaded, d));
             return d.ok ? 0 : 4;
           }
@@ -436,6 +444,7 @@ export function diagnoseCommand(yargs: Argv, io: Io, setStatus: (n: number) => v
             calibrated: input.calibrated,
             bareDiameterM: input.bareDiameter ?? undefined,
           });
+          d.notes.push(...meterNotes(d.readings, input.resolution));
           io.out(argv.json ? JSON.stringify(diagnoseJson(loaded, input, d), null, 2) : diagnoseText(loaded, input, d));
           return d.ok ? 0 : 4;
         }),

@@ -117,7 +117,7 @@ function benchPage(ctx: Context, rel: string): Res {
   const main = `<div class="head"><h1>Readings: ${esc(id)}</h1><span class="sub file">${esc(f.rel)}</span><nav class="tools"><a href="/job/${encodeURI(f.rel)}">plan</a><a href="/card/${encodeURI(f.rel)}">card (PDF)</a></nav></div>
 <p class="caution">Null the test leads first. Read bar to bar stepping round the commutator: r1 between bar 1 and bar 2, … the last between the last bar and bar 1.</p>
 <div class="split bench"><section class="grid-col"><form id="bench-form" autocomplete="off">
-<div class="row"><label>date <input name="date" type="date" value="${today}"></label><label>winding temperature <input name="temperature" value="20 C" placeholder="21 C"></label><label>meter resolution <input name="meter_resolution" placeholder="0.001 ohm"></label></div>
+<div class="row"><label>date <input name="date" type="date" value="${today}"></label><label>winding temperature <input name="temperature" value="20 C" placeholder="21 C"></label><label>meter resolution (its last digit) <input name="meter_resolution" placeholder="0.1 ohm if not given"></label></div>
 <div id="grid" class="readings"><p class="sub">loading the coil table…</p></div>
 <output class="problem" data-for=""></output>
 <fieldset><legend>more readings (optional)</legend>

@@ -481,7 +481,15 @@ async function initBench() {
         { class: "reading", "data-index": i },
         h("span", { class: "r" }, `r${i + 1}`),
         h("span", { class: "bars" }, `bar ${i + 1}–${i + 2 > C ? 1 : i + 2}`),
-        h("input", { name: `r${i + 1}`, "data-reading": i, inputmode: "decimal", placeholder: fmt(expected, 4), autocomplete: "off" }),
+        h("input", {
+          name: `r${i + 1}`,
+          "data-reading": i,
+          inputmode: "decimal",
+          // what the plan expects between these two bars (lap coils laid later are longer)
+          placeholder: fmt(json.resistance?.bar_to_bar_each_ohm?.[i] ?? expected, 4),
+          title: "the plan's expected reading at 20 °C",
+          autocomplete: "off",
+        }),
         h("span", { class: "judge" }),
       ),
     ),
