@@ -8,7 +8,9 @@ import { spoolMassNeeded } from "../../shop/merge.js";
 
 /**
  * Page 1, the job: who and what, THE WINDING in large type, the lead throw to copy, the armature,
- * the cut list (or the spool for a continuous winding), what it will read and do, warnings and notes.
+ * the cut list (or the spool for a continuous winding), what it will read, the warnings and notes,
+ * then what the motor will do. The warnings come before the motor table: they are what the winder
+ * must see on the first page, and the table, kept whole, fills the next page when it does not fit.
  */
 export function jobPage(s: Sheet, plan: Plan): void {
   jobHeader(s, plan);
@@ -19,9 +21,9 @@ export function jobPage(s: Sheet, plan: Plan): void {
   armatureAndWinding(s, plan);
   cutList(s, plan);
   expectedResults(s, plan);
+  warningsAndNotes(s, plan);
   motorTable(s, plan);
   motorBasis(s, plan);
-  warningsAndNotes(s, plan);
 }
 
 /** The card's header (with the shop and bench from the profile), the job id, title, customer and notes. */
