@@ -228,6 +228,19 @@ describe("the meter's resolution: option, environment, measured file, shop profi
     expect(await diag(["--measured", join(ROOT, "jobs/measured/blind-motor-0031.yaml")])).toBe(0.001);
   });
 
+  it("new measured: the template's meter_resolution is the environment's, else the profile's, else left to fill in", async () => {
+    const { dir } = bench();
+    const written = async (env: Record<string, string>, cwd = dir) => {
+      const io = fakeIo(cwd, { SOURCE_DATE_EPOCH: "1764547200", ...env });
+      expect(await main(["new", "measured", BLIND, "--no-learn", "-o", join(tmp(), "m.yaml")], io), io.stderr.join("")).toBe(0);
+      const file = /measured file written: (\S+)/.exec(io.stdout.join(""))![1];
+      return /^meter_resolution: (.*?)\s*(#|$)/m.exec(readFileSync(resolve(cwd, file), "utf8"))![1];
+    };
+    expect(await written({})).toBe("0.0100 ohm");
+    expect(await written({ ARMWIND_METER_RESOLUTION: "0.001 ohm" })).toBe("0.00100 ohm");
+    expect(await written({}, tmp())).toBe("~");
+  });
+
   it("card: the bench sheet's windows are worked out for the profile's meter, and says so", async () => {
     const { dir } = bench();
     const sheet = async (env: Record<string, string> = {}, extra: string[] = []) => {

@@ -204,11 +204,13 @@ export async function runNewMeasured(
 ): Promise<number> {
   const { planFromFile } = await import("./plan.js");
   const { measuredTemplate } = await import("./new-measured.js");
-  const { loadShop } = await import("./shop.js");
+  const { resolveMeter } = await import("./meter.js");
   const plan = planFromFile(io, job, where, { logbook: opts.logbook, learn: opts.learn });
   const date = today(io);
   const { file, shown } = target(io, opts.output, `${plan.job.id}-measured-${date}.yaml`);
-  writeNew(file, measuredTemplate(plan, date, schemaRef(dirname(file), "measured.schema.json"), loadShop(io)?.shop.meter_resolution), shown);
+  // the bench's meter as every command takes it ($ARMWIND_METER_RESOLUTION, else the shop profile's); left blank when neither says
+  const meter = resolveMeter(io, undefined);
+  writeNew(file, measuredTemplate(plan, date, schemaRef(dirname(file), "measured.schema.json"), meter.source === "default" ? undefined : meter.ohm), shown);
   if (opts.json) io.out(JSON.stringify({ ok: true, errors: [], file, job: plan.job.id }, null, 2));
   else {
     io.out(`measured file written: ${shown} (job ${plan.job.id}, ${plan.layout.bars} bar-to-bar readings to fill in)`);
