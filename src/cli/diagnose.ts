@@ -24,7 +24,7 @@ import { predictWound, type WoundInput } from "../logbook/predict.js";
 import { recordSchema, type LogRecord } from "../logbook/record.js";
 import { diagnose, type Diagnosis } from "../winding/diagnose.js";
 import { diagnosePartial, SPREAD_FROM, type PartialDiagnosis } from "../winding/diagnose-partial.js";
-import { fourWireAdvice, isOpenText, NULL_LEADS, readingName, turnLengthCalibrated } from "../bench/rules.js";
+import { fourWireAdvice, isOpenText, type Level, NULL_LEADS, readingName, turnLengthCalibrated } from "../bench/rules.js";
 import { resolveMeter, withResolution } from "./meter.js";
 import { to20C } from "../wire/copper.js";
 import { ohm, sig, signedPct, table } from "./format.js";
@@ -134,14 +134,7 @@ export function diagnoseJson(job: { id: string }, input: DiagnoseInput, d: Diagn
     turns_per_coil: input.turns,
     meter_resolution_ohm: input.resolution,
     median_ohm: nullable(d.median_ohm),
-    level: d.level && {
-      median_ohm: nullable(d.level.median_ohm),
-      expected_median_ohm: d.level.expected_median_ohm,
-      deviation_fraction: nullable(d.level.deviation_fraction),
-      window_fraction: d.level.window_fraction,
-      pass: d.level.pass,
-      source: d.level.source,
-    },
+    level: levelJson(d.level),
     coils: d.coils.map((c) => ({
       index: c.index,
       start_bar: c.start_bar,
@@ -197,14 +190,7 @@ export function partialJson(job: { id: string }, input: DiagnoseInput, d: Partia
     of: d.of,
     spread_from: d.spread_from,
     median_ohm: nullable(d.median_ohm),
-    level: d.level && {
-      median_ohm: nullable(d.level.median_ohm),
-      expected_median_ohm: d.level.expected_median_ohm,
-      deviation_fraction: nullable(d.level.deviation_fraction),
-      window_fraction: d.level.window_fraction,
-      pass: d.level.pass,
-      source: d.level.source,
-    },
+    level: levelJson(d.level),
     readings: d.readings.map((r, i) => ({ ...r, reading_as_read_ohm: r.read && !r.open ? input.readings[i] : null })),
     coils: d.coils,
     failures: d.failures.map((f) => ({ ...f, reading_ohm: nullable(f.reading_ohm) })),
@@ -238,6 +224,20 @@ function partialText(job: { id: string }, d: PartialDiagnosis): string {
   for (const s of d.suspects) L.push(`  ! ${s.message} [${s.kind}]`);
   L.push(d.ok ? "No reading so far is outside the bench rules." : "A reading so far is outside the bench rules (exit status 4).");
   return L.join("\n");
+}
+
+/** The level judgement as JSON (unknowable figures null), the same for a full and a partial set. */
+function levelJson(level: Level | null) {
+  return (
+    level && {
+      median_ohm: nullable(level.median_ohm),
+      expected_median_ohm: level.expected_median_ohm,
+      deviation_fraction: nullable(level.deviation_fraction),
+      window_fraction: level.window_fraction,
+      pass: level.pass,
+      source: level.source,
+    }
+  );
 }
 
 export function diagnoseText(job: { id: string }, input: DiagnoseInput, d: Diagnosis): string {
