@@ -459,7 +459,8 @@ function figuresOf(s: Setup, p: WireSetup, turns: number, mlt: number, coilOhm: 
   f.turns = turns;
   f.strands = p.strands;
   f.wire = p.wire;
-  f.rejected_because.length = 0;
+  const reasons = f.rejected_because;
+  while (reasons.length > 0) reasons.pop(); // emptied in place (setting length is a runtime call)
   fitChecks(s, p, turns, f);
   f.mlt = mlt;
   f.coil_ohm = coilOhm;

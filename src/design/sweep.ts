@@ -36,8 +36,8 @@ export interface SweepResult {
 
 /**
  * Sweep the stock: each candidate is evaluated (`Evaluator.scan`, the cheap evaluation's figures),
- * counted, and made a Candidate only when a list would keep it; the lists keep exactly what they
- * would if every candidate were offered (test/evaluate-properties.test.ts checks it against that).
+ * counted, and made a Candidate only when a list would keep it; the result is exactly what offering
+ * every candidate to every list gives (test/evaluate-properties.test.ts checks it against that).
  */
 export function sweep(ev: Evaluator, opts: SweepOptions, keep = 20): SweepResult {
   const meeting = new MeetingRank(ev.goal, keep);
@@ -45,7 +45,7 @@ export function sweep(ev: Evaluator, opts: SweepOptions, keep = 20): SweepResult
   const nearest = new TopList<Candidate, RankKey>(keep, missing);
   const nearFit = new TopList<Candidate, RankKey>(5, missing);
   const nearOver = new TopList<Candidate, RankKey>(5, missing);
-  const rejections: Partial<Record<RejectCode, number>> = {};
+  const counts = new Map<RejectCode, number>(); // in the order each reason first shows, as the plan lists them
   let total = 0;
   for (const wire of opts.wires) {
     for (let k = opts.fixedStrands ?? 1; k <= (opts.fixedStrands ?? opts.maxInHand); k++) {
@@ -54,13 +54,15 @@ export function sweep(ev: Evaluator, opts: SweepOptions, keep = 20): SweepResult
       for (let n = lo; n <= hi; n++) {
         const f = scan.figures(n);
         total++;
-        for (const r of f.rejected_because) rejections[r] = (rejections[r] ?? 0) + 1;
+        const reasons = f.rejected_because;
+        for (let i = 0; i < reasons.length; i++) counts.set(reasons[i], (counts.get(reasons[i]) ?? 0) + 1);
         if (f.meets_goal) {
           meeting.offerLazily(f, scan.candidate);
           continue;
         }
-        const side = f.rejected_because.length === 0 ? nearFit : nearOver;
-        const toNearest = nearest.keeps(f);
+        const side = reasons.length === 0 ? nearFit : nearOver;
+        // the nearest misses are shown only when nothing meets the goal: once something has, they no longer matter
+        const toNearest = meeting.count === 0 && nearest.keeps(f);
         const toSide = side.keeps(f);
         if (!toNearest && !toSide) continue;
         const c = scan.candidate();
@@ -72,6 +74,7 @@ export function sweep(ev: Evaluator, opts: SweepOptions, keep = 20): SweepResult
   const ranked = meeting.ranked();
   const best = ranked[0] ?? nearest.items[0] ?? null;
   const shown = meeting.count === 0 ? nearest.items : [...ranked, ...nearFit.items, ...nearOver.items];
+  const rejections: Partial<Record<RejectCode, number>> = Object.fromEntries(counts);
   return { best, shown: dedupe(shown), total, rejections, meeting: meeting.count };
 }
 
