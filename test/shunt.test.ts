@@ -136,7 +136,9 @@ describe("a shunt field's loss is in every efficiency and input (worked by hand)
     // the peak is the curve's best or better, and below the same motor's without the field's loss
     const best = Math.max(...plan.original_motor.curve.map((p) => p.efficiency!));
     expect(plan.original_motor.peakEfficiency!).toBeGreaterThanOrEqual(best - 1e-12);
-    const pm = planJob(loadJobText(duty(shunt("", "{ supply: 12 V, no_load_current: 0.18 A, no_load_speed: 9800 rpm, temperature: 20 C }", "permanent_magnet"))));
+    const pm = planJob(
+      loadJobText(duty(shunt("", "{ supply: 12 V, no_load_current: 0.18 A, no_load_speed: 9800 rpm, temperature: 20 C }", "permanent_magnet"))),
+    );
     expect(pm.calibration.ke).toBeCloseTo(KE_SHUNT, 10);
     expect(plan.original_motor.peakEfficiency!).toBeLessThan(pm.original_motor.peakEfficiency! - 0.01);
     expect(pm.original_duty!.efficiency!).toBeCloseTo(0.59574, 5);
