@@ -10,8 +10,8 @@
  * modification and change times) is the one the share was made with, the folder has not gained,
  * lost or renamed a file since, and it is not listed at all; otherwise it is listed (one readdir)
  * and the listing's hash compared. Each of the share's files is then `stat`ed: a record whose stamp
- * still holds is taken from the share as validated then, the others are read and validated in
- * full. When the listing differs (records added by `armwind log`, by hand, by another bench or by a
+ * still holds is taken from the share as validated then (the part learning reads: learn.ts
+ * `learningPart`), the others are read and validated in full. When the listing differs (records added by `armwind log`, by hand, by another bench or by a
  * merge; records removed), the whole index is brought up to date by reading only the names it does
  * not know, and the share is written anew. A record edited in place by hand to another family is
  * seen again after `armwind history`, which reads every record changed since it last ran (its own
@@ -30,7 +30,7 @@ import { readUserFile } from "../files.js";
 import { homedir } from "node:os";
 import { basename, dirname, join, resolve } from "node:path";
 import { VERSION as ARMWIND_VERSION } from "../version.js";
-import type { ReadRecord } from "./record.js";
+import { learningPart, type LearningRecord } from "./learn.js";
 import { byDateThenName, type Logbook, type LogbookWarning, mayBeRecord, readLogbook, readRecordFile } from "./store.js";
 
 const VERSION = 3;
@@ -63,9 +63,12 @@ interface FamilyFile {
   family: string;
   /** The family's files, and damaged files of unknown family (read each time and warned about). */
   names: string[];
-  /** Each of the family's records as read and validated, under its file's stamp (settled files only). */
-  records: Record<string, { stamp: string; record: ReadRecord }>;
+  /** What learning reads of each of the family's records as read and validated, under its file's stamp (settled files only). */
+  records: Record<string, { stamp: string; record: LearningRecord }>;
 }
+
+/** A family's records as learning reads them (as `readLogbook` gives them, each record cut to what learning reads). */
+export type FamilyBook = Omit<Logbook, "records"> & { records: { file: string; record: LearningRecord }[] };
 
 /**
  * A file's or folder's stamp: size, modification and change times (ns where the file system keeps
@@ -154,7 +157,7 @@ export function writeJson(file: string, body: unknown): void {
  * brought up to date). Files: stats the folder, lists it unless its stamp is the share's, stats the
  * family's files, reads changed ones; reads and writes the index in `cache`.
  */
-export function recordsOfFamily(dir: string, family: string, cache: string): Logbook {
+export function recordsOfFamily(dir: string, family: string, cache: string): FamilyBook {
   const now = Date.now();
   const at = resolve(dir);
   // the folder's stamp before it is listed: a change after this moves it
@@ -191,8 +194,8 @@ function shareOf(share: FamilyFile | undefined, at: string, family: string): Fam
  * share, the others are read and validated in full (and kept when settled). Rewrites the share when
  * anything kept changed or `dirty`. A record edited by hand to another family is left out.
  */
-function readShare(dir: string, share: FamilyFile, cache: string, now: number, dirty = false): Logbook {
-  const records: Logbook["records"] = [];
+function readShare(dir: string, share: FamilyFile, cache: string, now: number, dirty = false): FamilyBook {
+  const records: FamilyBook["records"] = [];
   const warnings: LogbookWarning[] = [];
   const kept: FamilyFile["records"] = {};
   const prefix = join(dir, "/");
@@ -210,8 +213,9 @@ function readShare(dir: string, share: FamilyFile, cache: string, now: number, d
     dirty = true;
     if ("warning" in r) warnings.push(r.warning);
     else if (r.record.job.family === share.family) {
-      records.push({ file: name, record: r.record });
-      if (stamp !== undefined) kept[name] = { stamp, record: r.record };
+      const record = learningPart(r.record);
+      records.push({ file: name, record });
+      if (stamp !== undefined) kept[name] = { stamp, record };
     }
   }
   dirty ||= Object.keys(share.records).some((name) => !(name in kept));
@@ -224,7 +228,7 @@ function readShare(dir: string, share: FamilyFile, cache: string, now: number, d
  * not place in another family, bring the index up to date and write the family's share anew (its
  * records are kept by the next read, which stamps each file before reading it).
  */
-function rebuildIndex(dir: string, family: string, cache: string, names: string[], seen: { listing: string; folder?: string }): Logbook {
+function rebuildIndex(dir: string, family: string, cache: string, names: string[], seen: { listing: string; folder?: string }): FamilyBook {
   const at = resolve(dir);
   const whole = readJson<IndexFile>(indexFile(cache, dir));
   const known = new Map(whole?.version === VERSION && whole.dir === at && whole.families ? Object.entries(whole.families) : []);
@@ -251,7 +255,7 @@ function rebuildIndex(dir: string, family: string, cache: string, names: string[
     records: {},
   };
   writeJson(indexFile(cache, dir, family), share);
-  return { ...book, records: own };
+  return { ...book, records: own.map(({ file, record }) => ({ file, record: learningPart(record) })) };
 }
 
 /** After a whole read of `dir` (history), write the index afresh from what was read: file name → family. */
