@@ -197,6 +197,11 @@ export function byFileName(a: string, b: string): number {
 }
 let fileNameCollator: Intl.Collator | undefined;
 
+/** The logbook's order of records: by date, then by file name (numeric). */
+export function byDateThenName(a: { file: string; record: { date: string } }, b: { file: string; record: { date: string } }): number {
+  return a.record.date < b.record.date ? -1 : a.record.date > b.record.date ? 1 : byFileName(a.file, b.file);
+}
+
 export interface Logbook {
   dir: string;
   /** Whether the folder exists at all. */
@@ -242,7 +247,7 @@ export function readLogbook(dir: string, opts: ReadOptions = {}): Logbook {
     if ("warning" in r) warnings.push(r.warning);
     else records.push({ file: name, record: r.record });
   }
-  records.sort((a, b) => (a.record.date < b.record.date ? -1 : a.record.date > b.record.date ? 1 : byFileName(a.file, b.file)));
+  records.sort(byDateThenName);
   return { dir, exists: true, records, warnings };
 }
 
