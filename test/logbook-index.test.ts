@@ -53,6 +53,19 @@ describe("records of one family", () => {
     expect(recordsOfFamily(dir, "blind-5slot", cache).warnings.map((w) => w.file)).toEqual([other]);
   });
 
+  it("places another family's record by the family its text names, without validating it: its damage is that family's warning", () => {
+    const dir = logbook();
+    const cache = tmp("armwind-index-cache-");
+    const other = readdirSync(dir).find((f) => !f.startsWith("blind-motor") && familyOf(dir, f) !== null)!;
+    const family = familyOf(dir, other)!;
+    writeFileSync(join(dir, other), readFileSync(join(dir, other), "utf8").replace(/"slots": \d+/, '"slots": -5'));
+    // a fresh index: the blind family's plan does not read it in full, so gives no warning
+    expect(recordsOfFamily(dir, "blind-5slot", cache).warnings).toEqual([]);
+    expect(JSON.parse(readFileSync(indexFile(cache, dir), "utf8")).families[other]).toBe(family);
+    // its own family's plan reads it and warns
+    expect(recordsOfFamily(dir, family, cache).warnings.map((w) => w.file)).toEqual([other]);
+  });
+
   it("sees a record added by hand or by a merge, and forgets a removed one", () => {
     const dir = logbook();
     const cache = tmp("armwind-index-cache-");

@@ -31,7 +31,7 @@ import { homedir } from "node:os";
 import { basename, dirname, join, resolve } from "node:path";
 import { VERSION as ARMWIND_VERSION } from "../version.js";
 import { learningPart, type LearningRecord } from "./learn.js";
-import { byDateThenName, type Logbook, type LogbookWarning, mayBeRecord, readLogbook, readRecordFile } from "./store.js";
+import { byDateThenName, type Logbook, type LogbookWarning, mayBeRecord, peekFamily, readLogbook, readRecordFile } from "./store.js";
 
 const VERSION = 3;
 
@@ -224,9 +224,11 @@ function readShare(dir: string, share: FamilyFile, cache: string, now: number, d
 }
 
 /**
- * The slow path, when the folder's listing is not the share's: read the files the whole index does
- * not place in another family, bring the index up to date and write the family's share anew (its
- * records are kept by the next read, which stamps each file before reading it).
+ * The slow path, when the folder's listing is not the share's: the files the whole index does not
+ * know are placed by the family their text names (`peekFamily`, no validation: a record of another
+ * family is never learned from here); this family's files, and any whose family cannot be told, are
+ * read in full. The index is brought up to date and the family's share written anew (its records
+ * are kept by the next read, which stamps each file before reading it).
  */
 function rebuildIndex(dir: string, family: string, cache: string, names: string[], seen: { listing: string; folder?: string }): FamilyBook {
   const at = resolve(dir);
@@ -234,7 +236,11 @@ function rebuildIndex(dir: string, family: string, cache: string, names: string[
   const known = new Map(whole?.version === VERSION && whole.dir === at && whole.families ? Object.entries(whole.families) : []);
   const book = readLogbook(dir, {
     names: names.filter((name) => {
-      const f = known.get(name);
+      let f = known.get(name);
+      if (f === undefined && mayBeRecord(name)) {
+        f = peekFamily(dir, name);
+        if (f !== undefined && f !== family) known.set(name, f);
+      }
       return f === undefined || f === family;
     }),
   });

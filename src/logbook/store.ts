@@ -251,6 +251,23 @@ export function readLogbook(dir: string, opts: ReadOptions = {}): Logbook {
   return { dir, exists: true, records, warnings };
 }
 
+/**
+ * A record file's armature family as its text says it (`job.family`: a string, or null for none),
+ * without validating the rest: what the family index needs of a record of another family, which
+ * learning never reads. Undefined when it cannot tell (a bad name, not a regular file, too large,
+ * not YAML or JSON, no such field): the caller then reads the file in full and warns as it must.
+ */
+export function peekFamily(dir: string, name: string): string | null | undefined {
+  if (!RECORD_NAME.test(name)) return undefined;
+  try {
+    const raw = parseRecordText(readUserFile(join(dir, name), { limit: RECORD_FILE_LIMIT })) as { job?: { family?: unknown } } | null;
+    const family = raw?.job?.family;
+    return typeof family === "string" || family === null ? family : undefined;
+  } catch {
+    return undefined;
+  }
+}
+
 /** Whether a file of the logbook folder is read as a record at all (hidden and temporary files, and anything not .yaml, are not). */
 export const mayBeRecord = (name: string): boolean => !(isTempName(name) || name.startsWith(".") || !name.endsWith(".yaml"));
 
