@@ -11,6 +11,7 @@ import { historyOfFolder, summaryFile } from "../src/logbook/history-index.js";
 import { historyRows } from "../src/logbook/history.js";
 import { readLogbook } from "../src/logbook/store.js";
 import { ROOT } from "./helpers/cli.js";
+import { settle } from "./helpers/settle.js";
 
 const DEMO = join(ROOT, "jobs/logbook");
 const tmp = (p: string) => mkdtempSync(join(tmpdir(), p));
@@ -19,6 +20,7 @@ function logbook(): string {
   const dir = tmp("armwind-summary-book-");
   for (const f of readdirSync(DEMO)) copyFileSync(join(DEMO, f), join(dir, f));
   writeFileSync(join(dir, "broken-2026-12-01-1.yaml"), "{ this is not: [ a record");
+  settle(dir);
   return dir;
 }
 
@@ -78,7 +80,26 @@ describe("the history summary", () => {
     const after = historyOfFolder(dir, cache);
     expect(after.changed).toBe(true);
     expect({ rows: after.rows, warnings: after.book.warnings }).toEqual(wholeRead(dir));
+    settle(dir);
+    expect(historyOfFolder(dir, cache).changed).toBe(true); // settled now: kept
     expect(historyOfFolder(dir, cache).changed).toBe(false);
+  });
+
+  it("reads a record changed within the last two seconds every time, and keeps it once settled (a change in the same tick could leave its stamp as it was)", () => {
+    const dir = logbook();
+    const cache = tmp("armwind-summary-cache-");
+    historyOfFolder(dir, cache);
+    const name = blindFile(dir);
+    writeFileSync(join(dir, name), readFileSync(join(dir, name), "utf8").replace('"family": "blind-5slot"', '"family": "blind-5slox"'));
+    expect(historyOfFolder(dir, cache).changed).toBe(true);
+    const summary = () => JSON.parse(readFileSync(summaryFile(cache, dir), "utf8")) as { entries: Record<string, unknown> };
+    expect(summary().entries[name]).toBeUndefined();
+    // a second alteration of the same size, as within one tick of a coarse clock, is still seen: the file is read
+    writeFileSync(join(dir, name), readFileSync(join(dir, name), "utf8").replace('"family": "blind-5slox"', '"family": "blind-5sloy"'));
+    expect(historyOfFolder(dir, cache).rows.find((r) => r.file === name)?.family).toBe("blind-5sloy");
+    settle(dir);
+    historyOfFolder(dir, cache);
+    expect(summary().entries[name]).toBeDefined();
   });
 
   it("a damaged or foreign summary only means reading every record again", () => {

@@ -4,12 +4,13 @@
  * removed; a damaged or missing index only means reading everything again.
  */
 import { describe, expect, it } from "vitest";
-import { existsSync, mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from "node:fs";
+import { existsSync, mkdtempSync, readdirSync, readFileSync, rmSync, utimesSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { cacheFolder, indexFile, recordsOfFamily, refreshIndex } from "../src/logbook/family-index.js";
 import { byFileName, readLogbook } from "../src/logbook/store.js";
 import { ROOT } from "./helpers/cli.js";
+import { settle } from "./helpers/settle.js";
 
 const DEMO = join(ROOT, "jobs/logbook");
 const tmp = (p: string) => mkdtempSync(join(tmpdir(), p));
@@ -52,6 +53,19 @@ describe("records of one family", () => {
     expect(recordsOfFamily(dir, "blind-5slot", cache).warnings.map((w) => w.file)).toEqual([other]);
   });
 
+  it("places another family's record by the family its text names, without validating it: its damage is that family's warning", () => {
+    const dir = logbook();
+    const cache = tmp("armwind-index-cache-");
+    const other = readdirSync(dir).find((f) => !f.startsWith("blind-motor") && familyOf(dir, f) !== null)!;
+    const family = familyOf(dir, other)!;
+    writeFileSync(join(dir, other), readFileSync(join(dir, other), "utf8").replace(/"slots": \d+/, '"slots": -5'));
+    // a fresh index: the blind family's plan does not read it in full, so gives no warning
+    expect(recordsOfFamily(dir, "blind-5slot", cache).warnings).toEqual([]);
+    expect(JSON.parse(readFileSync(indexFile(cache, dir), "utf8")).families[other]).toBe(family);
+    // its own family's plan reads it and warns
+    expect(recordsOfFamily(dir, family, cache).warnings.map((w) => w.file)).toEqual([other]);
+  });
+
   it("sees a record added by hand or by a merge, and forgets a removed one", () => {
     const dir = logbook();
     const cache = tmp("armwind-index-cache-");
@@ -74,7 +88,7 @@ describe("records of one family", () => {
     writeFileSync(indexFile(cache, dir), "garbage");
     writeFileSync(indexFile(cache, dir, "blind-5slot"), "garbage");
     expect(recordsOfFamily(dir, "blind-5slot", cache).records).toHaveLength(1);
-    expect(JSON.parse(readFileSync(indexFile(cache, dir), "utf8")).version).toBe(2);
+    expect(JSON.parse(readFileSync(indexFile(cache, dir), "utf8")).version).toBe(3);
     expect(JSON.parse(readFileSync(indexFile(cache, dir, "blind-5slot"), "utf8")).names).toHaveLength(1);
   });
 
@@ -83,6 +97,64 @@ describe("records of one family", () => {
     const blocker = join(tmp("armwind-index-cache-"), "file");
     writeFileSync(blocker, "x");
     expect(recordsOfFamily(dir, "blind-5slot", join(blocker, "sub")).records).toHaveLength(1);
+  });
+});
+
+describe("the family's share keeps its records as validated", () => {
+  /** The share's JSON, and a way to write it back. */
+  const shareOf = (cache: string, dir: string) => {
+    const file = indexFile(cache, dir, "blind-5slot");
+    return { json: JSON.parse(readFileSync(file, "utf8")), save: (j: unknown) => writeFileSync(file, JSON.stringify(j)) };
+  };
+  const keOf = (dir: string, cache: string) => recordsOfFamily(dir, "blind-5slot", cache).records.map((r) => r.record.derived.ke_v_s_per_rad);
+
+  it("takes a settled record from the share while its file's stamp holds, and reads the file again once it changes", () => {
+    const dir = logbook(1);
+    settle(dir);
+    const cache = tmp("armwind-index-cache-");
+    const want = keOf(dir, cache); // builds the index
+    expect(keOf(dir, cache)).toEqual(want); // reads the files, keeps them
+    const { json, save } = shareOf(cache, dir);
+    expect(Object.keys(json.records)).toHaveLength(2);
+    // what is read now is the share: alter a kept record (the files themselves unchanged)
+    for (const k of Object.keys(json.records)) json.records[k].record.derived.ke_v_s_per_rad = 1.25;
+    save(json);
+    expect(keOf(dir, cache)).toEqual([1.25, 1.25]);
+    // one file touched (a new modification time): that one is read again
+    const name = Object.keys(json.records)[0];
+    utimesSync(join(dir, name), new Date(Date.now() - 30_000), new Date(Date.now() - 30_000));
+    expect(keOf(dir, cache).sort()).toEqual([1.25, want[0]].sort());
+  });
+
+  it("does not keep a record changed within the last two seconds, nor use a share of another armwind version", () => {
+    const dir = logbook(1);
+    const cache = tmp("armwind-index-cache-");
+    keOf(dir, cache);
+    keOf(dir, cache);
+    expect(shareOf(cache, dir).json.records).toEqual({});
+    settle(dir);
+    const want = keOf(dir, cache);
+    const { json, save } = shareOf(cache, dir);
+    for (const k of Object.keys(json.records)) json.records[k].record.derived.ke_v_s_per_rad = 1.25;
+    json.armwind = "0.0.0-other";
+    save(json);
+    expect(keOf(dir, cache)).toEqual(want);
+  });
+
+  it("skips listing a settled folder whose stamp is the share's, and still sees a record added or removed", () => {
+    const dir = logbook();
+    const cache = tmp("armwind-index-cache-");
+    keOf(dir, cache);
+    expect(shareOf(cache, dir).json.folder).toBeUndefined(); // the folder was just written: listed every time
+    settle(dir);
+    utimesSync(dir, new Date(Date.now() - 60_000), new Date(Date.now() - 60_000));
+    keOf(dir, cache);
+    expect(shareOf(cache, dir).json.folder).toEqual(expect.any(String));
+    const blind = readdirSync(dir).find((f) => f.startsWith("blind-motor-0031-"))!;
+    writeFileSync(join(dir, "blind-motor-0031-2026-12-01-9.yaml"), readFileSync(join(dir, blind)));
+    expect(recordsOfFamily(dir, "blind-5slot", cache).records.map((r) => r.file)).toEqual([blind, "blind-motor-0031-2026-12-01-9.yaml"]);
+    rmSync(join(dir, blind));
+    expect(recordsOfFamily(dir, "blind-5slot", cache).records.map((r) => r.file)).toEqual(["blind-motor-0031-2026-12-01-9.yaml"]);
   });
 });
 

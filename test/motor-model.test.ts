@@ -81,6 +81,24 @@ describe("derivable results of the linear motor model", () => {
     );
   });
 
+  it("with a shunt field across the supply the closed-form peak is the scanned peak (input V·(I + V/R_f))", () => {
+    // Independent computation: brute-force scan of efficiency over speed; the field's resistance a
+    // multiple of the armature's (shunt fields take a few per cent of the rated current, from memory).
+    fc.assert(
+      fc.property(arbModel, fc.double({ min: 5, max: 2000, noNaN: true }), (p, k) => {
+        const pm = build({ ...p, bFrac: Math.max(p.bFrac, 0.01) }); // some loss, as above
+        const m = { ...pm, fieldOhm: k * p.resistance };
+        const pe = peakEfficiency(m, p.V);
+        const scan = scanBestEfficiency(m, p.V);
+        expect(scan.efficiency).toBeLessThanOrEqual(pe.efficiency + 1e-12);
+        expect(pe.efficiency - scan.efficiency).toBeLessThan(1e-6);
+        // the field's loss only lowers it
+        expect(pe.efficiency).toBeLessThanOrEqual(peakEfficiency(pm, p.V).efficiency + 1e-12);
+      }),
+      { numRuns: 30 },
+    );
+  });
+
   it("with no loss, output power peaks at half the stall torque and half the no-load speed", () => {
     // Textbook result for the ideal DC motor (linear torque-speed line, P = T·ω a parabola).
     const m = { ...demo, loss: { tc: 0, b: 0 } };

@@ -6,11 +6,13 @@
  * e.g. S. J. Chapman, Electric Machinery Fundamentals, 4th ed. (2005), ch. 9, from memory), worked
  * by hand below. The motor is the blind demo's armature with an invented shunt field.
  */
-import { readFileSync } from "node:fs";
+import { mkdtempSync, readFileSync, writeFileSync } from "node:fs";
+import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { describe, expect, it } from "vitest";
 import { planJob } from "../src/design/plan.js";
-import { ROOT, loadJobText } from "./helpers/cli.js";
+import { atSpeed, noLoad, peakEfficiency, summarize, type MotorModel } from "../src/motor/model.js";
+import { ROOT, loadJobText, runMain } from "./helpers/cli.js";
 
 const blind = readFileSync(join(ROOT, "jobs/blind-motor-0031.yaml"), "utf8");
 const RPM = (2 * Math.PI) / 60;
@@ -62,5 +64,94 @@ describe("a shunt field is taken off the no-load test before Ke is fitted (worke
     const pm = planJob(loadJobText(shunt("", undefined, "permanent_magnet")));
     expect(pm.calibration.ke).toBeCloseTo(KE_WHOLE, 10);
     expect(pm.warnings.map((x) => x.code)).not.toContain("shunt_field");
+  });
+});
+
+/**
+ * A shunt field's copper loss is a loss: the input at the terminals is V·(I_a + I_f) and every
+ * efficiency is the shaft output over it. Source: the shunt DC motor's power flow (I_L = I_A + I_F,
+ * P_in = V_T·I_L, the field's copper loss V_F·I_F among the electrical losses, η = P_out/P_in;
+ * S. J. Chapman, Electric Machinery Fundamentals, 4th ed. (2005), ch. 9, "DC motor power flow and
+ * losses", from memory). Numbers worked by hand below.
+ */
+describe("a shunt field's loss is in every efficiency and input (worked by hand)", () => {
+  // A round-number motor: Ke 0.01 V·s/rad, R 1 Ω, no brush drop, T_c 1 mN·m, B 0, at 10 V, field 100 Ω.
+  //   I_f = 10/100 = 0.1 A. No load: ω0 = (0.01·10 − 0.001·1)/0.01² = 990 rad/s, I_a0 = T_c/Ke = 0.1 A,
+  //   at the terminals 0.1 + 0.1 = 0.2 A.
+  //   Peak efficiency with x = I_a·R, c = I_f·R = 0.1 V, α = Ke/R = 0.01, β = T_c = 0.001, β/α = 0.1:
+  //   (x + c)² = (V' + c)(β/α + c) = 10.1 × 0.2 = 2.02, x + c = 1.4212670, x = 1.3212670 → I_a = 1.3212670 A;
+  //   ω = (10 − 1.3212670)/0.01 = 867.87330 rad/s, T = 0.01 × 1.3212670 − 0.001 = 0.012212670 N·m,
+  //   P_out = 0.012212670 × 867.87330 = 10.599051 W, P_in = 10 × (1.3212670 + 0.1) = 14.212670 W,
+  //   η = 10.599051 / 14.212670 = 0.745747.
+  //   Without the field (a permanent magnet): I = √(I0·I_stall) = √(0.1 × 10) = 1 A, ω = 900 rad/s,
+  //   T = 0.009 N·m, P_out = 8.1 W, P_in = 10 W, η = 0.81; with the field at that same 1 A: 8.1/11 = 0.7364,
+  //   below 0.7457, as the peak must be.
+  const m: MotorModel = { ke: 0.01, resistance: 1, brushDrop: 0, loss: { tc: 0.001, b: 0 }, field: "constant", fieldOhm: 100 };
+
+  it("the model: no-load current at the terminals, peak efficiency and its current", () => {
+    const nl = noLoad(m, 10);
+    expect(nl.speed).toBeCloseTo(990, 9);
+    expect(nl.current).toBeCloseTo(0.1, 12);
+    expect(nl.terminalCurrent).toBeCloseTo(0.2, 12);
+    const pe = peakEfficiency(m, 10);
+    expect(pe.current).toBeCloseTo(1.321267, 6);
+    expect(pe.speed).toBeCloseTo(867.8733, 4);
+    expect(pe.efficiency).toBeCloseTo(0.745747, 6);
+    const p = atSpeed(m, 10, 900);
+    expect(p.inputW).toBeCloseTo(11, 9);
+    expect(p.efficiency).toBeCloseTo(8.1 / 11, 9);
+    const pm = peakEfficiency({ ...m, fieldOhm: null }, 10);
+    expect(pm.current).toBeCloseTo(1, 9);
+    expect(pm.efficiency).toBeCloseTo(0.81, 9);
+    expect(summarize(m, 10).noLoadCurrent).toBeCloseTo(0.2, 12);
+  });
+
+  // The blind armature as a shunt motor (field 120 Ω at 20 °C) at a duty of 4 mN·m, the original
+  // winding at its measured 1.57 Ω (20 °C), hot at 80 °C: factor 1 + 0.00393 × 60 = 1.2358 (IEC 60028).
+  //   Ke = 0.011222762 V·s/rad (above), T_c = Ke × 0.18 A = 0.0020201 N·m, B = 0, R_hot = 1.940206 Ω.
+  //   I_a = (T + T_c)/Ke = 0.004/0.011222762 + 0.18 = 0.536418 A;
+  //   ω = (12 − 0.2 − 0.536418 × 1.940206)/Ke = 958.698 rad/s; P_out = 0.004 × 958.698 = 3.834791 W.
+  //   The field hot: 120 × 1.2358 = 148.296 Ω, I_f = 12/148.296 = 0.0809192 A; at the terminals
+  //   0.536418 + 0.0809192 = 0.617338 A, P_in = 12 × 0.617338 = 7.408053 W, η = 3.834791/7.408053 = 0.517652
+  //   (the armature's alone: 3.834791/(12 × 0.536418) = 0.595740, what was printed before).
+  const duty = (text: string) => text.replace("goal: restore", "goal: duty\n  duty: { torque: 4 mN m, speed: 9000 rpm }");
+  const job = duty(shunt("field_winding:\n  resistance: { value: 120 ohm, at: 20 C }\n"));
+
+  it("the plan's duty point: armature current, terminal current, input and efficiency", () => {
+    const d = planJob(loadJobText(job)).original_duty!;
+    expect(d.current).toBeCloseTo(0.536418, 6);
+    expect(d.terminal_current!).toBeCloseTo(0.617338, 6);
+    expect(d.input_w).toBeCloseTo(7.408053, 5);
+    expect(d.output_w).toBeCloseTo(3.834791, 5);
+    expect(d.efficiency!).toBeCloseTo(0.517652, 6);
+  });
+
+  it("every curve point and the peak count the hot field's current; text, JSON and warning say so", async () => {
+    const plan = planJob(loadJobText(job));
+    const If = 12 / (120 * 1.2358);
+    for (const p of plan.original_motor.curve) {
+      expect(p.inputW).toBeCloseTo(12 * (p.current + If), 9);
+      expect(p.efficiency!).toBeCloseTo(p.outputW / p.inputW, 12);
+    }
+    // the peak is the curve's best or better, and below the same motor's without the field's loss
+    const best = Math.max(...plan.original_motor.curve.map((p) => p.efficiency!));
+    expect(plan.original_motor.peakEfficiency!).toBeGreaterThanOrEqual(best - 1e-12);
+    const pm = planJob(
+      loadJobText(duty(shunt("", "{ supply: 12 V, no_load_current: 0.18 A, no_load_speed: 9800 rpm, temperature: 20 C }", "permanent_magnet"))),
+    );
+    expect(pm.calibration.ke).toBeCloseTo(KE_SHUNT, 10);
+    expect(plan.original_motor.peakEfficiency!).toBeLessThan(pm.original_motor.peakEfficiency! - 0.01);
+    expect(pm.original_duty!.efficiency!).toBeCloseTo(0.59574, 5);
+    expect(pm.original_duty!.terminal_current).toBeCloseTo(pm.original_duty!.current, 12);
+    const w = plan.warnings.find((x) => x.code === "shunt_field")!;
+    expect(w.message).toMatch(/0\.100 A at 12 V \(0\.0809 A hot\)/);
+    expect(w.message).toMatch(/every efficiency include it/);
+    const dir = mkdtempSync(join(tmpdir(), "armwind-shunt-"));
+    writeFileSync(join(dir, "job.yaml"), job);
+    const json = JSON.parse((await runMain(["plan", join(dir, "job.yaml"), "--json", "--no-learn"])).stdout);
+    expect(json.duty.terminal_current_a).toBeCloseTo(json.duty.current_a + 12 / (120 * 1.2358), 9);
+    const text = (await runMain(["plan", join(dir, "job.yaml"), "--no-learn"])).stdout;
+    expect(text).toMatch(/armature current A/);
+    expect(text).toMatch(/terminal current A\s+0\.617/);
   });
 });

@@ -254,6 +254,29 @@ describe.skipIf(!have && !process.env.CI)("the workbench in Chromium", () => {
     await p.context().close();
   });
 
+  it("a bench test shows its kind's fields: a no-load test no load-test field; switched to load, the load form, saved with kind: load", async () => {
+    const file = join(shop, "jobs/drill-lap-0112.yaml");
+    const p = await page();
+    await p.goto(`${local.url}job/jobs/drill-lap-0112.yaml`);
+    await p.waitForSelector("#chosen");
+    const at = (k: string) => `[data-item="original.tests[1]"] .variant:not([hidden]) [data-field="original.tests[1].${k}"]`;
+    expect(await p.isVisible(at("no_load_current"))).toBe(true);
+    for (const k of ["current", "speed", "torque", "output_power"]) expect(await p.$(at(k))).toBeNull();
+    await p.check('[data-variant-of="original.tests[1]"][value="1"]');
+    expect(await p.$(at("no_load_current"))).toBeNull();
+    // the fields both forms share keep their values
+    expect(await p.inputValue(at("supply"))).toBe("120 V");
+    await p.fill(at("current"), "2.4 A");
+    await p.fill(at("speed"), "14000 rpm");
+    await p.fill(at("torque"), "0.05 N m");
+    await p.click("#save");
+    await p.waitForSelector("#save-status.ok");
+    expect(readFileSync(file, "utf8")).toContain(
+      "    - { kind: load, supply: 120 V, temperature: 22 C, current: 2.4 A, speed: 14000 rpm, torque: 0.05 N m }\n",
+    );
+    await p.context().close();
+  });
+
   it("refuses a foreign Host and a path outside the folder", async () => {
     const p = await page();
     const port = new URL(local.url).port;

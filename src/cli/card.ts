@@ -5,7 +5,7 @@ import { basename, dirname, join, relative, resolve } from "node:path";
 import { guarded, type Io } from "./io.js";
 import { planFromFile, planStatus } from "./plan.js";
 import { planJson } from "./plan-json.js";
-import { VERSION } from "./version.js";
+import { VERSION } from "../version.js";
 import { writeAtomic } from "./write.js";
 import { loadShop } from "./shop.js";
 import { firstSet, spoolFor } from "../shop/merge.js";

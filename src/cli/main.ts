@@ -5,7 +5,7 @@ import { hideBin } from "yargs/helpers";
 import { COMMAND_TEXT, type CommandName } from "./commands.js";
 import { processIo, type Io } from "./process-io.js";
 import { endForOutputError, OutputError, writeStream } from "./output.js";
-import { VERSION } from "./version.js";
+import { VERSION } from "../version.js";
 
 export async function main(args: string[], io = processIo()): Promise<number> {
   let status = 0;

@@ -278,6 +278,7 @@ function dutyJson(plan: Plan) {
     torque_n_m: d.torque,
     target_speed_rpm: rpm(d.target_speed),
     current_a: n(d.current),
+    terminal_current_a: n(d.terminal_current),
     speed_rpm: rpm(d.speed),
     efficiency: n(d.efficiency),
     input_w: n(d.input_w),

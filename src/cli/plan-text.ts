@@ -7,6 +7,7 @@ import { goalSummary } from "../format/goal.js";
 import { GOAL_UNIT, goalValue, toGrams } from "../format/units.js";
 import { seriesMotorRows, supplyText } from "../format/series.js";
 import { torqueUnit } from "../plot/curves.js";
+import { hasShuntField } from "../format/shunt.js";
 
 /** The job, the layout and its notes; the winding to wind (or the closest), its goal and fills. */
 function headText(plan: Plan, L: string[]): void {
@@ -71,11 +72,16 @@ function windingRows(plan: Plan): [string, string, string][] {
 /** The figures at the duty point, original and new (rpm, A), when the job gives a duty. */
 function dutyRows(plan: Plan): [string, string, string][] {
   if (!plan.duty || !plan.original_duty) return [];
-  return [
-    [`at ${sig(plan.duty.torque * 1e3)} mN·m: speed rpm`, rpm(plan.original_duty.speed), rpm(plan.duty.speed)],
-    ["  current A", sig(plan.original_duty.current), sig(plan.duty.current)],
-    ["  efficiency", pct(plan.original_duty.efficiency), pct(plan.duty.efficiency)],
-  ];
+  const o = plan.original_duty;
+  const n = plan.duty;
+  // a shunt motor: the armature's current and the terminals' (the field's besides) apart
+  const current: [string, string, string][] = hasShuntField(plan)
+    ? [
+        ["  armature current A", sig(o.current), sig(n.current)],
+        ["  terminal current A", sig(o.terminal_current), sig(n.terminal_current)],
+      ]
+    : [["  current A", sig(o.current), sig(n.current)]];
+  return [[`at ${sig(n.torque * 1e3)} mN·m: speed rpm`, rpm(o.speed), rpm(n.speed)], ...current, ["  efficiency", pct(o.efficiency), pct(n.efficiency)]];
 }
 
 /** A table of [label, original, new] rows, indented. */

@@ -4,13 +4,13 @@
  */
 import type { Job } from "../job/schema.js";
 import { brushDrop as brushDropFor, type BrushMaterial } from "../motor/brush.js";
-import { calibrate, type CalibrationInputs } from "../motor/calibrate.js";
+import { calibrate, type CalibrationInputs, type KeCalibration } from "../motor/calibrate.js";
 import { activeConductors, fluxFromGap, pitchFactor } from "../motor/emf.js";
 import { copperFactor, to20C } from "../wire/copper.js";
 import type { Warning } from "../errors.js";
 import type { ArmatureContext } from "./context.js";
 import type { Calibration } from "./types.js";
-import { nameplateMotorSpeed, setupSeries } from "./series.js";
+import { nameplateMotorSpeed, setupSeries, type SeriesSetup } from "./series.js";
 
 /** Default brush material when the job does not say: metal for small permanent-magnet motors (rotor under 30 mm), else carbon (common practice, no published source). */
 export function defaultBrushMaterial(job: Job): BrushMaterial {
@@ -43,9 +43,12 @@ function shuntFieldCurrent(ohm20: number | null, t: { supply: number; temperatur
   return ohm20 === null ? undefined : t.supply / (ohm20 * copperFactor(t.temperature ?? 20));
 }
 
-export function calibrateOriginal(ctx: ArmatureContext, logbook?: LogbookCalibration): { calibration: Calibration; warnings: Warning[] } {
-  const job = ctx.job;
-  const warnings: Warning[] = [];
+/**
+ * The brush drop in force (V, with its basis: src/motor/brush.ts, machine textbooks for carbon, from
+ * memory for metal): the job's, else its brush material's, else the default material's, and then a
+ * `brush_assumed` warning.
+ */
+function brushDropOf(job: Job, warnings: Warning[]): { volts: number; basis: string } {
   const material = job.winding.brushes.material ?? defaultBrushMaterial(job);
   const bd = brushDropFor(material, job.winding.brush_drop);
   if (job.winding.brushes.material === undefined && job.winding.brush_drop === undefined) {
@@ -55,83 +58,153 @@ export function calibrateOriginal(ctx: ArmatureContext, logbook?: LogbookCalibra
       message: `brush material not given: taken as ${material} (${bd.volts} V drop in total); say carbon or metal for better figures`,
     });
   }
-  const o = job.original;
-  const r20 = ctx.original.terminal20;
-  const inputs: CalibrationInputs = { brushDrop: bd.volts, field: job.armature.field };
-  if (o.generator) inputs.generator = { speed: o.generator.speed, volts: o.generator.volts };
-  // a series motor is calibrated by the series model (design/series.ts, given its field_winding): its
-  // running readings say nothing about a constant-field Ke, and readings at two currents disagree on it
-  const seriesModel = job.armature.field === "series";
-  const noLoadTests = seriesModel ? [] : (o.tests ?? []).filter((t) => t.kind === "no_load");
-  const shuntOhm = shuntFieldOhm(job);
-  if (noLoadTests.length > 0) {
-    inputs.noLoad = noLoadTests.map((t) => ({
-      supply: t.supply,
-      current: t.no_load_current!,
-      speed: t.no_load_speed!,
-      fieldCurrent: t.field_current ?? shuntFieldCurrent(shuntOhm, t),
-      terminalOhm: r20 * copperFactor(t.temperature ?? 20),
-    }));
-  }
-  if (logbook?.ke !== undefined) inputs.logbook = { ke: logbook.ke, records: logbook.records, loss: logbook.loss };
-  if (o.nameplate && !seriesModel) {
-    inputs.nameplate = {
-      supply: o.nameplate.supply,
-      // input watts on DC: I = P/V (a series motor's AC nameplate is read by design/series.ts)
-      current: o.nameplate.current ?? o.nameplate.input_power! / o.nameplate.supply,
-      speed: nameplateMotorSpeed(o.nameplate),
-      hotOhm: r20 * copperFactor(job.target.hot_temperature),
-    };
-  }
+  return bd;
+}
+
+/**
+ * The no-load tests as the Ke fit reads them (V, A, rad/s, Ω): each with the shunt field's current
+ * (given, else V/R_f at the test's temperature) and the terminal resistance at the test's temperature
+ * (IEC 60028). None for a series motor: the series model calibrates it (design/series.ts), and its
+ * running readings say nothing about a constant-field Ke (readings at two currents disagree on it).
+ */
+function noLoadInputs(ctx: ArmatureContext, shuntOhm: number | null): CalibrationInputs["noLoad"] {
+  if (ctx.job.armature.field === "series") return undefined;
+  const tests = (ctx.job.original.tests ?? []).filter((t) => t.kind === "no_load");
+  if (tests.length === 0) return undefined;
+  return tests.map((t) => ({
+    supply: t.supply,
+    current: t.no_load_current!,
+    speed: t.no_load_speed!,
+    fieldCurrent: t.field_current ?? shuntFieldCurrent(shuntOhm, t),
+    terminalOhm: ctx.original.terminal20 * copperFactor(t.temperature ?? 20),
+  }));
+}
+
+/**
+ * The nameplate as the rough Ke fit reads it (V, A, rad/s, Ω hot at `hot_temperature`): the current,
+ * or on DC the input watts over the supply (I = P/V); the motor's speed behind any gearbox. None for a
+ * series motor (design/series.ts reads its nameplate).
+ */
+function nameplateInput(ctx: ArmatureContext): CalibrationInputs["nameplate"] {
+  const { job } = ctx;
+  const np = job.original.nameplate;
+  if (!np || job.armature.field === "series") return undefined;
+  return {
+    supply: np.supply,
+    current: np.current ?? np.input_power! / np.supply,
+    speed: nameplateMotorSpeed(np),
+    hotOhm: ctx.original.terminal20 * copperFactor(job.target.hot_temperature),
+  };
+}
+
+/**
+ * The magnet estimate's inputs (Wb per pole, from the job or B·pole arc·pole area, src/motor/emf.ts
+ * `fluxFromGap`; active conductors, paths, pitch factor for the EMF equation); a pole arc taken as 0.7
+ * of the pole pitch (common practice) is warned of.
+ */
+function magnetInput(ctx: ArmatureContext, warnings: Warning[]): CalibrationInputs["magnet"] {
+  const { job } = ctx;
   const m = job.armature.magnet;
-  if (m) {
-    const flux =
-      m.flux_per_pole ?? fluxFromGap(m.gap_flux_density!, m.pole_arc ?? 0.7, job.armature.rotor_diameter, job.armature.stack_length, job.armature.field_poles);
-    inputs.magnet = {
-      poles: job.armature.field_poles,
-      conductors: activeConductors(o.turns, ctx.liveCoils),
-      paths: ctx.layout.paths,
-      fluxPerPole: flux,
-      pitchFactor: pitchFactor(ctx.layout.spec.span, job.armature.slots, job.armature.field_poles),
-    };
-    if (m.flux_per_pole === undefined && m.pole_arc === undefined) {
-      warnings.push({
-        code: "pole_arc_assumed",
-        path: "armature.magnet.pole_arc",
-        message: "pole arc not given: taken as 0.7 of the pole pitch (common practice)",
-      });
-    }
-  }
-  const c = calibrate(inputs);
-  // with the series model in charge, "nothing calibrates Ke" is no news
-  warnings.push(...c.warnings.filter((w) => !(seriesModel && w.code === "uncalibrated")));
-  if (c.loss === null && c.ke !== null && !logbook?.loss) {
+  if (!m) return undefined;
+  const a = job.armature;
+  const flux = m.flux_per_pole ?? fluxFromGap(m.gap_flux_density!, m.pole_arc ?? 0.7, a.rotor_diameter, a.stack_length, a.field_poles);
+  if (m.flux_per_pole === undefined && m.pole_arc === undefined) {
     warnings.push({
+      code: "pole_arc_assumed",
+      path: "armature.magnet.pole_arc",
+      message: "pole arc not given: taken as 0.7 of the pole pitch (common practice)",
+    });
+  }
+  return {
+    poles: a.field_poles,
+    conductors: activeConductors(job.original.turns, ctx.liveCoils),
+    paths: ctx.layout.paths,
+    fluxPerPole: flux,
+    pitchFactor: pitchFactor(ctx.layout.spec.span, a.slots, a.field_poles),
+  };
+}
+
+/** Everything the job (and the logbook) records that calibrates Ke, as `motor/calibrate` reads it (SI); absent sources left out. */
+function calibrationInputs(
+  ctx: ArmatureContext,
+  brushDrop: number,
+  shuntOhm: number | null,
+  warnings: Warning[],
+  logbook?: LogbookCalibration,
+): CalibrationInputs {
+  const o = ctx.job.original;
+  const inputs: CalibrationInputs = { brushDrop, field: ctx.job.armature.field };
+  if (o.generator) inputs.generator = { speed: o.generator.speed, volts: o.generator.volts };
+  const noLoad = noLoadInputs(ctx, shuntOhm);
+  if (noLoad) inputs.noLoad = noLoad;
+  if (logbook?.ke !== undefined) inputs.logbook = { ke: logbook.ke, records: logbook.records, loss: logbook.loss };
+  const nameplate = nameplateInput(ctx);
+  if (nameplate) inputs.nameplate = nameplate;
+  const magnet = magnetInput(ctx, warnings);
+  if (magnet) inputs.magnet = magnet;
+  return inputs;
+}
+
+/**
+ * What the fit warns of (a series motor's "nothing calibrates Ke" left out: its series model is in
+ * charge), and `loss_unknown` when Ke is known but nothing gives the loss torque.
+ */
+function fitWarnings(job: Job, c: KeCalibration, logbook?: LogbookCalibration): Warning[] {
+  const seriesModel = job.armature.field === "series";
+  const out = c.warnings.filter((w) => !(seriesModel && w.code === "uncalibrated"));
+  if (c.loss === null && c.ke !== null && !logbook?.loss) {
+    out.push({
       code: "loss_unknown",
       path: "original.tests",
       message: "no no-load test: the loss torque is unknown and taken as zero, so no-load speeds read high and no-load currents read zero",
     });
   }
-  // the series model's calibration, when the job describes the field (design/series.ts)
-  const series = seriesModel ? setupSeries(ctx, bd.volts) : null;
-  if (series) warnings.push(...series.warnings);
-  let disagreementValue: number | null = null;
-  if (c.fits.generator && c.fits.noLoad) disagreementValue = Math.abs(c.fits.generator.value - c.fits.noLoad.value) / c.fits.generator.value;
+  return out;
+}
+
+/**
+ * The plan's calibration record from the fit: Ke (V·s/rad) and its source, the loss torque (the fit's,
+ * else the logbook's, else zero and unknown), the generator/no-load disagreement |Ke_g − Ke_n|/Ke_g,
+ * the brush drop (V), the series model's setup and the shunt field's resistance at 20 °C (Ω).
+ */
+function calibrationOf(
+  c: KeCalibration,
+  bd: { volts: number; basis: string },
+  series: SeriesSetup | null,
+  shuntOhm: number | null,
+  logbook?: LogbookCalibration,
+): Calibration {
+  const g = c.fits.generator;
+  const n = c.fits.noLoad;
   return {
-    calibration: {
-      source: c.source,
-      ke: c.ke,
-      uncertainty: c.uncertainty,
-      basis: [c.basis, ...c.reasons].join("; "),
-      loss: c.loss ?? logbook?.loss ?? { tc: 0, b: 0 },
-      loss_basis: c.lossBasis ?? (logbook?.loss ? "from the logbook" : "unknown: taken as zero"),
-      loss_known: c.loss !== null || logbook?.loss !== undefined,
-      disagreement: disagreementValue,
-      brush_drop: bd.volts,
-      brush_drop_basis: bd.basis,
-      series,
-      shunt_field_ohm: shuntOhm,
-    },
-    warnings,
+    source: c.source,
+    ke: c.ke,
+    uncertainty: c.uncertainty,
+    basis: [c.basis, ...c.reasons].join("; "),
+    loss: c.loss ?? logbook?.loss ?? { tc: 0, b: 0 },
+    loss_basis: c.lossBasis ?? (logbook?.loss ? "from the logbook" : "unknown: taken as zero"),
+    loss_known: c.loss !== null || logbook?.loss !== undefined,
+    disagreement: g && n ? Math.abs(g.value - n.value) / g.value : null,
+    brush_drop: bd.volts,
+    brush_drop_basis: bd.basis,
+    series,
+    shunt_field_ohm: shuntOhm,
   };
+}
+
+/**
+ * Calibrate the motor from the original winding (docs/contracts.md "Calibration of Ke": generator,
+ * no-load tests, logbook, nameplate, magnet, best first; src/motor/calibrate.ts): the brush drop, the
+ * recorded sources as the fit reads them, the fit, its warnings, and for a series field the series
+ * model's own calibration (design/series.ts). Units SI.
+ */
+export function calibrateOriginal(ctx: ArmatureContext, logbook?: LogbookCalibration): { calibration: Calibration; warnings: Warning[] } {
+  const warnings: Warning[] = [];
+  const bd = brushDropOf(ctx.job, warnings);
+  const shuntOhm = shuntFieldOhm(ctx.job);
+  const c = calibrate(calibrationInputs(ctx, bd.volts, shuntOhm, warnings, logbook));
+  warnings.push(...fitWarnings(ctx.job, c, logbook));
+  const series = ctx.job.armature.field === "series" ? setupSeries(ctx, bd.volts) : null;
+  if (series) warnings.push(...series.warnings);
+  return { calibration: calibrationOf(c, bd, series, shuntOhm, logbook), warnings };
 }

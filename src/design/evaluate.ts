@@ -540,10 +540,12 @@ function dutyOf(s: Setup, w: Winding, ke: number | null, r20: number): DutyRepor
   if (!d || !s.physics.canPredict(ke)) return null;
   const p = s.physics.atTorque(ke, w.turns, r20, s.hotFactor, s.supply, d.torque);
   if (p === null) return null;
+  const field = s.physics.fieldCurrent(s.hotFactor, s.supply);
   return {
     torque: d.torque,
     target_speed: d.speed,
     current: p.current,
+    terminal_current: field === null ? null : p.current + field,
     speed: p.speed,
     efficiency: s.physics.lossKnown ? p.efficiency : null,
     input_w: p.inputW,

@@ -19,7 +19,7 @@
  * Units: SI (V·s/rad, Ω, V, A, rad/s, N·m, W, A/m²).
  */
 import type { Job } from "../job/schema.js";
-import { curve, noLoad, pointAtTorque, stallCurrent, summarize, unknownSummary, type MotorModel, type OperatingPoint } from "../motor/model.js";
+import { curve, fieldCurrent, noLoad, pointAtTorque, stallCurrent, summarize, unknownSummary, type MotorModel, type OperatingPoint } from "../motor/model.js";
 import type { Warning } from "../errors.js";
 import { seriesPhysics, type SeriesJobFigures, type SeriesSide } from "./series.js";
 import type { Calibration, MotorReport } from "./types.js";
@@ -47,15 +47,34 @@ export interface MotorPhysics {
    * with the rotor still there is no back-EMF.
    */
   lockedRotor(turns: number, r20: number, factor: number, V: number): number | null;
-  /** The steady point at load torque T (N·m), winding at R(T)/R20 = `factor`; null beyond stall or when the model cannot say. */
+  /**
+   * The current a shunt field takes across supply V (A), its winding at R(T)/R20 = `factor` (heated as
+   * the armature is): V/R_f, 0 for a permanent magnet, null for a series field (it carries the armature's).
+   */
+  fieldCurrent(factor: number, V: number): number | null;
+  /**
+   * The steady point at load torque T (N·m), winding at R(T)/R20 = `factor`; null beyond stall or when
+   * the model cannot say. Its current is the armature's, its input and efficiency at the terminals.
+   */
   atTorque(ke: number | null, turns: number, r20: number, factor: number, V: number, T: number): OperatingPoint | null;
   /** Every figure of the report for a winding, hot where the figure is hot (`hotFactor`). */
   report(ke: number | null, turns: number, r20: number, hotFactor: number, V: number, side: ReportSide): MotorReport;
 }
 
-/** The model object of src/motor/model.ts for a winding. */
-function modelOf(ke: number, resistance: number, cal: Calibration, field: MotorModel["field"]): MotorModel {
-  return { ke, resistance, brushDrop: cal.brush_drop, loss: cal.loss, field };
+/**
+ * A shunt field's resistance at R(T)/R20 = `factor` (Ω; IEC 60028 through the factor, the field heated
+ * as the armature is, as a series field is: DEVELOPERS.md "Shunt fields"); null without one.
+ */
+function shuntOhm(cal: Calibration, factor: number): number | null {
+  return cal.shunt_field_ohm === null ? null : cal.shunt_field_ohm * factor;
+}
+
+/**
+ * The model object of src/motor/model.ts for a winding of Ke `ke` (V·s/rad) and terminal resistance
+ * R20·factor (Ω), a shunt field at the same factor: the one place the field enters the figures.
+ */
+function modelOf(ke: number, r20: number, factor: number, cal: Calibration): MotorModel {
+  return { ke, resistance: r20 * factor, brushDrop: cal.brush_drop, loss: cal.loss, field: "constant", fieldOhm: shuntOhm(cal, factor) };
 }
 
 /**
@@ -76,15 +95,6 @@ function lossesUnknown(r: MotorReport): MotorReport {
 }
 
 /**
- * A shunt field's current at supply V (A), its winding at R(T)/R20 = `factor`: V/R_f, the field across
- * the supply (docs "Steady state"); 0 for other fields. It adds to the no-load current the meter at
- * the terminals reads; the armature's figures (stall, duty, efficiency) leave it out.
- */
-function shuntCurrent(cal: Calibration, V: number, factor: number): number {
-  return cal.shunt_field_ohm === null ? 0 : V / (cal.shunt_field_ohm * factor);
-}
-
-/**
  * Constant field: V = Ke·ω + I·R + V_b, T = Kt·I − T_f(ω) (src/motor/model.ts, the linear DC motor
  * model), for the calibration `cal`.
  */
@@ -96,22 +106,22 @@ export function constantField(cal: Calibration): MotorPhysics {
     canPredict: (ke) => ke !== null,
     noLoad(ke, _turns, r20, factor, V) {
       if (ke === null) return null;
-      const nl = noLoad(modelOf(ke, r20 * factor, cal, "constant"), V);
-      return { speed: nl.speed, current: cal.loss_known ? nl.current + shuntCurrent(cal, V, factor) : null };
+      const nl = noLoad(modelOf(ke, r20, factor, cal), V);
+      return { speed: nl.speed, current: cal.loss_known ? nl.terminalCurrent : null };
     },
     stallCurrent: (ke, _turns, r20, factor, V) => (ke === null ? null : stallCurrent(r20 * factor, cal.brush_drop, V)),
     lockedRotor: (_turns, r20, factor, V) => stallCurrent(r20 * factor, cal.brush_drop, V),
-    atTorque: (ke, _turns, r20, factor, V, T) => (ke === null ? null : pointAtTorque(modelOf(ke, r20 * factor, cal, "constant"), V, T)),
+    fieldCurrent: (factor, V) => fieldCurrent(shuntOhm(cal, factor), V),
+    atTorque: (ke, _turns, r20, factor, V, T) => (ke === null ? null : pointAtTorque(modelOf(ke, r20, factor, cal), V, T)),
     report(ke, _turns, r20, hotFactor, V) {
-      const rHot = r20 * hotFactor;
-      if (ke === null) return unknownReport(null, rHot);
-      const hot = modelOf(ke, rHot, cal, "constant");
-      const nl = noLoad(modelOf(ke, r20, cal, "constant"), V);
+      if (ke === null) return unknownReport(null, r20 * hotFactor);
+      const hot = modelOf(ke, r20, hotFactor, cal);
+      const nl = noLoad(modelOf(ke, r20, 1, cal), V);
       const report: MotorReport = {
         ...summarize(hot, V),
         noLoadSpeed: nl.speed,
         noLoadPerVolt: V > 0 ? nl.speed / V : null,
-        noLoadCurrent: nl.current + shuntCurrent(cal, V, 1),
+        noLoadCurrent: nl.terminalCurrent,
         stallCurrentCold: stallCurrent(r20, cal.brush_drop, V),
         model: hot,
         curve: curve(hot, V, 41),
@@ -135,6 +145,7 @@ export const SERIES_ARMATURE_ONLY: MotorPhysics = {
   noLoad: () => null,
   stallCurrent: () => null,
   lockedRotor: () => null,
+  fieldCurrent: () => null,
   atTorque: () => null,
   report: (ke, _turns, r20, hotFactor) => unknownReport(ke, r20 * hotFactor),
 };

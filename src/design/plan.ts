@@ -5,7 +5,8 @@
  */
 import type { Warning } from "../errors.js";
 import type { Job } from "../job/schema.js";
-import { COPPER_DENSITY } from "../wire/copper.js";
+import { COPPER_DENSITY, copperFactor } from "../wire/copper.js";
+import { fieldCurrent } from "../motor/model.js";
 import { defaultStock, resolveWire } from "../wire/catalogue.js";
 import type { Wire } from "../wire/types.js";
 import { buildContext, supplyOf, type ArmatureContext } from "./context.js";
@@ -396,19 +397,34 @@ function restoreGeometryWarnings(ev: Evaluator, chosen: Candidate): Warning[] {
 
 /**
  * A shunt motor: what its field takes and where the figures include it (the field sits across the
- * supply: I_f = V/R_f, docs "Steady state" and "Calibration of Ke", less a shunt field's current).
+ * supply: I_f = V/R_f, its copper loss V·I_f = V²/R_f; docs "Steady state" and "Calibration of Ke",
+ * less a shunt field's current). The field's current comes from the motor model (src/motor/model.ts
+ * `fieldCurrent`), cold (20 °C) and hot as the armature (`hot_temperature`).
  */
 function shuntWarnings(job: Job, cal: Calibration, supply: number): Warning[] {
   if (job.armature.field !== "shunt") return [];
   const r = cal.shunt_field_ohm;
+  if (r === null) {
+    return [
+      {
+        code: "shunt_field",
+        path: "field_winding",
+        message:
+          "shunt field of unknown resistance: Ke is fitted on the whole no-load current, the field's current counts as the armature's loss current, and the input and efficiencies hold its loss only that way; give field_winding.resistance or each test's field_current",
+      },
+    ];
+  }
+  const cold = fieldCurrent(r, supply);
+  const hot = fieldCurrent(r * copperFactor(job.target.hot_temperature), supply);
+  const p = (x: number) => x.toPrecision(3);
   return [
     {
       code: "shunt_field",
-      path: r === null ? "field_winding" : "armature.field",
+      path: "armature.field",
       message:
-        r === null
-          ? "shunt field of unknown resistance: Ke is fitted on the whole no-load current and the no-load current leaves the field out; give field_winding.resistance or each test's field_current"
-          : `shunt field ${r.toPrecision(4)} Ω at 20 °C takes ${(supply / r).toPrecision(3)} A at ${supply} V: taken off each no-load test before Ke is fitted and added to the predicted no-load current (what the meter at the terminals reads); stall and duty currents and the efficiencies are the armature's alone`,
+        `shunt field ${r.toPrecision(4)} Ω at 20 °C takes ${p(cold)} A at ${supply} V (${p(hot)} A hot): taken off each no-load test before Ke is fitted; ` +
+        `the predicted no-load current, the input power and every efficiency include it (its copper loss ${p(supply * cold)} W cold, ${p(supply * hot)} W hot); ` +
+        `stall and duty currents are the armature's, and the meter at the terminals reads the field's current besides`,
     },
   ];
 }

@@ -363,6 +363,8 @@ export function seriesPhysics(job: Job, setup: SeriesSetup, originalTurns: numbe
       return p === null ? null : { speed: p.speed, current: lossKnown ? p.current : null };
     },
     stallCurrent: () => null,
+    // the field carries the armature's current: no separate field current (its points' current is the terminals')
+    fieldCurrent: () => null,
     // at the check's frequency (a bench's variable transformer, or DC); on AC only when the inductance is known
     lockedRotor: (turns, r20, factor, V) =>
       checkFrequency > 0 && !setup.inductanceKnown ? null : lockedRotorCurrent(motorOf(turns, r20, factor), { volts: V, frequency: checkFrequency }),

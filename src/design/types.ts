@@ -50,7 +50,7 @@ export interface Candidate {
   /** Hot stall current at the supply, A; null for series motors or without Ke. */
   stall_current_hot: number | null;
   stall_current_cold: number | null;
-  /** Input power at the duty point, W (duty goal). */
+  /** Input power at the terminals at the duty point, W (duty goal; a shunt field's V²/R_f included). */
   duty_input_w: number | null;
 }
 
@@ -156,10 +156,17 @@ export interface MotorReport extends MotorSummary {
 export interface DutyReport {
   torque: number;
   target_speed: number;
+  /** The armature's current, A (through the brushes: the current density's). */
   current: number;
+  /**
+   * What a meter on the supply reads, A: the armature's current and a shunt field's (V/R_f, hot); the
+   * armature's alone for a permanent magnet; null for a series motor (its `current` is the terminals').
+   */
+  terminal_current: number | null;
   speed: number;
-  /** Null when the losses are unknown (docs "Unknown is null"). */
+  /** Shaft output over the input at the terminals (a shunt field's loss included); null when the losses are unknown (docs "Unknown is null"). */
   efficiency: number | null;
+  /** Input at the terminals, W: V·(armature current + a shunt field's). */
   input_w: number;
   output_w: number;
   current_density: number | null;

@@ -11,7 +11,7 @@
  * Pure: no files. `armwind schema` prints it; templates/job.schema.json is the committed copy.
  */
 import { z } from "zod";
-import { jobSchema } from "./schema.js";
+import { EDITOR_FORMS, jobSchema } from "./schema.js";
 import { defaultUnit, example, unitNames, type QuantityKind } from "./units.js";
 
 /** Stable identifier of the schema (a URN: nothing to fetch; editors find the file by path). */
@@ -236,9 +236,22 @@ function walkBranch(node: unknown, path: string): void {
   }
 }
 
+/**
+ * A schema written in one of several forms (a bench test: the form of its kind, src/job/schema.ts
+ * `EDITOR_FORMS`) is shown to editors as the choice of those forms (`anyOf`, each a map with its
+ * fixed `kind`), so an editor and the workbench's form offer each kind's fields only.
+ */
+function formsOf(ctx: { zodSchema: unknown; jsonSchema: Json }): void {
+  const forms = EDITOR_FORMS.get(ctx.zodSchema as z.ZodType);
+  if (!forms) return;
+  const { $schema: _, ...json } = z.toJSONSchema(forms, { io: "input", unrepresentable: "any" }) as Json;
+  for (const k of Object.keys(ctx.jsonSchema)) delete ctx.jsonSchema[k];
+  Object.assign(ctx.jsonSchema, json);
+}
+
 /** The job file's JSON Schema (draft 2020-12), as a plain object. */
 export function jobJsonSchema(): Json {
-  const generated = z.toJSONSchema(jobSchema, { io: "input", unrepresentable: "any" }) as Json;
+  const generated = z.toJSONSchema(jobSchema, { io: "input", unrepresentable: "any", override: formsOf }) as Json;
   walk(generated, "");
   const { $schema, ...rest } = generated;
   return {

@@ -262,115 +262,137 @@ export function shapeAt(schema: z.ZodType, parts: readonly PathPart[]): string[]
   return [];
 }
 
-function issuesToProblems(issues: readonly Issue[], schema: z.ZodType, raw: unknown): RawProblem[] {
-  const out: RawProblem[] = [];
-  for (const issue of issues) {
-    const parts = issue.path.map((p) => (typeof p === "symbol" ? String(p) : p)) as PathPart[];
-    const value = valueAt(raw, parts);
-    switch (issue.code) {
-      case "unrecognized_keys": {
-        const known = shapeAt(schema, parts);
-        for (const key of issue.keys) {
-          const near = nearest(key, known);
-          out.push({
-            code: "unknown_key",
-            parts: [...parts, key],
-            keyNode: true,
-            suggests: near,
-            message: /^\d/.test(key)
-              ? `unknown key "${key}": it looks like the end of a number split at a comma; inside { } a comma separates entries, so write numbers without thousands separators (11000 rpm, not 11,000 rpm)`
-              : `unknown key "${key}"${near ? `; did you mean "${near}"?` : known.length ? `; known keys here: ${known.filter((k) => k !== "$schema").join(", ")}` : ""}`,
-          });
-        }
-        break;
-      }
-      case "invalid_type": {
-        if (value === undefined) {
-          out.push({ code: "missing_field", parts, message: `missing; ${expectedText(issue.expected, schema, parts)} is required here` });
-        } else {
-          out.push({ code: "wrong_type", parts, message: `expected ${expectedText(issue.expected, schema, parts)}, got ${describe(value)}` });
-        }
-        break;
-      }
-      case "invalid_value": {
-        const opts = issue.values.map((v) => String(v));
-        const near = typeof value === "string" ? nearest(value, opts) : undefined;
-        out.push({
-          code: "bad_choice",
-          parts,
-          message:
-            value === undefined
-              ? `missing; one of ${opts.join(", ")} is required here`
-              : `${describe(value)} is not allowed; use ${opts.length === 1 ? opts[0] : `one of ${opts.join(", ")}`}${near ? ` (did you mean "${near}"?)` : ""}`,
-        });
-        break;
-      }
-      case "too_small":
-      case "too_big": {
-        const isCount = issue.origin === "number" || issue.origin === "int";
-        const bound = (issue as { minimum?: unknown; maximum?: unknown }).minimum ?? (issue as { maximum?: unknown }).maximum;
-        if (issue.origin === "string" && issue.code === "too_big") {
-          out.push({
-            code: "out_of_range",
-            parts,
-            message: `the text is ${typeof value === "string" ? value.length : "too many"} characters long; at most ${String(bound)} are read here`,
-          });
-        } else if (issue.origin === "array" && issue.code === "too_big") {
-          out.push({
-            code: "out_of_range",
-            parts,
-            message: `the list has ${Array.isArray(value) ? value.length : "too many"} items; at most ${String(bound)} are read here`,
-          });
-        } else if (issue.origin === "array" && issue.code === "too_small") {
-          out.push({ code: "out_of_range", parts, message: `the list is empty; give at least ${String(bound)} item, or leave the key out` });
-        } else if (isCount) {
-          out.push({
-            code: "out_of_range",
-            parts,
-            message: `${describe(value)} is ${issue.code === "too_small" ? "too small" : "too large"}; it must be ${issue.code === "too_small" ? "at least" : "at most"} ${String(bound)}`,
-          });
-        } else {
-          out.push({ code: "out_of_range", parts, message: issue.message });
-        }
-        break;
-      }
-      case "invalid_format": {
-        out.push({ code: "bad_format", parts, message: `${describe(value)}: ${issue.message}` });
-        break;
-      }
-      case "custom": {
-        const code = (issue.params as { code?: string } | undefined)?.code ?? "invalid";
-        out.push({ code, parts, message: issue.message });
-        break;
-      }
-      case "invalid_union": {
-        // our unions are "number or text" quantities and wires: find a custom message inside, else say what is expected
-        const inner = issue.errors.flat().find((e) => e.code === "custom");
-        if (inner) {
-          out.push({ code: (inner.params as { code?: string } | undefined)?.code ?? "invalid", parts, message: inner.message });
-        } else if (value === undefined) {
-          out.push({ code: "missing_field", parts, message: "missing; a value is required here" });
-        } else {
-          const objectBranch = issue.errors.find((errs) => errs.every((e) => e.path.length > 0));
-          if (objectBranch && value !== null && typeof value === "object" && !Array.isArray(value)) {
-            out.push(
-              ...issuesToProblems(
-                objectBranch.map((e) => ({ ...e, path: [...issue.path, ...e.path] })),
-                schema,
-                raw,
-              ),
-            );
-          } else {
-            out.push({ code: "wrong_type", parts, message: `${describe(value)} is not a valid value here; ${unionHint(parts)}` });
-          }
-        }
-        break;
-      }
-      default:
-        out.push({ code: "invalid", parts, message: issue.message });
-    }
+/** What one zod issue is about: its path (symbols as text), the raw value there, the schema and the raw document. */
+interface IssueAt {
+  parts: PathPart[];
+  value: unknown;
+  schema: z.ZodType;
+  raw: unknown;
+}
+
+/**
+ * Keys the schema does not know (`unrecognized_keys`): one `unknown_key` each, located at the key,
+ * with the nearest known key (edit distance, src/job/paths.ts `nearest`) or the known keys listed;
+ * a key that starts with a digit is a number split at a comma inside { }.
+ */
+function unknownKeys(issue: Extract<Issue, { code: "unrecognized_keys" }>, at: IssueAt): RawProblem[] {
+  const known = shapeAt(at.schema, at.parts);
+  return issue.keys.map((key) => {
+    const near = nearest(key, known);
+    return {
+      code: "unknown_key",
+      parts: [...at.parts, key],
+      keyNode: true,
+      suggests: near,
+      message: /^\d/.test(key)
+        ? `unknown key "${key}": it looks like the end of a number split at a comma; inside { } a comma separates entries, so write numbers without thousands separators (11000 rpm, not 11,000 rpm)`
+        : `unknown key "${key}"${near ? `; did you mean "${near}"?` : known.length ? `; known keys here: ${known.filter((k) => k !== "$schema").join(", ")}` : ""}`,
+    };
+  });
+}
+
+/** A value of the wrong type (`invalid_type`): `missing_field` when nothing is there, else `wrong_type` naming what was found. */
+function invalidType(issue: Extract<Issue, { code: "invalid_type" }>, at: IssueAt): RawProblem[] {
+  const expected = expectedText(issue.expected, at.schema, at.parts);
+  if (at.value === undefined) return [{ code: "missing_field", parts: at.parts, message: `missing; ${expected} is required here` }];
+  return [{ code: "wrong_type", parts: at.parts, message: `expected ${expected}, got ${describe(at.value)}` }];
+}
+
+/** A value outside a fixed set (`invalid_value`): `bad_choice`, listing the choices and the nearest one to what was written. */
+function invalidValue(issue: Extract<Issue, { code: "invalid_value" }>, at: IssueAt): RawProblem[] {
+  const opts = issue.values.map((v) => String(v));
+  const near = typeof at.value === "string" ? nearest(at.value, opts) : undefined;
+  return [
+    {
+      code: "bad_choice",
+      parts: at.parts,
+      message:
+        at.value === undefined
+          ? `missing; one of ${opts.join(", ")} is required here`
+          : `${describe(at.value)} is not allowed; use ${opts.length === 1 ? opts[0] : `one of ${opts.join(", ")}`}${near ? ` (did you mean "${near}"?)` : ""}`,
+    },
+  ];
+}
+
+/**
+ * A size or number out of bounds (`too_small`, `too_big`): `out_of_range`, worded for a text (its
+ * length), a list (its items), a count (the bound); a quantity's own message otherwise.
+ */
+function outOfRange(issue: Extract<Issue, { code: "too_small" | "too_big" }>, at: IssueAt): RawProblem[] {
+  const { parts, value } = at;
+  const isCount = issue.origin === "number" || issue.origin === "int";
+  const bound = (issue as { minimum?: unknown; maximum?: unknown }).minimum ?? (issue as { maximum?: unknown }).maximum;
+  let message: string = issue.message;
+  if (issue.origin === "string" && issue.code === "too_big") {
+    message = `the text is ${typeof value === "string" ? value.length : "too many"} characters long; at most ${String(bound)} are read here`;
+  } else if (issue.origin === "array" && issue.code === "too_big") {
+    message = `the list has ${Array.isArray(value) ? value.length : "too many"} items; at most ${String(bound)} are read here`;
+  } else if (issue.origin === "array" && issue.code === "too_small") {
+    message = `the list is empty; give at least ${String(bound)} item, or leave the key out`;
+  } else if (isCount) {
+    message = `${describe(value)} is ${issue.code === "too_small" ? "too small" : "too large"}; it must be ${issue.code === "too_small" ? "at least" : "at most"} ${String(bound)}`;
   }
-  return out;
+  return [{ code: "out_of_range", parts, message }];
+}
+
+/** A rule of our own (`custom`): its code from the issue's params (the schema's stable codes), else `invalid`. */
+function customProblem(issue: Extract<Issue, { code: "custom" }>, at: IssueAt): RawProblem[] {
+  return [{ code: (issue.params as { code?: string } | undefined)?.code ?? "invalid", parts: at.parts, message: issue.message }];
+}
+
+/**
+ * No branch of a union fits (`invalid_union`). Our unions are "number or text" quantities, wires and
+ * supplies: a custom message inside wins; nothing there is `missing_field`; a mapping written for the
+ * map branch gets that branch's own problems (at their full paths); else `wrong_type` with how to write one.
+ */
+function unionProblem(issue: Extract<Issue, { code: "invalid_union" }>, at: IssueAt): RawProblem[] {
+  const { parts, value } = at;
+  const inner = issue.errors.flat().find((e) => e.code === "custom");
+  if (inner) return [{ code: (inner.params as { code?: string } | undefined)?.code ?? "invalid", parts, message: inner.message }];
+  if (value === undefined) return [{ code: "missing_field", parts, message: "missing; a value is required here" }];
+  const objectBranch = issue.errors.find((errs) => errs.every((e) => e.path.length > 0));
+  if (objectBranch && value !== null && typeof value === "object" && !Array.isArray(value)) {
+    return issuesToProblems(
+      objectBranch.map((e) => ({ ...e, path: [...issue.path, ...e.path] })),
+      at.schema,
+      at.raw,
+    );
+  }
+  return [{ code: "wrong_type", parts, message: `${describe(value)} is not a valid value here; ${unionHint(parts)}` }];
+}
+
+/** One zod issue as the problems a person reads: each kind of issue by its own step above. */
+function issueProblems(issue: Issue, at: IssueAt): RawProblem[] {
+  switch (issue.code) {
+    case "unrecognized_keys":
+      return unknownKeys(issue, at);
+    case "invalid_type":
+      return invalidType(issue, at);
+    case "invalid_value":
+      return invalidValue(issue, at);
+    case "too_small":
+    case "too_big":
+      return outOfRange(issue, at);
+    case "invalid_format":
+      return [{ code: "bad_format", parts: at.parts, message: `${describe(at.value)}: ${issue.message}` }];
+    case "custom":
+      return customProblem(issue, at);
+    case "invalid_union":
+      return unionProblem(issue, at);
+    default:
+      return [{ code: "invalid", parts: at.parts, message: issue.message }];
+  }
+}
+
+/**
+ * zod's issues → problems with a stable code, a field path and a message that says what would be
+ * right (docs/contracts.md, errors; the codes are listed in the README), in the issues' order.
+ */
+function issuesToProblems(issues: readonly Issue[], schema: z.ZodType, raw: unknown): RawProblem[] {
+  return issues.flatMap((issue) => {
+    const parts = issue.path.map((p) => (typeof p === "symbol" ? String(p) : p)) as PathPart[];
+    return issueProblems(issue, { parts, value: valueAt(raw, parts), schema, raw });
+  });
 }
 
 function unionHint(parts: readonly PathPart[]): string {

@@ -191,19 +191,72 @@ const brushesSchema = z.strictObject({
 /** A bench reading's frequency: AC at this frequency, 0 Hz for DC; absent: the target supply's kind. */
 const readingFrequency = () => qty("frequency", { min: 0, max: 1000, minText: "0 Hz (DC)", maxText: "1000 Hz" }).optional();
 
-const noLoadTestSchema = z
-  .strictObject({
-    kind: z.enum(["no_load", "load"]).meta({ description: "no_load (nothing on the shaft) or load (a known torque or output power)" }).prefault("no_load"),
-    supply: qty("voltage", { positive: true }),
-    frequency: readingFrequency(),
-    no_load_current: qty("current", { positive: true }).optional(),
-    no_load_speed: qty("speed", { positive: true }).optional(),
-    current: qty("current", { positive: true }).optional(),
-    speed: qty("speed", { positive: true }).optional(),
+/** What a bench test is: no_load (nothing on the shaft) or load (a known torque or output power). */
+const testKindSchema = z.enum(["no_load", "load"]).meta({ description: "no_load (nothing on the shaft) or load (a known torque or output power)" });
+
+/** The fields every bench test reads, whatever its kind: the supply, then the optional ones (written after a kind's own). */
+const testSupply = { supply: qty("voltage", { positive: true }) };
+const testOptional = {
+  frequency: readingFrequency(),
+  temperature: qty("temperature").optional(),
+  field_current: qty("current", { min: 0 }).optional(),
+};
+const testCommon = { ...testSupply, ...testOptional };
+
+/**
+ * The two forms of a bench test, one per `kind`: the one statement of which fields each kind reads
+ * (required unless optional). The validation below derives its "needs" and "belongs to" rules from
+ * them, and the editor's JSON Schema (and so the workbench's form) shows them as a choice of two
+ * forms (`EDITOR_FORMS`). A load test's torque or output power (one of the two) is a rule zod keeps.
+ */
+export const TEST_FORMS = {
+  no_load: z.strictObject({
+    kind: z.literal("no_load").meta({ description: "no_load: nothing on the shaft (the default)" }).optional(),
+    ...testSupply,
+    no_load_current: qty("current", { positive: true }),
+    no_load_speed: qty("speed", { positive: true }),
+    ...testOptional,
+  }),
+  load: z.strictObject({
+    kind: z.literal("load").meta({ description: "load: a known load (brake or dynamometer)" }),
+    ...testSupply,
+    current: qty("current", { positive: true }),
+    speed: qty("speed", { positive: true }),
     torque: qty("torque", { positive: true }).optional(),
     output_power: qty("power", { positive: true }).optional(),
-    temperature: qty("temperature").optional(),
-    field_current: qty("current", { min: 0 }).optional(),
+    ...testOptional,
+  }),
+};
+
+type TestKind = keyof typeof TEST_FORMS;
+/** A kind's own fields (not shared with the other kind), and which of them it needs. */
+function ownFields(kind: TestKind): { keys: string[]; required: string[] } {
+  const other = TEST_FORMS[kind === "load" ? "no_load" : "load"].shape as Record<string, z.ZodType>;
+  const shape = TEST_FORMS[kind].shape as Record<string, z.ZodType>;
+  const keys = Object.keys(shape).filter((k) => !(k in other));
+  return { keys, required: keys.filter((k) => !shape[k].safeParse(undefined).success) };
+}
+
+/** How the messages show a missing field (with a value written the usual way). */
+const TEST_EXAMPLE: Record<string, string> = {
+  no_load_current: "no_load_current: 0.18 A",
+  no_load_speed: "no_load_speed: 9800 rpm",
+  current: "current: 2.1 A",
+  speed: "speed: 18000 rpm",
+};
+/** What to do instead, for a field of the other kind. */
+const TEST_INSTEAD: Record<TestKind, string> = {
+  no_load: "write kind: load for a test with a load, or use no_load_current and no_load_speed",
+  load: "a load test uses current and speed",
+};
+
+const noLoadTestSchema = z
+  .strictObject({
+    kind: testKindSchema.prefault("no_load"),
+    // every field of either form, optional here (the kind's own rules follow), the common ones as they are
+    ...TEST_FORMS.no_load.partial().omit({ kind: true }).shape,
+    ...TEST_FORMS.load.partial().omit({ kind: true }).shape,
+    ...testCommon,
   })
   .superRefine((t, ctx) => {
     const need = (key: string, ex: string) =>
@@ -215,19 +268,21 @@ const noLoadTestSchema = z
         message: `${key} belongs to a ${t.kind === "load" ? "no-load" : "load"} test; ${instead}`,
         params: { code: "unknown_key" },
       });
-    if (t.kind === "no_load") {
-      if (t.no_load_current === undefined) need("no_load_current", "no_load_current: 0.18 A");
-      if (t.no_load_speed === undefined) need("no_load_speed", "no_load_speed: 9800 rpm");
-      for (const k of ["current", "speed", "torque", "output_power"] as const)
-        if (t[k] !== undefined) refuse(k, "write kind: load for a test with a load, or use no_load_current and no_load_speed");
-    } else {
-      if (t.current === undefined) need("current", "current: 2.1 A");
-      if (t.speed === undefined) need("speed", "speed: 18000 rpm");
+    const values = t as Record<string, unknown>;
+    const own = ownFields(t.kind);
+    for (const k of own.required) if (values[k] === undefined) need(k, TEST_EXAMPLE[k] ?? `${k}: …`);
+    if (t.kind === "load") {
       if (t.torque === undefined && t.output_power === undefined) need("torque", "torque: 0.35 N m (or output_power: 400 W)");
       if (t.torque !== undefined && t.output_power !== undefined) refuse("output_power", "give either torque or output_power, not both");
-      for (const k of ["no_load_current", "no_load_speed"] as const) if (t[k] !== undefined) refuse(k, "a load test uses current and speed");
     }
+    for (const k of ownFields(t.kind === "load" ? "no_load" : "load").keys) if (values[k] !== undefined) refuse(k, TEST_INSTEAD[t.kind]);
   });
+
+/**
+ * Schemas whose editor JSON Schema is a choice of forms rather than their own (src/job/json-schema.ts):
+ * a bench test is written in the form of its kind.
+ */
+export const EDITOR_FORMS = new Map<z.ZodType, z.ZodType>([[noLoadTestSchema, z.union([TEST_FORMS.no_load, TEST_FORMS.load])]]);
 
 const nameplateSchema = z
   .strictObject({

@@ -4,24 +4,42 @@
  * of the job's family instead of every record in the folder.
  *
  * Per logbook folder (named by a hash of its path) the cache holds the whole index (file name →
- * family) and, per family asked for, that family's share (its file names), each stamped with a
- * hash of the folder's listing. A plan lists the folder (one readdir) and, when the listing is the
- * one its family's share was made from, reads only those files. When it differs (records added by
- * `armwind log`, by hand, by another bench or by a merge; records removed), the whole index is
- * brought up to date by reading only the names it does not know, and the share is written anew.
- * A record is named once and never rewritten (store.ts); a record edited in place by hand to
- * another family is seen again after `armwind history`, which reads every record changed since it
- * last ran (its own summary, history-index.ts, knows which), rewrites the index and drops the
- * shares. A missing, damaged or unwritable cache only costs the time of reading every record,
- * never a wrong plan: the records read are still checked for their family.
+ * family) and, per family asked for, that family's share: its file names, stamped with a hash of
+ * the folder's listing, and each of its records as last read and validated, stamped with the
+ * file's size, times and inode. A plan reads the share; when the folder's own stamp (inode,
+ * modification and change times) is the one the share was made with, the folder has not gained,
+ * lost or renamed a file since, and it is not listed at all; otherwise it is listed (one readdir)
+ * and the listing's hash compared. Each of the share's files is then `stat`ed: a record whose stamp
+ * still holds is taken from the share as validated then (the part learning reads: learn.ts
+ * `learningPart`), the others are read and validated in full. When the listing differs (records added by `armwind log`, by hand, by another bench or by a
+ * merge; records removed), the whole index is brought up to date by reading only the names it does
+ * not know, and the share is written anew. A record edited in place by hand to another family is
+ * seen again after `armwind history`, which reads every record changed since it last ran (its own
+ * summary, history-index.ts, knows which), rewrites the index and drops the shares.
+ *
+ * Stamps are trusted only once they are old enough to be safe: a change within the file system's
+ * time granularity of the stamp (a second on some) could leave it as it was, so a folder or record
+ * whose modification and change times are both within TRUST_AFTER_MS of the moment it was looked
+ * at is not stamped, and is listed or read again next time (the rule git applies to files changed
+ * in the same second as its index, "racy clean"). A missing, damaged or unwritable cache only costs
+ * the time of reading every record, never a wrong plan: records read are still checked for their
+ * family, and a share of another armwind version is not used.
  */
-import { mkdirSync, readdirSync, renameSync, rmSync, writeFileSync } from "node:fs";
+import { mkdirSync, readdirSync, renameSync, rmSync, statSync, writeFileSync, type Stats } from "node:fs";
 import { readUserFile } from "../files.js";
 import { homedir } from "node:os";
 import { basename, dirname, join, resolve } from "node:path";
-import { readLogbook, type Logbook } from "./store.js";
+import { VERSION as ARMWIND_VERSION } from "../version.js";
+import { learningPart, type LearningRecord } from "./learn.js";
+import { byDateThenName, type Logbook, type LogbookWarning, mayBeRecord, peekFamily, readLogbook, readRecordFile } from "./store.js";
 
-const VERSION = 2;
+const VERSION = 3;
+
+/**
+ * How long after its last change a file's or folder's stamp is trusted, ms: longer than the
+ * coarsest time granularity of a common file system (FAT's 2 s), so any later change moves it.
+ */
+export const TRUST_AFTER_MS = 2000;
 
 /** The whole index of a folder: every record's family, and the folder's listing it was made from. */
 interface IndexFile {
@@ -36,10 +54,39 @@ interface IndexFile {
 /** One family's share, read on the fast path: valid while the folder's listing is unchanged. */
 interface FamilyFile {
   version: number;
+  /** The armwind version that validated the records kept here (another version validates them again). */
+  armwind: string;
   dir: string;
   listing: string;
+  /** The folder's stamp when it was listed, when settled then (same stamp: same listing, no readdir). */
+  folder?: string;
   family: string;
+  /** The family's files, and damaged files of unknown family (read each time and warned about). */
   names: string[];
+  /** What learning reads of each of the family's records as read and validated, under its file's stamp (settled files only). */
+  records: Record<string, { stamp: string; record: LearningRecord }>;
+}
+
+/** A family's records as learning reads them (as `readLogbook` gives them, each record cut to what learning reads). */
+export type FamilyBook = Omit<Logbook, "records"> & { records: { file: string; record: LearningRecord }[] };
+
+/**
+ * A file's or folder's stamp: size, modification and change times (ns where the file system keeps
+ * them) and inode; undefined while it is not yet settled (both times within TRUST_AFTER_MS of
+ * `now`, ms since the epoch), since a change in the same tick could leave it as it was.
+ */
+export function settledStamp(st: Stats, now: number): string | undefined {
+  if (Math.min(st.mtimeMs, st.ctimeMs) > now - TRUST_AFTER_MS) return undefined;
+  return `${st.size}:${st.mtimeMs}:${st.ctimeMs}:${st.ino}`;
+}
+
+/** `path`'s stat, or undefined when it cannot be taken. */
+function statOf(path: string): Stats | undefined {
+  try {
+    return statSync(path, { throwIfNoEntry: false });
+  } catch {
+    return undefined;
+  }
 }
 
 /**
@@ -104,30 +151,96 @@ export function writeJson(file: string, body: unknown): void {
 
 /**
  * The records of `family` in logbook folder `dir` (as `readLogbook` gives them, sorted by date and
- * file name, with warnings for damaged records), reading only the family's files when the index in
- * `cache` knows the folder's listing, else only the files the index does not place in another
- * family (then the index is brought up to date). Files: reads and writes the index in `cache`.
+ * file name, with warnings for damaged records), reading only the family's files when the share
+ * in `cache` knows the folder's listing (and of those only the ones changed since they were last
+ * validated), else only the files the index does not place in another family (then the index is
+ * brought up to date). Files: stats the folder, lists it unless its stamp is the share's, stats the
+ * family's files, reads changed ones; reads and writes the index in `cache`.
  */
-export function recordsOfFamily(dir: string, family: string, cache: string): Logbook {
+export function recordsOfFamily(dir: string, family: string, cache: string): FamilyBook {
+  const now = Date.now();
+  const at = resolve(dir);
+  // the folder's stamp before it is listed: a change after this moves it
+  const dirStat = statOf(dir);
+  const folder = dirStat?.isDirectory() ? settledStamp(dirStat, now) : undefined;
+  const share = shareOf(readJson<FamilyFile>(indexFile(cache, dir, family)), at, family);
+  if (share && folder !== undefined && share.folder === folder) return readShare(dir, share, cache, now);
   let names: string[];
   try {
     names = readdirSync(dir);
   } catch {
     return readLogbook(dir); // missing or unreadable: readLogbook says which
   }
-  const at = resolve(dir);
   const listing = listingOf(names);
-  const share = readJson<FamilyFile>(indexFile(cache, dir, family));
-  if (share?.version === VERSION && share.dir === at && share.listing === listing && share.family === family && Array.isArray(share.names)) {
-    const book = readLogbook(dir, { names: share.names });
-    // a record edited by hand to another family is not this family's (history refreshes the index)
-    return { ...book, records: book.records.filter((r) => r.record.job.family === family) };
+  if (share?.listing === listing) return readShare(dir, { ...share, folder }, cache, now, share.folder !== folder);
+  return rebuildIndex(dir, family, cache, names, { listing, folder });
+}
+
+/** A share as read from the cache, when it is one of this version for this folder and family. */
+function shareOf(share: FamilyFile | undefined, at: string, family: string): FamilyFile | undefined {
+  const ok =
+    share?.version === VERSION &&
+    share.armwind === ARMWIND_VERSION &&
+    share.dir === at &&
+    share.family === family &&
+    Array.isArray(share.names) &&
+    typeof share.records === "object" &&
+    share.records !== null;
+  return ok ? share : undefined;
+}
+
+/**
+ * The share's records: each file whose stamp is the one its record was kept under is taken from the
+ * share, the others are read and validated in full (and kept when settled). Rewrites the share when
+ * anything kept changed or `dirty`. A record edited by hand to another family is left out.
+ */
+function readShare(dir: string, share: FamilyFile, cache: string, now: number, dirty = false): FamilyBook {
+  const records: FamilyBook["records"] = [];
+  const warnings: LogbookWarning[] = [];
+  const kept: FamilyFile["records"] = {};
+  const prefix = join(dir, "/");
+  for (const name of [...share.names].sort()) {
+    if (!mayBeRecord(name)) continue;
+    const st = statOf(prefix + name);
+    const stamp = st?.isFile() ? settledStamp(st, now) : undefined;
+    const old = share.records[name];
+    if (stamp !== undefined && old?.stamp === stamp && old.record?.job?.family === share.family) {
+      kept[name] = old;
+      records.push({ file: name, record: old.record });
+      continue;
+    }
+    const r = readRecordFile(dir, name);
+    dirty = true;
+    if ("warning" in r) warnings.push(r.warning);
+    else if (r.record.job.family === share.family) {
+      const record = learningPart(r.record);
+      records.push({ file: name, record });
+      if (stamp !== undefined) kept[name] = { stamp, record };
+    }
   }
+  dirty ||= Object.keys(share.records).some((name) => !(name in kept));
+  if (dirty) writeJson(indexFile(cache, dir, share.family), { ...share, records: kept } satisfies FamilyFile);
+  return { dir, exists: true, records: records.sort(byDateThenName), warnings };
+}
+
+/**
+ * The slow path, when the folder's listing is not the share's: the files the whole index does not
+ * know are placed by the family their text names (`peekFamily`, no validation: a record of another
+ * family is never learned from here); this family's files, and any whose family cannot be told, are
+ * read in full. The index is brought up to date and the family's share written anew (its records
+ * are kept by the next read, which stamps each file before reading it).
+ */
+function rebuildIndex(dir: string, family: string, cache: string, names: string[], seen: { listing: string; folder?: string }): FamilyBook {
+  const at = resolve(dir);
   const whole = readJson<IndexFile>(indexFile(cache, dir));
   const known = new Map(whole?.version === VERSION && whole.dir === at && whole.families ? Object.entries(whole.families) : []);
   const book = readLogbook(dir, {
     names: names.filter((name) => {
-      const f = known.get(name);
+      let f = known.get(name);
+      if (f === undefined && mayBeRecord(name)) {
+        f = peekFamily(dir, name);
+        if (f !== undefined && f !== family) known.set(name, f);
+      }
       return f === undefined || f === family;
     }),
   });
@@ -135,11 +248,20 @@ export function recordsOfFamily(dir: string, family: string, cache: string): Log
   for (const name of known.keys()) if (!present.has(name)) known.delete(name);
   for (const { file: name, record } of book.records) known.set(name, record.job.family);
   const own = book.records.filter((r) => r.record.job.family === family);
-  writeJson(indexFile(cache, dir), { version: VERSION, dir: at, listing, families: Object.fromEntries(known) } satisfies IndexFile);
+  writeJson(indexFile(cache, dir), { version: VERSION, dir: at, listing: seen.listing, families: Object.fromEntries(known) } satisfies IndexFile);
   // damaged files stay out of the share (not known to be of this family), so they are read each time and warned about
   const damaged = book.warnings.map((w) => w.file);
-  writeJson(indexFile(cache, dir, family), { version: VERSION, dir: at, listing, family, names: [...own.map((r) => r.file), ...damaged] } satisfies FamilyFile);
-  return { ...book, records: own };
+  const share: FamilyFile = {
+    version: VERSION,
+    armwind: ARMWIND_VERSION,
+    dir: at,
+    ...seen,
+    family,
+    names: [...own.map((r) => r.file), ...damaged],
+    records: {},
+  };
+  writeJson(indexFile(cache, dir, family), share);
+  return { ...book, records: own.map(({ file, record }) => ({ file, record: learningPart(record) })) };
 }
 
 /** After a whole read of `dir` (history), write the index afresh from what was read: file name → family. */

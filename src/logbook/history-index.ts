@@ -5,7 +5,8 @@
  * only the records that changed since it last ran, instead of reading and validating every record.
  *
  * Trust, but verify: each entry is stamped with its file's size, modification and change times and
- * inode number, taken by one `stat` per file on every run. A file whose stamp differs (a record
+ * inode number, taken by one `stat` per file on every run (a file changed within the last two
+ * seconds is read and not kept: `settledStamp` in family-index.ts says why). A file whose stamp differs (a record
  * added by `armwind log`, by hand, by another bench or by a merge; edited in place; its permissions
  * changed) is read and validated in full as before and its entry replaced; entries of files gone
  * are dropped. Anything that is not a regular file is read every time (so a FIFO or a link to a
@@ -15,7 +16,7 @@
 import { readdirSync, statSync, type Stats } from "node:fs";
 import { join, resolve } from "node:path";
 import { historyRows, type HistoryRow } from "./history.js";
-import { readJson, shortHash, writeJson } from "./family-index.js";
+import { readJson, settledStamp, shortHash, writeJson } from "./family-index.js";
 import { type Logbook, type LogbookWarning, mayBeRecord, readLogbook, readRecordFile } from "./store.js";
 
 const VERSION = 1;
@@ -46,9 +47,6 @@ export interface FolderHistory {
 export function summaryFile(cache: string, dir: string): string {
   return join(cache, `history-${shortHash(resolve(dir))}.json`);
 }
-
-/** A file's stamp: size, modification and change times (ns where the file system keeps them) and inode. */
-const stampOf = (st: Stats): string => `${st.size}:${st.mtimeMs}:${st.ctimeMs}:${st.ino}`;
 
 /** The summary's entries for `dir`, or none when there is no summary (or a damaged or foreign one). */
 function loadEntries(cache: string, dir: string): Map<string, Entry> {
@@ -87,13 +85,14 @@ export function historyOfFolder(dir: string, cache: string): FolderHistory {
   const warnings: LogbookWarning[] = [];
   let changed = false;
   const prefix = join(dir, "/"); // the folder with its separator: each file's path by concatenation
+  const now = Date.now();
   for (const name of names) {
     if (!mayBeRecord(name)) continue;
-    const entry = entryOf(dir, prefix + name, name, known);
+    const entry = entryOf(dir, prefix + name, name, known, now);
     if (entry.stamp) {
       entries[name] = entry;
       changed ||= entry !== known.get(name);
-    }
+    } else changed ||= entry.row !== undefined; // a record too fresh to keep: read, not kept (the index still learns of it)
     if (entry.row) rows.push(entry.row);
     else if (entry.warning) warnings.push(entry.warning);
   }
@@ -102,16 +101,19 @@ export function historyOfFolder(dir: string, cache: string): FolderHistory {
   return { book: { dir, exists: true, records: [], warnings }, rows, changed };
 }
 
-/** One file's entry: the summary's when its stamp still holds, else read anew (stamp "" for what is never kept: not a regular file). */
-function entryOf(dir: string, path: string, name: string, known: Map<string, Entry>): Entry {
+/**
+ * One file's entry: the summary's when its stamp still holds, else read anew (stamp "" for what is
+ * not kept: not a regular file, or changed too recently for its stamp to be trusted, `settledStamp`).
+ */
+function entryOf(dir: string, path: string, name: string, known: Map<string, Entry>, now: number): Entry {
   let st: Stats | undefined;
   try {
     st = statSync(path, { throwIfNoEntry: false });
   } catch {
     st = undefined; // unreadable since the listing: the read says which
   }
-  if (!st?.isFile()) return readEntry(dir, name, "");
-  const stamp = stampOf(st);
+  const stamp = st?.isFile() ? settledStamp(st, now) : undefined;
+  if (stamp === undefined) return readEntry(dir, name, "");
   const old = known.get(name);
   return usable(name, old, stamp) ? old : readEntry(dir, name, stamp);
 }

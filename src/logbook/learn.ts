@@ -24,6 +24,14 @@ import type { LogRecord } from "./record.js";
 
 export type LogbookOptions = NonNullable<PlanOptions["logbook"]>;
 
+/** What learning reads of a record (the family's share in the cache keeps only this much of each). */
+export type LearningRecord = Pick<LogRecord, "date" | "job" | "measured" | "winding" | "derived">;
+
+/** The part of a record learning reads. */
+export function learningPart(r: LearningRecord): LearningRecord {
+  return { date: r.date, job: r.job, measured: r.measured, winding: r.winding, derived: r.derived };
+}
+
 export interface Learned {
   /** What the plan takes (undefined when no record of the family helps). */
   options: LogbookOptions | undefined;
@@ -52,7 +60,7 @@ export function recordEndTurnFactor(ctx: ArmatureContext, r: Pick<LogRecord, "wi
 }
 
 /** Turn a family's records into the plan's logbook options for `job`. */
-export function learnFromRecords(job: Job, records: { file?: string; record: LogRecord }[]): Learned {
+export function learnFromRecords(job: Job, records: { file?: string; record: LearningRecord }[]): Learned {
   const family = job.armature.family ?? null;
   const used = { records: 0, turn_length: 0, ke: 0, loss: 0 };
   const skipped: Learned["skipped"] = [];
@@ -97,17 +105,16 @@ export function learnFromRecords(job: Job, records: { file?: string; record: Log
 
   const options: LogbookOptions = { records: used.records, moves: [] };
   const moves = options.moves!;
+  let ctx1 = ctx; // the armature as the plan will build it with these options
   if (factors.length && ctx.mltSource !== "measured") {
-    const f = mean(factors);
-    options.mltFactor = f;
-    const after = buildContext(job, { mltFactor: f }).original.mlt;
-    moves.push({ figure: "mean turn length (original build)", from: ctx.original.mlt * 1e3, to: after * 1e3, unit: "mm" });
+    options.mltFactor = mean(factors);
+    ctx1 = buildContext(job, { mltFactor: options.mltFactor });
+    moves.push({ figure: "mean turn length (original build)", from: ctx.original.mlt * 1e3, to: ctx1.original.mlt * 1e3, unit: "mm" });
   }
   if (kes.length) options.ke = mean(kes);
   if (losses.length) options.loss = { tc: mean(losses), b: 0 };
   // what the plan's calibration does with them (a bench test of the job itself wins)
   const before = calibrateOriginal(ctx).calibration;
-  const ctx1 = options.mltFactor !== undefined ? buildContext(job, { mltFactor: options.mltFactor }) : ctx;
   const after = calibrateOriginal(ctx1, options).calibration;
   if (after.ke !== null && after.ke !== before.ke) moves.push({ figure: "Ke (original winding)", from: before.ke ?? NaN, to: after.ke, unit: "V·s/rad" });
   if (after.loss.tc !== before.loss.tc) moves.push({ figure: "loss torque", from: before.loss.tc * 1e3, to: after.loss.tc * 1e3, unit: "mN·m" });

@@ -197,6 +197,11 @@ export function byFileName(a: string, b: string): number {
 }
 let fileNameCollator: Intl.Collator | undefined;
 
+/** The logbook's order of records: by date, then by file name (numeric). */
+export function byDateThenName(a: { file: string; record: { date: string } }, b: { file: string; record: { date: string } }): number {
+  return a.record.date < b.record.date ? -1 : a.record.date > b.record.date ? 1 : byFileName(a.file, b.file);
+}
+
 export interface Logbook {
   dir: string;
   /** Whether the folder exists at all. */
@@ -242,8 +247,25 @@ export function readLogbook(dir: string, opts: ReadOptions = {}): Logbook {
     if ("warning" in r) warnings.push(r.warning);
     else records.push({ file: name, record: r.record });
   }
-  records.sort((a, b) => (a.record.date < b.record.date ? -1 : a.record.date > b.record.date ? 1 : byFileName(a.file, b.file)));
+  records.sort(byDateThenName);
   return { dir, exists: true, records, warnings };
+}
+
+/**
+ * A record file's armature family as its text says it (`job.family`: a string, or null for none),
+ * without validating the rest: what the family index needs of a record of another family, which
+ * learning never reads. Undefined when it cannot tell (a bad name, not a regular file, too large,
+ * not YAML or JSON, no such field): the caller then reads the file in full and warns as it must.
+ */
+export function peekFamily(dir: string, name: string): string | null | undefined {
+  if (!RECORD_NAME.test(name)) return undefined;
+  try {
+    const raw = parseRecordText(readUserFile(join(dir, name), { limit: RECORD_FILE_LIMIT })) as { job?: { family?: unknown } } | null;
+    const family = raw?.job?.family;
+    return typeof family === "string" || family === null ? family : undefined;
+  } catch {
+    return undefined;
+  }
 }
 
 /** Whether a file of the logbook folder is read as a record at all (hidden and temporary files, and anything not .yaml, are not). */

@@ -4,7 +4,15 @@
  *
  *     V = Ke·ω + I·R + V_b              (armature circuit)
  *     T_shaft = Kt·I − T_f(ω),  T_f(ω) = T_c + B·ω   (torque balance, Kt = Ke)
- *     efficiency = T_shaft·ω / (V·I)
+ *     I_f = V/R_f                       (a shunt field across the supply; 0 without one)
+ *     efficiency = T_shaft·ω / (V·(I + I_f))
+ *
+ * I is the armature's current (through the brushes); the terminals carry I + I_f, and the input
+ * power is V·(I + I_f): the field's copper loss V·I_f = V²/R_f is one of the losses. Source for the
+ * shunt motor's power flow: the shunt DC motor of any electrical-machines textbook (I_L = I_A + I_F,
+ * P_in = V_T·I_L, the field's copper loss among the electrical losses, η = P_out/P_in; e.g. S. J.
+ * Chapman, Electric Machinery Fundamentals, 4th ed. (2005), ch. 9 "DC motor power flow and losses",
+ * from memory).
  *
  * Source: the standard linear model of the permanent-magnet / separately excited DC motor (any
  * electrical-machines textbook), with the brush drop V_b taken as a constant voltage (machine
@@ -36,6 +44,12 @@ export interface MotorModel {
   brushDrop: number;
   loss: LossTorque;
   field: FieldKind;
+  /**
+   * A shunt field across the supply: its resistance at the temperature of use, Ω; absent or null
+   * for none (permanent magnet, series). Its current V/R_f adds to the terminal current and its
+   * copper loss to the losses; it does not change the armature's figures (the field is constant).
+   */
+  fieldOhm?: number | null;
 }
 
 /** One steady operating point. */
@@ -44,9 +58,9 @@ export interface OperatingPoint {
   torque: number;
   /** Speed, rad/s. */
   speed: number;
-  /** Armature current, A. */
+  /** Armature current (through the brushes), A; the terminals carry a shunt field's current besides. */
   current: number;
-  /** Electrical input V·I, W. */
+  /** Electrical input at the terminals V·(I + I_f), W (I_f a shunt field's current, else 0). */
   inputW: number;
   /** Shaft output torque·speed, W. */
   outputW: number;
@@ -61,6 +75,7 @@ export function checkModel(model: MotorModel): MotorModel {
   requireNonNegative(model.brushDrop, "brush drop", "winding.brush_drop");
   requireNonNegative(model.loss.tc, "Coulomb loss torque", "motor.loss.tc");
   requireNonNegative(model.loss.b, "viscous loss coefficient", "motor.loss.b");
+  if (model.fieldOhm !== undefined && model.fieldOhm !== null) requirePositive(model.fieldOhm, "shunt field resistance", "field_winding.resistance");
   return model;
 }
 
@@ -78,8 +93,17 @@ function constantField(model: MotorModel, V: number): number {
   return Math.max(0, V - model.brushDrop);
 }
 
-function point(V: number, torque: number, speed: number, current: number): OperatingPoint {
-  const inputW = V * current;
+/**
+ * The current a shunt field of resistance `fieldOhm` (Ω, at the temperature of use) takes across
+ * supply V (V): I_f = V/R_f A (Ohm's law); 0 without one (null or absent). The one place it is worked out.
+ */
+export function fieldCurrent(fieldOhm: number | null | undefined, V: number): number {
+  return fieldOhm ? V / fieldOhm : 0;
+}
+
+/** An operating point at supply V: the input at the terminals V·(I + I_f) (module note). */
+function point(model: MotorModel, V: number, torque: number, speed: number, current: number): OperatingPoint {
+  const inputW = V * (current + fieldCurrent(model.fieldOhm, V));
   const outputW = torque * speed;
   const efficiency = inputW > 0 ? outputW / inputW : 0;
   return { torque, speed, current, inputW, outputW, efficiency };
@@ -87,18 +111,21 @@ function point(V: number, torque: number, speed: number, current: number): Opera
 
 /**
  * No-load point at supply V (V): ω0 with Kt·I = T_f(ω0) and V = Ke·ω0 + I·R + V_b.
- * Closed form: ω0 = (Ke·(V − V_b) − T_c·R) / (Ke² + B·R) rad/s, I0 = (V − V_b − Ke·ω0)/R A.
- * When the loss torque exceeds the stall torque the rotor does not turn: speed 0, the stall
- * current flows, `starts: false`. Source: the linear model above, solved.
+ * Closed form: ω0 = (Ke·(V − V_b) − T_c·R) / (Ke² + B·R) rad/s, I0 = (V − V_b − Ke·ω0)/R A, the
+ * armature's; `terminalCurrent` I0 + I_f A is what a meter at the terminals reads (a shunt field's
+ * V/R_f besides). When the loss torque exceeds the stall torque the rotor does not turn: speed 0,
+ * the stall current flows, `starts: false`. Source: the linear model above, solved.
  */
-export function noLoad(model: MotorModel, V: number): { speed: number; current: number; starts: boolean } {
+export function noLoad(model: MotorModel, V: number): { speed: number; current: number; terminalCurrent: number; starts: boolean } {
   const Vd = constantField(model, V);
   const { ke, resistance: R } = model;
   const { tc, b } = model.loss;
+  const If = fieldCurrent(model.fieldOhm, V);
   const w0 = (ke * Vd - tc * R) / (ke * ke + b * R);
-  if (!(w0 > 0)) return { speed: 0, current: Vd / R, starts: false };
+  if (!(w0 > 0)) return { speed: 0, current: Vd / R, terminalCurrent: Vd / R + If, starts: false };
   // I0 = T_f(ω0)/Kt, equal to (V − V_b − Ke·ω0)/R at ω0 but free of its cancellation (never −1e-14 A with no loss)
-  return { speed: w0, current: (tc + b * w0) / ke, starts: true };
+  const current = (tc + b * w0) / ke;
+  return { speed: w0, current, terminalCurrent: current + If, starts: true };
 }
 
 /**
@@ -155,7 +182,7 @@ export function pointAtTorque(model: MotorModel, V: number, torque: number): Ope
   const scale = Vd / ke;
   if (speed < 0 && speed > -1e-9 * scale) speed = 0;
   if (speed < 0 || ke * stallCurrent(R, model.brushDrop, V) - tc <= 0) return null;
-  return point(V, torque, speed, current);
+  return point(model, V, torque, speed, current);
 }
 
 /**
@@ -177,7 +204,7 @@ export function atSpeed(model: MotorModel, V: number, speed: number, path = "tar
   const w = Math.min(speed, nl.speed);
   const current = (Vd - model.ke * w) / model.resistance;
   const torque = Math.max(0, model.ke * current - model.loss.tc - model.loss.b * w);
-  return point(V, torque, w, current);
+  return point(model, V, torque, w, current);
 }
 
 /**
@@ -198,10 +225,12 @@ export function curve(model: MotorModel, V: number, n = 21): OperatingPoint[] {
 }
 
 /**
- * Peak efficiency at supply V: { efficiency, current A, torque N·m, speed rad/s }.
- * Closed form: with x = I·R, output/input = (αx − β)(V' − x)/(Ke·V·x), α = Kt/R + B/Ke,
- * β = T_c + B·V'/Ke, V' = V − V_b; d/dx = 0 gives x = √(β·V'/α). With B = 0 this is the
- * textbook I = √(I0 · I_stall), I0 = T_c/Kt. Derived here from the linear model; with no loss at
+ * Peak efficiency at supply V: { efficiency, current A (the armature's), torque N·m, speed rad/s }.
+ * Closed form: with x = I·R and c = I_f·R (a shunt field's current, else 0), output/input =
+ * (αx − β)(V' − x) / (Ke·V·(x + c)/R), α = Kt/R + B/Ke, β = T_c + B·V'/Ke, V' = V − V_b;
+ * d/dx = 0 gives (x + c)² = (V' + c)(β/α + c). With c = 0, x = √(β·V'/α); with B = 0 too this is
+ * the textbook I = √(I0 · I_stall), I0 = T_c/Kt. The field's constant loss V·I_f moves the peak to
+ * a larger current, as any constant loss does. Derived here from the linear model; with no loss at
  * all the limit is I → 0, efficiency → V'/V.
  */
 export function peakEfficiency(model: MotorModel, V: number): { efficiency: number; current: number; torque: number; speed: number } {
@@ -212,8 +241,10 @@ export function peakEfficiency(model: MotorModel, V: number): { efficiency: numb
   if (!nl.starts || Vd <= 0) return { efficiency: 0, current: nl.current, torque: 0, speed: 0 };
   const alpha = ke / R + b / ke;
   const beta = tc + (b * Vd) / ke;
-  if (beta === 0) return { efficiency: V > 0 ? Vd / V : 0, current: 0, torque: 0, speed: Vd / ke };
-  const x = Math.sqrt((beta * Vd) / alpha);
+  const c = fieldCurrent(model.fieldOhm, V) * R;
+  if (beta === 0 && c === 0) return { efficiency: V > 0 ? Vd / V : 0, current: 0, torque: 0, speed: Vd / ke };
+  // c = 0 in the form that has always been used, so a permanent-magnet motor's figures keep every digit
+  const x = c === 0 ? Math.sqrt((beta * Vd) / alpha) : Math.sqrt((Vd + c) * (beta / alpha + c)) - c;
   const current = x / R;
   const speed = (Vd - x) / ke;
   const p = atSpeed(model, V, speed);
@@ -252,15 +283,15 @@ export interface MotorSummary {
   resistance: number;
   /** rad/s. */
   noLoadSpeed: number | null;
-  /** A. */
+  /** At the terminals, A: the armature's and a shunt field's (what the meter on the supply reads). */
   noLoadCurrent: number | null;
-  /** A. */
+  /** The armature's (through the brushes and the winding), A; a shunt field's current is not in it. */
   stallCurrent: number | null;
   /** N·m. */
   stallTorque: number | null;
-  /** Fraction 0 … 1. */
+  /** Fraction 0 … 1: shaft output over the input at the terminals (a shunt field's loss included). */
   peakEfficiency: number | null;
-  /** A. */
+  /** The armature's current there, A. */
   peakEfficiencyCurrent: number | null;
   /** W. */
   maxOutputW: number | null;
@@ -331,7 +362,7 @@ export function summarize(model: MotorModel, V: number): MotorSummary {
     resistance: model.resistance,
     noLoadPerVolt: V > 0 ? nl.speed / V : null,
     noLoadSpeed: nl.speed,
-    noLoadCurrent: nl.current,
+    noLoadCurrent: nl.terminalCurrent,
     stallCurrent: st.current,
     stallTorque: st.torque,
     peakEfficiency: pe.efficiency,

@@ -7,6 +7,10 @@
  *  - a union with a map among its variants (`target.supply`: a voltage or { value, kind, frequency };
  *    `target.tolerance`: a fraction or { below, above }; a wire: a name or { bare, overall }) is a
  *    choice of variant, and each variant's own fields; the variant shown is the one the file holds;
+ *  - a union of maps told apart by a field fixed in each (`original.tests[]`: `kind` no_load or load,
+ *    src/job/schema.ts `TEST_FORMS`) is a choice named by that value; each variant shows only its own
+ *    fields, and carries the fixed value in a hidden control (unless the form may leave it out, as a
+ *    no-load test may), so that choosing a form writes it;
  *  - a field that only one goal reads ("Goal kv: …" in its help) carries `data-goal` so the page
  *    shows it with that goal only.
  * Pure: schema and document in, HTML out.
@@ -56,10 +60,32 @@ const isList = (node: Json) => node.type === "array" && isObject(node.items);
 
 interface Ctx {
   doc: Document | null;
+  /** Added to the ids inside a union's second and later variants: two forms may hold fields of the same path. */
+  idSuffix?: string;
 }
 
-function input(node: Json, p: string, value: string, required: boolean): string {
-  const id = idOf(p);
+/** The value a map branch fixes for field `key` (`const`, or an enum of one), else undefined. */
+function fixedValue(branch: Json, key: string): string | undefined {
+  const prop = (branch.properties as Record<string, Json> | undefined)?.[key];
+  if (!isObject(prop)) return undefined;
+  if (typeof prop.const === "string") return prop.const;
+  return Array.isArray(prop.enum) && prop.enum.length === 1 ? String(prop.enum[0]) : undefined;
+}
+
+/** The field that tells a union's maps apart (each map fixes a different value of it), or null. */
+export function discriminatorOf(node: Json): string | null {
+  const maps = mapBranches(node);
+  if (maps.length < 2 || maps.length !== (node.anyOf as Json[]).length) return null;
+  const keys = Object.keys(maps[0].properties as Json);
+  const key = keys.find((k) => {
+    const values = maps.map((b) => fixedValue(b, k));
+    return values.every((v) => v !== undefined) && new Set(values).size === values.length;
+  });
+  return key ?? null;
+}
+
+function input(node: Json, p: string, value: string, required: boolean, idSuffix = ""): string {
+  const id = idOf(p) + idSuffix;
   const title = helpOf(node) ? ` title="${esc(helpOf(node))}"` : "";
   const anyOf = Array.isArray(node.anyOf) ? (node.anyOf as Json[]) : [];
   const choices = Array.isArray(node.enum) ? (node.enum as unknown[]).map(String) : node.type === "boolean" ? ["true", "false"] : null;
@@ -82,13 +108,14 @@ function unitText(node: Json, help: string): string {
 
 function leaf(node: Json, path: Path, ctx: Ctx, required: boolean, name: string | number = path[path.length - 1]): string {
   const p = pathText(path);
+  const sfx = ctx.idSuffix ?? "";
   const help = helpOf(node);
   const unit = unitText(node, help);
   const value = ctx.doc ? fieldText(ctx.doc, path) : "";
   const goal = goalOf(node);
   return (
-    `<div class="field" data-path="${esc(p)}"${goal ? ` data-goal="${goal}"` : ""}><label for="${idOf(p)}">${esc(label(name))}${required ? "" : ' <span class="opt">optional</span>'}</label>` +
-    `<span class="input">${input(node, p, value, required)}${unit ? `<span class="unit">${esc(unit)}</span>` : ""}</span>` +
+    `<div class="field" data-path="${esc(p)}"${goal ? ` data-goal="${goal}"` : ""}><label for="${idOf(p) + sfx}">${esc(label(name))}${required ? "" : ' <span class="opt">optional</span>'}</label>` +
+    `<span class="input">${input(node, p, value, required, sfx)}${unit ? `<span class="unit">${esc(unit)}</span>` : ""}</span>` +
     (help ? `<small class="help">${esc(help)}</small>` : "") +
     problemOut(p) +
     `</div>`
@@ -100,6 +127,15 @@ function variantHeld(node: Json, path: Path, ctx: Ctx): number {
   const held = ctx.doc?.getIn(path, true) as Node | undefined;
   const maps = mapBranches(node);
   const hasScalar = maps.length < (node.anyOf as Json[]).length;
+  const disc = discriminatorOf(node);
+  if (disc !== null) {
+    // the form the file's fixed field names; absent, the form whose fixed field may be left out (its default)
+    const value = isMap(held) ? fieldText(ctx.doc as Document, [...path, disc]) : "";
+    const k = value
+      ? maps.findIndex((b) => fixedValue(b, disc) === value)
+      : maps.findIndex((b) => !((b.required as string[] | undefined) ?? []).includes(disc));
+    return Math.max(0, k);
+  }
   if (!isMap(held)) return 0;
   const keys = held.items.map((i) => String((i.key as { value?: unknown })?.value ?? i.key));
   const k = maps.findIndex((b) => keys.every((x) => x in (b.properties as Json)));
@@ -131,9 +167,21 @@ function union(node: Json, path: Path, ctx: Ctx, required: boolean, name: string
       body: `<span class="input">${input(merged, p, heldScalar, required)}${unit ? `<span class="unit">${esc(unit)}</span>` : ""}</span>`,
     });
   }
+  const disc = discriminatorOf(node);
   maps.forEach((b) => {
-    const inner = variants.length === held ? ctx : { doc: null };
-    variants.push({ name: variantName(b, ""), body: `<div class="subfields">${section(b, path, inner)}</div>` });
+    const k = variants.length;
+    const inner: Ctx = { doc: k === held ? ctx.doc : null, idSuffix: k ? `-v${k}` : "" };
+    if (disc === null) {
+      variants.push({ name: variantName(b, ""), body: `<div class="subfields">${section(b, path, inner)}</div>` });
+      return;
+    }
+    // the fixed field is the choice itself: a hidden control carries its value where the form needs it
+    // written (a form that may leave it out, its default, writes nothing), the form shows the rest
+    const fixed = fixedValue(b, disc)!;
+    const { [disc]: _, ...rest } = b.properties as Json;
+    const needed = ((b.required as string[] | undefined) ?? []).includes(disc);
+    const hidden = needed ? `<input type="hidden" data-field="${esc(pathText([...path, disc]))}" data-fixed value="${esc(fixed)}">` : "";
+    variants.push({ name: label(fixed), body: `<div class="subfields">${hidden}${section({ ...b, properties: rest }, path, inner)}</div>` });
   });
   const choice = variants
     .map(

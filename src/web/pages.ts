@@ -9,7 +9,7 @@ import { jobJsonSchema } from "../job/json-schema.js";
 import { GOALS } from "../job/schema.js";
 import { ArmwindError } from "../errors.js";
 import { readUserFile } from "../files.js";
-import { VERSION } from "../cli/version.js";
+import { VERSION } from "../version.js";
 import { insideDir, isRefusal } from "./guard.js";
 import { jobForm, sectionLinks } from "./form.js";
 import { esc } from "./html.js";

@@ -5,6 +5,7 @@ import type { Sheet } from "../sheet.js";
 import { calibrationText, fieldText, goalName, goalSummary, mltSourceText, mm, ohm, pct, rpm, sig, strandsText, torqueUnit, wireSizes } from "../text.js";
 import { seriesMotorRows, supplyText } from "./series.js";
 import { spoolMassNeeded } from "../../shop/merge.js";
+import { hasShuntField } from "../../format/shunt.js";
 
 /**
  * Page 1, the job: who and what, THE WINDING in large type, the lead throw to copy, the armature,
@@ -240,7 +241,11 @@ function motorTable(s: Sheet, plan: Plan): void {
     const od = plan.original_duty;
     const du = plan.duty;
     rows.push([`at duty ${torque(du.torque)} ${tu.unit}: speed, rpm (target ${rpm(du.target_speed)})`, rpm(od?.speed), rpm(du.speed)]);
-    rows.push(["   current, A", sig(od?.current), sig(du.current)]);
+    if (hasShuntField(plan)) {
+      // a shunt motor: the armature's current and what the meter at the terminals reads (the field's besides)
+      rows.push(["   armature current, A", sig(od?.current), sig(du.current)]);
+      rows.push(["   terminal current, A", sig(od?.terminal_current), sig(du.terminal_current)]);
+    } else rows.push(["   current, A", sig(od?.current), sig(du.current)]);
     rows.push(["   efficiency", pct(od?.efficiency), pct(du.efficiency)]);
     rows.push(["   input, W", sig(od?.input_w), sig(du.input_w)]);
   }

@@ -138,10 +138,16 @@ function showVariant(u, k, carry) {
   const variants = $$(":scope > .variant", u);
   const from = variants.find((v) => !v.hidden);
   const to = variants[k];
-  if (carry && from && from !== to && !$$("[data-field]", to).some((e) => e.value.trim() !== "")) {
+  // a form's fixed field (a test's kind, in a hidden control) is the choice itself, never a value to carry
+  const typed = (v) => $$("[data-field]:not([data-fixed])", v);
+  const shared = carry && from && from !== to ? typed(to).filter((e) => typed(from).some((f) => f.dataset.field === e.dataset.field)) : [];
+  if (shared.length) {
+    // two forms of one map (a no-load and a load test): the fields they share keep their values
+    for (const e of shared) e.value = typed(from).find((f) => f.dataset.field === e.dataset.field).value;
+  } else if (carry && from && from !== to && !typed(to).some((e) => e.value.trim() !== "")) {
     // only a plain quantity carries over ("230 V", "0.03"): a wire's name is not a measured diameter
-    const src = $$("[data-field]", from).find((e) => /^\s*[+-]?(\d+\.?\d*|\.\d+)\s*[^\s\d]*\s*$/.test(e.value));
-    const inputs = $$("input[data-field]", to);
+    const src = typed(from).find((e) => /^\s*[+-]?(\d+\.?\d*|\.\d+)\s*[^\s\d]*\s*$/.test(e.value));
+    const inputs = $$("input[data-field]:not([data-fixed])", to);
     // a bare value goes into the map's required fields (the value, the bare diameter), or into each when none is required (below and above)
     const required = inputs.filter((e) => !e.closest(".field")?.querySelector("label .opt"));
     if (src) for (const e of (required.length ? required : inputs).slice(0, to.querySelector(".subfields") ? 2 : 1)) e.value = src.value;
