@@ -45,7 +45,8 @@ export function sweep(ev: Evaluator, opts: SweepOptions, keep = 20): SweepResult
   const nearest = new TopList<Candidate, RankKey>(keep, missing);
   const nearFit = new TopList<Candidate, RankKey>(5, missing);
   const nearOver = new TopList<Candidate, RankKey>(5, missing);
-  const counts = new Map<RejectCode, number>(); // in the order each reason first shows, as the plan lists them
+  // each reason's count (a box, so that counting looks the code up once), in the order each first shows: the plan lists them so
+  const counts = new Map<RejectCode, { n: number }>();
   let total = 0;
   for (const wire of opts.wires) {
     for (let k = opts.fixedStrands ?? 1; k <= (opts.fixedStrands ?? opts.maxInHand); k++) {
@@ -55,7 +56,11 @@ export function sweep(ev: Evaluator, opts: SweepOptions, keep = 20): SweepResult
         const f = scan.figures(n);
         total++;
         const reasons = f.rejected_because;
-        for (let i = 0; i < reasons.length; i++) counts.set(reasons[i], (counts.get(reasons[i]) ?? 0) + 1);
+        for (let i = 0; i < reasons.length; i++) {
+          const box = counts.get(reasons[i]);
+          if (box) box.n++;
+          else counts.set(reasons[i], { n: 1 });
+        }
         if (f.meets_goal) {
           meeting.offerLazily(f, scan.candidate);
           continue;
@@ -74,7 +79,8 @@ export function sweep(ev: Evaluator, opts: SweepOptions, keep = 20): SweepResult
   const ranked = meeting.ranked();
   const best = ranked[0] ?? nearest.items[0] ?? null;
   const shown = meeting.count === 0 ? nearest.items : [...ranked, ...nearFit.items, ...nearOver.items];
-  const rejections: Partial<Record<RejectCode, number>> = Object.fromEntries(counts);
+  const rejections: Partial<Record<RejectCode, number>> = {};
+  for (const [code, box] of counts) rejections[code] = box.n;
   return { best, shown: dedupe(shown), total, rejections, meeting: meeting.count };
 }
 
