@@ -14,8 +14,13 @@ import { describe, expect, it } from "vitest";
 import { buildContext, type ArmatureContext } from "../src/design/context.js";
 import type { Calibration } from "../src/design/types.js";
 import { calibrateOriginal } from "../src/design/calibration.js";
-import { makeEvaluator } from "../src/design/evaluate.js";
+import { makeEvaluator, type Evaluator } from "../src/design/evaluate.js";
 import { planJob } from "../src/design/plan.js";
+import { compareMissing, MeetingRank, TopList } from "../src/design/rank.js";
+import { sweep, MAX_TURNS, type SweepOptions, type SweepResult } from "../src/design/sweep.js";
+import type { Candidate, RejectCode } from "../src/design/types.js";
+import { maxConductorsForFill } from "../src/armature/fill.js";
+import type { Wire } from "../src/wire/types.js";
 import { defaultStock } from "../src/wire/catalogue.js";
 import { ArmwindError } from "../src/errors.js";
 import { loadJobText } from "./helpers/cli.js";
@@ -234,5 +239,85 @@ describe("the plan lists full evaluations", () => {
     expect(p.design.terminal_ohm).toBe(p.resistance.terminal_ohm);
     const ev = makeEvaluator(buildContext(job), p.calibration);
     for (const c of p.candidates) expect(c.terminal_ohm / ev.full({ turns: c.turns, wire: c.wire, strands: c.strands }).terminal_ohm - 1).toBeCloseTo(0, 12);
+  });
+});
+
+/**
+ * The sweep as it was written before it made Candidates only for what its lists keep
+ * (src/design/sweep.ts): every candidate evaluated by `ev.evaluate`, every one offered. The turns
+ * range (fill limit + 15 %, + 1) is the sweep's own rule, written out again here.
+ */
+function straightforwardSweep(ev: Evaluator, opts: SweepOptions, keep = 20): SweepResult {
+  const meeting = new MeetingRank(ev.goal, keep);
+  const missing = compareMissing(ev.tolerance);
+  const nearest = new TopList<Candidate>(keep, missing);
+  const nearFit = new TopList<Candidate>(5, missing);
+  const nearOver = new TopList<Candidate>(5, missing);
+  const rejections: Partial<Record<RejectCode, number>> = {};
+  let total = 0;
+  for (const wire of opts.wires) {
+    for (let k = opts.fixedStrands ?? 1; k <= (opts.fixedStrands ?? opts.maxInHand); k++) {
+      const nFit = Math.floor(maxConductorsForFill(ev.fillLimit, wire.area, opts.freeArea) / (opts.sides * k));
+      const lo = opts.fixedTurns ?? 1;
+      const hi = opts.fixedTurns ?? Math.min(MAX_TURNS, Math.max(1, Math.ceil(nFit * 1.15) + 1));
+      for (let n = lo; n <= hi; n++) {
+        const c = ev.evaluate(n, wire, k);
+        total++;
+        for (const r of c.rejected_because) rejections[r] = (rejections[r] ?? 0) + 1;
+        if (c.meets_goal) meeting.offer(c);
+        else {
+          nearest.offer(c);
+          (c.rejected_because.length === 0 ? nearFit : nearOver).offer(c);
+        }
+      }
+    }
+  }
+  const ranked = meeting.ranked();
+  const best = ranked[0] ?? nearest.items[0] ?? null;
+  const shown = meeting.count === 0 ? nearest.items : [...ranked, ...nearFit.items, ...nearOver.items];
+  return { best, shown: shown.filter((c, i) => shown.indexOf(c) === i), total, rejections, meeting: meeting.count };
+}
+
+/** A stock wire whose overall diameter is not known (its fit checks stop at the copper fill). */
+const noOverall = (w: Wire): Wire => ({ ...w, label: `${w.label} (overall unknown)`, overall_diameter: null, overall_source: "none" });
+
+describe("the sweep keeps what it would keep if it made every candidate (property)", () => {
+  it("over random armatures, goals, stocks (an unknown overall diameter among them), strands, fixed turns, list sizes", () => {
+    let fullLists = 0;
+    let manyMeeting = 0;
+    const arbStock = fc.tuple(fc.integer({ min: 0, max: stock.length - 12 }), fc.integer({ min: 1, max: 12 }), fc.boolean());
+    const fixedTurns: fc.Arbitrary<[number, number | null]> = fc.tuple(fc.integer({ min: 1, max: 120 }), fc.option(fc.integer({ min: 1, max: 3 })));
+    const arbFixed = fc.oneof({ arbitrary: fc.constant(null), weight: 3 }, { arbitrary: fixedTurns, weight: 1 });
+    fc.assert(
+      fc.property(arbArm, arbStock, fc.integer({ min: 1, max: 3 }), arbFixed, fc.constantFrom(2, 5, 20), (a, [from, n, unknown], maxInHand, fixed, keep) => {
+        const text = jobText(a);
+        if (text === null) return;
+        let ctx: ArmatureContext;
+        let ev: Evaluator;
+        try {
+          ctx = buildContext(loadJobText(text));
+          ev = makeEvaluator(ctx, calibrateOriginal(ctx).calibration);
+        } catch (e) {
+          if (e instanceof ArmwindError) return;
+          throw e;
+        }
+        const wires = stock.slice(from, from + n);
+        if (unknown) wires.splice(1, 0, noOverall(wires[0]));
+        const opts: SweepOptions = { wires, maxInHand, sides: ctx.sides, freeArea: ctx.slot.free_area };
+        if (fixed) {
+          opts.fixedTurns = fixed[0];
+          if (fixed[1] !== null) opts.fixedStrands = fixed[1];
+        }
+        const got = sweep(ev, opts, keep);
+        const want = straightforwardSweep(ev, opts, keep);
+        expect(got).toEqual(want);
+        expect(Object.keys(got.rejections)).toEqual(Object.keys(want.rejections)); // their order too (the plan lists them)
+        if (got.meeting > 3 * keep) manyMeeting++;
+        if (got.total - got.meeting > 3 * keep) fullLists++;
+      }),
+      { numRuns: 100 },
+    );
+    expect(manyMeeting).toBeGreaterThan(3); // lists of a turns count that were full when offered more
+    expect(fullLists).toBeGreaterThan(20);
   });
 });

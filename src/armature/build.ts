@@ -77,7 +77,7 @@ function tableOf(capacity: number[], layer: number, room: number): LayerTable {
 export function layersOf(items: number, table: LayerTable): LayerBuild {
   const cum = table.cumulative;
   const n = cum.length;
-  const fits = n > 0 && cum[n - 1] >= items;
+  const fits = fitsLayers(items, table);
   let layers = n;
   if (fits) {
     let lo = 0;
@@ -91,7 +91,13 @@ export function layersOf(items: number, table: LayerTable): LayerBuild {
   }
   const perLayer = table.capacity.slice(0, layers);
   if (fits && layers > 0) perLayer[layers - 1] = items - (layers > 1 ? cum[layers - 2] : 0);
-  return { turnsPerLayer: perLayer[0] ?? 0, perLayer, layers, build: layers * table.layer, room: table.room, fits: fits || items <= 0 };
+  return { turnsPerLayer: perLayer[0] ?? 0, perLayer, layers, build: layers * table.layer, room: table.room, fits };
+}
+
+/** Do `items` fit on a layer table (`layersOf(items, table).fits`, without laying them)? None always fit. */
+export function fitsLayers(items: number, table: LayerTable): boolean {
+  const cum = table.cumulative;
+  return items <= 0 || (cum.length > 0 && cum[cum.length - 1] >= items);
 }
 
 /**

@@ -15,7 +15,7 @@
  * Units: SI (m, m², Ω, V, A, rad/s, N·m, W, kg, A/m²).
  */
 import { HEX_PACKING, copperFill, spaceFill } from "../armature/fill.js";
-import { layersOf, passesOpening, slotLayerTable, toothLayerTable, type LayerBuild, type LayerTable } from "../armature/build.js";
+import { fitsLayers, layersOf, passesOpening, slotLayerTable, toothLayerTable, type LayerBuild, type LayerTable } from "../armature/build.js";
 import { bundleThickness, meanTurnLength, ridingIncrement } from "../armature/turn.js";
 import { copperFactor, COPPER_DENSITY } from "../wire/copper.js";
 import type { Wire } from "../wire/types.js";
@@ -26,10 +26,9 @@ import type { Tolerance } from "../job/schema.js";
 import { resolveWire } from "../wire/catalogue.js";
 import { withinTolerance } from "./rank.js";
 import { keScaledByTurns } from "../motor/emf.js";
-import type { OperatingPoint } from "../motor/model.js";
 import { coilResistance, coilTurnLengths, layingDiameter, meanOf, supplyOf, type ArmatureContext } from "./context.js";
 import { motorPhysicsFor, type MotorPhysics } from "./motor.js";
-import type { Calibration, Candidate, DutyReport, GoalKind, MotorReport, RejectCode } from "./types.js";
+import type { Calibration, Candidate, DutyReport, GoalKind, MotorReport } from "./types.js";
 
 /** Share of the target copper area a restore may fall short by: 3 % (docs/contracts.md, "Choosing among candidates"). */
 export const RESTORE_MIN_AREA = 0.97;
@@ -79,6 +78,8 @@ export interface FullOptions {
 export interface Evaluator {
   /** The sweep's evaluation (cheap mode). */
   evaluate(turns: number, wire: Wire, strands: number): Candidate;
+  /** The same evaluation of one wire and strands at any turns count, its figures first (`WireScan`): what the sweep runs. */
+  scan(wire: Wire, strands: number): WireScan;
   /** The full evaluation of a winding. */
   full(w: Winding, options?: FullOptions): FullEvaluation;
   /** Copper fill limit in force. */
@@ -123,6 +124,11 @@ interface Setup {
   /** The terminal reading (Ω) of coils whose turn lengths are base + g_i·b (m), times K (Ω/m): see `terminalModel`. */
   terminalOf: (base: number, b: number, K: number) => number;
   trapezoid: boolean;
+  /** Tooth coils: the layer tables lay turns, not conductors. */
+  tooth: boolean;
+  /** The winding's style and span, for the turn-length model. */
+  style: WindingLayout["spec"]["style"];
+  span: number;
   tolerance: Tolerance;
   /** Share of the terminal current that heats one coil (`coilCurrentShare`). */
   share: number;
@@ -261,6 +267,9 @@ function setupFor(ctx: ArmatureContext, cal: Calibration, supply: number): Setup
     hotFactor: copperFactor(t.hot_temperature),
     ridingPerBundle: live.reduce((s, c) => s + ridingIncrement(c.rides_over, spec.coils_per_slot, spec.span, 1), 0) / live.length,
     trapezoid: slot.depth !== null && slot.width_top !== null && slot.width_bottom !== null,
+    tooth: spec.style === "tooth",
+    style: spec.style,
+    span: spec.span,
     layerTables: new Map(),
   };
 }
@@ -289,159 +298,242 @@ function layerTable(s: Setup, overall: number, strands: number): LayerTable {
   return table;
 }
 
-/** Copper fill, space fill, layer build and opening against the limits (src/armature/fill.ts, build.ts). */
-function fitChecks(s: Setup, w: Winding, reasons: RejectCode[]): { copper_fill: number; space_fill: number | null; build: LayerBuild | null } {
-  const { slot, sides, layout } = s.ctx;
-  const conductors = sides * w.turns * w.strands;
-  const cf = copperFill(conductors, w.wire.area, slot.free_area);
-  if (cf > s.fillLimit + 1e-12) reasons.push("copper_fill");
-  const overall = w.wire.overall_diameter;
-  if (overall === null) {
-    reasons.push("overall_unknown");
-    return { copper_fill: cf, space_fill: null, build: null };
-  }
-  const sf = spaceFill(conductors, overall, slot.free_area);
-  if (sf > s.spaceLimit + 1e-12 && s.geometryChecked) reasons.push("space_fill");
-  if (!passesOpening(overall, w.strands, slot.opening)) reasons.push("slot_opening");
-  let build: LayerBuild | null = null;
-  if (s.trapezoid) {
-    build = layersOf(layout.spec.style === "tooth" ? w.turns : conductors, layerTable(s, overall, w.strands));
-    if (!build.fits && s.geometryChecked) reasons.push("layer_build");
-  }
-  return { copper_fill: cf, space_fill: sf, build };
-}
-
 /**
- * The coils' turn lengths as base + g_i·b (m): b the bundle thickness, base the model's 2L + f·end
- * turns (or the measured turn less the mean riding increment, so that the mean is the measured one).
+ * What a winding's wire and strands in hand decide whatever its turns: worked out once per wire and
+ * strands by the sweep (`scanOf`), once per call otherwise.
  */
-function turnLengthTerms(s: Setup, w: Winding): { base: number; b: number } {
-  const ctx = s.ctx;
-  const spec = ctx.layout.spec;
-  const b = bundleThickness(w.turns, w.strands, layingDiameter(w.wire), ctx.along);
-  if (ctx.mltMeasured !== null) return { base: ctx.mltMeasured - s.ridingPerBundle * b, b };
-  return { base: meanTurnLength(spec.style, ctx.core, spec.span, b, ctx.mltFactor), b };
+interface WireSetup {
+  wire: Wire;
+  strands: number;
+  /** The wire's overall diameter, m; null when unknown (the fit checks then stop at the copper fill). */
+  overall: number | null;
+  /** The overall diameter the turn-length model lays it at, m (src/design/context.ts `layingDiameter`). */
+  laying: number;
+  /** Do the strands pass the slot opening (src/armature/build.ts `passesOpening`)? True when the overall diameter is unknown (not checked). */
+  opening: boolean;
+  /** The slot's layer table for it (`layerTable`); null without a trapezoid slot or without an overall diameter. */
+  table: LayerTable | null;
 }
 
-interface GoalFigures {
-  ke: number | null;
-  achieved: number | null;
-  stall_current_hot: number | null;
-  stall_current_cold: number | null;
-  current_density: number | null;
-  duty_input_w: number | null;
-  dutyPoint: OperatingPoint | null;
+function wireSetup(s: Setup, wire: Wire, strands: number): WireSetup {
+  const overall = wire.overall_diameter;
+  return {
+    wire,
+    strands,
+    overall,
+    laying: layingDiameter(wire),
+    opening: overall === null || passesOpening(overall, strands, s.ctx.slot.opening),
+    table: overall !== null && s.trapezoid ? layerTable(s, overall, strands) : null,
+  };
 }
 
 /**
- * The motor figures a goal needs, from the motor model (src/design/motor.ts): Ke scaled by turns
- * (Ke_new = Ke_orig·N_new/N_orig), stall currents hot and cold, the goal's figure (no-load speed
- * with the cold resistance, Kv as 1/Ke in rad/s per V, duty speed with the hot one), and the
+ * A winding's figures as the evaluation works them out: the Candidate's, all but its layer build
+ * (`toCandidate` lays it). The sweep reads them from one object it reuses (`WireScan`).
+ */
+export type WindingFigures = Omit<Candidate, "build">;
+
+/** Figures to be filled in (every field present, so that the object keeps one shape). */
+function emptyFigures(): WindingFigures {
+  return {
+    turns: 0,
+    strands: 0,
+    wire: undefined as unknown as Wire,
+    copper_fill: 0,
+    space_fill: null,
+    mlt: 0,
+    coil_ohm: 0,
+    terminal_ohm: 0,
+    terminal_hot_ohm: 0,
+    ke: null,
+    achieved: null,
+    error: null,
+    meets_goal: false,
+    rejected_because: [],
+    copper_mass: 0,
+    current_density: null,
+    stall_current_hot: null,
+    stall_current_cold: null,
+    duty_input_w: null,
+  };
+}
+
+/** Copper fill, space fill, layer build and opening against the limits (src/armature/fill.ts, build.ts), into `f`. */
+function fitChecks(s: Setup, p: WireSetup, turns: number, f: WindingFigures): void {
+  const { slot, sides } = s.ctx;
+  const reasons = f.rejected_because;
+  const conductors = sides * turns * p.strands;
+  f.copper_fill = copperFill(conductors, p.wire.area, slot.free_area);
+  if (f.copper_fill > s.fillLimit + 1e-12) reasons.push("copper_fill");
+  if (p.overall === null) {
+    reasons.push("overall_unknown");
+    f.space_fill = null;
+    return;
+  }
+  f.space_fill = spaceFill(conductors, p.overall, slot.free_area);
+  if (f.space_fill > s.spaceLimit + 1e-12 && s.geometryChecked) reasons.push("space_fill");
+  if (!p.opening) reasons.push("slot_opening");
+  if (p.table !== null && !fitsLayers(s.tooth ? turns : conductors, p.table) && s.geometryChecked) reasons.push("layer_build");
+}
+
+/** The layer build of `turns` with this wire and strands (src/armature/build.ts `layersOf`); null when `fitChecks` had no table. */
+function buildOf(s: Setup, p: WireSetup, turns: number): LayerBuild | null {
+  return p.table === null ? null : layersOf(s.tooth ? turns : s.ctx.sides * turns * p.strands, p.table);
+}
+
+/**
+ * The motor figures a goal needs, from the motor model (src/design/motor.ts), into `f`: Ke scaled by
+ * turns (Ke_new = Ke_orig·N_new/N_orig), stall currents hot and cold, the goal's figure (no-load
+ * speed with the cold resistance, Kv as 1/Ke in rad/s per V, duty speed with the hot one), and the
  * current density at the duty point or the rated current, J = I/(a·k·A) (src/motor/density.ts).
  */
-function goalFigures(s: Setup, w: Winding, terminal20: number): GoalFigures {
+function goalFigures(s: Setup, p: WireSetup, turns: number, terminal20: number, f: WindingFigures): void {
   const { ctx, cal, physics, supply } = s;
   const t = ctx.job.target;
-  const ke = cal.ke === null ? null : keScaledByTurns(cal.ke, ctx.original.turns, w.turns);
-  const out: GoalFigures = {
-    ke,
-    achieved: null,
-    stall_current_hot: physics.stallCurrent(ke, w.turns, terminal20, s.hotFactor, supply),
-    stall_current_cold: physics.stallCurrent(ke, w.turns, terminal20, 1, supply),
-    current_density: null,
-    duty_input_w: null,
-    dutyPoint: null,
-  };
+  const ke = cal.ke === null ? null : keScaledByTurns(cal.ke, ctx.original.turns, turns);
+  f.ke = ke;
+  f.achieved = null;
+  f.stall_current_hot = physics.stallCurrent(ke, turns, terminal20, s.hotFactor, supply);
+  f.stall_current_cold = physics.stallCurrent(ke, turns, terminal20, 1, supply);
+  f.current_density = null;
+  f.duty_input_w = null;
+  let dutyCurrent: number | null = null;
   switch (s.goal) {
     case "restore":
     case "fixed":
-      out.achieved = w.strands * w.wire.area;
+      f.achieved = p.strands * p.wire.area;
       break;
     case "no_load_speed":
-      if (ke !== null) out.achieved = physics.noLoad(ke, w.turns, terminal20, 1, supply)?.speed ?? null;
+      if (ke !== null) f.achieved = physics.noLoad(ke, turns, terminal20, 1, supply)?.speed ?? null;
       break;
     case "kv":
       // Kv in rad/s per volt: the constant 1/Ke (60/(2π·Ke) rpm/V), or no-load speed ÷ supply (docs "Kv")
-      if (ke !== null && t.kv_basis === "no_load") out.achieved = (physics.noLoad(ke, w.turns, terminal20, 1, supply)?.speed ?? 0) / supply;
-      else if (ke !== null) out.achieved = 1 / ke;
+      if (ke !== null && t.kv_basis === "no_load") f.achieved = (physics.noLoad(ke, turns, terminal20, 1, supply)?.speed ?? 0) / supply;
+      else if (ke !== null) f.achieved = 1 / ke;
       break;
     case "stall_current":
-      out.achieved = out.stall_current_cold;
+      f.achieved = f.stall_current_cold;
       break;
     case "duty":
     case "convert":
       // the speed at the load torque (a conversion: the original's rated torque on the new supply), hot
       if (physics.canPredict(ke) && s.loadTorque !== null) {
-        out.dutyPoint = physics.atTorque(ke, w.turns, terminal20, s.hotFactor, supply, s.loadTorque);
-        out.achieved = out.dutyPoint ? out.dutyPoint.speed : 0;
-        out.duty_input_w = out.dutyPoint ? out.dutyPoint.inputW : null;
+        const point = physics.atTorque(ke, turns, terminal20, s.hotFactor, supply, s.loadTorque);
+        f.achieved = point ? point.speed : 0;
+        f.duty_input_w = point ? point.inputW : null;
+        dutyCurrent = point?.current ?? null;
       }
       break;
   }
-  const dc = out.dutyPoint?.current ?? t.rated_current ?? null;
-  if (dc !== null) out.current_density = currentDensityByShare(dc, s.share, w.strands, w.wire.area);
-  return out;
+  const dc = dutyCurrent ?? t.rated_current ?? null;
+  if (dc !== null) f.current_density = currentDensityByShare(dc, s.share, p.strands, p.wire.area);
 }
 
-/** The limits on current, the error against the target and whether the goal is met (docs/contracts.md "Choosing among candidates"). */
-function verdict(s: Setup, g: GoalFigures, reasons: RejectCode[]): { error: number | null; meets: boolean } {
+/**
+ * The limits on current, the error against the target (into `f.error`) and whether the goal is met
+ * (docs/contracts.md "Choosing among candidates").
+ */
+function verdict(s: Setup, f: WindingFigures): boolean {
   const t = s.ctx.job.target;
   const lim = t.limits;
   const cap = s.density.limit;
-  if (cap !== null && g.current_density !== null && g.current_density > cap) reasons.push("current_density");
-  if (lim.hot_stall_current !== undefined && g.stall_current_hot !== null && g.stall_current_hot > lim.hot_stall_current) reasons.push("hot_stall_current");
-  if (g.achieved === null) return { error: null, meets: false };
-  const error = (g.achieved - s.target) / s.target;
-  let meets: boolean;
+  const reasons = f.rejected_because;
+  if (cap !== null && f.current_density !== null && f.current_density > cap) reasons.push("current_density");
+  if (lim.hot_stall_current !== undefined && f.stall_current_hot !== null && f.stall_current_hot > lim.hot_stall_current) reasons.push("hot_stall_current");
+  f.error = null;
+  if (f.achieved === null) return false;
+  const error = (f.achieved - s.target) / s.target;
+  f.error = Number.isFinite(error) ? error : null;
   if (s.likeRestore) {
-    meets = g.achieved >= RESTORE_MIN_AREA * s.target;
+    const meets = f.achieved >= RESTORE_MIN_AREA * s.target;
     if (!meets) reasons.push("below_original_copper");
-  } else if (s.goal === "fixed") {
-    meets = true; // the user chose it: a limit it breaks is a warning (planJob), not a rejection
-  } else {
-    // stall_current is a limit: its bare tolerance t is { below: t, above: 0 } (src/job/schema.ts)
-    meets = withinTolerance(error, t.tolerance);
+    return meets;
   }
-  return { error: Number.isFinite(error) ? error : null, meets };
+  if (s.goal === "fixed") return true; // the user chose it: a limit it breaks is a warning (planJob), not a rejection
+  // stall_current is a limit: its bare tolerance t is { below: t, above: 0 } (src/job/schema.ts)
+  return withinTolerance(error, t.tolerance);
 }
 
-/** The candidate's figures for a winding whose mean turn is `mlt` (m) and terminal reading `terminal20` (Ω, 20 °C). */
-function candidate(s: Setup, w: Winding, mlt: number, coilOhm: number, terminal20: number): { c: Candidate; g: GoalFigures } {
-  const reasons: RejectCode[] = [];
-  const fit = fitChecks(s, w, reasons);
-  const g = goalFigures(s, w, terminal20);
-  const v = verdict(s, g, reasons);
-  const c: Candidate = {
-    turns: w.turns,
-    strands: w.strands,
-    wire: w.wire,
-    ...fit,
-    mlt,
-    coil_ohm: coilOhm,
-    terminal_ohm: terminal20,
-    terminal_hot_ohm: terminal20 * s.hotFactor,
-    ke: g.ke,
-    achieved: g.achieved,
-    error: v.error,
-    meets_goal: v.meets && (s.goal === "fixed" || reasons.length === 0),
-    rejected_because: reasons,
-    copper_mass: COPPER_DENSITY * w.wire.area * w.strands * w.turns * mlt * s.ctx.woundCoils,
-    current_density: g.current_density,
-    stall_current_hot: g.stall_current_hot,
-    stall_current_cold: g.stall_current_cold,
-    duty_input_w: g.duty_input_w,
+/** The figures of `turns` per coil with this wire and strands, whose mean turn is `mlt` (m), mean coil `coilOhm` and terminal reading `terminal20` (Ω, 20 °C), into `f`. */
+function figuresOf(s: Setup, p: WireSetup, turns: number, mlt: number, coilOhm: number, terminal20: number, f: WindingFigures): WindingFigures {
+  f.turns = turns;
+  f.strands = p.strands;
+  f.wire = p.wire;
+  const reasons = f.rejected_because;
+  while (reasons.length > 0) reasons.pop(); // emptied in place (setting length is a runtime call)
+  fitChecks(s, p, turns, f);
+  f.mlt = mlt;
+  f.coil_ohm = coilOhm;
+  f.terminal_ohm = terminal20;
+  f.terminal_hot_ohm = terminal20 * s.hotFactor;
+  goalFigures(s, p, turns, terminal20, f);
+  f.meets_goal = verdict(s, f) && (s.goal === "fixed" || f.rejected_because.length === 0);
+  f.copper_mass = COPPER_DENSITY * p.wire.area * p.strands * turns * mlt * s.ctx.woundCoils;
+  return f;
+}
+
+/** The Candidate of figures `f` worked out for this wire and strands: a new object, its layer build laid. */
+function toCandidate(s: Setup, p: WireSetup, f: WindingFigures): Candidate {
+  return {
+    turns: f.turns,
+    strands: f.strands,
+    wire: f.wire,
+    copper_fill: f.copper_fill,
+    space_fill: f.space_fill,
+    build: buildOf(s, p, f.turns),
+    mlt: f.mlt,
+    coil_ohm: f.coil_ohm,
+    terminal_ohm: f.terminal_ohm,
+    terminal_hot_ohm: f.terminal_hot_ohm,
+    ke: f.ke,
+    achieved: f.achieved,
+    error: f.error,
+    meets_goal: f.meets_goal,
+    rejected_because: f.rejected_because.slice(),
+    copper_mass: f.copper_mass,
+    current_density: f.current_density,
+    stall_current_hot: f.stall_current_hot,
+    stall_current_cold: f.stall_current_cold,
+    duty_input_w: f.duty_input_w,
   };
-  return { c, g };
 }
 
-/** Cheap mode: the mean coil, R = ρ20·N·MLT/(k·A), and the terminal reading from `terminalModel` (no per-coil arrays). */
+/**
+ * Cheap mode, into `f`: the coils' turn lengths base + g_i·b (m), b the bundle thickness, base the
+ * model's 2L + f·end turns (or the measured turn less the mean riding increment, so that the mean is
+ * the measured one); the mean coil R = ρ20·N·MLT/(k·A); the terminal reading from `terminalModel`.
+ */
+function cheapFigures(s: Setup, p: WireSetup, turns: number, f: WindingFigures): WindingFigures {
+  const ctx = s.ctx;
+  const b = bundleThickness(turns, p.strands, p.laying, ctx.along);
+  const base = ctx.mltMeasured !== null ? ctx.mltMeasured - s.ridingPerBundle * b : meanTurnLength(s.style, ctx.core, s.span, b, ctx.mltFactor);
+  const mlt = ctx.mltMeasured ?? base + s.ridingPerBundle * b;
+  const K = coilResistance(turns, 1, p.strands, p.wire.area);
+  return figuresOf(s, p, turns, mlt, K * mlt, s.terminalOf(base, b, K), f);
+}
+
+/**
+ * The sweep's evaluation of one wire and strands in hand at any turns count: the figures first
+ * (`figures`, into one object overwritten by the next call, nothing made), the Candidate only for
+ * the figures the sweep keeps (`candidate`, equal to `Evaluator.evaluate`'s).
+ */
+export interface WireScan {
+  figures(turns: number): Readonly<WindingFigures>;
+  /** The Candidate of the figures last worked out: a new object each call. */
+  candidate: () => Candidate;
+}
+
+function scanOf(s: Setup, wire: Wire, strands: number): WireScan {
+  const p = wireSetup(s, wire, strands);
+  const f = emptyFigures();
+  return { figures: (turns) => cheapFigures(s, p, turns, f), candidate: () => toCandidate(s, p, f) };
+}
+
+/** Cheap mode: the Candidate of `cheapFigures`. */
 function evaluateCheap(s: Setup, w: Winding): Candidate {
-  const { base, b } = turnLengthTerms(s, w);
-  const mlt = s.ctx.mltMeasured ?? base + s.ridingPerBundle * b;
-  const K = coilResistance(w.turns, 1, w.strands, w.wire.area);
-  return candidate(s, w, mlt, K * mlt, s.terminalOf(base, b, K)).c;
+  const p = wireSetup(s, w.wire, w.strands);
+  return toCandidate(s, p, cheapFigures(s, p, w.turns, emptyFigures()));
 }
-
 /** The duty report of a winding at its duty point (null without a duty goal, or beyond stall); `r20` its terminal resistance at 20 °C (Ω). */
 function dutyOf(s: Setup, w: Winding, ke: number | null, r20: number): DutyReport | null {
   const d = s.ctx.job.target.duty;
@@ -478,7 +570,8 @@ function evaluateFull(s: Setup, w: Winding, options: FullOptions = {}): FullEval
     max: Math.max(t.max, t.single),
     basis: t.validity,
   };
-  const { c } = candidate(s, w, meanOf(coilMlt, layout), meanOf(coilOhms, layout), t.single);
+  const p = wireSetup(s, w.wire, w.strands);
+  const c = toCandidate(s, p, figuresOf(s, p, w.turns, meanOf(coilMlt, layout), meanOf(coilOhms, layout), t.single, emptyFigures()));
   const r20 = options.measuredTerminal20 ?? t.single;
   const motor = s.physics.report(c.ke, w.turns, r20, s.hotFactor, s.supply, options.original ? "original" : "new");
   return { ...c, coil_mlt: coilMlt, coil_ohms: coilOhms, ring, motor, duty: dutyOf(s, w, c.ke, r20) };
@@ -492,6 +585,7 @@ export function makeEvaluator(ctx: ArmatureContext, cal: Calibration, supply = s
   const s = setupFor(ctx, cal, supply);
   return {
     evaluate: (turns, wire, strands) => evaluateCheap(s, { turns, wire, strands }),
+    scan: (wire, strands) => scanOf(s, wire, strands),
     full: (w, options) => evaluateFull(s, w, options),
     fillLimit: s.fillLimit,
     goal: s.goal,

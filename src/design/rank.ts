@@ -37,8 +37,11 @@ function turnsGiven(goal: GoalKind): boolean {
   return goal === "restore" || goal === "fixed" || goal === "convert";
 }
 
+/** What ranking reads of a candidate: the sweep compares a winding's figures with the lists before making it a Candidate. */
+export type RankKey = Pick<Candidate, "turns" | "strands" | "terminal_ohm" | "copper_mass" | "error" | "rejected_because">;
+
 /** Within one turns count: least resistance (most copper), then fewer strands, then less copper mass. Negative when `a` is better. */
-export function compareAtCount(a: Candidate, b: Candidate): number {
+export function compareAtCount(a: RankKey, b: RankKey): number {
   const r = a.terminal_ohm - b.terminal_ohm;
   if (Math.abs(r) > 1e-12 * Math.max(1, a.terminal_ohm)) return r;
   if (a.strands !== b.strands) return a.strands - b.strands;
@@ -46,14 +49,14 @@ export function compareAtCount(a: Candidate, b: Candidate): number {
 }
 
 /** Two candidates that both meet a goal with given turns (restore, fixed): the copper area nearest the target, then `compareAtCount`. */
-export function compareGivenTurns(a: Candidate, b: Candidate): number {
+export function compareGivenTurns(a: RankKey, b: RankKey): number {
   const d = Math.abs(a.error ?? Infinity) - Math.abs(b.error ?? Infinity);
   if (Math.abs(d) > 1e-9) return d;
   return compareAtCount(a, b);
 }
 
 /** Two candidates that miss: those that fit first, then the nearer to the tolerance band, then less resistance. */
-export function compareMissing(tol: Tolerance): (a: Candidate, b: Candidate) => number {
+export function compareMissing(tol: Tolerance): (a: RankKey, b: RankKey) => number {
   return (a, b) => {
     const fa = a.rejected_because.length === 0 ? 0 : 1;
     const fb = b.rejected_because.length === 0 ? 0 : 1;
@@ -68,13 +71,25 @@ export function compareMissing(tol: Tolerance): (a: Candidate, b: Candidate) => 
   };
 }
 
-/** A best-first list of at most `size` items under `cmp`, kept by insertion. */
-export class TopList<T> {
+/**
+ * A best-first list of at most `size` items under `cmp`, kept by insertion. `K` is what `cmp` reads
+ * of an item, so that `keeps` can tell from a key alone whether the item would be kept.
+ */
+export class TopList<T extends K, K = T> {
   readonly items: T[] = [];
   constructor(
     private readonly size: number,
-    private readonly cmp: (a: T, b: T) => number,
+    private readonly cmp: (a: K, b: K) => number,
   ) {}
+  /**
+   * Would `offer` keep an item that compares as `x` does? The negation of `offer`'s first test,
+   * written on its own so that the sweep's property test (test/evaluate-properties.test.ts), whose
+   * reference offers everything, fails when the two part.
+   */
+  keeps(x: K): boolean {
+    const items = this.items;
+    return items.length < this.size || this.cmp(x, items[items.length - 1]) < 0;
+  }
   offer(x: T): void {
     const items = this.items;
     if (items.length >= this.size && this.cmp(x, items[items.length - 1]) >= 0) return;
@@ -90,8 +105,8 @@ export class TopList<T> {
  * one: a best-first list per turns count, then the counts ordered by how near their best comes.
  */
 export class MeetingRank {
-  private readonly byTurns = new Map<number, TopList<Candidate>>();
-  private readonly within: (a: Candidate, b: Candidate) => number;
+  private readonly byTurns = new Map<number, TopList<Candidate, RankKey>>();
+  private readonly within: (a: RankKey, b: RankKey) => number;
   count = 0;
 
   constructor(
@@ -103,12 +118,26 @@ export class MeetingRank {
 
   offer(c: Candidate): void {
     this.count++;
-    let list = this.byTurns.get(c.turns);
+    this.listOf(c.turns).offer(c);
+  }
+
+  /**
+   * `offer` for a meeting winding whose ranking figures are `key`: the candidate `make` returns is
+   * made only when its turns count's list would keep it (the sweep makes few Candidates this way).
+   */
+  offerLazily(key: RankKey, make: () => Candidate): void {
+    this.count++;
+    const list = this.listOf(key.turns);
+    if (list.keeps(key)) list.offer(make());
+  }
+
+  private listOf(turns: number): TopList<Candidate, RankKey> {
+    let list = this.byTurns.get(turns);
     if (!list) {
       list = new TopList(this.keep, this.within);
-      this.byTurns.set(c.turns, list);
+      this.byTurns.set(turns, list);
     }
-    list.offer(c);
+    return list;
   }
 
   /** At most `keep` candidates, best first. */
