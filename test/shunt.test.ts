@@ -155,3 +155,47 @@ describe("a shunt field's loss is in every efficiency and input (worked by hand)
     expect(text).toMatch(/terminal current A\s+0\.617/);
   });
 });
+
+/**
+ * The stall figures are the armature's (V − V_brush)/R: the card says the ammeter goes in the
+ * armature lead, and what the field adds in the supply lead, I_f = V/R_f (here 12 V / 120 Ω = 0.1 A,
+ * by hand); a permanent-magnet card says nothing of a field.
+ */
+describe("a shunt motor's stall check says where the ammeter goes", () => {
+  async function cardText(jobText: string): Promise<string> {
+    const { renderCard } = await import("../src/card/render.js");
+    const { getDocument } = await import("pdfjs-dist/legacy/build/pdf.mjs");
+    const buf = await renderCard(planJob(loadJobText(jobText)), { paper: "a4", date: "2026-12-01", version: "9.9.9-test" });
+    const pdf = await getDocument({ data: new Uint8Array(buf), useSystemFonts: false, isEvalSupported: false }).promise;
+    let text = "";
+    for (let i = 1; i <= pdf.numPages; i++) {
+      const tc = await (await pdf.getPage(i)).getTextContent();
+      text += tc.items.map((it) => ("str" in it ? it.str + (it.hasEOL ? " " : "") : "")).join("");
+    }
+    await pdf.destroy();
+    return text.replace(/\s+/g, " ");
+  }
+
+  it("on the card: in the armature lead; the supply lead reads 0.1 A more at 12 V", async () => {
+    const text = await cardText(shunt("field_winding:\n  resistance: { value: 120 ohm, at: 20 C }\n"));
+    expect(text).toContain("put the ammeter in the armature lead");
+    expect(text).toContain("V ÷ 120.0 Ω besides (0.100 A at 12.0 V, cold)");
+    expect(await cardText(shunt("", undefined, "permanent_magnet"))).not.toContain("armature lead");
+  });
+
+  it("in log's stall check: the note says the reading is the armature's", async () => {
+    const dir = mkdtempSync(join(tmpdir(), "armwind-shunt-stall-"));
+    const job = join(dir, "shunt.yaml");
+    writeFileSync(job, shunt("field_winding:\n  resistance: { value: 120 ohm, at: 20 C }\n"));
+    const measured = join(dir, "m.yaml");
+    writeFileSync(
+      measured,
+      "version: 1\njob: blind-motor-0031\ndate: 2026-12-01\ntemperature: 20 C\nbar_to_bar: [1.02, 1.02, 1.02, 1.02, 1.02]\nstall: { supply: 3 V, current: 1.8 A }\n",
+    );
+    const r = await runMain(["log", job, "--measured", measured, "--logbook", join(dir, "book"), "--json", "--no-learn"]);
+    const stall = (JSON.parse(r.stdout) as { logged: { comparison: { checks: { check: string; note: string }[] } } }).logged.comparison.checks.find(
+      (c) => c.check === "stall.current",
+    )!;
+    expect(stall.note).toContain("the armature's current (in the armature lead");
+  });
+});

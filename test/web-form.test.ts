@@ -73,3 +73,16 @@ describe("a bench test's form follows its kind", () => {
     for (const m of html.matchAll(/<label for="([^"]+)"/g)) expect(ids).toContain(m[1]);
   });
 });
+
+describe("a field only one kind of motor field reads is marked with it", () => {
+  it("a no-load test's field_current is shunt only (its help says so), and the page can hide it for other fields", () => {
+    const html = formOf(blind);
+    const at = html.indexOf('data-path="original.tests[0].field_current"');
+    expect(at).toBeGreaterThan(0);
+    const div = html.slice(html.lastIndexOf("<div", at), html.indexOf(">", at));
+    expect(div).toContain('data-motor-field="shunt"');
+    // a field every kind of motor reads carries no mark
+    const supply = html.indexOf('data-path="original.tests[0].supply"');
+    expect(html.slice(html.lastIndexOf("<div", supply), html.indexOf(">", supply))).not.toContain("data-motor-field");
+  });
+});

@@ -277,6 +277,18 @@ describe.skipIf(!have && !process.env.CI)("the workbench in Chromium", () => {
     await p.context().close();
   });
 
+  it("a shunt field's current is asked for only when the field is shunt", async () => {
+    const p = await page();
+    await p.goto(`${local.url}job/jobs/chair-wave-0045.yaml`);
+    await p.waitForSelector("#chosen");
+    const fieldCurrent = '[data-field="original.tests[0].field_current"]';
+    expect(await p.$(fieldCurrent)).not.toBeNull();
+    expect(await p.isVisible(fieldCurrent)).toBe(false); // a permanent-magnet motor
+    await p.selectOption('[data-field="armature.field"]', "shunt");
+    expect(await p.isVisible(fieldCurrent)).toBe(true);
+    await p.context().close();
+  });
+
   it("refuses a foreign Host and a path outside the folder", async () => {
     const p = await page();
     const port = new URL(local.url).port;

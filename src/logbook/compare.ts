@@ -4,6 +4,7 @@
  * tolerance. Pure; its output is already in the record's units (the `--json` contract's: Ω, A, rpm,
  * V, °C, fractions), since it goes straight into the record.
  */
+import { hasShuntField } from "../format/shunt.js";
 import { copperFactor, to20C } from "../wire/copper.js";
 import { toRpm } from "../format/units.js";
 import { signedPct } from "../format/number.js";
@@ -358,7 +359,7 @@ function stallCheck(p: Prediction, m: Measured): CheckRow {
     tolerance_fraction: st.fraction,
     tolerance_source: st.source,
     verdict: verdictOf(dev, st.fraction),
-    note: `at ${m.stall.supply} V, winding at ${m.temperature} °C`,
+    note: `at ${m.stall.supply} V, winding at ${m.temperature} °C${hasShuntField(p) ? "; the armature's current (in the armature lead; the field's V/R_f is not in it)" : ""}`,
   };
 }
 

@@ -12,7 +12,8 @@
  *    fields, and carries the fixed value in a hidden control (unless the form may leave it out, as a
  *    no-load test may), so that choosing a form writes it;
  *  - a field that only one goal reads ("Goal kv: …" in its help) carries `data-goal` so the page
- *    shows it with that goal only.
+ *    shows it with that goal only; one that only one kind of field reads ("Shunt field only: …")
+ *    carries `data-motor-field` so the page shows it with that `armature.field` only.
  * Pure: schema and document in, HTML out.
  */
 import { isCollection, isMap, isScalar, isSeq, stringify, type Document, type Node } from "yaml";
@@ -51,6 +52,18 @@ const helpOf = (node: Json) => (typeof node.description === "string" ? node.desc
 /** The goal a field belongs to, from its help ("Goal kv: …"); null for a field every goal reads. */
 export function goalOf(node: Json): string | null {
   return /^Goal ([a-z_]+):/.exec(helpOf(node))?.[1] ?? null;
+}
+
+/** The kind of motor field a field belongs to, from its help ("Shunt field only: …" → shunt); null for every kind. */
+export function motorFieldOf(node: Json): string | null {
+  return /^([A-Z][a-z_]+) field only:/.exec(helpOf(node))?.[1].toLowerCase() ?? null;
+}
+
+/** The attributes that scope a field, a union or a fieldset to one goal or one kind of motor field (the page shows it then only). */
+function scopeAttrs(node: Json): string {
+  const goal = goalOf(node);
+  const motor = motorFieldOf(node);
+  return (goal ? ` data-goal="${esc(goal)}"` : "") + (motor ? ` data-motor-field="${esc(motor)}"` : "");
 }
 
 /** The branches of a union that are maps (each its own group of fields); the others are one text box. */
@@ -112,9 +125,8 @@ function leaf(node: Json, path: Path, ctx: Ctx, required: boolean, name: string 
   const help = helpOf(node);
   const unit = unitText(node, help);
   const value = ctx.doc ? fieldText(ctx.doc, path) : "";
-  const goal = goalOf(node);
   return (
-    `<div class="field" data-path="${esc(p)}"${goal ? ` data-goal="${goal}"` : ""}><label for="${idOf(p) + sfx}">${esc(label(name))}${required ? "" : ' <span class="opt">optional</span>'}</label>` +
+    `<div class="field" data-path="${esc(p)}"${scopeAttrs(node)}><label for="${idOf(p) + sfx}">${esc(label(name))}${required ? "" : ' <span class="opt">optional</span>'}</label>` +
     `<span class="input">${input(node, p, value, required, sfx)}${unit ? `<span class="unit">${esc(unit)}</span>` : ""}</span>` +
     (help ? `<small class="help">${esc(help)}</small>` : "") +
     problemOut(p) +
@@ -190,9 +202,8 @@ function union(node: Json, path: Path, ctx: Ctx, required: boolean, name: string
     )
     .join("");
   const bodies = variants.map((v, i) => `<div class="variant" data-variant="${i}"${i === held ? "" : " hidden"}>${v.body}</div>`).join("");
-  const goal = goalOf(node);
   return (
-    `<div class="field union" data-union="${esc(p)}" data-path="${esc(p)}"${goal ? ` data-goal="${goal}"` : ""}>` +
+    `<div class="field union" data-union="${esc(p)}" data-path="${esc(p)}"${scopeAttrs(node)}>` +
     `<span class="label">${esc(label(name))}${required ? "" : ' <span class="opt">optional</span>'}</span>` +
     `<div class="variants" role="radiogroup" aria-label="${esc(label(name))}: its form">${choice}</div>${bodies}` +
     (help ? `<small class="help">${esc(help)}</small>` : "") +
@@ -245,9 +256,8 @@ function section(node: Json, path: Path, ctx: Ctx): string {
     const req = required.has(k);
     if (isObject(v) && isObject(v.properties) && !Array.isArray(v.anyOf)) {
       const help = helpOf(v) ? `<small class="help">${esc(helpOf(v))}</small>` : "";
-      const goal = goalOf(v);
       parts.push(
-        `<fieldset data-path="${esc(pathText(sub))}"${path.length ? "" : ` id="sec-${esc(k)}"`}${goal ? ` data-goal="${goal}"` : ""}><legend>${esc(label(k))}</legend>${help}${section(v, sub, ctx)}${problemOut(pathText(sub))}</fieldset>`,
+        `<fieldset data-path="${esc(pathText(sub))}"${path.length ? "" : ` id="sec-${esc(k)}"`}${scopeAttrs(v)}><legend>${esc(label(k))}</legend>${help}${section(v, sub, ctx)}${problemOut(pathText(sub))}</fieldset>`,
       );
     } else if (isList(v)) parts.push(list(v, sub, ctx, req, path.length ? "" : `sec-${k}`));
     else if (isUnionWithMap(v)) parts.push(union(v, sub, ctx, req));

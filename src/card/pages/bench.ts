@@ -9,6 +9,8 @@ import type { Plan } from "../../design/types.js";
 import type { Sheet, TextBlock } from "../sheet.js";
 import { pageBreaks } from "../layout.js";
 import { ohm, rpm, sig } from "../text.js";
+import { hasShuntField } from "../../format/shunt.js";
+import { fieldCurrent } from "../../motor/model.js";
 import { seriesBenchChecks } from "./series.js";
 import {
   NULL_LEADS,
@@ -253,6 +255,16 @@ function beforeVarnish(plan: Plan): Check[] {
   ];
 }
 
+/**
+ * For a shunt motor of known field: the stall figures are the armature's, so say where the ammeter
+ * goes, and what the field adds in the supply lead (I_f = V/R_f, src/motor/model.ts `fieldCurrent`).
+ */
+function shuntStallNote(plan: Plan): string {
+  if (!hasShuntField(plan)) return "";
+  const rf = plan.calibration.shunt_field_ohm!;
+  return ` These figures are the armature's current: put the ammeter in the armature lead. With the field across the same supply, an ammeter in the supply lead reads the field's V ÷ ${ohm(rf)} Ω besides (${sig(fieldCurrent(rf, plan.supply))} A at ${sig(plan.supply)} V, cold).`;
+}
+
 /** The run after varnish: bar to bar again, then the no-load runs and a brief stall (a series motor: its own checks, card/pages/series.ts). */
 function theRun(plan: Plan): Check[] {
   const r = plan.resistance;
@@ -297,7 +309,7 @@ function theRun(plan: Plan): Check[] {
       "Brief stall current",
       plan.mains
         ? `Seconds only, rotor held safely (see Cautions), at a reduced DC supply only — never at ${sig(plan.supply)} V mains. At a reduced supply V the cold stall current is about (V − ${sig(plan.calibration.brush_drop)} V brush drop) ÷ ${ohm(r.terminal_ohm)} Ω.`
-        : `Seconds only, rotor held safely (see Cautions). Expected at ${sig(plan.supply)} V: ${sig(m.stallCurrentCold)} A cold, ${sig(m.stallCurrent)} A hot. At a reduced supply V the cold stall current is about (V − ${sig(plan.calibration.brush_drop)} V brush drop) ÷ ${ohm(r.terminal_ohm)} Ω.`,
+        : `Seconds only, rotor held safely (see Cautions). Expected at ${sig(plan.supply)} V: ${sig(m.stallCurrentCold)} A cold, ${sig(m.stallCurrent)} A hot. At a reduced supply V the cold stall current is about (V − ${sig(plan.calibration.brush_drop)} V brush drop) ÷ ${ohm(r.terminal_ohm)} Ω.${shuntStallNote(plan)}`,
       [
         ["supply", "V", 100],
         ["current", "A", 110],

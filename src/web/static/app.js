@@ -129,7 +129,7 @@ function fieldChanged(f) {
   const row = newRow(f);
   if (row) setEdit(row.dataset.item, compose(row, row.dataset.item));
   else setEdit(f.dataset.field, f.value);
-  if (f.dataset.field === "target.goal") showGoalFields();
+  if (SCOPING.has(f.dataset.field)) showScopedFields();
   previewSoon();
 }
 
@@ -214,11 +214,19 @@ function removeRow(row) {
   previewSoon();
 }
 
-/** Fields that only one goal reads are shown with that goal (all of them while no goal is chosen). */
-function showGoalFields() {
+/**
+ * Fields that only one goal reads are shown with that goal (all of them while no goal is chosen);
+ * fields that only one kind of motor field reads (a shunt field's current) with that armature.field.
+ */
+function showScopedFields() {
   const goal = $('[data-field="target.goal"]')?.value ?? "";
   for (const el of $$("[data-goal]")) el.classList.toggle("other-goal", goal !== "" && el.dataset.goal !== goal);
+  const field = $('[data-field="armature.field"]')?.value ?? "";
+  for (const el of $$("[data-motor-field]")) el.classList.toggle("other-field", field !== "" && el.dataset.motorField !== field);
 }
+
+/** The fields whose value decides which other fields are shown. */
+const SCOPING = new Set(["target.goal", "armature.field"]);
 
 async function preview() {
   const seq = ++job.seq;
@@ -248,13 +256,13 @@ function setField(path, text) {
     input.value = text;
   }
   setEdit(path, text);
-  if (path === "target.goal") showGoalFields();
+  if (SCOPING.has(path)) showScopedFields();
 }
 
 function initJob() {
   const form = $("#job-form");
   if (!form) return;
-  showGoalFields();
+  showScopedFields();
   form.addEventListener("input", (ev) => {
     if (ev.target.dataset.variantOf !== undefined) return variantChanged(ev.target);
     const f = ev.target.closest("[data-field]");
