@@ -6,7 +6,9 @@
  *
  *  - `cheap` mode (the sweep, hundreds of thousands of calls): the mean coil and the terminal
  *    reading from the coils' turn lengths in closed form (`terminalModel`, equal to the network's),
- *    no per-coil arrays, no ring readings, no motor report.
+ *    no per-coil arrays, no ring readings, no motor report. The sweep runs it through `scan`: what
+ *    the wire and strands alone decide is worked out once for all turns counts, the figures go into
+ *    one reused object, and a Candidate is made only for those the sweep keeps (src/design/sweep.ts).
  *  - `full` mode (the chosen winding, the original, the winding actually laid, learning, bench):
  *    each coil with its own turn length and resistance, the ring network's readings (src/winding/ring.ts),
  *    the motor model's report and the duty point.
