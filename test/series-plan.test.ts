@@ -11,9 +11,9 @@ import { join } from "node:path";
 import { planJob } from "../src/design/plan.js";
 import { ArmwindError } from "../src/errors.js";
 import { ROOT, loadJobText, runCli } from "./helpers/cli.js";
+import { drillConvertText, drillText } from "./helpers/drill.js";
 
 const DRILL = join(ROOT, "jobs/drill-lap-0112.yaml");
-const drillText = readFileSync(DRILL, "utf8");
 const BLIND = join(ROOT, "jobs/blind-motor-0031.yaml");
 const RPM = (2 * Math.PI) / 60;
 
@@ -122,12 +122,7 @@ describe("plan --json carries motor.series (DESIGN.md)", () => {
 });
 
 describe("goal convert: the drill for a 120 V 60 Hz supply", () => {
-  const text = drillText
-    .replace("supply: { value: 230 V, kind: ac, frequency: 50 Hz }\n  goal: restore", "supply: { value: 120 V, kind: ac, frequency: 60 Hz }\n  goal: convert")
-    .replace("input_power: 580 W,", "frequency: 50 Hz, input_power: 580 W,")
-    .replace(/rpm, temperature: 22 C \}/g, "rpm, temperature: 22 C, frequency: 50 Hz }")
-    .replace("wire_stock:\n", "wire_stock:\n  - 0.40 mm grade 2\n  - 0.375 mm grade 2\n  - 0.355 mm grade 2\n");
-  const plan = planJob(loadJobText(text));
+  const plan = planJob(loadJobText(drillConvertText));
   const c = plan.series!.convert!;
   it("about half the turns on twice the copper, the field likewise, and the original's speed at its torque", () => {
     // with no brush drop the ratio would be 120/230 = 0.522; the 2 V drop is a larger share of 120 V,

@@ -22,8 +22,8 @@ import { measuredSchema } from "../src/logbook/measured.js";
 import { buildRecord } from "../src/logbook/record.js";
 import { predictWound } from "../src/logbook/predict.js";
 import { ROOT, loadJobText, runMain } from "./helpers/cli.js";
+import { drillConvertText, drillText } from "./helpers/drill.js";
 
-const drillText = readFileSync(join(ROOT, "jobs/drill-lap-0112.yaml"), "utf8");
 const RPM = (2 * Math.PI) / 60;
 
 // Invented 24 V series DC motor on the drill's armature, wound 7 turns of 0.53 mm: armature 0.5 Ω (measured;
@@ -108,12 +108,7 @@ describe("goal duty on the drill (a universal motor): the sweep ranks by the ser
 });
 
 describe("goal convert is solved by the sweep: the original's rated speed at its rated torque on the new supply", () => {
-  const text = drillText
-    .replace("supply: { value: 230 V, kind: ac, frequency: 50 Hz }\n  goal: restore", "supply: { value: 120 V, kind: ac, frequency: 60 Hz }\n  goal: convert")
-    .replace("input_power: 580 W,", "frequency: 50 Hz, input_power: 580 W,")
-    .replace(/rpm, temperature: 22 C \}/g, "rpm, temperature: 22 C, frequency: 50 Hz }")
-    .replace("wire_stock:\n", "wire_stock:\n  - 0.40 mm grade 2\n  - 0.375 mm grade 2\n  - 0.355 mm grade 2\n");
-  const plan = planJob(loadJobText(text));
+  const plan = planJob(loadJobText(drillConvertText));
   it("the goal is the speed in rpm, and the chosen winding's speed at the rated torque is the report's", () => {
     expect(plan.goal.kind).toBe("convert");
     expect(plan.goal.target).toBeCloseTo(1600 * 8.5 * RPM, 9); // the nameplate's motor speed
