@@ -11,9 +11,10 @@
  * lost or renamed a file since, and it is not listed at all; otherwise it is listed (one readdir)
  * and the listing's hash compared. Each of the share's files is then `stat`ed: a record whose stamp
  * still holds is taken from the share as validated then (the part learning reads: learn.ts
- * `learningPart`), the others are read and validated in full. When the listing differs (records added by `armwind log`, by hand, by another bench or by a
- * merge; records removed), the whole index is brought up to date by reading only the names it does
- * not know, and the share is written anew. A record edited in place by hand to another family is
+ * `learningPart`), the others are read and validated in full. When the listing differs (records
+ * added by `armwind log`, by hand, by another bench or by a merge; records removed), the whole
+ * index is brought up to date by reading only the names it does not know, and the share is
+ * written anew. A record edited in place by hand to another family is
  * seen again after `armwind history`, which reads every record changed since it last ran (its own
  * summary, history-index.ts, knows which), rewrites the index and drops the shares.
  *
@@ -80,8 +81,8 @@ export function settledStamp(st: Stats, now: number): string | undefined {
   return `${st.size}:${st.mtimeMs}:${st.ctimeMs}:${st.ino}`;
 }
 
-/** `path`'s stat, or undefined when it cannot be taken. */
-function statOf(path: string): Stats | undefined {
+/** `path`'s stat (followed through links), or undefined when it cannot be taken: then a read says why. */
+export function statOf(path: string): Stats | undefined {
   try {
     return statSync(path, { throwIfNoEntry: false });
   } catch {
@@ -249,7 +250,7 @@ function rebuildIndex(dir: string, family: string, cache: string, names: string[
   for (const { file: name, record } of book.records) known.set(name, record.job.family);
   const own = book.records.filter((r) => r.record.job.family === family);
   writeJson(indexFile(cache, dir), { version: VERSION, dir: at, listing: seen.listing, families: Object.fromEntries(known) } satisfies IndexFile);
-  // damaged files stay out of the share (not known to be of this family), so they are read each time and warned about
+  // damaged files stay out of the index (their family is not known) but in the share, so they are read each time and warned about
   const damaged = book.warnings.map((w) => w.file);
   const share: FamilyFile = {
     version: VERSION,

@@ -6,17 +6,17 @@
  *
  * Trust, but verify: each entry is stamped with its file's size, modification and change times and
  * inode number, taken by one `stat` per file on every run (a file changed within the last two
- * seconds is read and not kept: `settledStamp` in family-index.ts says why). A file whose stamp differs (a record
- * added by `armwind log`, by hand, by another bench or by a merge; edited in place; its permissions
- * changed) is read and validated in full as before and its entry replaced; entries of files gone
- * are dropped. Anything that is not a regular file is read every time (so a FIFO or a link to a
+ * seconds is read and not kept: `settledStamp` in family-index.ts says why). A file whose stamp
+ * differs (a record added by `armwind log`, by hand, by another bench or by a merge; edited in
+ * place; its permissions changed) is read and validated in full as before and its entry
+ * replaced; entries of files gone are dropped. Anything that is not a regular file is read every time (so a FIFO or a link to a
  * device is still a damaged record, never waited on). A missing, damaged or unwritable summary
  * only costs the time of reading every record, never a wrong row.
  */
-import { readdirSync, statSync, type Stats } from "node:fs";
+import { readdirSync } from "node:fs";
 import { join, resolve } from "node:path";
 import { historyRows, type HistoryRow } from "./history.js";
-import { readJson, settledStamp, shortHash, writeJson } from "./family-index.js";
+import { readJson, settledStamp, shortHash, statOf, writeJson } from "./family-index.js";
 import { type Logbook, type LogbookWarning, mayBeRecord, readLogbook, readRecordFile } from "./store.js";
 
 const VERSION = 1;
@@ -106,12 +106,7 @@ export function historyOfFolder(dir: string, cache: string): FolderHistory {
  * not kept: not a regular file, or changed too recently for its stamp to be trusted, `settledStamp`).
  */
 function entryOf(dir: string, path: string, name: string, known: Map<string, Entry>, now: number): Entry {
-  let st: Stats | undefined;
-  try {
-    st = statSync(path, { throwIfNoEntry: false });
-  } catch {
-    st = undefined; // unreadable since the listing: the read says which
-  }
+  const st = statOf(path); // unreadable since the listing: the read says which
   const stamp = st?.isFile() ? settledStamp(st, now) : undefined;
   if (stamp === undefined) return readEntry(dir, name, "");
   const old = known.get(name);
