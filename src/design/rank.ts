@@ -81,18 +81,14 @@ export class TopList<T extends K, K = T> {
     private readonly size: number,
     private readonly cmp: (a: K, b: K) => number,
   ) {}
-  /**
-   * Would `offer` keep an item that compares as `x` does? The negation of `offer`'s first test,
-   * written on its own so that the sweep's property test (test/evaluate-properties.test.ts), whose
-   * reference offers everything, fails when the two part.
-   */
+  /** Would `offer` keep an item that compares as `x` does? (`offer`'s own test: one rule for both.) */
   keeps(x: K): boolean {
     const items = this.items;
     return items.length < this.size || this.cmp(x, items[items.length - 1]) < 0;
   }
   offer(x: T): void {
+    if (!this.keeps(x)) return;
     const items = this.items;
-    if (items.length >= this.size && this.cmp(x, items[items.length - 1]) >= 0) return;
     let i = items.length;
     while (i > 0 && this.cmp(x, items[i - 1]) < 0) i--;
     items.splice(i, 0, x);
